@@ -1,0 +1,38 @@
+"""Kinepoly's computation core: mechanism files, the numeric solver, the
+graphical construction of velocity and acceleration polygons, cycle sweeps.
+
+Never imports Qt.
+"""
+
+from .construct import Component, Construction, Polygon, Role, Step
+from .construct import construct as _construct
+from .errors import CannotAssemble, FileFormatError, KinematicsError, MechanismFindings, ParallelLines
+from .fileformat import dumps, load_mechanism
+from .mobility import Finding, diagnose
+from .model import Driver, Mechanism, Slide, move_point
+from .solve import Solution, solve_pose
+
+
+def solve(mechanism: Mechanism, angle_deg: float | None = None) -> Solution:
+    """Position, velocity and acceleration of every point at driver angle
+    ``angle_deg`` (degrees; None for the reference pose).
+
+    Raises MechanismFindings if the mechanism cannot be analysed, and
+    CannotAssemble if no pose exists at that angle.
+    """
+    from .mobility import require_ready
+
+    require_ready(mechanism)
+    return solve_pose(mechanism, angle_deg)
+
+
+def construct(solution: Solution, **options) -> Construction:
+    """The velocity and acceleration polygons of a solved pose (see :mod:`kinematics.construct`)."""
+    return _construct(solution, **options)
+
+
+__all__ = [
+    "CannotAssemble", "Component", "Construction", "Driver", "FileFormatError", "Finding", "KinematicsError",
+    "Mechanism", "MechanismFindings", "ParallelLines", "Polygon", "Role", "Slide", "Solution", "Step",
+    "construct", "diagnose", "dumps", "load_mechanism", "move_point", "solve",
+]

@@ -1,0 +1,128 @@
+"""The numeric formulation: constraint equations over point coordinates.
+
+Every constraint is bilinear in the coordinates, (P_a − P_b) ∘ (P_c − P_d) = k,
+with ∘ the dot or the cross product, so the Jacobian and the exact
+acceleration right-hand side follow from the same four indices:
+
+- a link's first two points keep their distance (dot),
+- each further point keeps its dot and cross products with that base pair,
+- a slide point keeps zero cross product with its guide line,
+- the driver: cross(u(θ), Q − O) = 0, u(θ) the unit vector at the driver angle.
+
+This module knows nothing of dyads or polygons: it is the independent check
+of the graphical construction.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+import numpy as np
+
+from .model import Mechanism
+
+DOT, CROSS = 0, 1
+
+
+@dataclass(frozen=True)
+class ConstraintSystem:
+    """Index arrays of one mechanism's constraints (SI coordinates).
+
+    ``names`` orders the points; ``x0`` is the reference pose (n, 2);
+    ``free`` marks the points that move; rows a, b, c, d index points;
+    ``owner`` says, per row, which link or slide it comes from.
+    """
+
+    names: tuple
+    x0: np.ndarray
+    free: np.ndarray
+    kind: np.ndarray
+    a: np.ndarray
+    b: np.ndarray
+    c: np.ndarray
+    d: np.ndarray
+    k: np.ndarray
+    weight: np.ndarray
+    owner: tuple
+    driver_pivot: int
+    driver_point: int
+
+    @property
+    def unknown_columns(self) -> np.ndarray:
+        """Column indices (into the flattened (n, 2) coordinates) of the unknowns."""
+        return np.flatnonzero(np.repeat(self.free, 2))
+
+    def values(self, x: np.ndarray) -> np.ndarray:
+        u = x[self.a] - x[self.b]
+        v = x[self.c] - x[self.d]
+        dot = u[:, 0] * v[:, 0] + u[:, 1] * v[:, 1]
+        cross = u[:, 0] * v[:, 1] - u[:, 1] * v[:, 0]
+        return (np.where(self.kind == DOT, dot, cross) - self.k) * self.weight
+
+    def jacobian(self, x: np.ndarray) -> np.ndarray:
+        """d(values)/d(flattened coordinates of all points), shape (m, 2n)."""
+        m, n = len(self.kind), len(self.names)
+        u = x[self.a] - x[self.b]
+        v = x[self.c] - x[self.d]
+        is_dot = (self.kind == DOT)[:, None]
+        du = np.where(is_dot, v, np.column_stack([v[:, 1], -v[:, 0]])) * self.weight[:, None]
+        dv = np.where(is_dot, u, np.column_stack([-u[:, 1], u[:, 0]])) * self.weight[:, None]
+        jac = np.zeros((m, n, 2))
+        rows = np.arange(m)
+        np.add.at(jac, (rows, self.a), du)
+        np.add.at(jac, (rows, self.b), -du)
+        np.add.at(jac, (rows, self.c), dv)
+        np.add.at(jac, (rows, self.d), -dv)
+        return jac.reshape(m, 2 * n)
+
+    def quadratic_term(self, xdot: np.ndarray) -> np.ndarray:
+        """Second time derivative of the values at zero acceleration: 2·(u̇ ∘ v̇)."""
+        u = xdot[self.a] - xdot[self.b]
+        v = xdot[self.c] - xdot[self.d]
+        dot = u[:, 0] * v[:, 0] + u[:, 1] * v[:, 1]
+        cross = u[:, 0] * v[:, 1] - u[:, 1] * v[:, 0]
+        return 2.0 * np.where(self.kind == DOT, dot, cross) * self.weight
+
+
+def build_system(mechanism: Mechanism) -> ConstraintSystem:
+    """The constraint rows of the links and slides of ``mechanism``."""
+    names = tuple(mechanism.points)
+    index = {name: i for i, name in enumerate(names)}
+    x0 = np.array([mechanism.position_m(n) for n in names], dtype=float).reshape(-1, 2)
+    ground = set(mechanism.ground)
+    free = np.array([n not in ground for n in names], dtype=bool)
+    rows = []  # (kind, a, b, c, d, owner)
+    for link, pts in mechanism.links.items():
+        p1, p2 = index[pts[0]], index[pts[1]]
+        rows.append((DOT, p2, p1, p2, p1, link))
+        for p in pts[2:]:
+            j = index[p]
+            rows.append((DOT, p2, p1, j, p1, link))
+            rows.append((CROSS, p2, p1, j, p1, link))
+    for slide in mechanism.slides.values():
+        e, f = index[slide.line[0]], index[slide.line[1]]
+        rows.append((CROSS, f, e, index[slide.point], e, slide.name))
+    # Rows that touch no moving point hold by themselves.
+    rows = [r for r in rows if free[list(r[1:5])].any()]
+    kind = np.array([r[0] for r in rows], dtype=int)
+    a, b, c, d = (np.array([r[i] for r in rows], dtype=int) for i in range(1, 5))
+    u, v = x0[a] - x0[b], x0[c] - x0[d]
+    dot = np.einsum("ij,ij->i", u, v) if rows else np.zeros(0)
+    cross = (u[:, 0] * v[:, 1] - u[:, 1] * v[:, 0]) if rows else np.zeros(0)
+    k = np.where(kind == DOT, dot, cross)
+    # Scale each row to units of length so that the Jacobian's columns compare.
+    scale = np.maximum(np.hypot(u[:, 0], u[:, 1]), 1e-300) if rows else np.zeros(0)
+    weight = 1.0 / scale
+    pivot = point = -1
+    if mechanism.driver is not None:
+        pivot = index[mechanism.driver.pivot]
+        point = index[next(p for p in mechanism.links[mechanism.driver.link] if p != mechanism.driver.pivot)]
+    return ConstraintSystem(names=names, x0=x0, free=free, kind=kind, a=a, b=b, c=c, d=d, k=k,
+                            weight=weight, owner=tuple(r[5] for r in rows),
+                            driver_pivot=pivot, driver_point=point)
+
+
+def reference_driver_angle(system: ConstraintSystem) -> float:
+    """Driver angle of the reference pose, radians."""
+    r = system.x0[system.driver_point] - system.x0[system.driver_pivot]
+    return float(np.arctan2(r[1], r[0]))

@@ -1,0 +1,38 @@
+"""The errors Kinepoly raises: every one names the place it is about.
+
+Nothing else escapes the public functions of :mod:`kinematics`; a caller
+that catches :class:`KinematicsError` has caught every refusal.
+"""
+
+
+class KinematicsError(Exception):
+    """Base of every refusal. ``location`` names the place (a file path and
+    line, a JSON path such as ``links.coupler[2]``, a joint, link or step)."""
+
+    def __init__(self, message: str, location: str = ""):
+        self.location = location
+        self.detail = message
+        super().__init__(f"{location}: {message}" if location else message)
+
+
+class FileFormatError(KinematicsError):
+    """A mechanism file that is not well-formed."""
+
+
+class MechanismFindings(KinematicsError):
+    """A well-formed mechanism that cannot be analysed yet (no driver,
+    wrong mobility, a redundant link ...). ``findings`` lists them all."""
+
+    def __init__(self, findings):
+        self.findings = tuple(findings)
+        first = self.findings[0]
+        more = f" (and {len(self.findings) - 1} more)" if len(self.findings) > 1 else ""
+        super().__init__(first.message + more, first.location)
+
+
+class CannotAssemble(KinematicsError):
+    """No pose of the linkage exists at the asked driver angle."""
+
+
+class ParallelLines(KinematicsError):
+    """Two construction lines that should intersect are parallel."""

@@ -1,0 +1,98 @@
+"""Degrees of freedom: the Gruebler-Kutzbach count and the true mobility
+from the rank of the constraint Jacobian, and what stops analysis."""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+import numpy as np
+
+from .constraints import build_system
+from .errors import MechanismFindings
+from .model import GROUND, Mechanism
+
+
+@dataclass(frozen=True)
+class Finding:
+    """Something that stops analysis, with the place it is about."""
+
+    location: str
+    message: str
+
+    def __str__(self):
+        return f"{self.location}: {self.message}" if self.location else self.message
+
+
+def gruebler_count(mech: Mechanism) -> int:
+    """M = 3(n − 1) − 2·j1 − j2 over the bodies that exist (links and frame)."""
+    bodies = len(mech.links) + 1
+    pins = sum(max(len(mech.bodies_of(p)) - 1, 0) for p in mech.points)
+    return 3 * (bodies - 1) - 2 * pins - len(mech.slides)
+
+
+def loose_points(mech: Mechanism) -> list:
+    return [p for p in mech.points if not mech.bodies_of(p)]
+
+
+def _rank(matrix) -> int:
+    if matrix.size == 0:
+        return 0
+    singular = np.linalg.svd(matrix, compute_uv=False)
+    return int(np.sum(singular > 1e-9 * max(singular[0], 1e-300)))
+
+
+def jacobian_mobility(mech: Mechanism):
+    """(mobility, redundant links) from the rank of the constraint Jacobian at the reference pose."""
+    system = build_system(mech)
+    loose = set(loose_points(mech))
+    keep = [i for i, n in enumerate(system.names) if system.free[i] and n not in loose]
+    columns = np.array([2 * i + k for i in keep for k in (0, 1)], dtype=int)
+    jac = system.jacobian(system.x0)[:, columns] if len(system.kind) else np.zeros((0, len(columns)))
+    rank = _rank(jac)
+    mobility = len(columns) - rank
+    redundant = []
+    if rank < len(jac):
+        owners = np.array(system.owner, dtype=object)
+        for link in mech.links:
+            rows = owners == link
+            if rows.any() and _rank(jac[~rows]) == rank:
+                redundant.append(link)
+    return mobility, redundant
+
+
+def diagnose(mech: Mechanism) -> list:
+    """The findings that stop analysis (an empty list means ready to solve)."""
+    findings = []
+    for p in loose_points(mech):
+        findings.append(Finding(f"points.{p}", f"point {p} is on no link and not on ground"))
+    if mech.driver is None:
+        findings.append(Finding("driver", "no driver: choose the driving link, its pivot and its speed"))
+    else:
+        fixed = [p for p in mech.links[mech.driver.link] if p in mech.ground and p != mech.driver.pivot]
+        if fixed:
+            findings.append(Finding("driver.link", f"the driver {mech.driver.link} is fixed to ground at "
+                                                   f"{mech.driver.pivot} and {fixed[0]}: it cannot turn"))
+    mobility, redundant = jacobian_mobility(mech)
+    count = gruebler_count(mech)
+    if redundant and count != mobility:
+        others = ", ".join(redundant[:-1])
+        findings.append(Finding(f"links.{redundant[-1]}",
+                                f"link {redundant[-1]} is redundant: at this geometry its constraints repeat those of "
+                                f"{others or 'the others'} (Gruebler-Kutzbach count {count}, true mobility "
+                                f"{mobility} from the rank of the constraint Jacobian)"))
+    elif mobility != 1:
+        need = ("the linkage needs another link or constraint" if mobility > 1
+                else "the linkage is a structure: it cannot move")
+        findings.append(Finding("", f"mobility is {mobility} (expected 1): {need} "
+                                    f"(Gruebler-Kutzbach count {count})"))
+    return findings
+
+
+def require_ready(mech: Mechanism):
+    """Raise :class:`MechanismFindings` unless the mechanism can be analysed."""
+    findings = diagnose(mech)
+    if findings:
+        raise MechanismFindings(findings)
+
+
+__all__ = ["Finding", "diagnose", "gruebler_count", "jacobian_mobility", "require_ready", "GROUND"]

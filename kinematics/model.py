@@ -1,0 +1,140 @@
+"""The Mechanism: an immutable value holding a design as its file states it.
+
+The Mechanism keeps the file's own units and numbers (an unchanged file
+saves identical); lengths are in ``length_unit``. Edits are functions that
+return a new Mechanism.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass, field, replace
+from types import MappingProxyType
+from typing import Mapping
+
+from .units import RAD_S2_PER_ACCELERATION_UNIT, RAD_S_PER_SPEED_UNIT, metres_per
+
+GROUND = "ground"
+
+
+@dataclass(frozen=True)
+class Slide:
+    """Point ``point`` stays on the line through ``line`` (two points fixed in
+    body ``guide``, which is ``"ground"`` or a link name)."""
+
+    name: str
+    point: str
+    guide: str
+    line: tuple[str, str]
+
+
+@dataclass(frozen=True)
+class Driver:
+    """A link pivoted on ground at ``pivot``, turning at a given speed.
+
+    ``speed`` and ``angular_acceleration`` keep the file's value and unit.
+    """
+
+    link: str
+    pivot: str
+    speed_value: float
+    speed_unit: str = "rpm"
+    angular_acceleration_value: float = 0.0
+    angular_acceleration_unit: str = "rad/s^2"
+    kind: str = "rotary"
+
+    @property
+    def speed_rad_s(self) -> float:
+        return float(self.speed_value) * RAD_S_PER_SPEED_UNIT[self.speed_unit]
+
+    @property
+    def angular_acceleration_rad_s2(self) -> float:
+        return float(self.angular_acceleration_value) * RAD_S2_PER_ACCELERATION_UNIT[
+            self.angular_acceleration_unit
+        ]
+
+
+def _frozen(mapping) -> Mapping:
+    return MappingProxyType(dict(mapping))
+
+
+@dataclass(frozen=True)
+class Mechanism:
+    """A planar linkage in its reference pose.
+
+    Attributes
+    ----------
+    points : mapping name -> (x, y) in ``length_unit``, y up.
+    ground : names of fixed points.
+    links : mapping link name -> tuple of point names (a rigid body).
+    slides : mapping slide name -> :class:`Slide`.
+    driver : :class:`Driver` or None for an unfinished design.
+    output : ``{"link": name}`` or ``{"point": name}`` or None.
+    extensions : top-level ``x-`` keys of the file, kept unread.
+    warnings : what loading had to say (a point moved onto its slide line ...).
+    """
+
+    points: Mapping[str, tuple]
+    links: Mapping[str, tuple]
+    ground: tuple = ()
+    slides: Mapping[str, Slide] = field(default_factory=dict)
+    driver: Driver | None = None
+    output: Mapping | None = None
+    analysis_angles_deg: tuple = ()
+    title: str = ""
+    notes: str = ""
+    length_unit: str = "mm"
+    extensions: Mapping = field(default_factory=dict)
+    warnings: tuple = ()
+
+    def __post_init__(self):
+        object.__setattr__(self, "points", _frozen({k: tuple(v) for k, v in self.points.items()}))
+        object.__setattr__(self, "links", _frozen({k: tuple(v) for k, v in self.links.items()}))
+        object.__setattr__(self, "slides", _frozen(self.slides))
+        object.__setattr__(self, "extensions", _frozen(self.extensions))
+        object.__setattr__(self, "ground", tuple(self.ground))
+        object.__setattr__(self, "analysis_angles_deg", tuple(self.analysis_angles_deg))
+        if self.output is not None:
+            object.__setattr__(self, "output", _frozen(self.output))
+
+    @property
+    def metres_per_unit(self) -> float:
+        return metres_per(self.length_unit)
+
+    def position_m(self, name: str) -> tuple[float, float]:
+        x, y = self.points[name]
+        k = self.metres_per_unit
+        return (float(x) * k, float(y) * k)
+
+    def bodies_of(self, point: str) -> list[str]:
+        """Bodies (``"ground"`` first, then links in file order) that hold ``point``."""
+        bodies = [GROUND] if point in self.ground else []
+        bodies += [name for name, pts in self.links.items() if point in pts]
+        return bodies
+
+    def body_points(self, body: str) -> tuple:
+        return self.ground if body == GROUND else self.links[body]
+
+    @property
+    def size(self) -> float:
+        """Diagonal of the bounding box of all points, in ``length_unit``."""
+        if not self.points:
+            return 0.0
+        xs = [float(p[0]) for p in self.points.values()]
+        ys = [float(p[1]) for p in self.points.values()]
+        return math.hypot(max(xs) - min(xs), max(ys) - min(ys))
+
+
+def move_point(mechanism: Mechanism, name: str, xy) -> Mechanism:
+    """A new Mechanism with point ``name`` at ``xy`` (in ``length_unit``) in the
+    reference pose; link shapes follow.
+
+    >>> m = Mechanism(points={"A": (0, 0), "B": (1, 0)}, links={"bar": ("A", "B")})
+    >>> move_point(m, "B", (2.0, 0.0)).points["B"]
+    (2.0, 0.0)
+    """
+    points = dict(mechanism.points)
+    if name not in points:
+        raise KeyError(name)
+    points[name] = (float(xy[0]), float(xy[1]))
+    return replace(mechanism, points=points, warnings=())

@@ -1,0 +1,248 @@
+"""The numeric solver: Newton-Raphson on the constraint equations for the
+pose, then two linear solves with the exact right-hand sides for velocity
+and acceleration (no finite differences).
+
+Branch rule: the pose at driver angle θ is reached from the reference pose
+by turning the driver the way its speed turns, through
+((θ − θ_ref)·sgn ω) mod 360°; if that way meets a dead point first, the other
+way; otherwise the linkage cannot assemble there.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+
+import numpy as np
+
+from .constraints import ConstraintSystem, build_system, reference_driver_angle
+from .errors import CannotAssemble
+from .model import Mechanism
+
+MAX_STEP_RAD = math.radians(10.0)
+MIN_STEP_RAD = 1e-9
+NEWTON_ITERATIONS = 12
+# A corrected pose farther than this (relative to size) from its prediction jumped branch.
+BRANCH_JUMP_RELATIVE = 0.02
+# Condition figure of the Jacobian above which a pose is flagged near-singular.
+NEAR_SINGULAR_CONDITION = 1e4
+
+
+@dataclass(frozen=True)
+class Solution:
+    """One solved pose, all in SI.
+
+    Attributes
+    ----------
+    mechanism : the Mechanism solved.
+    driver_angle_deg : driver angle of this pose, degrees CCW from +x.
+    point_names : order of the rows below.
+    positions, velocities, accelerations : (n, 2) arrays, m, m/s, m/s².
+    link_angle_deg : link -> direction from its first point to its second, (−180°, 180°].
+    angular_velocity, angular_acceleration : link -> rad/s, rad/s² (CCW positive).
+    sliding_velocity, sliding_acceleration : slide -> m/s, m/s² along its line,
+        positive from the line's first point towards its second, relative to the guide.
+    condition : condition figure of the constraint Jacobian at this pose.
+    warnings : plain sentences (dead point, toggle, bifurcation ...).
+    """
+
+    mechanism: Mechanism
+    driver_angle_deg: float
+    point_names: tuple
+    positions: np.ndarray
+    velocities: np.ndarray
+    accelerations: np.ndarray
+    link_angle_deg: dict
+    angular_velocity: dict
+    angular_acceleration: dict
+    sliding_velocity: dict
+    sliding_acceleration: dict
+    condition: float
+    warnings: tuple = ()
+
+    def _row(self, name):
+        return self.point_names.index(name)
+
+    def position(self, name) -> np.ndarray:
+        return self.positions[self._row(name)]
+
+    def velocity(self, name) -> np.ndarray:
+        return self.velocities[self._row(name)]
+
+    def acceleration(self, name) -> np.ndarray:
+        return self.accelerations[self._row(name)]
+
+
+class _Driven:
+    """The constraint system with the driver row appended, over the unknowns only."""
+
+    def __init__(self, system: ConstraintSystem):
+        self.system = system
+        self.columns = system.unknown_columns
+        n = len(system.names)
+        self.driver_columns = np.array([2 * system.driver_point, 2 * system.driver_point + 1])
+        self.driver_is_free = bool(system.free[system.driver_point])
+        self.n = n
+
+    def full(self, q):
+        x = self.system.x0.reshape(-1).copy()
+        x[self.columns] = q
+        return x.reshape(-1, 2)
+
+    def residual(self, x, theta):
+        s = self.system
+        w = x[s.driver_point] - x[s.driver_pivot]
+        drive = math.cos(theta) * w[1] - math.sin(theta) * w[0]
+        return np.append(s.values(x), drive)
+
+    def jacobian(self, x, theta):
+        jac = self.system.jacobian(x)
+        row = np.zeros(2 * self.n)
+        row[self.driver_columns] = (-math.sin(theta), math.cos(theta))
+        return np.vstack([jac, row])[:, self.columns]
+
+    def rates(self, x, jac, theta, omega, alpha):
+        """Velocities and accelerations (n, 2) of all points at pose x."""
+        s = self.system
+        u = np.array([math.cos(theta), math.sin(theta)])
+        perp_u = np.array([-u[1], u[0]])
+        w = x[s.driver_point] - x[s.driver_pivot]
+        cross = lambda a, b: a[0] * b[1] - a[1] * b[0]  # noqa: E731
+        rhs = np.zeros(len(jac))
+        rhs[-1] = -cross(perp_u, w) * omega
+        qdot = np.linalg.solve(jac, rhs)
+        xdot = np.zeros(2 * self.n)
+        xdot[self.columns] = qdot
+        xdot = xdot.reshape(-1, 2)
+        wdot = xdot[s.driver_point]
+        rhs = -np.append(s.quadratic_term(xdot),
+                         -cross(u, w) * omega ** 2 + cross(perp_u, w) * alpha + 2 * omega * cross(perp_u, wdot))
+        qddot = np.linalg.solve(jac, rhs)
+        xddot = np.zeros(2 * self.n)
+        xddot[self.columns] = qddot
+        return xdot, xddot.reshape(-1, 2)
+
+
+def _newton(driven: _Driven, q, theta, tolerance):
+    for _ in range(NEWTON_ITERATIONS):
+        x = driven.full(q)
+        f = driven.residual(x, theta)
+        jac = driven.jacobian(x, theta)
+        try:
+            step = np.linalg.solve(jac, -f)
+        except np.linalg.LinAlgError:
+            return None
+        q = q + step
+        if np.max(np.abs(step)) < tolerance:
+            x = driven.full(q)
+            if np.max(np.abs(driven.residual(x, theta))) < 10 * tolerance:
+                return q
+    return None
+
+
+def _track(driven: _Driven, q, theta0, span, direction, size):
+    """Turn the driver from theta0 through ``span`` (rad, ≥ 0) in ``direction``.
+
+    Returns (q, passed_singular) or None where a dead point stops the way."""
+    tolerance = 1e-13 * max(size, 1e-3)
+    done, step, theta, passed_singular = 0.0, MAX_STEP_RAD, theta0, False
+    while done < span - 1e-15:
+        h = min(step, span - done)
+        x = driven.full(q)
+        jac = driven.jacobian(x, theta)
+        try:
+            first, second = driven.rates(x, jac, theta, direction, 0.0)
+        except np.linalg.LinAlgError:
+            return None
+        predicted = q + first.reshape(-1)[driven.columns] * h + 0.5 * second.reshape(-1)[driven.columns] * h * h
+        corrected = _newton(driven, predicted, theta + direction * h, tolerance)
+        if corrected is None or np.max(np.abs(corrected - predicted)) > BRANCH_JUMP_RELATIVE * size:
+            step = h / 4.0
+            if step < MIN_STEP_RAD:
+                return None
+            continue
+        if step < MAX_STEP_RAD and np.linalg.cond(driven.jacobian(driven.full(corrected), theta + direction * h)) > 1e8:
+            passed_singular = True
+        q, theta, done = corrected, theta + direction * h, done + h
+        step = min(MAX_STEP_RAD, step * 2.0)
+    return q, passed_singular
+
+
+def _link_rates(mech: Mechanism, index, x, xdot, xddot):
+    angle, omega, alpha = {}, {}, {}
+    for name, pts in mech.links.items():
+        i, j = index[pts[0]], index[pts[1]]
+        r = x[j] - x[i]
+        v = xdot[j] - xdot[i]
+        a = xddot[j] - xddot[i]
+        rr = r @ r
+        angle[name] = math.degrees(math.atan2(r[1], r[0]))
+        if angle[name] == -180.0:
+            angle[name] = 180.0
+        omega[name] = float((r[0] * v[1] - r[1] * v[0]) / rr)
+        alpha[name] = float((r[0] * a[1] - r[1] * a[0]) / rr)
+    return angle, omega, alpha
+
+
+def _slide_rates(mech: Mechanism, index, x, xdot, xddot, omega, alpha):
+    velocity, acceleration = {}, {}
+    for slide in mech.slides.values():
+        e, f, d = index[slide.line[0]], index[slide.line[1]], index[slide.point]
+        u = (x[f] - x[e]) / np.linalg.norm(x[f] - x[e])
+        r = x[d] - x[e]
+        perp_r = np.array([-r[1], r[0]])
+        w = omega.get(slide.guide, 0.0)
+        al = alpha.get(slide.guide, 0.0)
+        guide_v = xdot[e] + w * perp_r
+        guide_a = xddot[e] + al * perp_r - w * w * r
+        velocity[slide.name] = float(u @ (xdot[d] - guide_v))
+        acceleration[slide.name] = float(u @ (xddot[d] - guide_a))
+    return velocity, acceleration
+
+
+def solve_pose(mechanism: Mechanism, angle_deg=None, system: ConstraintSystem | None = None) -> Solution:
+    """Solve without checking findings first (see :func:`kinematics.solve`)."""
+    system = system or build_system(mechanism)
+    driven = _Driven(system)
+    driver = mechanism.driver
+    omega, alpha = driver.speed_rad_s, driver.angular_acceleration_rad_s2
+    theta_ref = reference_driver_angle(system)
+    size = mechanism.size * mechanism.metres_per_unit
+    q = system.x0.reshape(-1)[driven.columns]
+    warnings = []
+    if angle_deg is None:
+        theta = theta_ref
+    else:
+        theta = math.radians(float(angle_deg))
+        turn = 1.0 if omega >= 0 else -1.0
+        span = ((theta - theta_ref) * turn) % (2 * math.pi)
+        if span > 2 * math.pi - 1e-12:
+            span = 0.0
+        tracked = _track(driven, q, theta_ref, span, turn, size) if span > 0 else (q, False)
+        if tracked is None:
+            tracked = _track(driven, q, theta_ref, 2 * math.pi - span, -turn, size)
+        if tracked is None:
+            raise CannotAssemble(f"cannot assemble at driver angle {float(angle_deg):.1f}°",
+                                 f"driver angle {float(angle_deg):.1f}°")
+        q, passed = tracked
+        if passed:
+            warnings.append("the way from the reference pose passes a change point (bifurcation); "
+                            "the branch whose velocity stays continuous was kept")
+    x = driven.full(q)
+    jac = driven.jacobian(x, theta)
+    condition = float(np.linalg.cond(jac))
+    if not np.isfinite(condition) or condition > 1e14:
+        raise CannotAssemble(f"the linkage is at a dead point at driver angle {math.degrees(theta):.1f}°: "
+                             "velocities are not defined there", f"driver angle {math.degrees(theta):.1f}°")
+    xdot, xddot = driven.rates(x, jac, theta, omega, alpha)
+    index = {n: i for i, n in enumerate(system.names)}
+    angle, link_omega, link_alpha = _link_rates(mechanism, index, x, xdot, xddot)
+    slide_v, slide_a = _slide_rates(mechanism, index, x, xdot, xddot, link_omega, link_alpha)
+    if condition > NEAR_SINGULAR_CONDITION:
+        warnings.append(f"near a dead point of the driver: condition figure {condition:.3g}")
+    degrees = math.degrees(theta)
+    return Solution(mechanism=mechanism, driver_angle_deg=degrees if angle_deg is None else float(angle_deg),
+                    point_names=system.names, positions=x, velocities=xdot, accelerations=xddot,
+                    link_angle_deg=angle, angular_velocity=link_omega, angular_acceleration=link_alpha,
+                    sliding_velocity=slide_v, sliding_acceleration=slide_a, condition=condition,
+                    warnings=tuple(warnings))
