@@ -4,6 +4,11 @@ graphical construction of velocity and acceleration polygons, cycle sweeps.
 Never imports Qt.
 """
 
+CAUTION = (
+    "Caution: rigid-body kinematics only (no deflection, clearance, dynamics or strength). Results must be "
+    "checked by a competent engineer; guarding and machine design follow local codes and licensed practice."
+)
+
 from .construct import Component, Construction, Polygon, Role, Step
 from .construct import construct as _construct
 from .errors import CannotAssemble, FileFormatError, KinematicsError, MechanismFindings, ParallelLines
@@ -32,7 +37,7 @@ def construct(solution: Solution, **options) -> Construction:
 
 
 __all__ = [
-    "CannotAssemble", "Component", "Construction", "Driver", "FileFormatError", "Finding", "KinematicsError",
+    "CAUTION", "CannotAssemble", "Component", "Construction", "Driver", "FileFormatError", "Finding", "KinematicsError",
     "Mechanism", "MechanismFindings", "ParallelLines", "Polygon", "Role", "Slide", "Solution", "Step",
     "construct", "diagnose", "dumps", "load_mechanism", "move_point", "solve",
 ]

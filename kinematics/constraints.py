@@ -53,35 +53,38 @@ class ConstraintSystem:
         return np.flatnonzero(np.repeat(self.free, 2))
 
     def values(self, x: np.ndarray) -> np.ndarray:
-        u = x[self.a] - x[self.b]
-        v = x[self.c] - x[self.d]
-        dot = u[:, 0] * v[:, 0] + u[:, 1] * v[:, 1]
-        cross = u[:, 0] * v[:, 1] - u[:, 1] * v[:, 0]
-        return (np.where(self.kind == DOT, dot, cross) - self.k) * self.weight
+        """Constraint values at coordinates x of shape (..., n, 2)."""
+        return (_product(self.kind, x[..., self.a, :] - x[..., self.b, :],
+                         x[..., self.c, :] - x[..., self.d, :]) - self.k) * self.weight
 
     def jacobian(self, x: np.ndarray) -> np.ndarray:
-        """d(values)/d(flattened coordinates of all points), shape (m, 2n)."""
+        """d(values)/d(flattened coordinates of all points), shape (..., m, 2n)."""
         m, n = len(self.kind), len(self.names)
-        u = x[self.a] - x[self.b]
-        v = x[self.c] - x[self.d]
+        u = x[..., self.a, :] - x[..., self.b, :]
+        v = x[..., self.c, :] - x[..., self.d, :]
         is_dot = (self.kind == DOT)[:, None]
-        du = np.where(is_dot, v, np.column_stack([v[:, 1], -v[:, 0]])) * self.weight[:, None]
-        dv = np.where(is_dot, u, np.column_stack([-u[:, 1], u[:, 0]])) * self.weight[:, None]
-        jac = np.zeros((m, n, 2))
+        w = self.weight[:, None]
+        du = np.where(is_dot, v, np.stack([v[..., 1], -v[..., 0]], axis=-1)) * w
+        dv = np.where(is_dot, u, np.stack([-u[..., 1], u[..., 0]], axis=-1)) * w
+        jac = np.zeros(x.shape[:-2] + (m, n, 2))
         rows = np.arange(m)
-        np.add.at(jac, (rows, self.a), du)
-        np.add.at(jac, (rows, self.b), -du)
-        np.add.at(jac, (rows, self.c), dv)
-        np.add.at(jac, (rows, self.d), -dv)
-        return jac.reshape(m, 2 * n)
+        # Each row index appears once per statement, so += accumulates correctly.
+        jac[..., rows, self.a, :] += du
+        jac[..., rows, self.b, :] -= du
+        jac[..., rows, self.c, :] += dv
+        jac[..., rows, self.d, :] -= dv
+        return jac.reshape(x.shape[:-2] + (m, 2 * n))
 
     def quadratic_term(self, xdot: np.ndarray) -> np.ndarray:
         """Second time derivative of the values at zero acceleration: 2·(u̇ ∘ v̇)."""
-        u = xdot[self.a] - xdot[self.b]
-        v = xdot[self.c] - xdot[self.d]
-        dot = u[:, 0] * v[:, 0] + u[:, 1] * v[:, 1]
-        cross = u[:, 0] * v[:, 1] - u[:, 1] * v[:, 0]
-        return 2.0 * np.where(self.kind == DOT, dot, cross) * self.weight
+        return 2.0 * _product(self.kind, xdot[..., self.a, :] - xdot[..., self.b, :],
+                              xdot[..., self.c, :] - xdot[..., self.d, :]) * self.weight
+
+
+def _product(kind, u, v):
+    dot = u[..., 0] * v[..., 0] + u[..., 1] * v[..., 1]
+    cross = u[..., 0] * v[..., 1] - u[..., 1] * v[..., 0]
+    return np.where(kind == DOT, dot, cross)
 
 
 def build_system(mechanism: Mechanism) -> ConstraintSystem:

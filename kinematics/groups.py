@@ -86,6 +86,8 @@ class Frame:
 
     mech: Mechanism
     ref: dict
+    strict: bool = True
+    invalid: np.ndarray | bool = False
     pos: dict = field(default_factory=dict)
     vel: dict = field(default_factory=dict)
     acc: dict = field(default_factory=dict)
@@ -95,9 +97,11 @@ class Frame:
     sliding_acceleration: dict = field(default_factory=dict)
 
     @classmethod
-    def start(cls, mech: Mechanism, shape=()):
+    def start(cls, mech: Mechanism, shape=(), strict=True):
+        """An empty frame with the ground placed. ``strict=False`` marks poses that
+        cannot assemble in ``invalid`` instead of raising."""
         ref = {n: complex(*mech.position_m(n)) for n in mech.points}
-        frame = cls(mech=mech, ref=ref)
+        frame = cls(mech=mech, ref=ref, strict=strict, invalid=np.zeros(shape, dtype=bool))
         zero = np.zeros(shape)
         for name in mech.ground:
             frame.pos[name] = np.full(shape, ref[name])
@@ -148,8 +152,10 @@ class Frame:
         return unit(self.pos[f] - self.pos[e]), self.pos[e]
 
 
-def _refuse(where: str, message: str, bad):
-    if np.any(bad):
+def _refuse(frame: Frame, where: str, message: str, bad):
+    if not frame.strict:
+        frame.invalid = frame.invalid | bad
+    elif np.any(bad):
         raise CannotAssemble(message, where)
 
 
@@ -178,8 +184,8 @@ def position(frame: Frame, group: Group, where: str = ""):
         dist = np.abs(d)
         with np.errstate(divide="ignore", invalid="ignore"):
             cos_beta = (la ** 2 + dist ** 2 - lc ** 2) / (2.0 * la * dist)
-        _refuse(where, message, ~(np.abs(cos_beta) <= 1.0))
-        beta = np.arccos(cos_beta)
+        _refuse(frame, where, message, ~(np.abs(cos_beta) <= 1.0))
+        beta = np.arccos(np.clip(cos_beta, -1.0, 1.0))
         pos[r["B"]] = a + la * unit(d) * np.exp(1j * group.sign * beta)
         frame.place(group.links[0], r["A"], r["B"])
         frame.place(group.links[1], r["C"], r["B"])
@@ -189,8 +195,8 @@ def position(frame: Frame, group: Group, where: str = ""):
         a = pos[r["A"]]
         length = abs(ref[r["D"]] - ref[r["A"]])
         h = cross(u, a - e)
-        _refuse(where, message, h ** 2 > length ** 2)
-        s = dot(u, a - e) + group.sign * np.sqrt(length ** 2 - h ** 2)
+        _refuse(frame, where, message, h ** 2 > length ** 2)
+        s = dot(u, a - e) + group.sign * np.sqrt(np.maximum(length ** 2 - h ** 2, 0.0))
         pos[r["D"]] = e + s * u
         frame.place(group.links[0], r["A"], r["D"])
     elif group.form == "RPR":
@@ -201,8 +207,8 @@ def position(frame: Frame, group: Group, where: str = ""):
         offset = cross(u_ref, ref[r["C"]] - e_ref)
         w = pos[r["D"]] - pos[r["C"]]
         rho = np.abs(w)
-        _refuse(where, message, np.abs(offset) > rho)
-        turn_in = np.arcsin(offset / rho)
+        _refuse(frame, where, message, np.abs(offset) > rho)
+        turn_in = np.arcsin(np.clip(offset / rho, -1.0, 1.0))
         psi = np.angle(w) + np.where(group.sign > 0, turn_in, np.pi - turn_in)
         turn = np.exp(1j * psi) / u_ref
         for name in mech.links[link]:

@@ -73,69 +73,73 @@ class Solution:
         return self.accelerations[self._row(name)]
 
 
+def _cross(a, b):
+    return a[..., 0] * b[..., 1] - a[..., 1] * b[..., 0]
+
+
 class _Driven:
-    """The constraint system with the driver row appended, over the unknowns only."""
+    """The constraint system with the driver row appended, over the unknowns only.
+
+    Every method takes a leading batch shape: x (..., n, 2), theta (...)."""
 
     def __init__(self, system: ConstraintSystem):
         self.system = system
         self.columns = system.unknown_columns
-        n = len(system.names)
+        self.n = len(system.names)
         self.driver_columns = np.array([2 * system.driver_point, 2 * system.driver_point + 1])
-        self.driver_is_free = bool(system.free[system.driver_point])
-        self.n = n
 
     def full(self, q):
-        x = self.system.x0.reshape(-1).copy()
-        x[self.columns] = q
-        return x.reshape(-1, 2)
+        x = np.broadcast_to(self.system.x0.reshape(-1), q.shape[:-1] + (2 * self.n,)).copy()
+        x[..., self.columns] = q
+        return x.reshape(q.shape[:-1] + (self.n, 2))
+
+    def _lever(self, x):
+        return x[..., self.system.driver_point, :] - x[..., self.system.driver_pivot, :]
 
     def residual(self, x, theta):
-        s = self.system
-        w = x[s.driver_point] - x[s.driver_pivot]
-        drive = math.cos(theta) * w[1] - math.sin(theta) * w[0]
-        return np.append(s.values(x), drive)
+        w = self._lever(x)
+        drive = np.cos(theta) * w[..., 1] - np.sin(theta) * w[..., 0]
+        return np.concatenate([self.system.values(x), drive[..., None]], axis=-1)
 
     def jacobian(self, x, theta):
         jac = self.system.jacobian(x)
-        row = np.zeros(2 * self.n)
-        row[self.driver_columns] = (-math.sin(theta), math.cos(theta))
-        return np.vstack([jac, row])[:, self.columns]
+        row = np.zeros(x.shape[:-2] + (1, 2 * self.n))
+        row[..., 0, self.driver_columns[0]] = -np.sin(theta)
+        row[..., 0, self.driver_columns[1]] = np.cos(theta)
+        return np.concatenate([jac, row], axis=-2)[..., self.columns]
+
+    def _expand(self, q):
+        x = np.zeros(q.shape[:-1] + (2 * self.n,))
+        x[..., self.columns] = q
+        return x.reshape(q.shape[:-1] + (self.n, 2))
 
     def rates(self, x, jac, theta, omega, alpha):
-        """Velocities and accelerations (n, 2) of all points at pose x."""
-        s = self.system
-        u = np.array([math.cos(theta), math.sin(theta)])
-        perp_u = np.array([-u[1], u[0]])
-        w = x[s.driver_point] - x[s.driver_pivot]
-        cross = lambda a, b: a[0] * b[1] - a[1] * b[0]  # noqa: E731
-        rhs = np.zeros(len(jac))
-        rhs[-1] = -cross(perp_u, w) * omega
-        qdot = np.linalg.solve(jac, rhs)
-        xdot = np.zeros(2 * self.n)
-        xdot[self.columns] = qdot
-        xdot = xdot.reshape(-1, 2)
-        wdot = xdot[s.driver_point]
-        rhs = -np.append(s.quadratic_term(xdot),
-                         -cross(u, w) * omega ** 2 + cross(perp_u, w) * alpha + 2 * omega * cross(perp_u, wdot))
-        qddot = np.linalg.solve(jac, rhs)
-        xddot = np.zeros(2 * self.n)
-        xddot[self.columns] = qddot
-        return xdot, xddot.reshape(-1, 2)
+        """Velocities and accelerations (..., n, 2) of all points at pose x."""
+        theta = np.asarray(theta, float)
+        u = np.stack([np.cos(theta), np.sin(theta)], axis=-1)
+        perp_u = np.stack([-u[..., 1], u[..., 0]], axis=-1)
+        w = self._lever(x)
+        rhs = np.zeros(jac.shape[:-1])
+        rhs[..., -1] = -_cross(perp_u, w) * omega
+        xdot = self._expand(np.linalg.solve(jac, rhs[..., None])[..., 0])
+        wdot = self._lever(xdot)
+        driver_term = -_cross(u, w) * omega ** 2 + _cross(perp_u, w) * alpha + 2 * omega * _cross(perp_u, wdot)
+        rhs = -np.concatenate([self.system.quadratic_term(xdot), driver_term[..., None]], axis=-1)
+        xddot = self._expand(np.linalg.solve(jac, rhs[..., None])[..., 0])
+        return xdot, xddot
 
 
 def _newton(driven: _Driven, q, theta, tolerance):
+    """Newton-Raphson from q (..., k); None where any pose of the batch fails."""
     for _ in range(NEWTON_ITERATIONS):
         x = driven.full(q)
-        f = driven.residual(x, theta)
-        jac = driven.jacobian(x, theta)
         try:
-            step = np.linalg.solve(jac, -f)
+            step = np.linalg.solve(driven.jacobian(x, theta), -driven.residual(x, theta)[..., None])[..., 0]
         except np.linalg.LinAlgError:
             return None
         q = q + step
         if np.max(np.abs(step)) < tolerance:
-            x = driven.full(q)
-            if np.max(np.abs(driven.residual(x, theta))) < 10 * tolerance:
+            if np.max(np.abs(driven.residual(driven.full(q), theta))) < 10 * tolerance:
                 return q
     return None
 

@@ -1,0 +1,161 @@
+"""What a sheet says besides the drawing: scale bars, the title block with
+the caution, the results table."""
+
+from __future__ import annotations
+
+import math
+import textwrap
+
+from .. import CAUTION
+from ..style import ANNOTATION
+from .scaling import bar_value, plain
+from .sheet import FRAME, Hatch, Line, Polyline, Recorder, Text
+from .symbols import Symbols
+from .table import link_rows, point_rows, slide_rows
+
+# Advance of one character over the capital height, generous for DejaVu Sans
+# (measured with Qt on "m/s²  ω  0.1234": 0.70 to 0.78), so estimated widths never run over.
+WIDTH_PER_HEIGHT = 0.8
+ROW = 1.8  # row pitch over text height in tables and the title block
+BAR_DIVISIONS = 4
+
+UNITS_AS_PRINTED = {"m/s^2": "m/s²", "rad/s^2": "rad/s²"}
+
+
+def printed_unit(unit: str) -> str:
+    return UNITS_AS_PRINTED.get(unit, unit)
+
+
+def text_width(text: str, height: float) -> float:
+    """Estimated width in mm of ``text`` at capital height ``height``."""
+    return len(text) * height * WIDTH_PER_HEIGHT
+
+
+def _box(rec: Recorder, x0, y0, x1, y1, pen, **ids) -> None:
+    rec.add(Polyline(points=((x0, y0), (x1, y0), (x1, y1), (x0, y1)), pen=pen, closed=True, **ids))
+
+
+def scale_bar(rec: Recorder, at, mm_per_value: float, unit: str, longest: float, caption: str,
+              size: Symbols, view: str) -> float:
+    """A labelled scale bar with its left end at ``at``, the caption above it.
+
+    Returns the value the whole bar stands for (in ``unit``).
+    """
+    value = bar_value(longest, mm_per_value)
+    length = value * mm_per_value
+    x, y = at
+    thick = 0.5 * size.text
+    ids = {"view": view, "part": "scale bar"}
+    rec.add(Line(start=(x, y), end=(x + length, y), pen=ANNOTATION, **ids))
+    rec.add(Line(start=(x, y + thick), end=(x + length, y + thick), pen=ANNOTATION, **ids))
+    step = length / BAR_DIVISIONS
+    for i in range(BAR_DIVISIONS + 1):
+        rec.add(Line(start=(x + i * step, y), end=(x + i * step, y + thick), pen=ANNOTATION, **ids))
+        if i % 2 == 0 and i < BAR_DIVISIONS:
+            corners = ((x + i * step, y), (x + (i + 1) * step, y), (x + (i + 1) * step, y + thick),
+                       (x + i * step, y + thick))
+            rec.add(Hatch(points=corners, pen=ANNOTATION, **ids))
+    below = y - 0.8 * size.text
+    rec.add(Text(position=(x, below), text="0", height=size.text, pen=ANNOTATION, align="centre", anchor="top", **ids))
+    rec.add(Text(position=(x + length, below), text=f"{plain(value)} {printed_unit(unit)}", height=size.text,
+                 pen=ANNOTATION, align="centre", anchor="top", **ids))
+    rec.add(Text(position=(x, y + thick + 0.8 * size.text), text=caption, height=size.text, pen=ANNOTATION,
+                 align="left", anchor="baseline", **ids))
+    return value
+
+
+def scale_bar_height(size: Symbols) -> float:
+    """Height a scale bar takes with its caption and labels, mm."""
+    return 0.5 * size.text + 3.6 * size.text
+
+
+def description(construction, scales: dict, file_name: str, date: str) -> list:
+    """(label, text) lines naming the mechanism, the pose and the scales."""
+    solution = construction.solution
+    mech = solution.mechanism
+    driver = mech.driver
+    rpm = driver.speed_rad_s * 60.0 / (2.0 * math.pi)
+    driving = (f"{driver.link} about {driver.pivot} at {solution.driver_angle_deg:.2f}°, "
+               f"{rpm:.4g} rpm ({driver.speed_rad_s:.4g} rad/s), angular acceleration "
+               f"{driver.angular_acceleration_rad_s2:.4g} rad/s²")
+    scale_text = " · ".join(f"{name} {text}" for name, text in scales.items())
+    lines = [("Title", mech.title or "(untitled mechanism)"), ("Driver", driving), ("Scales", scale_text)]
+    where = "  ".join(part for part in (f"File: {file_name}" if file_name else "", f"Date: {date}") if part)
+    lines.append(("Issued", where + "  ·  Kinepoly: exact graphical construction, cross-checked with a solver "
+                  f"(largest difference {construction.max_relative_difference:.1e})"))
+    return lines
+
+
+def caution_lines(width: float, height: float) -> list:
+    return textwrap.wrap(CAUTION, width=max(20, int(width / (height * WIDTH_PER_HEIGHT))))
+
+
+def title_block_height(width: float, size: Symbols) -> float:
+    pitch = ROW * size.text
+    return 2 * pitch + 3 * pitch + len(caution_lines(width - 2 * size.text, size.text)) * pitch + 0.5 * pitch
+
+
+def title_block(rec: Recorder, box, lines: list, size: Symbols) -> None:
+    """The title block in ``box``: the title large, then the description and the caution."""
+    x0, y0, x1, y1 = box
+    pitch = ROW * size.text
+    pad = size.text
+    ids = {"part": "title block"}
+    _box(rec, x0, y0, x1, y1, FRAME, **ids)
+    (_, title), *rest = lines
+    y = y1 - 1.5 * pitch
+    rec.add(Text(position=(x0 + pad, y), text=title, height=2 * size.text, pen=ANNOTATION, **ids))
+    y -= 0.5 * pitch
+    rec.add(Line(start=(x0, y), end=(x1, y), pen=ANNOTATION, **ids))
+    for label, text in rest:
+        y -= pitch
+        rec.add(Text(position=(x0 + pad, y), text=f"{label}:", height=size.small_text, pen=ANNOTATION, **ids))
+        rec.add(Text(position=(x0 + pad + 9 * size.small_text, y), text=text, height=size.text, pen=ANNOTATION,
+                     **ids))
+    y -= 0.5 * pitch
+    rec.add(Line(start=(x0, y), end=(x1, y), pen=ANNOTATION, **ids))
+    for line in caution_lines(x1 - x0 - 2 * pad, size.text):
+        y -= pitch
+        rec.add(Text(position=(x0 + pad, y), text=line, height=size.text, pen=ANNOTATION, **ids))
+
+
+def _tables(solution) -> list:
+    tables = [(("Point", "|v| m/s", "|a| m/s²"), point_rows(solution)),
+              (("Link", "ω rad/s", "α rad/s²"), link_rows(solution))]
+    if solution.sliding_velocity:
+        tables.append((("Slide", "v m/s", "a m/s²"), slide_rows(solution)))
+    return tables
+
+
+def results_table_height(solution, size: Symbols) -> float:
+    rows = max(len(rows) for _, rows in _tables(solution)) + 1
+    return (rows + 1) * ROW * size.text
+
+
+def results_table(rec: Recorder, box, solution, size: Symbols) -> None:
+    """Point, link and slide results side by side in ``box`` (angular values CCW positive)."""
+    x0, y0, x1, y1 = box
+    pitch = ROW * size.text
+    ids = {"part": "results table"}
+    rec.add(Text(position=(x0, y1 - 0.7 * pitch), text="Results (SI; ω, α counter-clockwise positive)",
+                 height=size.small_text, pen=ANNOTATION, **ids))
+    x = x0
+    top = y1 - pitch
+    for header, rows in _tables(solution):
+        widths = [max(text_width(str(row[c]), size.text) for row in [header, *rows]) + 2 * size.text
+                  for c in range(len(header))]
+        right = x + sum(widths)
+        bottom = top - pitch * (len(rows) + 1)
+        _box(rec, x, bottom, right, top, ANNOTATION, **ids)
+        rec.add(Line(start=(x, top - pitch), end=(right, top - pitch), pen=ANNOTATION, **ids))
+        for r, row in enumerate([header, *rows]):
+            baseline = top - (r + 1) * pitch + 0.5 * (pitch - size.text)
+            left = x
+            for c, cell in enumerate(row):
+                align, at = ("left", left + size.text) if c == 0 else ("right", left + widths[c] - size.text)
+                rec.add(Text(position=(at, baseline), text=str(cell), height=size.text, pen=ANNOTATION,
+                             align=align, **ids))
+                left += widths[c]
+        x = right + 2 * size.text
+        if x > x1:
+            break

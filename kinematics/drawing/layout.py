@@ -1,0 +1,130 @@
+"""Composing a construction into a Sheet: the printed sheet (ISO 216 paper,
+frame, three views at their own scales, results, title block) and the
+true-size model drawing the DXF writer replays."""
+
+from __future__ import annotations
+
+import datetime
+from dataclasses import dataclass
+
+from .annotate import (description, printed_unit, results_table, results_table_height, scale_bar, scale_bar_height,
+                       title_block, title_block_height)
+from .polygons import draw_polygon, polygon_bounds
+from .scaling import iso5455_ratio, plain, polygon_scale, ratio_text
+from .sheet import FRAME, Recorder, Sheet, View
+from .space import draw_space, positions
+from .symbols import Symbols
+
+# ISO 216 A series, portrait width × height in mm.
+PAPER = {"A0": (841.0, 1189.0), "A1": (594.0, 841.0), "A2": (420.0, 594.0), "A3": (297.0, 420.0),
+         "A4": (210.0, 297.0)}
+# Frame margins: 20 mm on the filing (left) edge, 10 mm elsewhere (ISO 5457).  # from memory
+MARGIN_FILING, MARGIN = 20.0, 10.0
+# Room round a view's drawing for labels and pivot marks, and between views, mm on paper.
+VIEW_PAD, GAP = 7.0, 4.0
+NAMES = {"space": "Space diagram", "velocity": "Velocity polygon", "acceleration": "Acceleration polygon"}
+
+
+@dataclass(frozen=True)
+class _Fit:
+    mm_per_unit: float
+    scale_text: str
+    bounds: tuple
+
+
+def _space_bounds(solution) -> tuple:
+    xs, ys = zip(*positions(solution).values())
+    return (min(xs), min(ys), max(xs), max(ys))
+
+
+def _fit_space(solution, width: float, height: float) -> _Fit:
+    x0, y0, x1, y1 = _space_bounds(solution)
+    limits = [room / (1000.0 * extent) for room, extent in ((width, x1 - x0), (height, y1 - y0)) if extent > 0]
+    ratio = iso5455_ratio(min(limits)) if limits else iso5455_ratio(1.0)
+    return _Fit(1000.0 * float(ratio), ratio_text(ratio), (x0, y0, x1, y1))
+
+
+def _fit_polygon(polygon, width: float, height: float) -> _Fit:
+    x0, y0, x1, y1 = polygon_bounds(polygon)
+    scale = polygon_scale(max((x1 - x0) / width, (y1 - y0) / height))
+    return _Fit(1.0 / scale, f"1 mm = {plain(scale)} {printed_unit(polygon.unit)}", (x0, y0, x1, y1))
+
+
+def _centred_view(name, fit: _Fit, box, unit) -> View:
+    bx0, by0, bx1, by1 = box
+    x0, y0, x1, y1 = fit.bounds
+    origin = (0.5 * (bx0 + bx1) - 0.5 * (x0 + x1) * fit.mm_per_unit,
+              0.5 * (by0 + by1) - 0.5 * (y0 + y1) * fit.mm_per_unit)
+    return View(name=name, box=box, origin=origin, mm_per_unit=fit.mm_per_unit, unit=unit, scale_text=fit.scale_text)
+
+
+def _view_boxes(area, landscape: bool) -> dict:
+    x0, y0, x1, y1 = area
+    if landscape:
+        middle_x, middle_y = 0.5 * (x0 + x1), 0.5 * (y0 + y1)
+        return {"space": (x0, y0, middle_x - GAP / 2, y1),
+                "velocity": (middle_x + GAP / 2, middle_y + GAP / 2, x1, y1),
+                "acceleration": (middle_x + GAP / 2, y0, x1, middle_y - GAP / 2)}
+    split_y = y0 + 0.45 * (y1 - y0)
+    middle_x = 0.5 * (x0 + x1)
+    return {"space": (x0, split_y + GAP / 2, x1, y1),
+            "velocity": (x0, y0, middle_x - GAP / 2, split_y - GAP / 2),
+            "acceleration": (middle_x + GAP / 2, y0, x1, split_y - GAP / 2)}
+
+
+def _draw_view(rec: Recorder, construction, name: str, box, size: Symbols) -> View:
+    """Fit, place and draw one view in ``box`` with its scale bar at the bottom."""
+    bx0, by0, bx1, by1 = box
+    bar = scale_bar_height(size)
+    inner = (bx0 + VIEW_PAD, by0 + bar + VIEW_PAD, bx1 - VIEW_PAD, by1 - VIEW_PAD)
+    width, height = inner[2] - inner[0], inner[3] - inner[1]
+    solution = construction.solution
+    if name == "space":
+        fit, unit, per_value = _fit_space(solution, width, height), "m", None
+    else:
+        polygon = getattr(construction, name)
+        fit, unit = _fit_polygon(polygon, width, height), polygon.unit
+    view = _centred_view(name, fit, inner, unit)
+    rec.add_view(view)
+    if name == "space":
+        draw_space(rec, solution, view, size)
+        per_value, bar_unit = view.mm_per_unit / 1000.0, "mm"  # the bar reads true millimetres
+    else:
+        draw_polygon(rec, getattr(construction, name), solution, view, size)
+        per_value, bar_unit = view.mm_per_unit, unit
+    scale_bar(rec, (bx0 + size.text, by0 + 1.2 * size.text), per_value, bar_unit, min(60.0, 0.5 * (bx1 - bx0)),
+              f"{NAMES[name]} {view.scale_text}", size, name)
+    return view
+
+
+def draw_sheet(construction, paper: str = "A4", landscape: bool = False, file_name: str = "",
+               date: str | None = None) -> Sheet:
+    """The printed sheet of ``construction`` on ISO 216 ``paper``, sheet mm, y up.
+
+    Raises ValueError for a paper size not in :data:`PAPER`.
+    """
+    if paper not in PAPER:
+        raise ValueError(f"paper {paper!r}: choose one of {', '.join(PAPER)}")
+    width, height = PAPER[paper]
+    if landscape:
+        width, height = height, width
+    size = Symbols()
+    rec = Recorder()
+    frame = (MARGIN_FILING, MARGIN, width - MARGIN, height - MARGIN)
+    rec.add_view(View("sheet", (0.0, 0.0, width, height), (0.0, 0.0), 1.0, "mm", "1:1"))
+    from .annotate import _box  # the frame is one closed outline like every box
+
+    _box(rec, *frame, FRAME, part="frame")
+    frame_width = frame[2] - frame[0]
+    block_height = title_block_height(frame_width, size)
+    table_height = results_table_height(construction.solution, size)
+    views = {}
+    area = (frame[0] + GAP, frame[1] + block_height + table_height + GAP, frame[2] - GAP, frame[3] - GAP)
+    for name, box in _view_boxes(area, landscape).items():
+        views[name] = _draw_view(rec, construction, name, box, size)
+    results_table(rec, (frame[0] + GAP, frame[1] + block_height, frame[2] - GAP,
+                        frame[1] + block_height + table_height), construction.solution, size)
+    scales = {NAMES[n].split()[0].lower(): v.scale_text for n, v in views.items()}
+    lines = description(construction, scales, file_name, date or datetime.date.today().isoformat())
+    title_block(rec, (frame[0], frame[1], frame[2], frame[1] + block_height), lines, size)
+    return rec.sheet(width, height, title=construction.solution.mechanism.title)

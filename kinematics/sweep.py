@@ -1,0 +1,229 @@
+"""The cycle sweep: every pose of one driver turn at once, in closed form.
+
+The dyad decomposition gives each group's position (circle-circle and
+circle-line intersections) and its velocity and acceleration (the polygon
+relations); all of it is numpy over the angles, no loop per angle. The
+numeric solver checks the result in :func:`verify_sweep`, a separate call.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+
+import numpy as np
+
+from .constraints import build_system
+from .decompose import decompose
+from .errors import CannotAssemble, KinematicsError
+from .groups import Frame, acceleration, drive, position, velocity
+from .mobility import require_ready
+from .model import Mechanism
+from .solve import _Driven, _newton, _track, solve_pose
+
+# Dead points are located to this fraction of a degree.
+DEAD_POINT_RESOLUTION_DEG = 1e-9
+# A swept range stops this far short of a dead point, where velocities grow without bound.
+DEAD_POINT_MARGIN_DEG = 1e-6
+
+
+@dataclass(frozen=True)
+class Sweep:
+    """One driver turn (or its assemblable range), SI units.
+
+    Attributes
+    ----------
+    driver_angle_deg : (N,) driver angles in the order swept.
+    point_names : order of the point axis below.
+    positions, velocities, accelerations : (N, n, 2) arrays, m, m/s, m/s².
+    link_angle_deg, angular_velocity, angular_acceleration : link -> (N,) arrays (°, rad/s, rad/s²).
+    sliding_velocity, sliding_acceleration : slide -> (N,) arrays (m/s, m/s²).
+    full_turn : the driver turns fully; otherwise ``range_deg`` gives its dead points.
+    closes : one turn brings the linkage back to its first pose.
+    time_s : (N,) time from the first pose at constant speed, or None when the driver accelerates.
+    """
+
+    mechanism: Mechanism
+    driver_angle_deg: np.ndarray
+    point_names: tuple
+    positions: np.ndarray
+    velocities: np.ndarray
+    accelerations: np.ndarray
+    link_angle_deg: dict
+    angular_velocity: dict
+    angular_acceleration: dict
+    sliding_velocity: dict
+    sliding_acceleration: dict
+    full_turn: bool
+    range_deg: tuple
+    closes: bool
+    time_s: np.ndarray | None
+    warnings: tuple = ()
+
+
+def _place(mech, decomposition, angles_rad) -> Frame:
+    """Positions at every angle; poses that cannot assemble are marked ``invalid``."""
+    frame = Frame.start(mech, shape=np.shape(angles_rad), strict=False)
+    d = mech.driver
+    drive(frame, d.link, d.pivot, angles_rad, d.speed_rad_s, d.angular_acceleration_rad_s2)
+    for group in decomposition.groups:
+        position(frame, group)
+    return frame
+
+
+def _move(frame: Frame, decomposition) -> Frame:
+    """Velocities and accelerations of a placed frame, group after group."""
+    for group in decomposition.groups:
+        velocity(frame, group)
+    for group in decomposition.groups:
+        acceleration(frame, group)
+    return frame
+
+
+def _assemblable(mech, decomposition, angles_rad):
+    return ~_place(mech, decomposition, angles_rad).invalid
+
+
+def _edge(mech, decomposition, good, bad):
+    """Bisect (vectorised over nothing: two scalars) between an assemblable and a failing angle."""
+    while abs(bad - good) > math.radians(DEAD_POINT_RESOLUTION_DEG):
+        middle = 0.5 * (good + bad)
+        if _assemblable(mech, decomposition, np.array([middle]))[0]:
+            good = middle
+        else:
+            bad = middle
+    return good
+
+
+def reference_angle_deg(mech: Mechanism) -> float:
+    x, y = np.subtract(mech.position_m(_first(mech)), mech.position_m(mech.driver.pivot))
+    return math.degrees(math.atan2(y, x))
+
+
+def driver_range(mech: Mechanism, decomposition=None, probe_steps=3600, ok=None):
+    """(full_turn, (low_deg, high_deg)): the dead points around the reference pose
+    (low < θ_ref < high), or the full turn from θ_ref. ``ok`` may give the
+    assemblable mask of ``probe_steps`` equal CCW steps from θ_ref."""
+    decomposition = decomposition or decompose(mech)
+    theta_ref = math.radians(reference_angle_deg(mech))
+    offsets = np.linspace(0.0, 2 * math.pi, probe_steps, endpoint=False)
+    if ok is None:
+        ok = _assemblable(mech, decomposition, theta_ref + offsets)
+    if ok.all():
+        return True, (math.degrees(theta_ref), math.degrees(theta_ref) + 360.0)
+    forward = int(np.argmin(ok))                       # first failing probe going CCW
+    backward = probe_steps - int(np.argmin(ok[::-1]))  # last failing probe, counted CCW
+    high = _edge(mech, decomposition, theta_ref + offsets[forward - 1], theta_ref + offsets[forward])
+    low = _edge(mech, decomposition, theta_ref + offsets[backward % probe_steps] - 2 * math.pi,
+                theta_ref + offsets[backward - 1] - 2 * math.pi)
+    return False, (math.degrees(low), math.degrees(high))
+
+
+def _first(mech):
+    return next(p for p in mech.links[mech.driver.link] if p != mech.driver.pivot)
+
+
+def sweep(mechanism: Mechanism, steps: int = 360) -> Sweep:
+    """Solve ``steps`` equal steps of the driver turn in closed form.
+
+    A full turn runs over [θ_ref, θ_ref + 360°) in the driver's sense, end
+    excluded; a driver that cannot turn fully sweeps its assemblable range
+    between its dead points, ends included (less a hair, see
+    ``DEAD_POINT_MARGIN_DEG``).
+    """
+    require_ready(mechanism)
+    if steps < 2:
+        raise KinematicsError(f"a sweep needs at least 2 steps, not {steps}", "steps")
+    decomposition = decompose(mechanism)
+    if not decomposition.all_dyads:
+        raise KinematicsError("the linkage has a group that is no dyad; sweep it pose by pose with solve()",
+                              next(g.name for g in decomposition.groups if g.form == "numeric"))
+    omega = mechanism.driver.speed_rad_s
+    sense = 1.0 if omega >= 0 else -1.0
+    start = reference_angle_deg(mechanism)
+    angles = start + sense * np.arange(steps) * 360.0 / steps
+    frame = _place(mechanism, decomposition, np.radians(angles))
+    ccw_mask = ~frame.invalid if sense > 0 else np.roll(~frame.invalid[::-1], 1)
+    full, (low, high) = driver_range(mechanism, decomposition, steps, ccw_mask)
+    warnings = []
+    if not full:
+        margin = DEAD_POINT_MARGIN_DEG
+        angles = np.linspace(low + margin, high - margin, steps)
+        if sense < 0:
+            angles = angles[::-1]
+        warnings.append(f"the driver cannot turn fully: it rocks between its dead points {low:.2f}° and {high:.2f}°")
+        frame = _place(mechanism, decomposition, np.radians(angles))
+    _move(frame, decomposition)
+    names = tuple(mechanism.points)
+    def stack(values):
+        both = np.stack([values[n] for n in names], axis=1)
+        return np.stack([both.real, both.imag], axis=-1)
+
+    positions, velocities, accelerations = stack(frame.pos), stack(frame.vel), stack(frame.acc)
+    closes = True
+    if full:
+        back = _place(mechanism, decomposition, np.radians(np.array([angles[0] + sense * 360.0])))
+        size = mechanism.size * mechanism.metres_per_unit
+        closes = all(abs(complex(back.pos[n][0]) - complex(frame.pos[n][0])) <= 1e-9 * size for n in names)
+    link_angle = {}
+    for link, pts in mechanism.links.items():
+        r = frame.pos[pts[1]] - frame.pos[pts[0]]
+        link_angle[link] = np.degrees(np.angle(r))
+    time_s = None
+    if mechanism.driver.angular_acceleration_rad_s2 == 0.0 and omega != 0.0:
+        time_s = np.radians(np.abs(angles - angles[0])) / abs(omega)
+    return Sweep(mechanism=mechanism, driver_angle_deg=angles, point_names=names, positions=positions,
+                 velocities=velocities, accelerations=accelerations, link_angle_deg=link_angle,
+                 angular_velocity={k: np.asarray(frame.omega[k], float) for k in mechanism.links},
+                 angular_acceleration={k: np.asarray(frame.alpha[k], float) for k in mechanism.links},
+                 sliding_velocity={k: np.asarray(v, float) for k, v in frame.sliding_velocity.items()},
+                 sliding_acceleration={k: np.asarray(v, float) for k, v in frame.sliding_acceleration.items()},
+                 full_turn=full, range_deg=(low, high), closes=closes, time_s=time_s, warnings=tuple(warnings))
+
+
+def verify_sweep(result: Sweep, branch_step_deg: float = 10.0) -> dict:
+    """Check a sweep against the numeric solver.
+
+    Newton-Raphson refines every swept pose; the branch is confirmed
+    independently by solving, from the reference pose by continuation, every
+    pose ``branch_step_deg`` apart. Returns the largest differences relative
+    to the largest value of each quantity: ``position``, ``velocity``,
+    ``acceleration``, and ``branch`` (position at the continuation poses).
+    """
+    mech = result.mechanism
+    system = build_system(mech)
+    driven = _Driven(system)
+    omega, alpha = mech.driver.speed_rad_s, mech.driver.angular_acceleration_rad_s2
+    tolerance = 1e-13 * max(mech.size * mech.metres_per_unit, 1e-3)
+    index = [result.point_names.index(n) for n in system.names]
+    closed = result.positions[:, index]
+    theta = np.radians(result.driver_angle_deg)
+    q = _newton(driven, closed.reshape(len(theta), -1)[:, driven.columns], theta, tolerance)
+    if q is None:
+        raise CannotAssemble("the numeric solver does not converge from every swept pose", "sweep")
+    x = driven.full(q)
+    xdot, xddot = driven.rates(x, driven.jacobian(x, theta), theta, omega, alpha)
+    size = mech.size * mech.metres_per_unit
+    worst = {}
+    for key, numeric, swept in (("position", x, closed), ("velocity", xdot, result.velocities[:, index]),
+                                ("acceleration", xddot, result.accelerations[:, index])):
+        worst[key] = float(np.abs(numeric - swept).max() / (np.abs(swept).max() or 1.0))
+    # The branch, independently: one continuation walk from the reference pose at a coarse step.
+    stride = max(1, int(round(branch_step_deg / abs(result.driver_angle_deg[1] - result.driver_angle_deg[0]))))
+    worst["branch"] = 0.0
+    q_walk = system.x0.reshape(-1)[driven.columns]
+    previous = math.radians(result.driver_angle_deg[0]) if result.full_turn else None
+    if previous is None:
+        pose = solve_pose(mech, float(result.driver_angle_deg[0]), system)
+        q_walk = pose.positions.reshape(-1)[driven.columns]
+        previous = math.radians(result.driver_angle_deg[0])
+    for k in range(0, len(theta), stride):
+        span = abs(theta[k] - previous)
+        tracked = _track(driven, q_walk, previous, span, 1.0 if theta[k] >= previous else -1.0, size)
+        if tracked is None:
+            raise CannotAssemble("continuation from the reference pose stops at a dead point",
+                                 f"driver angle {result.driver_angle_deg[k]:.3f}°")
+        q_walk, previous = tracked[0], theta[k]
+        walked = driven.full(q_walk)
+        worst["branch"] = max(worst["branch"], float(np.abs(walked - closed[k]).max() / size))
+    return worst
