@@ -227,3 +227,25 @@ def verify_sweep(result: Sweep, branch_step_deg: float = 10.0) -> dict:
         walked = driven.full(q_walk)
         worst["branch"] = max(worst["branch"], float(np.abs(walked - closed[k]).max() / size))
     return worst
+
+
+def sweep_csv(result: Sweep) -> str:
+    """One row per swept pose, SI units in the headers, numbers at full double precision."""
+    mech = result.mechanism
+    header = ["driver_angle_deg"]
+    columns = [result.driver_angle_deg]
+    for i, name in enumerate(result.point_names):
+        for quantity, unit, values in (("", "m", result.positions), ("v", "m/s", result.velocities),
+                                       ("a", "m/s^2", result.accelerations)):
+            for axis, k in (("x", 0), ("y", 1)):
+                header.append(f"{name}.{quantity}{axis} [{unit}]")
+                columns.append(values[:, i, k])
+    for link in mech.links:
+        header += [f"{link}.omega [rad/s]", f"{link}.alpha [rad/s^2]"]
+        columns += [result.angular_velocity[link], result.angular_acceleration[link]]
+    for slide in mech.slides:
+        header += [f"{slide}.sliding_velocity [m/s]", f"{slide}.sliding_acceleration [m/s^2]"]
+        columns += [result.sliding_velocity[slide], result.sliding_acceleration[slide]]
+    table = np.column_stack(columns)
+    rows = [",".join(header)] + [",".join(repr(float(v)) for v in row) for row in table]
+    return "\n".join(rows) + "\n"

@@ -31,7 +31,7 @@ def text_width(text: str, height: float) -> float:
     return len(text) * height * WIDTH_PER_HEIGHT
 
 
-def _box(rec: Recorder, x0, y0, x1, y1, pen, **ids) -> None:
+def outline_box(rec: Recorder, x0, y0, x1, y1, pen, **ids) -> None:
     rec.add(Polyline(points=((x0, y0), (x1, y0), (x1, y1), (x0, y1)), pen=pen, closed=True, **ids))
 
 
@@ -101,7 +101,7 @@ def title_block(rec: Recorder, box, lines: list, size: Symbols) -> None:
     pitch = ROW * size.text
     pad = size.text
     ids = {"part": "title block"}
-    _box(rec, x0, y0, x1, y1, FRAME, **ids)
+    outline_box(rec, x0, y0, x1, y1, FRAME, **ids)
     (_, title), *rest = lines
     y = y1 - 1.5 * pitch
     rec.add(Text(position=(x0 + pad, y), text=title, height=2 * size.text, pen=ANNOTATION, **ids))
@@ -146,7 +146,7 @@ def results_table(rec: Recorder, box, solution, size: Symbols) -> None:
                   for c in range(len(header))]
         right = x + sum(widths)
         bottom = top - pitch * (len(rows) + 1)
-        _box(rec, x, bottom, right, top, ANNOTATION, **ids)
+        outline_box(rec, x, bottom, right, top, ANNOTATION, **ids)
         rec.add(Line(start=(x, top - pitch), end=(right, top - pitch), pen=ANNOTATION, **ids))
         for r, row in enumerate([header, *rows]):
             baseline = top - (r + 1) * pitch + 0.5 * (pitch - size.text)

@@ -7,11 +7,22 @@ from __future__ import annotations
 import datetime
 from dataclasses import dataclass
 
-from .annotate import (description, printed_unit, results_table, results_table_height, scale_bar, scale_bar_height,
-                       title_block, title_block_height)
+from ..style import ANNOTATION
+from .annotate import (
+    caution_lines,
+    description,
+    outline_box,
+    printed_unit,
+    results_table,
+    results_table_height,
+    scale_bar,
+    scale_bar_height,
+    title_block,
+    title_block_height,
+)
 from .polygons import draw_polygon, polygon_bounds
-from .scaling import iso5455_ratio, plain, polygon_scale, ratio_text
-from .sheet import FRAME, Recorder, Sheet, View
+from .scaling import bar_value, iso5455_ratio, plain, polygon_scale, ratio_text
+from .sheet import FRAME, Recorder, Sheet, Text, View
 from .space import draw_space, positions
 from .symbols import Symbols
 
@@ -33,7 +44,7 @@ class _Fit:
 
 
 def _space_bounds(solution) -> tuple:
-    xs, ys = zip(*positions(solution).values())
+    xs, ys = zip(*positions(solution).values(), strict=True)
     return (min(xs), min(ys), max(xs), max(ys))
 
 
@@ -80,7 +91,7 @@ def _draw_view(rec: Recorder, construction, name: str, box, size: Symbols) -> Vi
     width, height = inner[2] - inner[0], inner[3] - inner[1]
     solution = construction.solution
     if name == "space":
-        fit, unit, per_value = _fit_space(solution, width, height), "m", None
+        fit, unit = _fit_space(solution, width, height), "m"
     else:
         polygon = getattr(construction, name)
         fit, unit = _fit_polygon(polygon, width, height), polygon.unit
@@ -95,6 +106,10 @@ def _draw_view(rec: Recorder, construction, name: str, box, size: Symbols) -> Vi
     scale_bar(rec, (bx0 + size.text, by0 + 1.2 * size.text), per_value, bar_unit, min(60.0, 0.5 * (bx1 - bx0)),
               f"{NAMES[name]} {view.scale_text}", size, name)
     return view
+
+
+def _scales(views: dict) -> dict:
+    return {NAMES[n].split()[0].lower(): v.scale_text for n, v in views.items()}
 
 
 def draw_sheet(construction, paper: str = "A4", landscape: bool = False, file_name: str = "",
@@ -112,9 +127,7 @@ def draw_sheet(construction, paper: str = "A4", landscape: bool = False, file_na
     rec = Recorder()
     frame = (MARGIN_FILING, MARGIN, width - MARGIN, height - MARGIN)
     rec.add_view(View("sheet", (0.0, 0.0, width, height), (0.0, 0.0), 1.0, "mm", "1:1"))
-    from .annotate import _box  # the frame is one closed outline like every box
-
-    _box(rec, *frame, FRAME, part="frame")
+    outline_box(rec, *frame, FRAME, part="frame")
     frame_width = frame[2] - frame[0]
     block_height = title_block_height(frame_width, size)
     table_height = results_table_height(construction.solution, size)
@@ -124,7 +137,46 @@ def draw_sheet(construction, paper: str = "A4", landscape: bool = False, file_na
         views[name] = _draw_view(rec, construction, name, box, size)
     results_table(rec, (frame[0] + GAP, frame[1] + block_height, frame[2] - GAP,
                         frame[1] + block_height + table_height), construction.solution, size)
-    scales = {NAMES[n].split()[0].lower(): v.scale_text for n, v in views.items()}
-    lines = description(construction, scales, file_name, date or datetime.date.today().isoformat())
+    lines = description(construction, _scales(views), file_name, date or datetime.date.today().isoformat())
     title_block(rec, (frame[0], frame[1], frame[2], frame[1] + block_height), lines, size)
     return rec.sheet(width, height, title=construction.solution.mechanism.title)
+
+
+def draw_model(construction, file_name: str = "", date: str | None = None) -> Sheet:
+    """The model drawing for CAD: the space diagram at true size in millimetres
+    (sheet mm = model mm, the file's origin kept), the two polygons beside it at
+    round scales, scale bars and a note. The Sheet has no paper (0 × 0)."""
+    solution = construction.solution
+    x0, y0, x1, y1 = (1000.0 * v for v in _space_bounds(solution))
+    extent = max(x1 - x0, y1 - y0)
+    # Symbols grow with a big machine so a plotted drawing keeps readable text.
+    size = Symbols().scaled(max(1.0, bar_value(extent / 150.0, 1.0)) if extent > 0 else 1.0)
+    side, pad = max(extent, 30 * size.text), 3 * size.text
+    rec = Recorder()
+    space = View("space", (x0, y0, x1, y1), (0.0, 0.0), 1000.0, "m", "1:1")
+    views = {"space": space}
+    rec.add_view(space)
+    draw_space(rec, solution, space, size)
+    left = x1 + 2 * pad
+    for name in ("velocity", "acceleration"):
+        polygon = getattr(construction, name)
+        fit = _fit_polygon(polygon, side, side)
+        px0, py0, px1, py1 = fit.bounds
+        origin = (left - px0 * fit.mm_per_unit, y0 - py0 * fit.mm_per_unit)
+        box = (left, y0, left + (px1 - px0) * fit.mm_per_unit, y0 + (py1 - py0) * fit.mm_per_unit)
+        views[name] = View(name, box, origin, fit.mm_per_unit, polygon.unit, fit.scale_text)
+        rec.add_view(views[name])
+        draw_polygon(rec, polygon, solution, views[name], size)
+        left = box[2] + 2 * pad
+    bar_y = y0 - 2 * pad - scale_bar_height(size)
+    for name, view in views.items():
+        per_value, unit = (1.0, "mm") if name == "space" else (view.mm_per_unit, view.unit)
+        scale_bar(rec, (view.box[0], bar_y), per_value, unit, max(20 * size.text, 0.5 * (view.box[2] - view.box[0])),
+                  f"{NAMES[name]} {view.scale_text}", size, name)
+    y = bar_y - 2 * pad
+    lines = description(construction, _scales(views), file_name, date or datetime.date.today().isoformat())
+    texts = [f"{label}: {text}" for label, text in lines] + caution_lines(left - x0, size.text)
+    for text in texts:
+        rec.add(Text(position=(x0, y), text=text, height=size.text, pen=ANNOTATION, part="note"))
+        y -= 1.8 * size.text
+    return rec.sheet(0.0, 0.0, title=solution.mechanism.title)

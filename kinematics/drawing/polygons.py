@@ -21,7 +21,7 @@ def polygon_bounds(polygon) -> tuple:
     coords = [(0.0, 0.0)]
     for step in polygon.steps:
         coords.extend(step.geometry.coords)
-    xs, ys = zip(*coords)
+    xs, ys = zip(*coords, strict=True)
     return (min(xs), min(ys), max(xs), max(ys))
 
 

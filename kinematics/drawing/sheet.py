@@ -16,6 +16,11 @@ from dataclasses import dataclass, field
 
 from ..style import ANNOTATION, Pen
 
+# Dash patterns of ISO 128 line types in multiples of the line width: dashed
+# (type 02: 12 dash, 3 gap), dotted (type 07 as dots 0.5, gap 3), long
+# dash-dotted (type 04: 24 dash, 3 gap, 0.5 dot, 3 gap).  # from memory
+DASHES = {"dashed": (12.0, 3.0), "dotted": (0.5, 3.0), "dashdot": (24.0, 3.0, 0.5, 3.0)}
+
 # The sheet frame takes the heaviest ISO 128 weight so the page reads as bounded.
 FRAME = Pen(ANNOTATION.colour, 0.7, "solid", "SHEET-FRAME", "sheet frame and title block rules")
 

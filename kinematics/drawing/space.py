@@ -39,7 +39,8 @@ def outline(names, xy: dict) -> tuple:
 
 def positions(solution) -> dict:
     """Point name -> (x, y) in metres, straight from the solved pose."""
-    return {name: tuple(solution.positions[i]) for i, name in enumerate(solution.point_names)}
+    return {name: (float(solution.positions[i][0]), float(solution.positions[i][1]))
+            for i, name in enumerate(solution.point_names)}
 
 
 def draw_space(rec: Recorder, solution, view: View, size: Symbols) -> None:

@@ -66,7 +66,8 @@ def slider_block(rec: Recorder, at, direction, pen, size: Symbols, **ids) -> Non
     half_long, half_short = 3.0 * size.pin, 2.0 * size.pin
     corners = []
     for a, b in ((1, 1), (-1, 1), (-1, -1), (1, -1)):
-        corners.append((at[0] + a * half_long * ux - b * half_short * uy, at[1] + a * half_long * uy + b * half_short * ux))
+        corners.append((at[0] + a * half_long * ux - b * half_short * uy,
+                        at[1] + a * half_long * uy + b * half_short * ux))
     rec.add(Polyline(points=tuple(corners), pen=pen, closed=True, **ids))
 
 

@@ -1,0 +1,222 @@
+"""``kinepoly check | solve | construct | sweep | export`` — the analysis commands (no Qt).
+
+Exit codes: 0 ok; 2 a bad file or a mechanism with findings (message on
+stderr names the place); 3 the linkage cannot assemble at the asked angle.
+"""
+
+from __future__ import annotations
+
+import argparse
+import io
+import json
+import os
+import sys
+import tempfile
+from pathlib import Path
+
+from . import CAUTION, construct, diagnose, load_mechanism, solve
+from .errors import CannotAssemble, KinematicsError, MechanismFindings
+from .report_text import construction_text, solution_table
+
+
+def _solution_json(solution) -> dict:
+    names = solution.point_names
+    return {
+        "kinepoly_result": 1, "driver_angle_deg": solution.driver_angle_deg,
+        "units": {"length": "m", "velocity": "m/s", "acceleration": "m/s^2", "angular_velocity": "rad/s",
+                  "angular_acceleration": "rad/s^2"},
+        "points": {n: {"position": solution.positions[i].tolist(), "velocity": solution.velocities[i].tolist(),
+                       "acceleration": solution.accelerations[i].tolist()} for i, n in enumerate(names)},
+        "links": {k: {"angle_deg": solution.link_angle_deg[k], "angular_velocity": solution.angular_velocity[k],
+                      "angular_acceleration": solution.angular_acceleration[k]} for k in solution.link_angle_deg},
+        "slides": {k: {"point": solution.mechanism.slides[k].point,
+                       "sliding_velocity": solution.sliding_velocity[k],
+                       "sliding_acceleration": solution.sliding_acceleration[k]} for k in solution.sliding_velocity},
+        "warnings": list(solution.warnings)}
+
+
+def _polygon_json(polygon) -> dict:
+    return {"unit": polygon.unit, "scale_per_mm": polygon.scale_per_mm,
+            "images": {k: list(v) for k, v in polygon.images.items()},
+            "marks": {k: list(v) for k, v in polygon.marks.items()},
+            "steps": [{"id": s.id, "role": s.role.value, "component": s.component.value if s.component else None,
+                       "label": s.label, "equation": s.equation, "text": s.text, "geometry": s.geometry.wkt,
+                       "condition": s.condition, "flagged": s.flagged, "numeric": s.numeric}
+                      for s in polygon.steps]}
+
+
+def construction_json(construction) -> dict:
+    return {"kinepoly_construction": 1, "driver_angle_deg": construction.solution.driver_angle_deg,
+            "velocity": _polygon_json(construction.velocity),
+            "acceleration": _polygon_json(construction.acceleration),
+            "crosscheck": {"max_relative_difference": construction.max_relative_difference,
+                           "where": construction.where},
+            "warnings": list(construction.warnings)}
+
+
+def write_atomically(path, text: str):
+    """Write ``text`` to ``path`` through a temporary file beside it, so no half-written file is ever left."""
+    path = Path(path)
+    folder = path.parent if str(path.parent) else Path(".")
+    handle, temporary = tempfile.mkstemp(prefix=f".{path.name}.", suffix=".tmp", dir=folder)
+    try:
+        with os.fdopen(handle, "w", encoding="utf-8", newline="") as stream:
+            stream.write(text)
+            stream.flush()
+            os.fsync(stream.fileno())
+        os.replace(temporary, path)
+    except BaseException:
+        if os.path.exists(temporary):
+            os.unlink(temporary)
+        raise
+
+
+def _emit(text: str, output):
+    if output:
+        write_atomically(output, text)
+    else:
+        sys.stdout.write(text if text.endswith("\n") else text + "\n")
+
+
+def _check(args) -> int:
+    from .checks import report
+
+    mech = load_mechanism(args.file)
+    for warning in mech.warnings:
+        print(f"warning: {warning}")
+    findings = diagnose(mech)
+    from .mobility import gruebler_count, jacobian_mobility
+
+    mobility, _ = jacobian_mobility(mech)
+    print(f"mobility: {mobility} from the rank of the constraint Jacobian "
+          f"(Gruebler-Kutzbach count {gruebler_count(mech)})")
+    if findings:
+        for finding in findings:
+            print(f"error: {finding}", file=sys.stderr)
+        return 2
+    from .decompose import decompose
+
+    print("construction order: driver " + mech.driver.link + ", then " +
+          ", ".join(g.name for g in decompose(mech).groups))
+    data = report(mech)
+    for loop in data["loops"]:
+        turns = f"; turns fully: {loop.turns_fully}" if loop.turns_fully else "; no link turns fully"
+        print(f"{loop.loop}: {loop.verdict}{turns}")
+    if data["full_turn"]:
+        print(f"driver {mech.driver.link} turns fully")
+    else:
+        low, high = data["range_deg"]
+        print(f"driver {mech.driver.link} cannot turn fully: dead points at {low:.3f}° and {high:.3f}°")
+    for key, t in data["transmission"].items():
+        print(f"transmission angle {key}: {t['min_deg']:.2f}° to {t['max_deg']:.2f}°, largest deviation from 90° "
+              f"{t['largest_deviation_from_90_deg']:.2f}° at driver angle {t['at_driver_angle_deg'] % 360:.2f}°")
+    out = data["output"]
+    if out:
+        print(f"output {out['output']}: travel {out['travel']:.4g} {out['unit']}, rate reverses (limit positions) at "
+              + ", ".join(f"{a % 360:.2f}°" for a in out["rate_reversals_deg"]))
+        if "time_ratio" in out:
+            print(f"time ratio {out['time_ratio']:.4f}: slow stroke {out['slow_stroke']} over "
+                  f"{out['slow_stroke_driver_deg']:.2f}° of driver turn, fast over {out['fast_stroke_driver_deg']:.2f}°")
+    for warning in data["warnings"]:
+        print(f"warning: {warning}")
+    return 0
+
+
+def _solve(args) -> int:
+    mech = load_mechanism(args.file)
+    solution = solve(mech, args.angle)
+    if args.csv:
+        from .drawing.table import results_csv
+
+        _emit(results_csv(solution), args.output)
+    elif args.json:
+        _emit(json.dumps(_solution_json(solution), indent=1), args.output)
+    else:
+        _emit(solution_table(solution) + f"\n\n{CAUTION}", args.output)
+    return 0
+
+
+def _construct(args) -> int:
+    construction = construct(solve(load_mechanism(args.file), args.angle))
+    if args.json:
+        _emit(json.dumps(construction_json(construction), indent=1), args.output)
+    else:
+        _emit(construction_text(construction), args.output)
+    return 0
+
+
+def _sweep(args) -> int:
+    from .peaks import peaks
+    from .sweep import sweep, sweep_csv
+
+    result = sweep(load_mechanism(args.file), args.steps)
+    if args.json:
+        stream = io.StringIO()
+        json.dump({"kinepoly_sweep": 1, "peaks": peaks(result), "csv": sweep_csv(result)}, stream, indent=1)
+        _emit(stream.getvalue(), args.output)
+    elif args.peaks:
+        _emit(json.dumps(peaks(result), indent=1), args.output)
+    else:
+        _emit(sweep_csv(result), args.output)
+    for warning in result.warnings:
+        print(f"warning: {warning}", file=sys.stderr)
+    return 0
+
+
+def _export(args_list) -> int:
+    from .dxf import main as dxf_main
+
+    return dxf_main(args_list)
+
+
+def _parser():
+    parser = argparse.ArgumentParser(prog="kinepoly", description="Velocity and acceleration polygons of planar "
+                                     "linkages, built by exact graphical construction.")
+    sub = parser.add_subparsers(dest="command", required=True)
+    check = sub.add_parser("check", help="mobility, Grashof, transmission angle, limit positions")
+    check.add_argument("file")
+    for name, helptext in (("solve", "positions, velocities, accelerations at one driver angle"),
+                           ("construct", "the polygon construction steps in words")):
+        p = sub.add_parser(name, help=helptext)
+        p.add_argument("file")
+        p.add_argument("--angle", type=float, default=None, help="driver angle in degrees (default: the file's pose)")
+        p.add_argument("--json", action="store_true", help="machine-readable output in SI units")
+        p.add_argument("-o", "--output", help="write to this file instead of the screen")
+        if name == "solve":
+            p.add_argument("--csv", action="store_true", help="the results table as CSV (SI units)")
+    sw = sub.add_parser("sweep", help="one driver turn: CSV of every pose, or the peaks table")
+    sw.add_argument("file")
+    sw.add_argument("--steps", type=int, default=360)
+    sw.add_argument("--peaks", action="store_true", help="print the peaks table")
+    sw.add_argument("--json", action="store_true", help="peaks and CSV as JSON")
+    sw.add_argument("-o", "--output")
+    return parser
+
+
+def main(argv=None) -> int:
+    argv = list(sys.argv[1:] if argv is None else argv)
+    if argv and argv[0] == "export":
+        runner = lambda: _export(argv[1:])  # noqa: E731
+    else:
+        args = _parser().parse_args(argv)
+        runner = lambda: {"check": _check, "solve": _solve, "construct": _construct,  # noqa: E731
+                          "sweep": _sweep}[args.command](args)
+    try:
+        return runner()
+    except CannotAssemble as err:
+        print(f"error: {err}", file=sys.stderr)
+        return 3
+    except MechanismFindings as err:
+        for finding in err.findings:
+            print(f"error: {finding}", file=sys.stderr)
+        return 2
+    except KinematicsError as err:
+        print(f"error: {err}", file=sys.stderr)
+        return 2
+    except OSError as err:
+        print(f"error: {err.filename or ''}: {err.strerror or err}", file=sys.stderr)
+        return 2
+
+
+if __name__ == "__main__":
+    sys.exit(main())

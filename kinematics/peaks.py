@@ -1,0 +1,63 @@
+"""The peaks of a cycle: largest speeds and accelerations and where they occur."""
+
+from __future__ import annotations
+
+import numpy as np
+
+from .checks import output_motion, transmission_angles
+from .sweep import Sweep
+
+
+def _at(values, angles):
+    i = int(np.argmax(values))
+    return float(values[i]), float(angles[i])
+
+
+def peaks(result: Sweep) -> dict:
+    """Peaks table of a sweep, SI units, angles in degrees of driver angle.
+
+    ``points``: name -> max |v| (m/s), max |a| (m/s²) and where; ``links``: max
+    |ω|, |α|; ``slides``: max |sliding velocity|, |sliding acceleration|;
+    ``transmission``: minimum angle and where; ``output``: limit positions,
+    travel and time ratio; ``velocity_ratio``: output rate over driver speed,
+    its extremes over the cycle.
+    """
+    mech, angles = result.mechanism, result.driver_angle_deg
+    points = {}
+    for i, name in enumerate(result.point_names):
+        speed, at_v = _at(np.linalg.norm(result.velocities[:, i], axis=1), angles)
+        accel, at_a = _at(np.linalg.norm(result.accelerations[:, i], axis=1), angles)
+        points[name] = {"max_speed": speed, "at_deg": at_v, "max_acceleration": accel, "acceleration_at_deg": at_a}
+    links = {}
+    for link in mech.links:
+        w, at_w = _at(np.abs(result.angular_velocity[link]), angles)
+        a, at_a = _at(np.abs(result.angular_acceleration[link]), angles)
+        links[link] = {"max_angular_velocity": w, "at_deg": at_w, "max_angular_acceleration": a,
+                       "acceleration_at_deg": at_a}
+    slides = {}
+    for slide in mech.slides:
+        v, at_v = _at(np.abs(result.sliding_velocity[slide]), angles)
+        a, at_a = _at(np.abs(result.sliding_acceleration[slide]), angles)
+        slides[slide] = {"max_sliding_velocity": v, "at_deg": at_v, "max_sliding_acceleration": a,
+                         "acceleration_at_deg": at_a}
+    transmission = {}
+    for key, mu in transmission_angles(mech, result).items():
+        deviation, at = _at(np.abs(mu - 90.0), angles)
+        transmission[key] = {"min_deg": float(mu.min()), "at_deg": float(angles[int(np.argmin(mu))]),
+                             "max_deg": float(mu.max()), "largest_deviation_from_90_deg": deviation,
+                             "deviation_at_deg": at}
+    table = {"points": points, "links": links, "slides": slides, "transmission": transmission,
+             "output": output_motion(mech, result), "full_turn": result.full_turn,
+             "range_deg": list(result.range_deg), "closes": result.closes}
+    out = mech.output
+    omega = mech.driver.speed_rad_s
+    if out is not None and omega != 0.0:
+        if "link" in out:
+            ratio, unit = result.angular_velocity[out["link"]] / omega, "rad/rad"
+        else:
+            i = result.point_names.index(out["point"])
+            ratio, unit = np.linalg.norm(result.velocities[:, i], axis=1) / abs(omega), "m/rad"
+        table["velocity_ratio"] = {"unit": unit, "min": float(ratio.min()), "max": float(ratio.max()),
+                                   "min_at_deg": float(angles[int(np.argmin(ratio))]),
+                                   "max_at_deg": float(angles[int(np.argmax(ratio))])}
+    return table
