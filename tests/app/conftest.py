@@ -1,0 +1,31 @@
+"""Fixtures for the window tests: a window on a known design, settings kept in a temporary folder."""
+
+import pytest
+from PySide6.QtCore import QSettings
+
+from app import files
+from app.window import MainWindow
+
+from .designs import FOUR_BAR, load
+
+
+@pytest.fixture(autouse=True)
+def private_settings(tmp_path, monkeypatch):
+    """Recent files go to a temporary INI file, never the user's own settings."""
+    path = str(tmp_path / "settings.ini")
+    monkeypatch.setattr(files, "settings", lambda: QSettings(path, QSettings.IniFormat))
+
+
+@pytest.fixture
+def make_window(qtbot, monkeypatch):
+    """A factory of shown windows; closing them never asks about unsaved changes unless a test says so."""
+    def make(design=FOUR_BAR, path=None):
+        window = MainWindow(load(design), path)
+        qtbot.addWidget(window)
+        window.show()
+        qtbot.waitExposed(window)
+        window.drawings.fit_all()
+        return window
+
+    monkeypatch.setattr(MainWindow, "ask_to_save", lambda self: True)
+    return make
