@@ -1,0 +1,84 @@
+"""The analysis commands, run as a user runs them."""
+
+import json
+import subprocess
+import sys
+
+import pytest
+
+from tests.kinematics.common import SAMPLES, four_bar
+
+QUICK = str(SAMPLES / "tile-trimmer-quick-return.json")
+
+
+def run(*args):
+    return subprocess.run([sys.executable, "-m", "app.main", *args], capture_output=True, text=True)
+
+
+def test_solve_json_is_si_at_full_precision():
+    out = run("solve", QUICK, "--angle", "30", "--json")
+    assert out.returncode == 0, out.stderr
+    data = json.loads(out.stdout)
+    assert data["kinepoly_result"] == 1 and data["driver_angle_deg"] == 30.0
+    assert data["units"]["acceleration"] == "m/s^2"
+    assert set(data["slides"]) == {"slot", "ram"} and data["slides"]["slot"]["point"] == "A"
+    import kinematics
+
+    solution = kinematics.solve(kinematics.load_mechanism(QUICK), 30.0)
+    assert data["points"]["T"]["acceleration"] == solution.acceleration("T").tolist()
+
+
+def test_readable_table_and_construction_words():
+    out = run("solve", QUICK)
+    assert out.returncode == 0 and "ω [rad/s]" in out.stdout and "CCW" in out.stdout and "Caution" in out.stdout
+    words = run("construct", QUICK, "--angle", "30")
+    assert "Coriolis component of A sliding on lever" in words.stdout
+    assert "cross-check against the numeric solver" in words.stdout
+    data = json.loads(run("construct", QUICK, "--json").stdout)
+    assert data["kinepoly_construction"] == 1 and data["crosscheck"]["max_relative_difference"] < 1e-9
+    assert data["velocity"]["steps"][0]["geometry"].startswith("POINT")
+
+
+def test_check_reports_the_trade_figures():
+    out = run("check", QUICK)
+    assert out.returncode == 0, out.stderr
+    assert "crank and slotted lever crank-lever: r + |e| < d" in out.stdout
+    assert "time ratio 1.7100" in out.stdout
+
+
+def test_exit_codes(tmp_path):
+    unfinished = tmp_path / "unfinished.json"
+    doc = four_bar(40, 120, 100, 140, 30)
+    del doc["driver"]
+    unfinished.write_text(json.dumps(doc))
+    out = run("check", str(unfinished))
+    assert out.returncode == 2 and "driver: no driver" in out.stderr
+    bad = tmp_path / "bad.json"
+    bad.write_text('{"kinepoly": 1, "points": {"A": [0, 0]}, "links": {"bar": ["A", "Q"]}}')
+    out = run("solve", str(bad))
+    assert out.returncode == 2
+    assert out.stderr.strip() == f'error: {bad}: links.bar[1]: unknown point "Q"'
+    assert "Traceback" not in out.stderr
+    rocker = tmp_path / "rocker.json"
+    rocker.write_text(json.dumps(four_bar(100, 60, 90, 120, 60)))
+    out = run("solve", str(rocker), "--angle", "212")
+    assert out.returncode == 3 and "cannot assemble at driver angle 212.0°" in out.stderr
+
+
+@pytest.mark.parametrize("extra", [["--peaks"], []])
+def test_sweep_command(tmp_path, extra):
+    target = tmp_path / "cycle.csv"
+    out = run("sweep", QUICK, "--steps", "36", "-o", str(target), *extra)
+    assert out.returncode == 0, out.stderr
+    text = target.read_text()
+    if extra:
+        assert json.loads(text)["output"]["time_ratio"] > 1.6
+    else:
+        assert len(text.splitlines()) == 37
+
+
+def test_unwritable_output_says_so(tmp_path):
+    target = tmp_path / "missing-folder" / "cycle.csv"
+    out = run("sweep", QUICK, "-o", str(target))
+    assert out.returncode == 2 and "No such file or directory" in out.stderr
+    assert not target.parent.exists()
