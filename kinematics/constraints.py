@@ -16,6 +16,7 @@ of the graphical construction.
 from __future__ import annotations
 
 from dataclasses import dataclass
+from functools import cached_property
 
 import numpy as np
 
@@ -24,7 +25,7 @@ from .model import Mechanism
 DOT, CROSS = 0, 1
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, eq=False)
 class ConstraintSystem:
     """Index arrays of one mechanism's constraints (SI coordinates).
 
@@ -59,21 +60,33 @@ class ConstraintSystem:
 
     def jacobian(self, x: np.ndarray) -> np.ndarray:
         """d(values)/d(flattened coordinates of all points), shape (..., m, 2n)."""
-        m, n = len(self.kind), len(self.names)
         u = x[..., self.a, :] - x[..., self.b, :]
         v = x[..., self.c, :] - x[..., self.d, :]
+        keep, turn_first, turn_second = self.factors
+        # dot: d/du = v, d/dv = u; cross: d/du = (v_y, −v_x), d/dv = (−u_y, u_x).
+        du = v * keep + v[..., ::-1] * turn_first
+        dv = u * keep + u[..., ::-1] * turn_second
+        first, second = self.selectors
+        return np.einsum("...ik,ikj->...ij", du, first) + np.einsum("...ik,ikj->...ij", dv, second)
+
+    @cached_property
+    def factors(self):
         is_dot = (self.kind == DOT)[:, None]
         w = self.weight[:, None]
-        du = np.where(is_dot, v, np.stack([v[..., 1], -v[..., 0]], axis=-1)) * w
-        dv = np.where(is_dot, u, np.stack([-u[..., 1], u[..., 0]], axis=-1)) * w
-        jac = np.zeros(x.shape[:-2] + (m, n, 2))
-        rows = np.arange(m)
-        # Each row index appears once per statement, so += accumulates correctly.
-        jac[..., rows, self.a, :] += du
-        jac[..., rows, self.b, :] -= du
-        jac[..., rows, self.c, :] += dv
-        jac[..., rows, self.d, :] -= dv
-        return jac.reshape(x.shape[:-2] + (m, 2 * n))
+        return (is_dot * w, ~is_dot * w * np.array([1.0, -1.0]), ~is_dot * w * np.array([-1.0, 1.0]))
+
+    @cached_property
+    def selectors(self):
+        """(m, 2, 2n) arrays: which coordinate each row's first and second difference moves."""
+        m, n = len(self.kind), len(self.names)
+        first, second = np.zeros((m, 2, 2 * n)), np.zeros((m, 2, 2 * n))
+        for i in range(m):
+            for k in (0, 1):
+                first[i, k, 2 * self.a[i] + k] += 1.0
+                first[i, k, 2 * self.b[i] + k] -= 1.0
+                second[i, k, 2 * self.c[i] + k] += 1.0
+                second[i, k, 2 * self.d[i] + k] -= 1.0
+        return first, second
 
     def quadratic_term(self, xdot: np.ndarray) -> np.ndarray:
         """Second time derivative of the values at zero acceleration: 2·(u̇ ∘ v̇)."""

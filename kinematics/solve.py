@@ -16,8 +16,10 @@ from dataclasses import dataclass
 import numpy as np
 
 from .constraints import ConstraintSystem, build_system, reference_driver_angle
+from .decompose import decompose
 from .errors import CannotAssemble
 from .model import Mechanism
+from .poses import pose_warnings
 
 MAX_STEP_RAD = math.radians(10.0)
 MIN_STEP_RAD = 1e-9
@@ -244,6 +246,7 @@ def solve_pose(mechanism: Mechanism, angle_deg=None, system: ConstraintSystem | 
     slide_v, slide_a = _slide_rates(mechanism, index, x, xdot, xddot, link_omega, link_alpha)
     if condition > NEAR_SINGULAR_CONDITION:
         warnings.append(f"near a dead point of the driver: condition figure {condition:.3g}")
+    warnings += pose_warnings(mechanism, decompose(mechanism), {n: tuple(x[i]) for i, n in enumerate(system.names)})
     degrees = math.degrees(theta)
     return Solution(mechanism=mechanism, driver_angle_deg=degrees if angle_deg is None else float(angle_deg),
                     point_names=system.names, positions=x, velocities=xdot, accelerations=xddot,

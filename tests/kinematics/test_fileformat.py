@@ -144,3 +144,18 @@ def test_core_never_imports_qt():
            "print(any(m.startswith(('PySide6', 'app')) for m in sys.modules))"
     out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, check=True)
     assert out.stdout.strip() == "False"
+
+
+def test_dead_point_and_toggle_are_told_apart():
+    rocker = kinematics.load_mechanism(four_bar(100, 60, 90, 120, 60))
+    from kinematics.sweep import driver_range
+
+    _, (low, high) = driver_range(rocker)
+    near_dead = kinematics.solve(rocker, high - 0.01)
+    assert any(w.startswith("near a dead point of the driver: links coupler and rocker are") for w in near_dead.warnings)
+    # A crank-rocker's limit position: crank and coupler in line, the rocker at rest (well-conditioned).
+    press = kinematics.load_mechanism(SAMPLES / "tablet-press-toggle.json")
+    toggle = kinematics.solve(press, 42.0)
+    assert toggle.warnings == ("toggle: links upper and lower are 2.46° from being in line at B; the links it "
+                               "drives are momentarily at rest",)
+    assert toggle.condition < 1e3
