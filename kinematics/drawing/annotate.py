@@ -1,5 +1,5 @@
 """What a sheet says besides the drawing: scale bars, the title block with
-the caution, the results table."""
+the caution."""
 
 from __future__ import annotations
 
@@ -11,10 +11,10 @@ from ..style import ANNOTATION
 from .scaling import bar_value, plain
 from .sheet import FRAME, Hatch, Line, Polyline, Recorder, Text
 from .symbols import Symbols
-from .table import link_rows, point_rows, slide_rows
 
-# Advance of one character over the capital height, generous for DejaVu Sans
-# (measured with Qt on "m/s²  ω  0.1234": 0.70 to 0.78), so estimated widths never run over.
+# Advance of one character over the capital height: measured with Qt 6.11 for
+# DejaVu Sans, 0.70 for prose and 0.80 for digits; the larger keeps every
+# estimated width (table columns, wrapping) from running short.
 WIDTH_PER_HEIGHT = 0.8
 ROW = 1.8  # row pitch over text height in tables and the title block
 BAR_DIVISIONS = 4
@@ -80,9 +80,10 @@ def description(construction, scales: dict, file_name: str, date: str) -> list:
                f"{driver.angular_acceleration_rad_s2:.4g} rad/s²")
     scale_text = " · ".join(f"{name} {text}" for name, text in scales.items())
     lines = [("Title", mech.title or "(untitled mechanism)"), ("Driver", driving), ("Scales", scale_text)]
-    where = "  ".join(part for part in (f"File: {file_name}" if file_name else "", f"Date: {date}") if part)
-    lines.append(("Issued", where + "  ·  Kinepoly: exact graphical construction, cross-checked with a solver "
-                  f"(largest difference {construction.max_relative_difference:.1e})"))
+    lines.append(("Check", "polygons against the numeric solver: largest relative difference "
+                  f"{construction.max_relative_difference:.1e} at {construction.where or '-'}"))
+    lines.append(("Issued", "  ·  ".join(part for part in (f"file {file_name}" if file_name else "", f"date {date}",
+                                                             "Kinepoly") if part)))
     return lines
 
 
@@ -90,9 +91,10 @@ def caution_lines(width: float, height: float) -> list:
     return textwrap.wrap(CAUTION, width=max(20, int(width / (height * WIDTH_PER_HEIGHT))))
 
 
-def title_block_height(width: float, size: Symbols) -> float:
-    pitch = ROW * size.text
-    return 2 * pitch + 3 * pitch + len(caution_lines(width - 2 * size.text, size.text)) * pitch + 0.5 * pitch
+def title_block_height(lines: list, width: float, size: Symbols) -> float:
+    """Height of the title block for these description ``lines`` at ``width`` mm."""
+    caution = caution_lines(width - 2 * size.text, size.text)
+    return ROW * size.text * (2.0 + 0.5 + (len(lines) - 1) + 0.5 + len(caution) + 0.6)
 
 
 def title_block(rec: Recorder, box, lines: list, size: Symbols) -> None:
@@ -103,59 +105,20 @@ def title_block(rec: Recorder, box, lines: list, size: Symbols) -> None:
     ids = {"part": "title block"}
     outline_box(rec, x0, y0, x1, y1, FRAME, **ids)
     (_, title), *rest = lines
-    y = y1 - 1.5 * pitch
+    y = y1 - 1.6 * pitch
     rec.add(Text(position=(x0 + pad, y), text=title, height=2 * size.text, pen=ANNOTATION, **ids))
-    y -= 0.5 * pitch
+    y -= 0.4 * pitch
     rec.add(Line(start=(x0, y), end=(x1, y), pen=ANNOTATION, **ids))
+    y -= 0.5 * pitch
     for label, text in rest:
         y -= pitch
         rec.add(Text(position=(x0 + pad, y), text=f"{label}:", height=size.small_text, pen=ANNOTATION, **ids))
-        rec.add(Text(position=(x0 + pad + 9 * size.small_text, y), text=text, height=size.text, pen=ANNOTATION,
+        room = x1 - x0 - 2 * pad - 9 * size.small_text
+        fitted = textwrap.shorten(text, width=max(10, int(room / (size.text * WIDTH_PER_HEIGHT))), placeholder=" …")
+        rec.add(Text(position=(x0 + pad + 9 * size.small_text, y), text=fitted, height=size.text, pen=ANNOTATION,
                      **ids))
     y -= 0.5 * pitch
     rec.add(Line(start=(x0, y), end=(x1, y), pen=ANNOTATION, **ids))
     for line in caution_lines(x1 - x0 - 2 * pad, size.text):
         y -= pitch
         rec.add(Text(position=(x0 + pad, y), text=line, height=size.text, pen=ANNOTATION, **ids))
-
-
-def _tables(solution) -> list:
-    tables = [(("Point", "|v| m/s", "|a| m/s²"), point_rows(solution)),
-              (("Link", "ω rad/s", "α rad/s²"), link_rows(solution))]
-    if solution.sliding_velocity:
-        tables.append((("Slide", "v m/s", "a m/s²"), slide_rows(solution)))
-    return tables
-
-
-def results_table_height(solution, size: Symbols) -> float:
-    rows = max(len(rows) for _, rows in _tables(solution)) + 1
-    return (rows + 1) * ROW * size.text
-
-
-def results_table(rec: Recorder, box, solution, size: Symbols) -> None:
-    """Point, link and slide results side by side in ``box`` (angular values CCW positive)."""
-    x0, y0, x1, y1 = box
-    pitch = ROW * size.text
-    ids = {"part": "results table"}
-    rec.add(Text(position=(x0, y1 - 0.7 * pitch), text="Results (SI; ω, α counter-clockwise positive)",
-                 height=size.small_text, pen=ANNOTATION, **ids))
-    x = x0
-    top = y1 - pitch
-    for header, rows in _tables(solution):
-        widths = [max(text_width(str(row[c]), size.text) for row in [header, *rows]) + 2 * size.text
-                  for c in range(len(header))]
-        right = x + sum(widths)
-        bottom = top - pitch * (len(rows) + 1)
-        outline_box(rec, x, bottom, right, top, ANNOTATION, **ids)
-        rec.add(Line(start=(x, top - pitch), end=(right, top - pitch), pen=ANNOTATION, **ids))
-        for r, row in enumerate([header, *rows]):
-            baseline = top - (r + 1) * pitch + 0.5 * (pitch - size.text)
-            left = x
-            for c, cell in enumerate(row):
-                align, at = ("left", left + size.text) if c == 0 else ("right", left + widths[c] - size.text)
-                rec.add(Text(position=(at, baseline), text=str(cell), height=size.text, pen=ANNOTATION,
-                             align=align, **ids))
-                left += widths[c]
-        x = right + 2 * size.text
-        if x > x1:
-            break

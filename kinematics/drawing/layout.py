@@ -5,6 +5,7 @@ true-size model drawing the DXF writer replays."""
 from __future__ import annotations
 
 import datetime
+import math
 from dataclasses import dataclass
 
 from ..style import ANNOTATION
@@ -13,14 +14,13 @@ from .annotate import (
     description,
     outline_box,
     printed_unit,
-    results_table,
-    results_table_height,
     scale_bar,
     scale_bar_height,
     title_block,
     title_block_height,
 )
 from .polygons import draw_polygon, polygon_bounds
+from .results import results_band, results_height
 from .scaling import bar_value, iso5455_ratio, plain, polygon_scale, ratio_text
 from .sheet import FRAME, Recorder, Sheet, Text, View
 from .space import draw_space, positions
@@ -69,43 +69,65 @@ def _centred_view(name, fit: _Fit, box, unit) -> View:
     return View(name=name, box=box, origin=origin, mm_per_unit=fit.mm_per_unit, unit=unit, scale_text=fit.scale_text)
 
 
-def _view_boxes(area, landscape: bool) -> dict:
+def _arrangements(area) -> list:
+    """Ways to share ``area`` among the three views: space diagram above the
+    two polygons, three columns, space diagram beside the polygons stacked."""
     x0, y0, x1, y1 = area
-    if landscape:
-        middle_x, middle_y = 0.5 * (x0 + x1), 0.5 * (y0 + y1)
-        return {"space": (x0, y0, middle_x - GAP / 2, y1),
-                "velocity": (middle_x + GAP / 2, middle_y + GAP / 2, x1, y1),
-                "acceleration": (middle_x + GAP / 2, y0, x1, middle_y - GAP / 2)}
-    split_y = y0 + 0.45 * (y1 - y0)
-    middle_x = 0.5 * (x0 + x1)
-    return {"space": (x0, split_y + GAP / 2, x1, y1),
-            "velocity": (x0, y0, middle_x - GAP / 2, split_y - GAP / 2),
-            "acceleration": (middle_x + GAP / 2, y0, x1, split_y - GAP / 2)}
+    w, h, g = x1 - x0, y1 - y0, GAP / 2
+    above = {"space": (x0, y0 + 0.45 * h + g, x1, y1), "velocity": (x0, y0, x0 + 0.5 * w - g, y0 + 0.45 * h - g),
+             "acceleration": (x0 + 0.5 * w + g, y0, x1, y0 + 0.45 * h - g)}
+    columns = {"space": (x0, y0, x0 + 0.4 * w - g, y1), "velocity": (x0 + 0.4 * w + g, y0, x0 + 0.7 * w - g, y1),
+               "acceleration": (x0 + 0.7 * w + g, y0, x1, y1)}
+    beside = {"space": (x0, y0, x0 + 0.5 * w - g, y1), "velocity": (x0 + 0.5 * w + g, y0 + 0.5 * h + g, x1, y1),
+              "acceleration": (x0 + 0.5 * w + g, y0, x1, y0 + 0.5 * h - g)}
+    return [above, columns, beside]
 
 
-def _draw_view(rec: Recorder, construction, name: str, box, size: Symbols) -> View:
-    """Fit, place and draw one view in ``box`` with its scale bar at the bottom."""
+def _fit_view(construction, name: str, box, size: Symbols) -> View:
+    """The view ``name`` fitted and centred in ``box``, room kept for its scale bar at the bottom."""
     bx0, by0, bx1, by1 = box
-    bar = scale_bar_height(size)
-    inner = (bx0 + VIEW_PAD, by0 + bar + VIEW_PAD, bx1 - VIEW_PAD, by1 - VIEW_PAD)
-    width, height = inner[2] - inner[0], inner[3] - inner[1]
-    solution = construction.solution
+    inner = (bx0 + VIEW_PAD, by0 + scale_bar_height(size) + VIEW_PAD, bx1 - VIEW_PAD, by1 - VIEW_PAD)
+    width, height = max(inner[2] - inner[0], 1.0), max(inner[3] - inner[1], 1.0)
     if name == "space":
-        fit, unit = _fit_space(solution, width, height), "m"
+        fit, unit = _fit_space(construction.solution, width, height), "m"
     else:
         polygon = getattr(construction, name)
         fit, unit = _fit_polygon(polygon, width, height), polygon.unit
-    view = _centred_view(name, fit, inner, unit)
+    return _centred_view(name, fit, inner, unit)
+
+
+def _best_views(construction, area, size: Symbols) -> dict:
+    """The arrangement whose views come out largest (product of their drawn sizes)."""
+    def score(views):
+        return math.prod(_extent_mm(construction, v) for v in views.values())
+
+    candidates = [{name: _fit_view(construction, name, box, size) for name, box in boxes.items()}
+                  for boxes in _arrangements(area)]
+    return max(candidates, key=score)
+
+
+def _extent_mm(construction, view: View) -> float:
+    """Diagonal of a view's drawing on paper, mm (at least 1 so a point-like polygon scores)."""
+    if view.name == "space":
+        x0, y0, x1, y1 = _space_bounds(construction.solution)
+    else:
+        x0, y0, x1, y1 = polygon_bounds(getattr(construction, view.name))
+    return max(1.0, math.hypot(x1 - x0, y1 - y0) * view.mm_per_unit)
+
+
+def _draw_view(rec: Recorder, construction, view: View, size: Symbols) -> None:
+    """Draw one fitted view and its scale bar under it."""
     rec.add_view(view)
-    if name == "space":
-        draw_space(rec, solution, view, size)
+    if view.name == "space":
+        draw_space(rec, construction.solution, view, size)
         per_value, bar_unit = view.mm_per_unit / 1000.0, "mm"  # the bar reads true millimetres
     else:
-        draw_polygon(rec, getattr(construction, name), solution, view, size)
-        per_value, bar_unit = view.mm_per_unit, unit
-    scale_bar(rec, (bx0 + size.text, by0 + 1.2 * size.text), per_value, bar_unit, min(60.0, 0.5 * (bx1 - bx0)),
-              f"{NAMES[name]} {view.scale_text}", size, name)
-    return view
+        draw_polygon(rec, getattr(construction, view.name), construction.solution, view, size)
+        per_value, bar_unit = view.mm_per_unit, view.unit
+    bx0, by0, bx1, _ = view.box
+    left, bottom = bx0 - VIEW_PAD, by0 - VIEW_PAD - scale_bar_height(size)
+    scale_bar(rec, (left + size.text, bottom + 1.2 * size.text), per_value, bar_unit,
+              min(60.0, 0.6 * (bx1 - bx0 + 2 * VIEW_PAD)), f"{NAMES[view.name]} {view.scale_text}", size, view.name)
 
 
 def _scales(views: dict) -> dict:
@@ -128,16 +150,17 @@ def draw_sheet(construction, paper: str = "A4", landscape: bool = False, file_na
     frame = (MARGIN_FILING, MARGIN, width - MARGIN, height - MARGIN)
     rec.add_view(View("sheet", (0.0, 0.0, width, height), (0.0, 0.0), 1.0, "mm", "1:1"))
     outline_box(rec, *frame, FRAME, part="frame")
-    frame_width = frame[2] - frame[0]
-    block_height = title_block_height(frame_width, size)
-    table_height = results_table_height(construction.solution, size)
-    views = {}
-    area = (frame[0] + GAP, frame[1] + block_height + table_height + GAP, frame[2] - GAP, frame[3] - GAP)
-    for name, box in _view_boxes(area, landscape).items():
-        views[name] = _draw_view(rec, construction, name, box, size)
-    results_table(rec, (frame[0] + GAP, frame[1] + block_height, frame[2] - GAP,
-                        frame[1] + block_height + table_height), construction.solution, size)
-    lines = description(construction, _scales(views), file_name, date or datetime.date.today().isoformat())
+    date = date or datetime.date.today().isoformat()
+    # The scales are not known before the views are fitted; the block's height does not depend on them.
+    block_height = title_block_height(description(construction, {}, file_name, date), frame[2] - frame[0], size)
+    table_top = frame[1] + block_height + GAP + results_height(construction, frame[2] - frame[0] - 2 * GAP, size)
+    area = (frame[0] + GAP, table_top + GAP, frame[2] - GAP, frame[3] - GAP)
+    views = _best_views(construction, area, size)
+    for view in views.values():
+        _draw_view(rec, construction, view, size)
+    results_band(rec, (frame[0] + GAP, frame[1] + block_height + GAP, frame[2] - GAP, table_top),
+                  construction, size)
+    lines = description(construction, _scales(views), file_name, date)
     title_block(rec, (frame[0], frame[1], frame[2], frame[1] + block_height), lines, size)
     return rec.sheet(width, height, title=construction.solution.mechanism.title)
 

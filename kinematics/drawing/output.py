@@ -31,12 +31,20 @@ def write_atomically(target, write) -> None:
     os.close(handle)
     try:
         write(temporary)
+        # mkstemp makes the file private; give it the mode a plain new file (or the old one) would have.
+        os.chmod(temporary, target.stat().st_mode & 0o7777 if target.exists() else 0o666 & ~_umask())
         os.replace(temporary, target)
     except OSError as err:
         raise OutputError(f"cannot write the file: {err.strerror or err}", str(target)) from None
     finally:
         if os.path.exists(temporary):
             os.remove(temporary)
+
+
+def _umask() -> int:
+    mask = os.umask(0)
+    os.umask(mask)
+    return mask
 
 
 def construction_from_file(path, angle_deg=None):

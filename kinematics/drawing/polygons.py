@@ -15,6 +15,8 @@ from .sheet import Circle, Line, Polyline, Recorder, View
 from .space import outline, positions
 from .symbols import Symbols
 
+_LAYER_ORDER = {Role.DIRECTION: 0, Role.KNOWN: 1, Role.RESULT: 1, Role.INTERSECTION: 2, Role.IMAGE: 2}
+
 
 def polygon_bounds(polygon) -> tuple:
     """(x0, y0, x1, y1) of everything a polygon draws, in its units, pole included."""
@@ -28,21 +30,22 @@ def polygon_bounds(polygon) -> tuple:
 def draw_polygon(rec: Recorder, polygon, solution, view: View, size: Symbols) -> None:
     """Record ``polygon`` (a :class:`kinematics.Polygon` of ``solution``) into ``view``."""
     ids = {"view": view.name}
-    labels = {}
-    for step in polygon.steps:
+    _draw_image_figures(rec, polygon, solution, view, ids)
+    # Construction lines first, vectors over them, points and labels on top: the order a reader needs.
+    for step in sorted(polygon.steps, key=lambda s: _LAYER_ORDER[s.role]):
         pen = pen_for(step)
         coords = [view.place(c) for c in step.geometry.coords]
         if step.role is Role.DIRECTION:
             rec.add(Line(start=coords[0], end=coords[-1], pen=pen, step=step.id, **ids))
         elif step.is_vector:
             symbols.arrow(rec, coords[0], coords[-1], pen, size, step=step.id, **ids)
-            if step.label:
-                labels.setdefault(step.label, (coords[-1], step.id))
         else:
             rec.add(Circle(centre=coords[0], radius=size.dot, pen=pen, filled=True, step=step.id, **ids))
-            if step.label:
-                labels.setdefault(step.label, (coords[0], step.id))
-    _draw_image_figures(rec, polygon, solution, view, ids)
+    labels = {}
+    for step in polygon.steps:
+        if step.label:
+            where = step.geometry.coords[-1]  # a point, or the end of a vector, carries the label
+            labels.setdefault(step.label, (view.place(where), step.id))
     centre = tuple(np.mean([where for where, _ in labels.values()], axis=0)) if labels else view.origin
     for text, (where, step_id) in labels.items():
         symbols.label(rec, where, text, centre, IMAGE, size, gap=size.dot, step=step_id, **ids)

@@ -58,12 +58,15 @@ def draw_space(rec: Recorder, solution, view: View, size: Symbols) -> None:
     for slide in mech.slides.values():
         _draw_slide(rec, slide, at, size, ids)
     centre = tuple(np.mean(list(at.values()), axis=0))
+    sliding = {slide.point for slide in mech.slides.values()}
     for name, where in at.items():
         bodies = mech.bodies_of(name)
         if GROUND in bodies:
             symbols.fixed_pivot(rec, where, SPACE_GROUND, size, part=name, **ids)
         symbols.pin(rec, where, SPACE_LINK, size, joint=len(bodies) > 1, part=name, **ids)
-        symbols.label(rec, where, name, centre, SPACE_LINK, size, gap=size.pin, part=name, **ids)
+        # A label clears the fixed-pivot mark under its pin, or the slider block round it.
+        gap = 5.0 * size.pin if GROUND in bodies else 4.0 * size.pin if name in sliding else size.pin
+        symbols.label(rec, where, name, centre, SPACE_LINK, size, gap=gap, part=name, **ids)
     if mech.driver is not None:
         _draw_driver_sense(rec, mech.driver, mech.links[mech.driver.link], at, size, ids)
 
@@ -91,8 +94,8 @@ def _draw_driver_sense(rec: Recorder, driver, link_points, at, size: Symbols, id
     tx, ty = at[others[0]]
     start = math.atan2(ty - cy, tx - cx)
     sense = 1.0 if driver.speed_rad_s > 0 else -1.0
-    radius = 5.0 * size.pin
-    angles = [start + sense * math.radians(25 + 5 * k) for k in range(13)]
+    radius = 7.0 * size.pin
+    angles = [start + sense * math.radians(20 + 5 * k) for k in range(21)]  # 20° to 120° past the crank
     points = tuple((cx + radius * math.cos(a), cy + radius * math.sin(a)) for a in angles)
-    rec.add(Polyline(points=points[:-1], pen=ANNOTATION, part=driver.link, **ids))
-    symbols.arrow(rec, points[-3], points[-1], ANNOTATION, size, part=driver.link, **ids)
+    rec.add(Polyline(points=points[:-8], pen=ANNOTATION, part=driver.link, **ids))
+    symbols.arrow(rec, points[-9], points[-1], ANNOTATION, size, part=driver.link, **ids)

@@ -50,27 +50,33 @@ def results_csv(solution) -> str:
     return out.getvalue()
 
 
-def _short(value: float) -> str:
-    return f"{value:.4g}"
+def _short(value: float, reference: float) -> str:
+    # Round-off of a quantity that is zero (a crank's α at constant speed) prints as 0, not 9e-14.
+    return "0" if abs(value) <= 1e-9 * reference else f"{value:.4g}"
+
+
+def _reference(values) -> float:
+    return max((abs(v) for v in values), default=0.0)
 
 
 def point_rows(solution) -> list:
     """Rows (point, |v| m/s, |a| m/s²) for the printed table, 4 significant figures."""
-    rows = []
-    for i, name in enumerate(solution.point_names):
-        if name in solution.mechanism.ground:
-            continue
-        rows.append((name, _short(math.hypot(*solution.velocities[i])), _short(math.hypot(*solution.accelerations[i]))))
-    return rows
+    speeds = [math.hypot(*v) for v in solution.velocities]
+    accelerations = [math.hypot(*a) for a in solution.accelerations]
+    v_ref, a_ref = _reference(speeds), _reference(accelerations)
+    return [(name, _short(speeds[i], v_ref), _short(accelerations[i], a_ref))
+            for i, name in enumerate(solution.point_names) if name not in solution.mechanism.ground]
 
 
 def link_rows(solution) -> list:
     """Rows (link, ω rad/s, α rad/s²) for the printed table; CCW positive."""
-    return [(link, _short(omega), _short(solution.angular_acceleration[link]))
+    w_ref, a_ref = _reference(solution.angular_velocity.values()), _reference(solution.angular_acceleration.values())
+    return [(link, _short(omega, w_ref), _short(solution.angular_acceleration[link], a_ref))
             for link, omega in solution.angular_velocity.items()]
 
 
 def slide_rows(solution) -> list:
     """Rows (slide, sliding velocity m/s, sliding acceleration m/s²) for the printed table."""
-    return [(slide, _short(speed), _short(solution.sliding_acceleration[slide]))
+    v_ref, a_ref = _reference(solution.sliding_velocity.values()), _reference(solution.sliding_acceleration.values())
+    return [(slide, _short(speed, v_ref), _short(solution.sliding_acceleration[slide], a_ref))
             for slide, speed in solution.sliding_velocity.items()]

@@ -1,0 +1,196 @@
+"""Printing a construction at true scale: the Sheet replayed on a QPainter
+(QPdfWriter for a PDF file, or a QPrinter the window hands over).
+
+True scale needs four things (see PITFALLS.md): the page in full-page mode
+with our own margins; device pixels per sheet mm read from the device's
+resolution; pens with real widths in mm (never cosmetic); text sized in
+device pixels from its height in mm. The Sheet is painted directly, with no
+QGraphicsScene in between, so no view zoom or item cache can get in the way.
+"""
+
+from __future__ import annotations
+
+import argparse
+import os
+from pathlib import Path
+
+from PySide6.QtCore import QMarginsF, QPointF, Qt
+from PySide6.QtGui import (
+    QBrush,
+    QColor,
+    QFont,
+    QFontMetricsF,
+    QGuiApplication,
+    QPageLayout,
+    QPageSize,
+    QPainter,
+    QPdfWriter,
+    QPen,
+    QPolygonF,
+)
+
+from kinematics.drawing import PAPER, Arrow, Circle, Hatch, Line, Polyline, Text, draw_sheet
+from kinematics.drawing.output import OutputError, construction_from_file, run_reporting, write_atomically
+from kinematics.drawing.sheet import DASHES
+
+FONT_FAMILY = "DejaVu Sans"  # Debian fonts-dejavu-core: has ω α ° ² ′ and subscripts
+PDF_RESOLUTION_DPI = 1200
+PAGE_SIZES = {"A0": QPageSize.PageSizeId.A0, "A1": QPageSize.PageSizeId.A1, "A2": QPageSize.PageSizeId.A2,
+              "A3": QPageSize.PageSizeId.A3, "A4": QPageSize.PageSizeId.A4}
+
+
+class PainterBackend:
+    """Replays Sheet primitives (mm, y up) on a painter (device pixels, y down)."""
+
+    def __init__(self, painter: QPainter, sheet_height_mm: float, pixels_per_mm: float):
+        self.painter = painter
+        self.height = sheet_height_mm
+        self.k = pixels_per_mm
+        self._fonts = {}
+
+    def point(self, xy) -> QPointF:
+        return QPointF(xy[0] * self.k, (self.height - xy[1]) * self.k)
+
+    def pen(self, pen) -> QPen:
+        qpen = QPen(QColor(pen.colour))
+        qpen.setWidthF(pen.weight_mm * self.k)
+        qpen.setCosmetic(False)
+        qpen.setCapStyle(Qt.PenCapStyle.FlatCap)
+        qpen.setJoinStyle(Qt.PenJoinStyle.MiterJoin)
+        if pen.dash in DASHES:
+            qpen.setDashPattern(list(DASHES[pen.dash]))  # Qt reads dash patterns in pen widths too
+        return qpen
+
+    def font(self, height_mm: float) -> tuple:
+        """A font whose capitals are ``height_mm`` tall on the device, and its metrics."""
+        pixels = max(1, round(height_mm * self.k))
+        if pixels not in self._fonts:
+            probe = QFont(FONT_FAMILY)
+            probe.setPixelSize(1000)
+            cap_ratio = QFontMetricsF(probe).capHeight() / 1000.0 or 0.73
+            font = QFont(FONT_FAMILY)
+            font.setPixelSize(max(1, round(pixels / cap_ratio)))
+            self._fonts[pixels] = (font, QFontMetricsF(font))
+        return self._fonts[pixels]
+
+    def draw(self, primitive) -> None:
+        p = self.painter
+        solid = QBrush(QColor(primitive.pen.colour))
+        if isinstance(primitive, Line):
+            p.setPen(self.pen(primitive.pen))
+            p.drawLine(self.point(primitive.start), self.point(primitive.end))
+        elif isinstance(primitive, Polyline):
+            p.setPen(self.pen(primitive.pen))
+            polygon = QPolygonF([self.point(xy) for xy in primitive.points])
+            if primitive.closed:
+                p.setBrush(Qt.BrushStyle.NoBrush)
+                p.drawPolygon(polygon)
+            else:
+                p.drawPolyline(polygon)
+        elif isinstance(primitive, Arrow):
+            p.setPen(self.pen(primitive.pen))
+            p.drawLine(self.point(primitive.start), self.point(primitive.end))
+            self._fill(primitive.head, solid)
+        elif isinstance(primitive, Hatch):
+            self._fill(primitive.points, solid)
+        elif isinstance(primitive, Circle):
+            p.setPen(self.pen(primitive.pen))
+            p.setBrush(solid if primitive.filled else Qt.BrushStyle.NoBrush)
+            r = primitive.radius * self.k
+            p.drawEllipse(self.point(primitive.centre), r, r)
+        elif isinstance(primitive, Text):
+            self._text(primitive)
+        else:
+            raise TypeError(f"no way to paint {type(primitive).__name__}")
+
+    def _fill(self, points, brush) -> None:
+        self.painter.setPen(Qt.PenStyle.NoPen)
+        self.painter.setBrush(brush)
+        self.painter.drawPolygon(QPolygonF([self.point(xy) for xy in points]))
+
+    def _text(self, text: Text) -> None:
+        font, metrics = self.font(text.height)
+        at = self.point(text.position)
+        width = metrics.horizontalAdvance(text.text)
+        x = at.x() - {"left": 0.0, "centre": 0.5 * width, "right": width}[text.align]
+        y = at.y() + {"baseline": 0.0, "middle": 0.5 * metrics.capHeight(), "top": metrics.capHeight()}[text.anchor]
+        self.painter.setFont(font)
+        self.painter.setPen(QColor(text.pen.colour))
+        self.painter.drawText(QPointF(x, y), text.text)
+
+
+def page_layout(paper: str, landscape: bool) -> QPageLayout:
+    """ISO 216 ``paper`` with no margins, in full-page mode: sheet mm 0,0 is the paper's corner."""
+    orientation = QPageLayout.Orientation.Landscape if landscape else QPageLayout.Orientation.Portrait
+    layout = QPageLayout(QPageSize(PAGE_SIZES[paper]), orientation, QMarginsF(0, 0, 0, 0),
+                         QPageLayout.Unit.Millimeter)
+    layout.setMode(QPageLayout.Mode.FullPageMode)
+    return layout
+
+
+def paint_sheet(sheet, device) -> None:
+    """Paint ``sheet`` on a paged device whose page layout is already set (full page)."""
+    painter = QPainter()
+    if not painter.begin(device):
+        raise OutputError("the printer or PDF file could not be opened for painting", "")
+    try:
+        painter.setRenderHint(QPainter.RenderHint.Antialiasing, True)
+        backend = PainterBackend(painter, sheet.height, device.resolution() / 25.4)
+        for primitive in sheet.primitives:
+            backend.draw(primitive)
+    finally:
+        painter.end()
+
+
+def print_construction(construction, printer_or_path, paper: str = "A4", landscape: bool = False,
+                       file_name: str = "", date: str | None = None):
+    """Print ``construction`` at true scale to a QPrinter, or to a PDF file path.
+
+    A PDF is written to a temporary file beside the target and moved into
+    place, so a failure leaves no partial file. Returns the Sheet printed.
+    Raises OutputError when the file cannot be written.
+    """
+    sheet = draw_sheet(construction, paper=paper, landscape=landscape, file_name=file_name, date=date)
+    if isinstance(printer_or_path, (str, os.PathLike)):
+        def write(temporary):
+            writer = QPdfWriter(temporary)
+            writer.setResolution(PDF_RESOLUTION_DPI)
+            writer.setTitle(sheet.title or "Kinepoly construction")
+            writer.setCreator("Kinepoly")
+            writer.setPageLayout(page_layout(paper, landscape))
+            paint_sheet(sheet, writer)
+            del writer  # the PDF is complete on disk only once the writer is gone
+
+        write_atomically(printer_or_path, write)
+    else:
+        printer_or_path.setFullPage(True)
+        printer_or_path.setPageLayout(page_layout(paper, landscape))
+        paint_sheet(sheet, printer_or_path)
+    return sheet
+
+
+def main(argv=None) -> int:
+    """``kinepoly print FILE [--angle DEG] [--paper A4] [--landscape] -o sheet.pdf``."""
+    parser = argparse.ArgumentParser(prog="kinepoly print",
+                                     description="Print the space diagram and both polygons at true scale to PDF.")
+    parser.add_argument("file", help="mechanism file (JSON)")
+    parser.add_argument("--angle", type=float, default=None, metavar="DEG",
+                        help="driver angle in degrees (default: the reference pose)")
+    parser.add_argument("--paper", choices=sorted(PAPER), default="A4", help="ISO 216 sheet (default A4)")
+    parser.add_argument("--landscape", action="store_true", help="landscape instead of portrait")
+    parser.add_argument("-o", "--output", required=True, help="PDF file to write")
+    args = parser.parse_args(argv)
+    if QGuiApplication.instance() is None:
+        os.environ.setdefault("QT_QPA_PLATFORM", "offscreen")
+        application = QGuiApplication([])  # fonts need a GUI application; kept alive until we return
+    else:
+        application = QGuiApplication.instance()
+
+    def action():
+        construction = construction_from_file(args.file, args.angle)
+        print_construction(construction, args.output, paper=args.paper, landscape=args.landscape,
+                           file_name=Path(args.file).name)
+
+    code = run_reporting(action)
+    del application
+    return code
