@@ -225,12 +225,13 @@ def _driver_steps(frame: Frame, mech, vb: _Builder, ab: _Builder):
 
 def _laid_step(builder: _Builder, laid: Laid, frame: Frame, group: Group):
     if laid.component == "radial":
+        link = next((k for k in group.links if {laid.point, laid.about} <= set(frame.mech.links[k])), group.links[0])
         magnitude = abs(laid.end - laid.start)
         return builder.vector(
             Component.RADIAL, laid.start, laid.end, "", f"a_{laid.point}{laid.about}^r = v_{laid.point}{laid.about}²"
             f" / {laid.point}{laid.about}",
             f"radial component of {laid.point} relative to {laid.about}: v²/r = {_fmt(magnitude)} m/s², "
-            f"directed from {laid.point} to {laid.about}", points=(laid.point,), links=tuple(group.links))
+            f"directed from {laid.point} to {laid.about}", points=(laid.point,), links=(link,))
     magnitude = abs(laid.end - laid.start)
     slide = frame.mech.slides[group.slide]
     guide = slide.guide
@@ -296,7 +297,11 @@ def _velocity_group(vb: _Builder, frame: Frame, group: Group, placed: set):
                      points=(d,), links=(slide.guide,) if slide.guide != GROUND else ())
         meet = velocity(frame, group)
         vb.intersection(meet, vb.label(d), f"velocity image of {d}", group, points=(d,),
-                        equation=f"v_{d} = v_{a} + v_{d}{a} = v_{d}/{slide.guide} + v_slide")
+                        equation=f"v_{d} = v_{a} + v_{d}{a} = " + (
+                            "v_slide" if slide.guide == GROUND else f"v_{d}/{slide.guide} + v_slide"))
+        vb.vector(None, frame.vel[a], frame.vel[d], "", f"v_{d}{a} = ω_{link} × r_{a}{d}",
+                  f"velocity of {d} relative to {a}: {_fmt(abs(frame.vel[d] - frame.vel[a]))} m/s, so ω_{link} = "
+                  f"{_fmt(float(frame.omega[link]))} rad/s", role=Role.RESULT, points=(d,), links=(link,))
         vb.vector(Component.SLIDING, coincident, frame.vel[d], "", "v_slide ∥ guide",
                   f"sliding velocity of {d} on {slide.guide}: {_fmt(float(frame.sliding_velocity[slide.name]))} m/s "
                   f"from {slide.line[0]} towards {slide.line[1]}", role=Role.RESULT, points=(d,))
@@ -363,7 +368,8 @@ def _acceleration_group(ab: _Builder, frame: Frame, group: Group, placed: set):
                      f"line through {through} parallel to the slide {slide.name}: sliding acceleration of {d}",
                      points=(d,))
         ab.intersection(meet, ab.label(d), f"acceleration image of {d}", group, points=(d,),
-                        equation=f"a_{d} = a_{a} + a^r + a^t = a_{d}/{slide.guide} + a_c + a_slide")
+                        equation=f"a_{d} = a_{a} + a^r + a^t = " + (
+                            "a_slide" if slide.guide == GROUND else f"a_{d}/{slide.guide} + a_c + a_slide"))
         ab.vector(Component.TANGENTIAL, radial_laid.end, frame.acc[d], "", f"a_{d}{a}^t",
                   f"tangential component of {d} relative to {a}: {_fmt(abs(frame.acc[d] - radial_laid.end))} m/s², "
                   f"so α_{link} = {_fmt(float(frame.alpha[link]))} rad/s²", role=Role.RESULT, points=(d,),

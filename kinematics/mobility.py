@@ -3,6 +3,7 @@ from the rank of the constraint Jacobian, and what stops analysis."""
 
 from __future__ import annotations
 
+import weakref
 from dataclasses import dataclass
 
 import numpy as np
@@ -60,8 +61,21 @@ def jacobian_mobility(mech: Mechanism):
     return mobility, redundant
 
 
+_FINDINGS: dict = {}
+
+
 def diagnose(mech: Mechanism) -> list:
-    """The findings that stop analysis (an empty list means ready to solve)."""
+    """The findings that stop analysis (an empty list means ready to solve).
+
+    Mechanisms are immutable, so the answer is kept for as long as the mechanism lives."""
+    key = id(mech)
+    if key not in _FINDINGS:
+        _FINDINGS[key] = tuple(_diagnose(mech))
+        weakref.finalize(mech, _FINDINGS.pop, key, None)
+    return list(_FINDINGS[key])
+
+
+def _diagnose(mech: Mechanism) -> list:
     findings = []
     for p in loose_points(mech):
         findings.append(Finding(f"points.{p}", f"point {p} is on no link and not on ground"))
