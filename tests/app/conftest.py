@@ -2,6 +2,7 @@
 
 import pytest
 from PySide6.QtCore import QSettings
+from PySide6.QtWidgets import QApplication
 
 from app import files
 from app.window import MainWindow
@@ -24,6 +25,7 @@ def make_window(qtbot, monkeypatch):
         qtbot.addWidget(window)
         window.show()
         qtbot.waitExposed(window)
+        QApplication.processEvents()  # let the first layout settle before positions are read
         window.drawings.fit_all()
         return window
 

@@ -40,3 +40,14 @@ UNFINISHED = {k: v for k, v in FOUR_BAR.items() if k != "driver"}
 
 def load(design: dict):
     return kinematics.load_mechanism(copy.deepcopy(design))
+
+# A triple rocker (Grashof: s + l = 50 + 120 > 100 + 60): the input link cannot turn fully,
+# so some driver angles cannot be assembled.
+TRIPLE_ROCKER = {
+    "kinepoly": 1, "title": "gate rocker", "length_unit": "mm",
+    "points": {"O2": [0, 0], "A": [86.60254037844388, 50.0], "B": [135.98543038577725, 57.831358408578566],
+               "O4": [120, 0]},
+    "ground": ["O2", "O4"],
+    "links": {"input": ["O2", "A"], "coupler": ["A", "B"], "output": ["O4", "B"]},
+    "driver": {"link": "input", "pivot": "O2", "speed": {"value": 30, "unit": "rpm"}},
+}

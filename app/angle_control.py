@@ -1,0 +1,69 @@
+"""The driver-angle control: a typed value, a slider and play/pause."""
+
+from __future__ import annotations
+
+from PySide6.QtCore import Qt, QTimer, Signal
+from PySide6.QtWidgets import QDoubleSpinBox, QHBoxLayout, QLabel, QSlider, QToolButton, QWidget
+
+from .icons import icon
+
+SLIDER_STEPS_PER_DEGREE = 10
+ANIMATION_STEP_DEG = 2.0
+ANIMATION_INTERVAL_MS = 33  # about 30 frames a second
+
+
+class AngleControl(QWidget):
+    """Asks for driver angles (degrees CCW from +x) through ``angle_requested``."""
+
+    angle_requested = Signal(float)
+
+    def __init__(self, parent=None):
+        super().__init__(parent)
+        self.spin = QDoubleSpinBox()
+        self.spin.setRange(0.0, 360.0)
+        self.spin.setWrapping(True)
+        self.spin.setDecimals(1)
+        self.spin.setSuffix(" °")
+        self.spin.setKeyboardTracking(False)
+        self.slider = QSlider(Qt.Horizontal)
+        self.slider.setRange(0, 360 * SLIDER_STEPS_PER_DEGREE)
+        self.play = QToolButton()
+        self.play.setCheckable(True)
+        self.play.setIcon(icon("play"))
+        self.play.setToolTip("Play / pause the driver turning")
+        self.timer = QTimer(self)
+        self.timer.setInterval(ANIMATION_INTERVAL_MS)
+        layout = QHBoxLayout(self)
+        layout.setContentsMargins(4, 0, 4, 0)
+        layout.addWidget(QLabel("driver angle"))
+        layout.addWidget(self.spin)
+        layout.addWidget(self.slider, 1)
+        layout.addWidget(self.play)
+        self.spin.valueChanged.connect(self.angle_requested.emit)
+        self.slider.valueChanged.connect(lambda v: self.angle_requested.emit(v / SLIDER_STEPS_PER_DEGREE))
+        self.play.toggled.connect(self._play)
+        self.timer.timeout.connect(self.advance)
+
+    def show_angle(self, angle_deg: float | None):
+        """Show the pose's angle without asking for it again."""
+        if angle_deg is None:
+            return
+        angle = angle_deg % 360.0
+        for widget, value in ((self.spin, angle), (self.slider, round(angle * SLIDER_STEPS_PER_DEGREE))):
+            widget.blockSignals(True)
+            widget.setValue(value)
+            widget.blockSignals(False)
+
+    def _play(self, on: bool):
+        self.play.setIcon(icon("pause" if on else "play"))
+        if on:
+            self.timer.start()
+        else:
+            self.timer.stop()
+
+    def advance(self):
+        """One animation frame: the driver turns on by a fixed step."""
+        self.angle_requested.emit((self.spin.value() + ANIMATION_STEP_DEG) % 360.0)
+
+    def stop(self):
+        self.play.setChecked(False)

@@ -1,0 +1,59 @@
+"""Units the window shows numbers in (the Solution itself is always SI).
+
+>>> LENGTH_SYSTEMS["mm"].velocity(1.5)
+1500.0
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+
+from kinematics.units import METRES_PER_LENGTH_UNIT, rpm_from_rad_s
+
+
+@dataclass(frozen=True)
+class LengthSystem:
+    """Velocities in ``unit``/s and accelerations in ``unit``/s²."""
+
+    unit: str
+
+    @property
+    def metres(self) -> float:
+        return METRES_PER_LENGTH_UNIT[self.unit]
+
+    def velocity(self, metres_per_second: float) -> float:
+        return metres_per_second / self.metres
+
+    def acceleration(self, metres_per_second2: float) -> float:
+        return metres_per_second2 / self.metres
+
+    @property
+    def velocity_unit(self) -> str:
+        return f"{self.unit}/s"
+
+    @property
+    def acceleration_unit(self) -> str:
+        return f"{self.unit}/s²"
+
+
+LENGTH_SYSTEMS = {unit: LengthSystem(unit) for unit in ("mm", "m", "in")}
+SPEED_UNITS = ("rad/s", "rpm")
+
+
+def angular_speed(rad_s: float, unit: str) -> float:
+    return rpm_from_rad_s(rad_s) if unit == "rpm" else rad_s
+
+
+def sense(value: float) -> str:
+    """The sense of an angular rate in words (CCW positive, the core's convention)."""
+    if value == 0.0:
+        return "at rest"
+    return "CCW" if value > 0 else "CW"
+
+
+def direction_deg(x: float, y: float) -> float | None:
+    """Direction of a vector, degrees CCW from +x in [0, 360), None for a null vector."""
+    if x == 0.0 and y == 0.0:
+        return None
+    return math.degrees(math.atan2(y, x)) % 360.0

@@ -1,0 +1,143 @@
+"""The open design: one Mechanism, its Solution and Construction at the
+current driver angle, and the undo history of its edits.
+
+Views connect once to :attr:`Document.changed` and read the public fields;
+nothing else recomputes kinematics.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+from PySide6.QtCore import QObject, Signal
+from PySide6.QtGui import QUndoCommand, QUndoStack
+
+import kinematics
+from kinematics import KinematicsError, Mechanism
+
+# Every drag of one joint shares this command id so that its moves merge.
+DRAG_COMMAND_ID = 4101
+
+
+@dataclass(frozen=True)
+class Analysis:
+    """What the core made of one mechanism at one angle (a failure keeps ``problem``)."""
+
+    solution: object = None
+    construction: object = None
+    findings: tuple = ()
+    problem: str = ""
+
+
+def analyse(mechanism: Mechanism, angle_deg: float | None) -> Analysis:
+    """Solve and construct, turning every refusal of the core into words."""
+    findings = tuple(kinematics.diagnose(mechanism))
+    if findings:
+        return Analysis(findings=findings, problem="; ".join(str(f) for f in findings))
+    try:
+        solution = kinematics.solve(mechanism, angle_deg)
+        construction = kinematics.construct(solution)
+    except KinematicsError as error:
+        return Analysis(problem=str(error))
+    return Analysis(solution=solution, construction=construction)
+
+
+class EditCommand(QUndoCommand):
+    """One edit of the design, kept as the Mechanism before and after.
+
+    Commands carrying the same ``drag`` serial merge, so one drag is one undo step.
+    """
+
+    def __init__(self, document: Document, before: Mechanism, after: Mechanism, text: str, drag: int | None = None,
+                 analysis: Analysis | None = None):
+        super().__init__(text)
+        self.document, self.before, self.after, self.drag = document, before, after, drag
+        # The analysis already made of ``after``, spent by the first redo so a drag frame solves once.
+        self._fresh = analysis
+
+    def id(self) -> int:
+        return DRAG_COMMAND_ID if self.drag is not None else -1
+
+    def mergeWith(self, other) -> bool:
+        if not isinstance(other, EditCommand) or other.drag != self.drag:
+            return False
+        self.after = other.after
+        return True
+
+    def redo(self):
+        fresh, self._fresh = self._fresh, None
+        self.document.set_mechanism(self.after, fresh)
+
+    def undo(self):
+        self.document.set_mechanism(self.before)
+
+
+class Document(QObject):
+    """The design being drafted.
+
+    Attributes
+    ----------
+    mechanism : the current Mechanism (file units).
+    angle_deg : the driver angle shown, degrees, or None for the reference pose.
+    analysis : :class:`Analysis` of the mechanism at that angle.
+    path : the file it was read from or saved to, or None.
+    undo_stack : QUndoStack of :class:`EditCommand`.
+    """
+
+    changed = Signal()
+
+    def __init__(self, mechanism: Mechanism, path=None, parent=None):
+        super().__init__(parent)
+        self.undo_stack = QUndoStack(self)
+        self.mechanism = mechanism
+        self.angle_deg = None
+        self.path = path
+        self.analysis = analyse(mechanism, None)
+
+    @property
+    def solution(self):
+        return self.analysis.solution
+
+    @property
+    def construction(self):
+        return self.analysis.construction
+
+    @property
+    def shown_angle_deg(self) -> float | None:
+        """The driver angle of the pose on screen (None when nothing is solved)."""
+        return self.solution.driver_angle_deg if self.solution is not None else self.angle_deg
+
+    def set_mechanism(self, mechanism: Mechanism, analysis: Analysis | None = None):
+        """Make ``mechanism`` current, recompute, and emit ``changed`` once."""
+        self.mechanism = mechanism
+        self.analysis = analysis or analyse(mechanism, self.angle_deg)
+        self.changed.emit()
+
+    def replace(self, mechanism: Mechanism, path=None):
+        """Start over with another design (New, Open): the history is cleared."""
+        self.undo_stack.clear()
+        self.path = path
+        self.angle_deg = None
+        self.set_mechanism(mechanism)
+        self.undo_stack.setClean()
+
+    def set_angle(self, angle_deg: float | None) -> str:
+        """Turn the driver (not an edit). Returns "" or why the pose was kept."""
+        analysis = analyse(self.mechanism, angle_deg)
+        if analysis.solution is None and self.solution is not None:
+            return analysis.problem
+        self.angle_deg = angle_deg
+        self.analysis = analysis
+        self.changed.emit()
+        return ""
+
+    def edit(self, after: Mechanism, text: str, drag: int | None = None) -> str:
+        """Push an undoable edit if its result can be analysed at the current angle.
+
+        Returns "" on success, else the reason; the design is then left as it was.
+        """
+        analysis = analyse(after, self.angle_deg)
+        if analysis.solution is None and self.solution is not None:
+            return analysis.problem
+        self.undo_stack.push(EditCommand(self, self.mechanism, after, text, drag, analysis))
+        return ""

@@ -1,0 +1,160 @@
+"""Qt renderings of the shared visual language in :mod:`kinematics.style`.
+
+Scene units are millimetres of drawing with y pointing down (Qt's way), so
+every model coordinate goes through :func:`scene_xy`, which turns y up.
+"""
+
+from __future__ import annotations
+
+import math
+
+from PySide6.QtCore import QPointF, Qt
+from PySide6.QtGui import QBrush, QColor, QFont, QPainterPath, QPen, QPolygonF
+
+from kinematics.style import Pen
+
+# Screen pixels per drawing millimetre of line weight at 96 dpi; pens are cosmetic so
+# a line keeps its weight at any zoom (a 0.5 mm pen draws about 2 px wide).
+PIXELS_PER_WEIGHT_MM = 96.0 / 25.4
+DASHES = {"solid": Qt.SolidLine, "dashed": Qt.DashLine, "dotted": Qt.DotLine, "dashdot": Qt.DashDotLine}
+# Arrowheads on polygons, in drawing mm: ISO 128-22 style, length about three times the width.
+ARROW_LENGTH_MM = 3.5
+ARROW_WIDTH_MM = 1.2
+LABEL_PIXELS = 13
+
+
+def scene_xy(x: float, y: float) -> QPointF:
+    """A model point (x right, y up) as a scene point (y down)."""
+    return QPointF(float(x), -float(y))
+
+
+def qpen(pen: Pen, scale: float = 1.0) -> QPen:
+    """A cosmetic QPen for a style Pen; ``scale`` thickens it (highlighting)."""
+    result = QPen(QColor(pen.colour))
+    result.setCosmetic(True)
+    result.setWidthF(max(1.0, pen.weight_mm * PIXELS_PER_WEIGHT_MM * scale))
+    result.setStyle(DASHES[pen.dash])
+    result.setCapStyle(Qt.FlatCap)
+    return result
+
+
+def brush(pen: Pen, alpha: int = 255) -> QBrush:
+    colour = QColor(pen.colour)
+    colour.setAlpha(alpha)
+    return QBrush(colour)
+
+
+def label_font(pixels: int = LABEL_PIXELS, bold: bool = False) -> QFont:
+    font = QFont("DejaVu Sans")
+    font.setPixelSize(pixels)
+    font.setBold(bold)
+    return font
+
+
+def arrowhead(start: QPointF, end: QPointF) -> QPolygonF:
+    """The filled arrowhead at ``end`` of a vector from ``start`` (scene mm); empty for a null vector."""
+    dx, dy = end.x() - start.x(), end.y() - start.y()
+    length = math.hypot(dx, dy)
+    if length < 1e-9:
+        return QPolygonF()
+    # A vector shorter than two heads gets a head half its length, so its start stays visible.
+    head = min(ARROW_LENGTH_MM, 0.5 * length)
+    ux, uy = dx / length, dy / length
+    half = 0.5 * ARROW_WIDTH_MM * head / ARROW_LENGTH_MM
+    base = QPointF(end.x() - ux * head, end.y() - uy * head)
+    return QPolygonF([end, QPointF(base.x() - uy * half, base.y() + ux * half),
+                      QPointF(base.x() + uy * half, base.y() - ux * half)])
+
+
+def hatch_path(size: float) -> QPainterPath:
+    """The fixed-pivot sign in pixels about the pivot: a bearing triangle on a hatched ground line."""
+    path = QPainterPath()
+    path.moveTo(0, 0)
+    path.lineTo(-0.6 * size, size)
+    path.lineTo(0.6 * size, size)
+    path.closeSubpath()
+    path.moveTo(-size, size)
+    path.lineTo(size, size)
+    for i in range(5):
+        x = -size + i * 0.5 * size
+        path.moveTo(x + 0.45 * size, size)
+        path.lineTo(x, 1.45 * size)
+    return path
+
+
+class Label:
+    """A text that keeps its screen size at any zoom, set off from its anchor
+    by a few pixels in a given direction so it does not sit on the line it names."""
+
+    GAP_PIXELS = 5.0
+
+    def __init__(self, scene, text: str, colour: str, z: float = 10.0, pixels: int = LABEL_PIXELS,
+                 bold: bool = False):
+        from PySide6.QtWidgets import QGraphicsItem, QGraphicsPathItem, QGraphicsSimpleTextItem
+
+        self.anchor = QGraphicsPathItem()
+        self.anchor.setFlag(QGraphicsItem.ItemIgnoresTransformations)
+        self.anchor.setZValue(z)
+        self.text = QGraphicsSimpleTextItem(text, self.anchor)
+        self.text.setFont(label_font(pixels, bold))
+        self.text.setBrush(QBrush(QColor(colour)))
+        scene.addItem(self.anchor)
+
+    def place(self, at: QPointF, dx: float = 1.0, dy: float = -1.0, flush_left: bool = False):
+        """Put the label beside ``at`` (scene), towards screen direction (dx, dy);
+        ``flush_left`` starts the text at ``at`` instead of centring it."""
+        self.anchor.setPos(at)
+        rect = self.text.boundingRect()
+        if flush_left:
+            self.text.setPos(0.0, self.GAP_PIXELS if dy > 0 else -self.GAP_PIXELS - rect.height())
+            return
+        norm = math.hypot(dx, dy) or 1.0
+        ux, uy = dx / norm, dy / norm
+        # Centre of the text goes out along the direction far enough to clear the anchor.
+        reach = self.GAP_PIXELS + 0.5 * abs(ux) * rect.width() + 0.5 * abs(uy) * rect.height()
+        self.text.setPos(ux * reach - 0.5 * rect.width(), uy * reach - 0.5 * rect.height())
+
+    def set_text(self, text: str):
+        if self.text.text() != text:
+            self.text.setText(text)
+
+
+class ScaleBar:
+    """A bar of ``length`` scene units with end and middle ticks, and its words beside it."""
+
+    def __init__(self, scene, pen: Pen):
+        from PySide6.QtWidgets import QGraphicsLineItem
+
+        self.lines = [QGraphicsLineItem() for _ in range(4)]
+        for line in self.lines:
+            line.setPen(qpen(pen, 1.5))
+            line.setZValue(9)
+            scene.addItem(line)
+        self.label = Label(scene, "", pen.colour, pixels=12)
+
+    def items(self):
+        return [*self.lines, self.label.anchor]
+
+    def set_visible(self, on: bool):
+        for item in self.items():
+            item.setVisible(on)
+
+    def place(self, left: QPointF, length: float, tick: float, text: str):
+        x, y = left.x(), left.y()
+        self.lines[0].setLine(x, y, x + length, y)
+        for line, at in zip(self.lines[1:], (0.0, 0.5 * length, length), strict=True):
+            line.setLine(x + at, y - tick, x + at, y + tick)
+        self.label.set_text(text)
+        self.label.place(QPointF(x, y + tick), 0.0, 1.0, flush_left=True)
+
+
+def preferred_length(about: float) -> float:
+    """The 1, 2 or 5 × 10ⁿ nearest below ``about`` (a scale bar's length).
+
+    >>> preferred_length(37.0)
+    20.0
+    """
+    if about <= 0 or not math.isfinite(about):
+        return 1.0
+    power = 10.0 ** math.floor(math.log10(about))
+    return max(m * power for m in (1.0, 2.0, 5.0) if m * power <= about)

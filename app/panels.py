@@ -1,0 +1,77 @@
+"""The three drawings side by side: space diagram, velocity polygon,
+acceleration polygon; shared by the window and ``kinepoly render``."""
+
+from __future__ import annotations
+
+from PySide6.QtCore import QRectF, Qt
+from PySide6.QtWidgets import QSplitter
+
+from .polygon_scene import PolygonScene
+from .space_scene import SpaceScene
+from .views import PolygonView, SpaceView
+
+
+class DrawingsPanel(QSplitter):
+    """Draws a Document: call :meth:`refresh` after each ``changed``."""
+
+    def __init__(self, document, parent=None):
+        super().__init__(Qt.Horizontal, parent)
+        self.document = document
+        self.space_scene = SpaceScene()
+        self.velocity_scene = PolygonScene("velocity")
+        self.acceleration_scene = PolygonScene("acceleration")
+        self.space_view = SpaceView(self.space_scene)
+        self.velocity_view = PolygonView(self.velocity_scene, "velocity polygon")
+        self.acceleration_view = PolygonView(self.acceleration_scene, "acceleration polygon")
+        for view in (self.space_view, self.velocity_view, self.acceleration_view):
+            self.addWidget(view)
+        self.setSizes([620, 490, 490])
+        self.space_view.hovered.connect(self.mark_point)
+        self.refresh()
+        self.fit_space()
+
+    def refresh(self):
+        doc = self.document
+        self.space_scene.show(doc.mechanism, doc.solution)
+        construction = doc.construction
+        plates = {n: pts for n, pts in doc.mechanism.links.items() if len(pts) > 2}
+        for scene, view, polygon in (
+                (self.velocity_scene, self.velocity_view, construction and construction.velocity),
+                (self.acceleration_scene, self.acceleration_view, construction and construction.acceleration)):
+            scene.show(polygon, plates)
+            view.show_rect(scene.content_rect)
+            view.viewport().update()
+
+    def fit_space(self):
+        """Fit the space diagram, with room for the links to turn."""
+        rect = self.space_scene.drawing_rect()
+        if rect.isEmpty():
+            rect = QRectF(-100, -100, 200, 200)
+        grow = 0.15 * max(rect.width(), rect.height())
+        self.space_view.auto_fit = True
+        self.space_view.show_rect(rect.adjusted(-grow, -grow, grow, grow))
+
+    def fit_all(self):
+        self.fit_space()
+        self.velocity_view.fit_to_window()
+        self.acceleration_view.fit_to_window()
+
+    def mark_point(self, name):
+        """Light up joint ``name`` and its image points (None clears)."""
+        self.space_scene.emphasise(links=self._selected_links(), point=name)
+        self.velocity_scene.mark_point(name)
+        self.acceleration_scene.mark_point(name)
+
+    def _selected_links(self):
+        construction = self.document.construction
+        for scene, polygon in ((self.velocity_scene, construction and construction.velocity),
+                               (self.acceleration_scene, construction and construction.acceleration)):
+            if polygon is not None and scene.selected_step:
+                return next((s.links for s in polygon.steps if s.id == scene.selected_step), ())
+        return ()
+
+    def select_step(self, step_id: str):
+        """Emphasise step ``step_id`` in its polygon and the links it concerns ("" clears)."""
+        for scene in (self.velocity_scene, self.acceleration_scene):
+            scene.select_step(step_id if step_id in scene.step_items else None)
+        self.space_scene.emphasise(links=self._selected_links())

@@ -1,0 +1,106 @@
+"""``kinepoly render FILE [--angle DEG] -o view.png [--size 1600x1000]``:
+the window's three drawings, drawn offscreen into a PNG (for tests and bug reports)."""
+
+from __future__ import annotations
+
+import argparse
+import os
+import sys
+from pathlib import Path
+
+from .files import write_atomically
+
+FOOTER_PIXELS = 44
+
+
+def parse_size(text: str) -> tuple[int, int]:
+    """``"1600x1000"`` -> (1600, 1000); refuses sizes that cannot hold the drawings."""
+    try:
+        width, height = (int(part) for part in text.lower().split("x"))
+    except ValueError:
+        raise argparse.ArgumentTypeError(f'size "{text}" is not WIDTHxHEIGHT in pixels, e.g. 1600x1000') from None
+    if not (300 <= width <= 10000 and 200 <= height <= 10000):
+        raise argparse.ArgumentTypeError(f"size {width}x{height} is outside 300x200 … 10000x10000 pixels")
+    return width, height
+
+
+def render_image(document, size: tuple[int, int]):
+    """A QImage of ``size`` with the drawings of ``document`` and a footer with the status line."""
+    from PySide6.QtCore import QRect, Qt
+    from PySide6.QtGui import QColor, QImage, QPainter
+
+    from .drawing_kit import label_font
+    from .panels import DrawingsPanel
+    from .status import status_text
+
+    width, height = size
+    panel = DrawingsPanel(document)
+    panel.setAttribute(Qt.WA_DontShowOnScreen)
+    panel.resize(width, height - FOOTER_PIXELS)
+    panel.setSizes([int(width * 0.4), int(width * 0.3), width - 2 * int(width * 0.3)])
+    panel.show()
+    panel.refresh()
+    panel.fit_all()
+    image = QImage(width, height, QImage.Format_ARGB32)
+    image.fill(QColor("white"))
+    painter = QPainter(image)
+    painter.drawPixmap(0, 0, panel.grab())
+    painter.setFont(label_font(12))
+    painter.setPen(QColor("#1d2b3a"))
+    title = document.mechanism.title or (Path(document.path).name if document.path else "")
+    painter.drawText(QRect(8, height - FOOTER_PIXELS + 2, width - 16, FOOTER_PIXELS - 4),
+                     Qt.AlignLeft | Qt.AlignVCenter | Qt.TextWordWrap,
+                     f"{title} — {status_text(document.analysis)}")
+    painter.end()
+    panel.close()
+    panel.deleteLater()
+    return image
+
+
+def png_bytes(image) -> bytes:
+    from PySide6.QtCore import QBuffer, QByteArray, QIODevice
+
+    data = QByteArray()
+    buffer = QBuffer(data)
+    buffer.open(QIODevice.WriteOnly)
+    if not image.save(buffer, "PNG"):
+        raise OSError("the image could not be encoded as PNG")
+    buffer.close()
+    return bytes(data)
+
+
+def main(argv) -> int:
+    parser = argparse.ArgumentParser(prog="kinepoly render", description=__doc__.split("\n\n")[0])
+    parser.add_argument("file", help="mechanism file (.json)")
+    parser.add_argument("--angle", type=float, default=None, help="driver angle, degrees CCW from +x "
+                                                                  "(default: the reference pose)")
+    parser.add_argument("-o", "--output", required=True, help="PNG file to write")
+    parser.add_argument("--size", type=parse_size, default=(1600, 1000), help="WIDTHxHEIGHT pixels (1600x1000)")
+    options = parser.parse_args(argv)
+    os.environ.setdefault("QT_QPA_PLATFORM", "offscreen")
+    from PySide6.QtWidgets import QApplication
+
+    import kinematics
+
+    from .document import Document
+
+    app = QApplication.instance() or QApplication(["kinepoly"])
+    try:
+        mechanism = kinematics.load_mechanism(options.file)
+    except (kinematics.KinematicsError, OSError) as error:
+        print(f"kinepoly render: {error}", file=sys.stderr)
+        return 2
+    document = Document(mechanism, options.file)
+    if options.angle is not None:
+        problem = document.set_angle(options.angle)
+        if problem:
+            print(f"kinepoly render: {problem}", file=sys.stderr)
+            return 2
+    try:
+        write_atomically(options.output, png_bytes(render_image(document, options.size)))
+    except OSError as error:
+        print(f"kinepoly render: {error}", file=sys.stderr)
+        return 2
+    app.processEvents()
+    print(f"wrote {options.output} ({options.size[0]}x{options.size[1]} px)")
+    return 0

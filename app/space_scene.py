@@ -1,0 +1,235 @@
+"""The space diagram: the linkage to scale in the pose the core solved.
+
+Scene units are millimetres of the machine, y up through
+:func:`~app.drawing_kit.scene_xy`. Joints, pivot signs, blocks and labels
+keep their screen size at any zoom; links and guides are drawn to scale.
+Items are made once per topology and moved in place for each pose.
+"""
+
+from __future__ import annotations
+
+import math
+
+from PySide6.QtCore import QLineF, QPointF, QRectF
+from PySide6.QtGui import QColor, QPainterPath, QPen, QPolygonF
+from PySide6.QtWidgets import (
+    QGraphicsEllipseItem,
+    QGraphicsItem,
+    QGraphicsLineItem,
+    QGraphicsPathItem,
+    QGraphicsPolygonItem,
+    QGraphicsRectItem,
+    QGraphicsScene,
+)
+
+from kinematics.style import ANNOTATION, SPACE_GROUND, SPACE_LINK
+
+from .drawing_kit import Label, ScaleBar, hatch_path, preferred_length, qpen, scene_xy
+
+BAR_COLOUR = "#c9d3de"
+PLATE_COLOUR = "#dfe6ee"
+JOINT_PIXELS = 5.0
+HOVER_COLOUR = "#f1c40f"
+GUIDE_REACH = 0.25  # a guide runs this fraction of the mechanism's size past its ends
+
+
+def point_kind(mechanism, name: str) -> str:
+    """"pivot" (fixed), "coupler" (a marked point carried by one link only) or "joint"."""
+    if name in mechanism.ground:
+        return "pivot"
+    on_slide = any(name in (s.point, *s.line) for s in mechanism.slides.values())
+    if len(mechanism.bodies_of(name)) == 1 and not on_slide:
+        links = mechanism.links[mechanism.bodies_of(name)[0]]
+        if len(links) > 2 and name not in links[:2]:
+            return "coupler"
+    return "joint"
+
+
+def _hull_order(points: list) -> list:
+    """Indices of ``points`` around their centroid, so a plate outline never crosses itself."""
+    cx = sum(p.x() for p in points) / len(points)
+    cy = sum(p.y() for p in points) / len(points)
+    return sorted(range(len(points)), key=lambda i: math.atan2(points[i].y() - cy, points[i].x() - cx))
+
+
+class _Link:
+    def __init__(self, scene, name: str, points: tuple):
+        self.name, self.points = name, points
+        self.body = QGraphicsPolygonItem() if len(points) > 2 else QGraphicsLineItem()
+        self.centre = [QGraphicsLineItem() for _ in (points if len(points) > 2 else points[:1])]
+        if len(points) > 2:
+            self.body.setBrush(QColor(PLATE_COLOUR))
+            self.body.setPen(QPen(QColor(BAR_COLOUR), 1))
+        else:
+            bar = QPen(QColor(BAR_COLOUR), 11)
+            bar.setCosmetic(True)
+            self.body.setPen(bar)
+        for item in [self.body, *self.centre]:
+            item.setData(0, ("link", name))
+            item.setZValue(1 if item is self.body else 2)
+            scene.addItem(item)
+        self.emphasise(False)
+
+    def emphasise(self, on: bool):
+        for line in self.centre:
+            line.setPen(qpen(SPACE_LINK, 2.2 if on else 1.0))
+
+    def place(self, at: dict):
+        corners = [at[p] for p in self.points]
+        if len(corners) == 2:
+            self.body.setLine(QLineF(*corners))
+            self.centre[0].setLine(QLineF(*corners))
+            return
+        order = [corners[i] for i in _hull_order(corners)]
+        self.body.setPolygon(QPolygonF(order))
+        for line, start, end in zip(self.centre, order, order[1:] + order[:1], strict=True):
+            line.setLine(QLineF(start, end))
+
+
+class _Joint:
+    def __init__(self, scene, name: str, kind: str):
+        self.name = name
+        self.sign = None
+        if kind == "pivot":
+            self.sign = QGraphicsPathItem(hatch_path(9.0))
+            self.sign.setPen(qpen(SPACE_GROUND))
+            self.sign.setFlag(QGraphicsItem.ItemIgnoresTransformations)
+            self.sign.setZValue(3)
+            scene.addItem(self.sign)
+        radius = JOINT_PIXELS if kind != "coupler" else JOINT_PIXELS * 0.8
+        self.dot = QGraphicsEllipseItem(-radius, -radius, 2 * radius, 2 * radius)
+        self.dot.setFlag(QGraphicsItem.ItemIgnoresTransformations)
+        self.dot.setZValue(6)
+        self.filled = QColor(SPACE_LINK.colour) if kind == "coupler" else QColor("white")
+        self.dot.setData(0, ("point", name))
+        scene.addItem(self.dot)
+        self.label = Label(scene, name, SPACE_LINK.colour, z=8, bold=True)
+        self.emphasise(False)
+
+    def emphasise(self, on: bool):
+        self.dot.setPen(qpen(SPACE_LINK, 1.0))
+        self.dot.setBrush(QColor(HOVER_COLOUR) if on else self.filled)
+
+    def place(self, at: QPointF, away: QPointF):
+        self.dot.setPos(at)
+        if self.sign is not None:
+            self.sign.setPos(at)
+        self.label.place(at, away.x(), away.y())
+
+
+class _Slide:
+    def __init__(self, scene, slide):
+        self.slide = slide
+        self.guide = QGraphicsLineItem()
+        self.guide.setPen(qpen(SPACE_GROUND, 1.2))
+        self.guide.setZValue(0.5)
+        self.block = QGraphicsRectItem(-11, -7, 22, 14)
+        self.block.setFlag(QGraphicsItem.ItemIgnoresTransformations)
+        self.block.setPen(qpen(SPACE_LINK))
+        self.block.setBrush(QColor(BAR_COLOUR))
+        self.block.setZValue(4)
+        for item in (self.guide, self.block):
+            item.setData(0, ("slide", slide.name))
+            scene.addItem(item)
+
+    def place(self, at: dict, reach: float):
+        e, f, d = (at[p] for p in (*self.slide.line, self.slide.point))
+        direction = f - e
+        length = math.hypot(direction.x(), direction.y()) or 1.0
+        ux, uy = direction.x() / length, direction.y() / length
+        along = [0.0, length, (d.x() - e.x()) * ux + (d.y() - e.y()) * uy]
+        lo, hi = min(along) - reach, max(along) + reach
+        self.guide.setLine(e.x() + lo * ux, e.y() + lo * uy, e.x() + hi * ux, e.y() + hi * uy)
+        self.block.setPos(d)
+        self.block.setRotation(math.degrees(math.atan2(uy, ux)))
+
+
+class SpaceScene(QGraphicsScene):
+    """The space diagram of a Document's mechanism in its solved pose."""
+
+    def __init__(self, parent=None):
+        super().__init__(parent)
+        self.topology = None
+        self.links: dict[str, _Link] = {}
+        self.joints: dict[str, _Joint] = {}
+        self.slides: list[_Slide] = []
+        self.positions_mm: dict[str, QPointF] = {}
+        self.scale_bar = None
+
+    def show(self, mechanism, solution):
+        """Draw ``mechanism`` in the pose of ``solution`` (its reference pose when None)."""
+        topology = (tuple(mechanism.points), tuple(mechanism.links.items()), mechanism.ground,
+                    tuple(mechanism.slides.values()), tuple(point_kind(mechanism, p) for p in mechanism.points))
+        if topology != self.topology:
+            self.clear()
+            self.links = {n: _Link(self, n, pts) for n, pts in mechanism.links.items()}
+            self.joints = {p: _Joint(self, p, point_kind(mechanism, p)) for p in mechanism.points}
+            self.slides = [_Slide(self, s) for s in mechanism.slides.values()]
+            self.scale_bar = ScaleBar(self, ANNOTATION)
+            self.topology = topology
+        if solution is not None:
+            self.positions_mm = {n: scene_xy(1e3 * x, 1e3 * y) for n, (x, y) in zip(solution.point_names,
+                                                                                     solution.positions, strict=True)}
+        else:
+            self.positions_mm = {n: scene_xy(*(1e3 * c for c in mechanism.position_m(n))) for n in mechanism.points}
+        at = self.positions_mm
+        for link in self.links.values():
+            link.place(at)
+        for name, joint in self.joints.items():
+            joint.place(at[name], self._clear_side(mechanism, name))
+        reach = GUIDE_REACH * max(1e3 * mechanism.size * mechanism.metres_per_unit, 1.0)
+        for slide in self.slides:
+            slide.place(at, reach)
+        self._place_scale_bar(mechanism)
+
+    def _place_scale_bar(self, mechanism):
+        # Placed from the reference pose, so it stays put while the driver turns.
+        if not mechanism.points:
+            self.scale_bar.set_visible(False)
+            return
+        mm = 1e3 * mechanism.metres_per_unit
+        xs = [mm * float(x) for x, _ in mechanism.points.values()]
+        ys = [mm * float(y) for _, y in mechanism.points.values()]
+        size = max(mm * mechanism.size, 1.0)
+        length = preferred_length(0.25 * size)
+        self.scale_bar.set_visible(True)
+        self.scale_bar.place(scene_xy(min(xs), min(ys) - 0.22 * size), length, 0.015 * size,
+                             f"bar {length:g} mm (space diagram to scale)")
+
+    def _clear_side(self, mechanism, name: str) -> QPointF:
+        """The screen direction from joint ``name`` least crowded by the links meeting there."""
+        at = self.positions_mm
+        side = QPointF(0.0, -0.8) if name in mechanism.ground else QPointF()  # pivots: keep off the hatching
+        for body in mechanism.bodies_of(name):
+            for other in mechanism.body_points(body) if body != "ground" else ():
+                step = at[other] - at[name]
+                length = math.hypot(step.x(), step.y())
+                if other != name and length > 0:
+                    side -= step / length
+        if math.hypot(side.x(), side.y()) < 1e-6:
+            side = at[name] - self.centre()
+        return side if math.hypot(side.x(), side.y()) > 1e-9 else QPointF(1.0, -1.0)
+
+    def centre(self) -> QPointF:
+        if not self.positions_mm:
+            return QPointF()
+        xs = [p.x() for p in self.positions_mm.values()]
+        ys = [p.y() for p in self.positions_mm.values()]
+        return QPointF(0.5 * (min(xs) + max(xs)), 0.5 * (min(ys) + max(ys)))
+
+    def drawing_rect(self) -> QRectF:
+        """The area the mechanism and its guides cover, with a margin for signs and labels."""
+        path = QPainterPath()
+        for item in self.items():
+            if not item.flags() & QGraphicsItem.ItemIgnoresTransformations:
+                path.addRect(item.sceneBoundingRect())
+        rect = path.boundingRect()
+        pad = 0.12 * max(rect.width(), rect.height(), 1.0)
+        return rect.adjusted(-pad, -pad, pad, pad)
+
+    def emphasise(self, links=(), point: str | None = None):
+        """Thicken the centre lines of ``links`` and light up joint ``point``."""
+        for name, link in self.links.items():
+            link.emphasise(name in links)
+        for name, joint in self.joints.items():
+            joint.emphasise(name == point)

@@ -1,0 +1,21 @@
+"""The status line's words: the cross-check figure, the warnings, or what
+stops analysis."""
+
+from __future__ import annotations
+
+
+def status_text(analysis, note: str = "") -> str:
+    """One line for the window's status bar, ``note`` first (the latest drag or turn message)."""
+    parts = [note] if note else []
+    construction = analysis.construction
+    if construction is None:
+        if analysis.findings:
+            parts.append("not ready to analyse — " + "; ".join(str(f) for f in analysis.findings))
+        elif analysis.problem:
+            parts.append(f"cannot analyse: {analysis.problem}")
+        return " · ".join(parts)
+    parts.append(f"driver at {construction.solution.driver_angle_deg:.1f}° · cross-check: the polygons agree with "
+                 f"the numeric solver to {construction.max_relative_difference:.1e} (relative, largest at "
+                 f"{construction.where or 'no moving point'})")
+    parts += [f"warning: {w}" for w in construction.warnings]
+    return " · ".join(parts)

@@ -1,0 +1,44 @@
+"""The list of construction steps, in the order a draftsman would draw them."""
+
+from __future__ import annotations
+
+from PySide6.QtCore import Qt, Signal
+from PySide6.QtWidgets import QListWidget, QListWidgetItem
+
+
+def step_text(step) -> str:
+    flag = "  ⚠" if step.flagged else ""
+    equation = f"   [{step.equation}]" if step.equation else ""
+    return f"{step.id}  {step.text}{equation}{flag}"
+
+
+class StepsPanel(QListWidget):
+    """Both polygons' steps; selecting one emits ``step_selected(step id)`` ("" when cleared)."""
+
+    step_selected = Signal(str)
+
+    def __init__(self, parent=None):
+        super().__init__(parent)
+        self.structure = None
+        self.setWordWrap(True)
+        self.currentItemChanged.connect(self._current_changed)
+
+    def show_construction(self, construction):
+        steps = [] if construction is None else [*construction.velocity.steps, *construction.acceleration.steps]
+        structure = tuple(s.id for s in steps)
+        if structure != self.structure:
+            self.blockSignals(True)
+            self.clear()
+            for step in steps:
+                item = QListWidgetItem()
+                item.setData(Qt.UserRole, step.id)
+                self.addItem(item)
+            self.blockSignals(False)
+            self.structure = structure
+        for row, step in enumerate(steps):
+            text = step_text(step)
+            if self.item(row).text() != text:
+                self.item(row).setText(text)
+
+    def _current_changed(self, current, _previous):
+        self.step_selected.emit(current.data(Qt.UserRole) if current is not None else "")

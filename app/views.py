@@ -1,0 +1,162 @@
+"""The three drawing views: zoom with the wheel, pan by dragging empty
+space, fit to window; the space view also drags joints and reports hovering."""
+
+from __future__ import annotations
+
+from PySide6.QtCore import QPointF, QRectF, Qt, Signal
+from PySide6.QtGui import QColor, QPainter, QPen
+from PySide6.QtWidgets import QGraphicsView
+
+from .drawing_kit import DASHES, label_font
+
+ZOOM_PER_WHEEL_STEP = 1.15
+# Panning needs room beyond the drawing; the scene rect is the drawing grown by this factor.
+PAN_ROOM = 4.0
+LEGEND_TOP = 38.0
+LEGEND_LINE = 16.0
+
+
+class DrawingView(QGraphicsView):
+    """A view that keeps its drawing fitted until the user zooms or pans."""
+
+    def __init__(self, scene, parent=None):
+        super().__init__(scene, parent)
+        scene.setParent(self)  # the view does not own its scene; keep it alive as long as the view
+        self.setRenderHints(QPainter.Antialiasing | QPainter.TextAntialiasing)
+        self.setDragMode(QGraphicsView.ScrollHandDrag)
+        self.setTransformationAnchor(QGraphicsView.AnchorUnderMouse)
+        self.setHorizontalScrollBarPolicy(Qt.ScrollBarAlwaysOff)
+        self.setVerticalScrollBarPolicy(Qt.ScrollBarAlwaysOff)
+        self.setBackgroundBrush(QColor("#fbfbf8"))
+        self.auto_fit = True
+        self.fit_rect = QRectF(-100, -100, 200, 200)
+
+    def show_rect(self, rect: QRectF):
+        """The area to fit; refits at once unless the user has zoomed or panned."""
+        self.fit_rect = QRectF(rect)
+        grown = rect.adjusted(-PAN_ROOM * rect.width(), -PAN_ROOM * rect.height(),
+                              PAN_ROOM * rect.width(), PAN_ROOM * rect.height())
+        self.setSceneRect(grown)
+        if self.auto_fit:
+            self.fitInView(self.fit_rect, Qt.KeepAspectRatio)
+
+    def fit_to_window(self):
+        self.auto_fit = True
+        self.fitInView(self.fit_rect, Qt.KeepAspectRatio)
+
+    def zoom(self, factor: float):
+        self.auto_fit = False
+        self.scale(factor, factor)
+
+    def wheelEvent(self, event):
+        steps = event.angleDelta().y() / 120.0
+        if steps:
+            self.zoom(ZOOM_PER_WHEEL_STEP ** steps)
+        event.accept()
+
+    def mouseMoveEvent(self, event):
+        if event.buttons() & Qt.LeftButton:
+            self.auto_fit = False  # the user pans: stop refitting under them
+        super().mouseMoveEvent(event)
+
+    def resizeEvent(self, event):
+        super().resizeEvent(event)
+        if self.auto_fit:
+            self.fitInView(self.fit_rect, Qt.KeepAspectRatio)
+
+
+class PolygonView(DrawingView):
+    """A polygon view with its legend in the top left corner (screen pixels)."""
+
+    def __init__(self, scene, title: str, parent=None):
+        super().__init__(scene, parent)
+        self.title = title
+
+    def legend_height(self) -> float:
+        """Pixels the title and legend take at the top of the view."""
+        return LEGEND_TOP + LEGEND_LINE * len(self.scene().used_pens())
+
+    def show_rect(self, rect: QRectF):
+        # Room above the drawing for the legend, so it never covers a vector.
+        free = max(self.viewport().height() - self.legend_height(), 0.3 * self.viewport().height())
+        extra = rect.height() * self.legend_height() / free
+        super().show_rect(rect.adjusted(0, -extra, 0, 0))
+
+    def drawForeground(self, painter: QPainter, rect):
+        painter.save()
+        painter.resetTransform()
+        painter.setRenderHint(QPainter.Antialiasing, False)  # crisp swatches at this small size
+        painter.setFont(label_font(13, bold=True))
+        painter.setPen(QColor("#1d2b3a"))
+        painter.drawText(QPointF(10, 20), self.title)
+        painter.setFont(label_font(11))
+        y = LEGEND_TOP
+        for pen in self.scene().used_pens():
+            line = QPen(QColor(pen.colour), max(2.0, pen.weight_mm * 5.0))
+            line.setStyle(DASHES[pen.dash])
+            painter.setPen(line)
+            painter.drawLine(QPointF(10, y - 4), QPointF(34, y - 4))
+            painter.setPen(QColor("#1d2b3a"))
+            painter.drawText(QPointF(40, y), pen.legend)
+            y += LEGEND_LINE
+        painter.restore()
+
+
+class SpaceView(DrawingView):
+    """The space diagram's view: press on a joint to drag it, elsewhere to pan.
+
+    Signals carry machine millimetres (x right, y up).
+    """
+
+    drag_started = Signal(str, tuple)
+    dragged = Signal(tuple)
+    drag_finished = Signal()
+    hovered = Signal(object)
+
+    def __init__(self, scene, parent=None):
+        super().__init__(scene, parent)
+        self.setMouseTracking(True)
+        self.dragging = None
+        self._hover = None
+
+    def joint_at(self, pos) -> str | None:
+        for item in self.items(pos):
+            data = item.data(0)
+            if isinstance(data, tuple) and data[0] == "point":
+                return data[1]
+        return None
+
+    def _machine_mm(self, pos) -> tuple:
+        at = self.mapToScene(pos)
+        return (at.x(), -at.y())
+
+    def mousePressEvent(self, event):
+        name = self.joint_at(event.position().toPoint()) if event.button() == Qt.LeftButton else None
+        if name is None:
+            super().mousePressEvent(event)
+            return
+        self.dragging = name
+        self.drag_started.emit(name, self._machine_mm(event.position().toPoint()))
+        event.accept()
+
+    def mouseMoveEvent(self, event):
+        pos = event.position().toPoint()
+        if self.dragging is not None:
+            self.dragged.emit(self._machine_mm(pos))
+            event.accept()
+            return
+        name = self.joint_at(pos) if not event.buttons() else None
+        if name != self._hover:
+            self._hover = name
+            self.viewport().setCursor(Qt.PointingHandCursor if name else Qt.OpenHandCursor)
+            self.hovered.emit(name)
+        super().mouseMoveEvent(event)
+
+    def mouseReleaseEvent(self, event):
+        if self.dragging is not None and event.button() == Qt.LeftButton:
+            self.dragged.emit(self._machine_mm(event.position().toPoint()))
+            self.dragging = None
+            self.drag_finished.emit()
+            event.accept()
+            return
+        super().mouseReleaseEvent(event)

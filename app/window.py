@@ -1,0 +1,298 @@
+"""The drafting window: drawings, results table, construction steps,
+driver-angle control, status line, and the File / Edit / View / Help menus."""
+
+from __future__ import annotations
+
+import sys
+from pathlib import Path
+
+from PySide6.QtCore import Qt
+from PySide6.QtGui import QAction, QKeySequence
+from PySide6.QtWidgets import (
+    QApplication,
+    QComboBox,
+    QFileDialog,
+    QLabel,
+    QMainWindow,
+    QMessageBox,
+    QSplitter,
+    QTabWidget,
+    QToolBar,
+)
+
+import kinematics
+from kinematics import KinematicsError, Mechanism
+
+from .angle_control import AngleControl
+from .document import Document
+from .editing import JointDrag
+from .files import recent_files, remember, save_atomically
+from .icons import icon
+from .panels import DrawingsPanel
+from .results import ResultsTable
+from .status import status_text
+from .steps_panel import StepsPanel
+
+FILE_FILTER = "Kinepoly mechanism (*.json);;All files (*)"
+
+
+def empty_mechanism() -> Mechanism:
+    return Mechanism(points={}, links={}, title="new design")
+
+
+class MainWindow(QMainWindow):
+    """One window drafting one Document."""
+
+    def __init__(self, mechanism: Mechanism | None = None, path=None):
+        super().__init__()
+        self.document = Document(mechanism or empty_mechanism(), path, self)
+        self.note = ""
+        self.drag = None
+        self.drawings = DrawingsPanel(self.document)
+        self.table = ResultsTable()
+        self.steps = StepsPanel()
+        lower = QTabWidget()
+        lower.addTab(self.table, "Results")
+        lower.addTab(self.steps, "Construction steps")
+        splitter = QSplitter(Qt.Vertical)
+        splitter.addWidget(self.drawings)
+        splitter.addWidget(lower)
+        splitter.setSizes([620, 300])
+        self.setCentralWidget(splitter)
+        self.status = QLabel()
+        # One line only: a status bar that grew with its text would resize the views under a drag.
+        self.status.setWordWrap(False)
+        self.status.setMinimumWidth(1)
+        self.status.setTextInteractionFlags(Qt.TextSelectableByMouse)
+        self.statusBar().addWidget(self.status, 1)
+        self.angle = AngleControl()
+        self.length_units = QComboBox()
+        self.length_units.addItems(["mm", "m", "in"])
+        self.speed_units = QComboBox()
+        self.speed_units.addItems(["rad/s", "rpm"])
+        self._build_toolbar()
+        self._build_menus()
+        self.setAcceptDrops(True)
+        self.setWindowIcon(icon("kinepoly"))
+        self.document.changed.connect(self.refresh)
+        self.document.undo_stack.cleanChanged.connect(self._update_title)
+        self.angle.angle_requested.connect(self.turn_driver)
+        self.length_units.currentTextChanged.connect(self._units_changed)
+        self.speed_units.currentTextChanged.connect(self._units_changed)
+        self.steps.step_selected.connect(self.drawings.select_step)
+        self.drawings.space_view.hovered.connect(self.table.mark_point)
+        view = self.drawings.space_view
+        view.drag_started.connect(self.begin_drag)
+        view.dragged.connect(self.continue_drag)
+        view.drag_finished.connect(self.end_drag)
+        self.resize(1600, 1000)
+        self.refresh()
+        self.drawings.fit_all()
+
+    # building -----------------------------------------------------------
+    def _build_toolbar(self):
+        bar = QToolBar("Driver")
+        bar.setObjectName("driver")
+        bar.addWidget(self.angle)
+        bar.addSeparator()
+        bar.addWidget(QLabel(" lengths "))
+        bar.addWidget(self.length_units)
+        bar.addWidget(QLabel(" ω in "))
+        bar.addWidget(self.speed_units)
+        self.addToolBar(bar)
+
+    def _action(self, menu, text, slot, shortcut=None, icon_name=None):
+        action = QAction(text, self)
+        if shortcut is not None:
+            action.setShortcut(shortcut)
+        if icon_name:
+            action.setIcon(icon(icon_name))
+        action.triggered.connect(slot)
+        menu.addAction(action)
+        return action
+
+    def _build_menus(self):
+        files = self.menuBar().addMenu("&File")
+        self._action(files, "&New", self.new_design, QKeySequence.New)
+        self._action(files, "&Open…", self.open_dialog, QKeySequence.Open)
+        self.recent_menu = files.addMenu("Open &recent")
+        self._action(files, "&Save", self.save, QKeySequence.Save)
+        self._action(files, "Save &as…", self.save_as, QKeySequence.SaveAs)
+        files.addSeparator()
+        self._action(files, "&Quit", self.close, QKeySequence.Quit)
+        edit = self.menuBar().addMenu("&Edit")
+        stack = self.document.undo_stack
+        undo, redo = stack.createUndoAction(self, "&Undo"), stack.createRedoAction(self, "&Redo")
+        undo.setShortcut(QKeySequence.Undo)
+        redo.setShortcut(QKeySequence.Redo)
+        edit.addActions([undo, redo])
+        view = self.menuBar().addMenu("&View")
+        space = self.drawings.space_view
+        self._action(view, "Zoom &in", lambda: space.zoom(1.25), QKeySequence.ZoomIn)
+        self._action(view, "Zoom &out", lambda: space.zoom(0.8), QKeySequence.ZoomOut)
+        self._action(view, "&Fit to window", self.drawings.fit_all, QKeySequence("Ctrl+0"), "fit")
+        helps = self.menuBar().addMenu("&Help")
+        self._action(helps, "&About Kinepoly", self.about)
+        self._fill_recent()
+
+    def _fill_recent(self):
+        self.recent_menu.clear()
+        for path in recent_files():
+            self.recent_menu.addAction(path, lambda p=path: self.open_path(p, ask=True))
+        self.recent_menu.setEnabled(bool(self.recent_menu.actions()))
+
+    # showing ------------------------------------------------------------
+    def refresh(self):
+        doc = self.document
+        self.drawings.refresh()
+        self.table.show_solution(doc.solution)
+        self.steps.show_construction(doc.construction)
+        self.angle.show_angle(doc.shown_angle_deg)
+        self.angle.setEnabled(doc.solution is not None)
+        self._show_status()
+        self._update_title()
+
+    def _update_title(self, *_):
+        doc = self.document
+        name = Path(doc.path).name if doc.path else (doc.mechanism.title or "untitled")
+        self.setWindowTitle(f"{name}{' *' if not doc.undo_stack.isClean() else ''} — Kinepoly")
+
+    def say(self, note: str):
+        """Put a plain sentence at the head of the status line."""
+        self.note = note
+        self._show_status()
+
+    def _show_status(self):
+        text = status_text(self.document.analysis, self.note)
+        self.status.setText(text)
+        self.status.setToolTip(text)
+
+    def _units_changed(self, *_):
+        self.table.set_units(self.length_units.currentText(), self.speed_units.currentText())
+
+    # turning and dragging -------------------------------------------------
+    def turn_driver(self, angle_deg: float):
+        problem = self.document.set_angle(angle_deg)
+        if problem:
+            self.angle.stop()
+            self.angle.show_angle(self.document.shown_angle_deg)
+        self.say(f"the driver cannot turn to {angle_deg:.1f}°: {problem}" if problem else "")
+
+    def begin_drag(self, name: str, at_mm: tuple):
+        self.angle.stop()
+        self.drag = JointDrag(self.document, name, at_mm)
+        self.say(self.drag.message)
+
+    def continue_drag(self, at_mm: tuple):
+        if self.drag is not None:
+            self.say(self.drag.to(at_mm) or self.drag.message)
+
+    def end_drag(self):
+        self.drag = None
+
+    # files ----------------------------------------------------------------
+    def ask_to_save(self) -> bool:
+        """True when it is fine to drop the current design (saved, discarded, or unchanged)."""
+        if self.document.undo_stack.isClean():
+            return True
+        answer = QMessageBox.question(self, "Unsaved changes", "The design has changes that are not saved. "
+                                      "Save them first?", QMessageBox.Save | QMessageBox.Discard |
+                                      QMessageBox.Cancel, QMessageBox.Save)
+        if answer == QMessageBox.Save:
+            return self.save()
+        return answer == QMessageBox.Discard
+
+    def new_design(self):
+        if self.ask_to_save():
+            self.note = ""
+            self.document.replace(empty_mechanism())
+            self.drawings.fit_all()
+
+    def open_dialog(self):
+        path, _ = QFileDialog.getOpenFileName(self, "Open a mechanism", "", FILE_FILTER)
+        if path:
+            self.open_path(path, ask=True)
+
+    def open_path(self, path, ask: bool = False) -> bool:
+        """Load ``path``; a bad file shows its message and leaves the current design as it is."""
+        if ask and not self.ask_to_save():
+            return False
+        try:
+            mechanism = kinematics.load_mechanism(path)
+        except (KinematicsError, OSError) as error:
+            self.show_error("Cannot open the file", f"{path}:\n{error}")
+            return False
+        self.note = "; ".join(mechanism.warnings)
+        self.document.replace(mechanism, path)
+        self.drawings.fit_all()
+        remember(path)
+        self._fill_recent()
+        return True
+
+    def save(self) -> bool:
+        if not self.document.path:
+            return self.save_as()
+        return self.save_to(self.document.path)
+
+    def save_as(self) -> bool:
+        path, _ = QFileDialog.getSaveFileName(self, "Save the mechanism", self.document.path or "", FILE_FILTER)
+        return bool(path) and self.save_to(path)
+
+    def save_to(self, path) -> bool:
+        try:
+            save_atomically(self.document.mechanism, path)
+        except (KinematicsError, OSError) as error:
+            self.show_error("Cannot save", f"{path}:\n{error}")
+            return False
+        self.document.path = str(path)
+        self.document.undo_stack.setClean()
+        remember(path)
+        self._fill_recent()
+        self._update_title()
+        return True
+
+    def show_error(self, title: str, text: str):
+        self.say(text.replace("\n", " "))
+        QMessageBox.warning(self, title, text)
+
+    def about(self):
+        QMessageBox.about(self, "About Kinepoly",
+                          "<b>Kinepoly</b> — velocity and acceleration polygons of planar linkages, built by "
+                          "exact graphical construction and checked against a numeric solver.<br><br>"
+                          f"{kinematics.CAUTION}")
+
+    # Qt overrides ---------------------------------------------------------------
+    def dragEnterEvent(self, event):
+        if event.mimeData().hasUrls() and any(u.isLocalFile() for u in event.mimeData().urls()):
+            event.acceptProposedAction()
+
+    def dropEvent(self, event):
+        local = [u.toLocalFile() for u in event.mimeData().urls() if u.isLocalFile()]
+        if local:
+            self.open_path(local[0], ask=True)
+            event.acceptProposedAction()
+
+    def closeEvent(self, event):
+        self.angle.stop()
+        if self.ask_to_save():
+            event.accept()
+        else:
+            event.ignore()
+
+
+def open_window(argv) -> MainWindow:
+    """The shown window for ``kinepoly [FILE]`` (a bad FILE leaves an empty design and says why)."""
+    window = MainWindow()
+    files = [a for a in argv if not a.startswith("-")]
+    if files:
+        window.open_path(files[0])
+    window.show()
+    return window
+
+
+def run(argv) -> int:
+    """``kinepoly [FILE]``: open the window, with FILE if given, and run until it closes."""
+    app = QApplication.instance() or QApplication([sys.argv[0], *[a for a in argv if a.startswith("-")]])
+    app.setApplicationName("Kinepoly")
+    window = open_window(argv)  # noqa: F841 -- kept referenced while the event loop runs
+    return app.exec()

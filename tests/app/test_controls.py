@@ -1,0 +1,57 @@
+"""The driver-angle control and the status line."""
+
+import pytest
+from PySide6.QtCore import Qt
+from PySide6.QtTest import QTest
+
+from app.document import Analysis
+from app.status import status_text
+
+from .designs import FOUR_BAR, TRIPLE_ROCKER
+
+
+def test_a_typed_angle_and_the_slider_turn_the_driver(make_window):
+    window = make_window(FOUR_BAR)
+    window.angle.spin.setValue(123.0)
+    assert window.document.solution.driver_angle_deg == pytest.approx(123.0)
+    window.angle.slider.setValue(2705)
+    assert window.document.solution.driver_angle_deg == pytest.approx(270.5)
+    assert window.angle.spin.value() == pytest.approx(270.5)
+    assert "driver at 270.5°" in window.status.text()
+
+
+def test_play_turns_the_driver_until_paused(make_window, qtbot):
+    window = make_window(FOUR_BAR)
+    start = window.document.solution.driver_angle_deg
+    QTest.mouseClick(window.angle.play, Qt.LeftButton)
+    assert window.angle.timer.isActive()
+    qtbot.waitUntil(lambda: abs(window.document.solution.driver_angle_deg - start) > 3.0, timeout=3000)
+    QTest.mouseClick(window.angle.play, Qt.LeftButton)
+    assert not window.angle.timer.isActive()
+    paused = window.document.solution.driver_angle_deg
+    qtbot.wait(100)
+    assert window.document.solution.driver_angle_deg == paused
+
+
+def test_an_angle_that_cannot_be_assembled_keeps_the_pose_and_says_so(make_window):
+    window = make_window(TRIPLE_ROCKER)
+    window.turn_driver(40.0)
+    kept = window.document.solution
+    window.angle.spin.setValue(180.0)  # the input link of this triple rocker cannot reach 180°
+    assert window.document.solution is kept
+    assert "cannot turn to 180.0°" in window.status.text()
+    assert window.angle.spin.value() == pytest.approx(40.0)
+
+
+def test_the_status_line_lists_every_warning_and_the_cross_check(make_window):
+    window = make_window(FOUR_BAR)
+    construction = window.document.construction
+    text = status_text(Analysis(solution=construction.solution, construction=construction), "note first")
+    assert text.startswith("note first")
+    assert f"{construction.max_relative_difference:.1e}" in text and construction.where in text
+    warned = Analysis(solution=construction.solution, construction=type(construction)(
+        **{**construction.__dict__, "warnings": ("near a dead point", "group G is not a dyad")}))
+    text = status_text(warned)
+    assert "warning: near a dead point" in text and "warning: group G is not a dyad" in text
+    assert status_text(Analysis(problem="cannot assemble at driver angle 9.0°")) == \
+        "cannot analyse: cannot assemble at driver angle 9.0°"

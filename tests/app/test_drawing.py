@@ -1,0 +1,126 @@
+"""The window draws only what the core computed: table cells, polygon items and joints are
+compared with the Solution and the Construction; items are moved in place between poses."""
+
+import math
+
+import pytest
+from PySide6.QtCore import Qt
+from shapely.geometry import Point
+
+from .designs import FOUR_BAR, SLIDER_CRANK, SLOTTED_LEVER
+
+
+def cell(window, row_name, column):
+    model = window.table.results
+    row = next(r for r in range(model.rowCount()) if model.item(r, 0).text() == row_name)
+    return model.item(row, column).data(Qt.UserRole), model.item(row, column).text()
+
+
+@pytest.mark.parametrize("length_unit, metres", [("mm", 1e-3), ("m", 1.0), ("in", 0.0254)])
+def test_point_rows_show_the_solution_in_the_chosen_unit(make_window, length_unit, metres):
+    window = make_window(FOUR_BAR)
+    window.turn_driver(140.0)
+    window.length_units.setCurrentText(length_unit)
+    solution = window.document.solution
+    vx, vy = solution.velocity("B")
+    ax, ay = solution.acceleration("B")
+    # 1 in = 0.0254 m exactly (international yard and pound agreement, 1959).
+    speed, text = cell(window, "point B", 1)
+    assert speed == pytest.approx(math.hypot(vx, vy) / metres, rel=1e-12)
+    assert text == f"{speed:.5g}"
+    assert cell(window, "point B", 3)[0] == pytest.approx(math.hypot(ax, ay) / metres, rel=1e-12)
+    assert cell(window, "point B", 2)[0] == pytest.approx(math.degrees(math.atan2(vy, vx)) % 360.0)
+    assert cell(window, "point B", 4)[0] == pytest.approx(math.degrees(math.atan2(ay, ax)) % 360.0)
+    header = window.table.results.horizontalHeaderItem(1).text()
+    assert f"({length_unit}/s)" in header
+
+
+def test_link_rows_show_omega_in_rpm_or_rad_s_with_the_sense_in_words(make_window):
+    window = make_window(FOUR_BAR)
+    solution = window.document.solution
+    omega = solution.angular_velocity["rocker"]
+    assert cell(window, "link rocker", 1)[0] == pytest.approx(abs(omega))
+    assert cell(window, "link rocker", 2)[1] == ("CCW" if omega > 0 else "CW")
+    window.speed_units.setCurrentText("rpm")
+    # 1 rpm = 2π rad per 60 s (SI Brochure, 9th ed., revolution = 2π rad).
+    assert cell(window, "link crank", 1)[0] == pytest.approx(120.0, rel=1e-12)
+    assert cell(window, "link rocker", 1)[0] == pytest.approx(abs(omega) * 60.0 / (2 * math.pi))
+    alpha = solution.angular_acceleration["coupler"]
+    assert cell(window, "link coupler", 3)[0] == pytest.approx(abs(alpha))
+    assert cell(window, "link coupler", 4)[1] == ("CCW" if alpha > 0 else "CW")
+
+
+def test_slide_rows_show_the_sliding_rates(make_window):
+    window = make_window(SLIDER_CRANK)
+    solution = window.document.solution
+    row = "slide guide (D on ground)"
+    assert cell(window, row, 1)[0] == pytest.approx(solution.sliding_velocity["guide"] * 1e3)
+    assert cell(window, row, 3)[0] == pytest.approx(solution.sliding_acceleration["guide"] * 1e3)
+    assert cell(window, row, 2)[1] == "+ = E→F"
+
+
+@pytest.mark.parametrize("design", [FOUR_BAR, SLIDER_CRANK, SLOTTED_LEVER], ids=["four-bar", "slider", "slot"])
+def test_polygon_items_sit_at_the_construction_images_over_the_scale(make_window, design):
+    window = make_window(design)
+    window.turn_driver(75.0)
+    construction = window.document.construction
+    for polygon, scene in ((construction.velocity, window.drawings.velocity_scene),
+                           (construction.acceleration, window.drawings.acceleration_scene)):
+        scale = polygon.scale_per_mm
+        checked = 0
+        for step in polygon.steps:
+            end = scene.end_of(step.id)
+            x, y = step.geometry.coords[-1]
+            assert (end.x(), end.y()) == pytest.approx((x / scale, -y / scale), abs=1e-9)
+            names = [p for p in step.points if step.label == polygon.image_label(p)]
+            if isinstance(step.geometry, Point) and names:
+                image = polygon.images[names[0]]
+                assert (end.x(), end.y()) == pytest.approx((image[0] / scale, -image[1] / scale), abs=1e-9)
+                checked += 1
+        assert checked >= 1
+        assert f"1 mm = {scale:.4g}" in scene.scale_bar.label.text.text()
+
+
+def test_joints_sit_at_the_solved_positions(make_window):
+    window = make_window(FOUR_BAR)
+    window.turn_driver(250.0)
+    solution = window.document.solution
+    for name, joint in window.drawings.space_scene.joints.items():
+        x, y = solution.position(name)
+        assert (joint.dot.pos().x(), joint.dot.pos().y()) == pytest.approx((1e3 * x, -1e3 * y), abs=1e-9)
+
+
+def test_items_are_moved_in_place_while_the_step_structure_holds(make_window):
+    window = make_window(FOUR_BAR)
+    scene = window.drawings.velocity_scene
+    before = {key: id(items) for key, items in scene.step_items.items()}
+    lines = [item.line for item in scene.step_items.values() if item.line is not None]
+    window.turn_driver(100.0)
+    window.turn_driver(101.0)
+    assert {key: id(items) for key, items in scene.step_items.items()} == before
+    assert all(line.scene() is scene for line in lines)
+
+
+def test_the_legend_is_painted_in_each_pen_used(make_window):
+    window = make_window(FOUR_BAR)
+    view = window.drawings.velocity_view
+    image = view.viewport().grab().toImage()
+    pens = view.scene().used_pens()
+    assert pens
+    from app.views import LEGEND_LINE, LEGEND_TOP
+
+    for i, pen in enumerate(pens):
+        if pen.dash != "solid":
+            continue
+        colour = image.pixelColor(22, int(LEGEND_TOP + i * LEGEND_LINE - 4)).name()
+        assert colour == pen.colour, f"legend line {i} ({pen.legend})"
+
+
+def test_an_unfinished_design_draws_its_space_diagram_and_says_what_is_missing(make_window):
+    from .designs import UNFINISHED
+
+    window = make_window(UNFINISHED)
+    assert set(window.drawings.space_scene.joints) == set(FOUR_BAR["points"])
+    assert not window.drawings.velocity_scene.step_items
+    assert "no driver" in window.status.text()
+    assert window.table.results.rowCount() == 0

@@ -1,0 +1,52 @@
+"""``kinepoly render`` writes a PNG of the asked size, or says plainly why not."""
+
+import json
+import struct
+from pathlib import Path
+
+import pytest
+
+from app.main import main as kinepoly
+
+from .designs import FOUR_BAR, SLOTTED_LEVER
+
+SAMPLES = sorted((Path(__file__).resolve().parents[2] / "samples").glob("*.json"))
+
+
+def png_size(path):
+    """Width and height from the IHDR chunk: PNG signature (8 bytes), chunk length and type (8 bytes),
+    then width and height as 4-byte big-endian integers (PNG specification, ISO/IEC 15948:2004, 11.2.2)."""
+    data = Path(path).read_bytes()
+    assert data[:8] == b"\x89PNG\r\n\x1a\n" and data[12:16] == b"IHDR"
+    return struct.unpack(">II", data[16:24])
+
+
+def test_render_writes_a_png_of_the_asked_size(qapp, tmp_path):
+    design = tmp_path / "claw.json"
+    design.write_text(json.dumps(FOUR_BAR), encoding="utf-8")
+    out = tmp_path / "view.png"
+    assert kinepoly(["render", str(design), "--angle", "210", "-o", str(out), "--size", "900x560"]) == 0
+    assert png_size(out) == (900, 560)
+    assert kinepoly(["render", str(design), "-o", str(out)]) == 0
+    assert png_size(out) == (1600, 1000)
+
+
+@pytest.mark.parametrize("sample", SAMPLES, ids=[p.stem for p in SAMPLES])
+def test_every_sample_renders(qapp, tmp_path, sample):
+    out = tmp_path / f"{sample.stem}.png"
+    assert kinepoly(["render", str(sample), "-o", str(out), "--size", "800x500"]) == 0
+    assert png_size(out) == (800, 500)
+
+
+def test_a_bad_file_or_angle_writes_nothing_and_says_why(qapp, tmp_path, capsys):
+    out = tmp_path / "view.png"
+    assert kinepoly(["render", str(tmp_path / "missing.json"), "-o", str(out)]) == 2
+    assert "missing.json" in capsys.readouterr().err
+    design = tmp_path / "lever.json"
+    design.write_text(json.dumps(SLOTTED_LEVER), encoding="utf-8")
+    assert kinepoly(["render", str(design), "-o", str(tmp_path / "no" / "view.png")]) == 2
+    assert "does not exist" in capsys.readouterr().err
+    assert not out.exists()
+    with pytest.raises(SystemExit):
+        kinepoly(["render", str(design), "-o", str(out), "--size", "big"])
+    assert "WIDTHxHEIGHT" in capsys.readouterr().err

@@ -1,0 +1,92 @@
+"""Zoom, pan, fit, hover and step selection, through real events."""
+
+from PySide6.QtCore import QPoint, QPointF, Qt
+from PySide6.QtGui import QWheelEvent
+from PySide6.QtTest import QTest
+from PySide6.QtWidgets import QApplication
+
+from .designs import FOUR_BAR
+
+
+def wheel(view, steps: int):
+    centre = QPointF(view.viewport().rect().center())
+    event = QWheelEvent(centre, view.viewport().mapToGlobal(centre), QPoint(0, 0), QPoint(0, 120 * steps),
+                        Qt.NoButton, Qt.NoModifier, Qt.NoScrollPhase, False)
+    QApplication.sendEvent(view.viewport(), event)
+
+
+def test_the_wheel_zooms_and_fit_restores(make_window):
+    window = make_window(FOUR_BAR)
+    view = window.drawings.velocity_view
+    fitted = view.transform().m11()
+    wheel(view, 2)
+    assert view.transform().m11() > fitted * 1.3
+    assert not view.auto_fit
+    wheel(view, -4)
+    assert view.transform().m11() < fitted
+    window.drawings.fit_all()
+    assert view.auto_fit and abs(view.transform().m11() - fitted) < 1e-6 * fitted
+
+
+def test_a_resized_view_refits_its_drawing(make_window):
+    window = make_window(FOUR_BAR)
+    view = window.drawings.acceleration_view
+    before = view.transform().m11()
+    window.resize(1000, 700)
+    QApplication.processEvents()
+    assert view.transform().m11() < before
+    visible = view.mapToScene(view.viewport().rect()).boundingRect()
+    assert visible.contains(view.fit_rect.adjusted(1, 1, -1, -1))
+
+
+def test_dragging_empty_space_pans(make_window):
+    window = make_window(FOUR_BAR)
+    view = window.drawings.space_view
+    empty = QPoint(8, view.viewport().height() - 8)
+    assert view.joint_at(empty) is None
+    centre = view.mapToScene(view.viewport().rect().center())
+    QTest.mousePress(view.viewport(), Qt.LeftButton, Qt.NoModifier, empty)
+    QTest.mouseMove(view.viewport(), empty + QPoint(60, -40))
+    QTest.mouseRelease(view.viewport(), Qt.LeftButton, Qt.NoModifier, empty + QPoint(60, -40))
+    moved = view.mapToScene(view.viewport().rect().center())
+    assert (moved - centre).manhattanLength() > 1.0
+    assert window.document.undo_stack.count() == 0 and not view.auto_fit
+
+
+def test_hovering_a_joint_marks_its_images_and_its_table_row(make_window):
+    window = make_window(FOUR_BAR)
+    view = window.drawings.space_view
+    at = view.mapFromScene(window.drawings.space_scene.joints["B"].dot.pos())
+    QTest.mouseMove(view.viewport(), at + QPoint(30, 30))
+    QTest.mouseMove(view.viewport(), at)
+    drawings = window.drawings
+    assert drawings.velocity_scene.ring_visible() and drawings.acceleration_scene.ring_visible()
+    image = window.document.construction.velocity.images["B"]
+    scale = window.document.construction.velocity.scale_per_mm
+    ring = drawings.velocity_scene._ring.pos()
+    assert abs(ring.x() - image[0] / scale) < 1e-9 and abs(ring.y() + image[1] / scale) < 1e-9
+    selected = window.table.selectionModel().selectedRows()
+    assert [i.row() for i in selected] == [window.table.results.rows["B"]]
+    assert drawings.space_scene.joints["B"].dot.brush().color().name() != "#ffffff"
+    far = QPoint(6, 6)
+    assert view.joint_at(far) is None
+    QTest.mouseMove(view.viewport(), far)
+    assert not drawings.velocity_scene.ring_visible()
+
+
+def test_selecting_a_step_emphasises_its_geometry_and_links(make_window):
+    window = make_window(FOUR_BAR)
+    construction = window.document.construction
+    step = next(s for s in construction.velocity.steps if s.links == ("rocker",) and s.role.value == "result")
+    row = [*construction.velocity.steps, *construction.acceleration.steps].index(step)
+    window.steps.setCurrentRow(row)
+    scene = window.drawings.velocity_scene
+    assert scene.selected_step == step.id
+    items = scene.step_items[step.id]
+    plain = next(i for k, i in scene.step_items.items() if k != step.id and i.line is not None and i.pen == items.pen)
+    assert items.line.pen().widthF() > plain.line.pen().widthF()
+    space = window.drawings.space_scene
+    assert space.links["rocker"].centre[0].pen().widthF() > space.links["crank"].centre[0].pen().widthF()
+    assert step.text in window.steps.item(row).text()
+    window.steps.setCurrentRow(-1)
+    assert scene.selected_step is None
