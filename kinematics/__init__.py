@@ -4,11 +4,6 @@ graphical construction of velocity and acceleration polygons, cycle sweeps.
 Never imports Qt.
 """
 
-CAUTION = (
-    "Caution: rigid-body kinematics only (no deflection, clearance, dynamics or strength). Results must be "
-    "checked by a competent engineer; guarding and machine design follow local codes and licensed practice."
-)
-
 from .construct import Component, Construction, Polygon, Role, Step
 from .construct import construct as _construct
 from .errors import CannotAssemble, FileFormatError, KinematicsError, MechanismFindings, ParallelLines
@@ -16,6 +11,12 @@ from .fileformat import dumps, load_mechanism
 from .mobility import Finding, diagnose
 from .model import Driver, Mechanism, Slide, move_point
 from .solve import Solution, solve_pose
+from .sweep import Sweep, sweep, verify_sweep
+
+CAUTION = (
+    "Caution: rigid-body kinematics only (no deflection, clearance, dynamics or strength). Results must be "
+    "checked by a competent engineer; guarding and machine design follow local codes and licensed practice."
+)
 
 
 def solve(mechanism: Mechanism, angle_deg: float | None = None) -> Solution:
@@ -39,5 +40,6 @@ def construct(solution: Solution, **options) -> Construction:
 __all__ = [
     "CAUTION", "CannotAssemble", "Component", "Construction", "Driver", "FileFormatError", "Finding", "KinematicsError",
     "Mechanism", "MechanismFindings", "ParallelLines", "Polygon", "Role", "Slide", "Solution", "Step",
-    "construct", "diagnose", "dumps", "load_mechanism", "move_point", "solve",
+    "Sweep", "construct", "diagnose", "dumps", "load_mechanism", "move_point", "solve", "sweep",
+    "verify_sweep",
 ]

@@ -116,7 +116,8 @@ def _check(args) -> int:
               + ", ".join(f"{a % 360:.2f}°" for a in out["rate_reversals_deg"]))
         if "time_ratio" in out:
             print(f"time ratio {out['time_ratio']:.4f}: slow stroke {out['slow_stroke']} over "
-                  f"{out['slow_stroke_driver_deg']:.2f}° of driver turn, fast over {out['fast_stroke_driver_deg']:.2f}°")
+                  f"{out['slow_stroke_driver_deg']:.2f}° of driver turn, "
+                  f"fast over {out['fast_stroke_driver_deg']:.2f}°")
     for warning in data["warnings"]:
         print(f"warning: {warning}")
     return 0

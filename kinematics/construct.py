@@ -332,14 +332,14 @@ def _acceleration_group(ab: _Builder, frame: Frame, group: Group, placed: set):
     laid, meet = acceleration(frame, group)
     if group.form == "RRR":
         a, b, c = r["A"], r["B"], r["C"]
-        for item, pin, link in zip(laid, (a, c), group.links):
+        for item, pin, link in zip(laid, (a, c), group.links, strict=True):
             _laid_step(ab, item, frame, group)
             ab.direction(Component.TANGENTIAL, item.end, 1j * (pos[b] - pos[pin]), f"a_{b}{pin}^t ⊥ {pin}{b}",
                          f"line of the tangential component of {b} relative to {pin}, perpendicular to {pin}{b}",
                          points=(b,), links=(link,))
         ab.intersection(meet, ab.label(b), f"acceleration image of {b}", group, points=(b,),
                         equation=f"a_{b} = a_{a} + a^r + a^t = a_{c} + a^r + a^t")
-        for item, pin, link in zip(laid, (a, c), group.links):
+        for item, pin, link in zip(laid, (a, c), group.links, strict=True):
             ab.vector(Component.TANGENTIAL, item.end, frame.acc[b], "", f"a_{b}{pin}^t = α_{link} × r_{pin}{b}",
                       f"tangential component of {b} relative to {pin}: r·α = {_fmt(abs(frame.acc[b] - item.end))} "
                       f"m/s², so α_{link} = {_fmt(float(frame.alpha[link]))} rad/s²", role=Role.RESULT,

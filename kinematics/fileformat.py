@@ -112,7 +112,8 @@ def _check_name(name, location, seen_folded: dict):
     _expect(name.lower() != GROUND, '"ground" is reserved', location)
     folded = name.lower()
     if folded in seen_folded:
-        raise FileFormatError(f'name "{name}" clashes with "{seen_folded[folded]}" (names must differ ignoring case)', location)
+        raise FileFormatError(f'name "{name}" clashes with "{seen_folded[folded]}" '
+                              "(names must differ ignoring case)", location)
     seen_folded[folded] = name
 
 
@@ -198,7 +199,8 @@ def _read_driver(doc, ground, links):
     kind = spec.get("kind", "rotary")
     _expect(kind == "rotary", f'driver kind "{kind}" is not supported by this version (rotary only)', "driver.kind")
     for key in spec:
-        _expect(key in ("kind", "link", "pivot", "speed", "angular_acceleration"), f'unknown key "{key}"', f"driver.{key}")
+        _expect(key in ("kind", "link", "pivot", "speed", "angular_acceleration"), f'unknown key "{key}"',
+                f"driver.{key}")
     for key in ("link", "pivot", "speed"):
         _expect(key in spec, f'missing "{key}"', "driver")
     link, pivot = spec["link"], spec["pivot"]
@@ -206,7 +208,8 @@ def _read_driver(doc, ground, links):
     _expect(isinstance(pivot, str) and pivot in links[link], f'"{pivot}" is not a point of link {link}', "driver.pivot")
     _expect(pivot in ground, f"the driver pivot {pivot} must be a ground point", "driver.pivot")
     speed, speed_unit = _quantity(spec["speed"], tuple(RAD_S_PER_SPEED_UNIT), "driver.speed", "rpm")
-    accel, accel_unit = _quantity(spec.get("angular_acceleration", {"value": 0, "unit": "rad/s^2"}), tuple(RAD_S2_PER_ACCELERATION_UNIT),
+    accel, accel_unit = _quantity(spec.get("angular_acceleration", {"value": 0, "unit": "rad/s^2"}),
+                                  tuple(RAD_S2_PER_ACCELERATION_UNIT),
                                   "driver.angular_acceleration", "rad/s^2")
     return Driver(link=link, pivot=pivot, speed_value=speed, speed_unit=speed_unit,
                   angular_acceleration_value=accel, angular_acceleration_unit=accel_unit)
@@ -240,7 +243,8 @@ def _snap_slide_points(points, slides, length_unit, size):
         where = f"slides.{slide.name}"
         if off_mm > SNAP_LIMIT_MM:
             raise FileFormatError(
-                f"point {slide.point} is {off_mm:.3g} mm off the line {slide.line[0]}-{slide.line[1]} in the reference pose",
+                f"point {slide.point} is {off_mm:.3g} mm off the line {slide.line[0]}-{slide.line[1]} "
+                "in the reference pose",
                 where)
         points[slide.point] = [px - off * dy / length, py + off * dx / length]
         warnings.append(f"{where}: point {slide.point} was {off_mm:.3g} mm off the line "
@@ -270,7 +274,8 @@ def mechanism_from_document(doc: dict, where: str = "") -> Mechanism:
     for key in ("title", "notes"):
         _expect(isinstance(doc.get(key, ""), str), f"{key} must be text", key)
     length_unit = doc.get("length_unit", "mm")
-    _expect(length_unit in METRES_PER_LENGTH_UNIT, f'unknown length unit "{length_unit}" (use mm, m or in)', "length_unit")
+    _expect(length_unit in METRES_PER_LENGTH_UNIT, f'unknown length unit "{length_unit}" (use mm, m or in)',
+            "length_unit")
     names: dict = {}
     points = {k: list(v) for k, v in _read_points(doc, names).items()}
     ground = _read_ground(doc, points)
@@ -305,7 +310,8 @@ def load_mechanism(source) -> Mechanism:
     try:
         return mechanism_from_document(doc, str(source))
     except FileFormatError as err:
-        raise FileFormatError(err.detail, f"{os.fspath(source)}: {err.location}" if err.location else os.fspath(source)) from None
+        where = f"{os.fspath(source)}: {err.location}" if err.location else os.fspath(source)
+        raise FileFormatError(err.detail, where) from None
 
 
 def document_from_mechanism(mechanism: Mechanism) -> dict:

@@ -225,7 +225,7 @@ def velocity(frame: Frame, group: Group) -> Intersection:
         a, b, c = r["A"], r["B"], r["C"]
         meet = intersect(Line(vel[a], 1j * (pos[b] - pos[a])), Line(vel[c], 1j * (pos[b] - pos[c])))
         vel[b] = meet.point
-        for link, pin in zip(group.links, (a, c)):
+        for link, pin in zip(group.links, (a, c), strict=True):
             frame.omega[link] = frame.angular_velocity(pin, b)
             frame.velocity_images(link, pin)
         return meet
@@ -273,7 +273,7 @@ def acceleration(frame: Frame, group: Group):
         second = radial(frame, b, c, acc[c], vel[b] - vel[c])
         meet = intersect(Line(first.end, 1j * (pos[b] - pos[a])), Line(second.end, 1j * (pos[b] - pos[c])))
         acc[b] = meet.point
-        for link, pin, laid in zip(group.links, (a, c), (first, second)):
+        for link, pin, laid in zip(group.links, (a, c), (first, second), strict=True):
             frame.alpha[link] = frame.angular_acceleration(laid.end, pin, b)
             frame.acceleration_images(link, pin)
         return (first, second), meet

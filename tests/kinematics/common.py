@@ -35,14 +35,14 @@ def four_bar(a, b, c, d, theta_deg, rpm=120.0, alpha=0.0, open_branch=True, coup
             "driver": driver(rpm=rpm, alpha=alpha), "output": {"link": "rocker"}}
 
 
-def slider_crank(r, l, e, theta_deg, rpm=120.0, alpha=0.0):
-    """Crank r, rod l, the slide line y = −e (offset e), piston to the right of the crank."""
+def slider_crank(r, rod, e, theta_deg, rpm=120.0, alpha=0.0):
+    """Crank r, rod length ``rod``, the slide line y = −e (offset e), piston right of the crank."""
     t = math.radians(theta_deg)
     ax, ay = r * math.cos(t), r * math.sin(t)
-    dx = ax + math.sqrt(l * l - (ay + e) ** 2)
+    dx = ax + math.sqrt(rod * rod - (ay + e) ** 2)
     return {"kinepoly": 1, "length_unit": "mm",
-            "points": {"O2": [0.0, 0.0], "A": [ax, ay], "D": [dx, -e], "E": [-2 * (r + l), -e],
-                       "F": [2 * (r + l), -e]},
+            "points": {"O2": [0.0, 0.0], "A": [ax, ay], "D": [dx, -e], "E": [-2 * (r + rod), -e],
+                       "F": [2 * (r + rod), -e]},
             "ground": ["O2", "E", "F"], "links": {"crank": ["O2", "A"], "rod": ["A", "D"]},
             "slides": {"piston": {"point": "D", "guide": "ground", "line": ["E", "F"]}},
             "driver": driver(rpm=rpm, alpha=alpha), "output": {"point": "D"}}

@@ -152,7 +152,8 @@ def test_dead_point_and_toggle_are_told_apart():
 
     _, (low, high) = driver_range(rocker)
     near_dead = kinematics.solve(rocker, high - 0.01)
-    assert any(w.startswith("near a dead point of the driver: links coupler and rocker are") for w in near_dead.warnings)
+    assert any(w.startswith("near a dead point of the driver: links coupler and rocker are")
+               for w in near_dead.warnings)
     # A crank-rocker's limit position: crank and coupler in line, the rocker at rest (well-conditioned).
     press = kinematics.load_mechanism(SAMPLES / "tablet-press-toggle.json")
     toggle = kinematics.solve(press, 42.0)

@@ -15,11 +15,11 @@ from tests.kinematics.common import slider_crank
 
 
 def test_dead_centre_acceleration():
-    r, l, rpm = 50.0, 180.0, 300.0
-    mech = kinematics.load_mechanism(slider_crank(r, l, 0.0, 0.0, rpm=rpm))
+    r, rod, rpm = 50.0, 180.0, 300.0
+    mech = kinematics.load_mechanism(slider_crank(r, rod, 0.0, 0.0, rpm=rpm))
     solution = kinematics.solve(mech)
     omega = rpm * 2 * math.pi / 60
-    expected = -(r / 1000) * omega ** 2 * (1 + r / l)
+    expected = -(r / 1000) * omega ** 2 * (1 + r / rod)
     assert solution.acceleration("D")[0] == pytest.approx(expected, rel=1e-12)
     assert solution.sliding_acceleration["piston"] == pytest.approx(expected, rel=1e-12)
     construction = kinematics.construct(solution)
@@ -29,18 +29,18 @@ def test_dead_centre_acceleration():
 @pytest.mark.parametrize("e", [0.0, 20.0, -15.0])
 @pytest.mark.parametrize("theta", [10.0, 75.0, 160.0, 250.0, 330.0])
 def test_piston_position_velocity_acceleration(theta, e):
-    r, l, rpm = 50.0, 180.0, 300.0
-    mech = kinematics.load_mechanism(slider_crank(r, l, e, 30.0, rpm=rpm))
+    r, rod, rpm = 50.0, 180.0, 300.0
+    mech = kinematics.load_mechanism(slider_crank(r, rod, e, 30.0, rpm=rpm))
     solution = kinematics.solve(mech, theta)
     omega = rpm * 2 * math.pi / 60
     t = math.radians(theta)
 
     def x(angle):
-        return (r * math.cos(angle) + math.sqrt(l * l - (r * math.sin(angle) + e) ** 2)) / 1000
+        return (r * math.cos(angle) + math.sqrt(rod * rod - (r * math.sin(angle) + e) ** 2)) / 1000
 
     # Exact derivatives of x(θ(t)) at constant ω by the chain rule, written out.
     s = r * math.sin(t) + e
-    root = math.sqrt(l * l - s * s)
+    root = math.sqrt(rod * rod - s * s)
     dx = (-r * math.sin(t) - s * r * math.cos(t) / root) / 1000
     ddx = (-r * math.cos(t) - (r * r * math.cos(t) ** 2 - s * r * math.sin(t)) / root
            - s * s * r * r * math.cos(t) ** 2 / root ** 3) / 1000
