@@ -16,6 +16,7 @@ from .annotate import (
     printed_unit,
     scale_bar,
     scale_bar_height,
+    text_width,
     title_block,
     title_block_height,
 )
@@ -70,17 +71,22 @@ def _centred_view(name, fit: _Fit, box, unit) -> View:
 
 
 def _arrangements(area) -> list:
-    """Ways to share ``area`` among the three views: space diagram above the
-    two polygons, three columns, space diagram beside the polygons stacked."""
+    """Ways to share ``area`` among the three views: the space diagram above
+    the two polygons, three columns, or the space diagram beside the polygons
+    stacked, each with a few shares for the space diagram."""
     x0, y0, x1, y1 = area
     w, h, g = x1 - x0, y1 - y0, GAP / 2
-    above = {"space": (x0, y0 + 0.45 * h + g, x1, y1), "velocity": (x0, y0, x0 + 0.5 * w - g, y0 + 0.45 * h - g),
-             "acceleration": (x0 + 0.5 * w + g, y0, x1, y0 + 0.45 * h - g)}
-    columns = {"space": (x0, y0, x0 + 0.4 * w - g, y1), "velocity": (x0 + 0.4 * w + g, y0, x0 + 0.7 * w - g, y1),
-               "acceleration": (x0 + 0.7 * w + g, y0, x1, y1)}
-    beside = {"space": (x0, y0, x0 + 0.5 * w - g, y1), "velocity": (x0 + 0.5 * w + g, y0 + 0.5 * h + g, x1, y1),
-              "acceleration": (x0 + 0.5 * w + g, y0, x1, y0 + 0.5 * h - g)}
-    return [above, columns, beside]
+    out = []
+    for share in (0.35, 0.5, 0.65):
+        cut_y, cut_x = y1 - share * h, x0 + share * w
+        out.append({"space": (x0, cut_y + g, x1, y1), "velocity": (x0, y0, x0 + 0.5 * w - g, cut_y - g),
+                    "acceleration": (x0 + 0.5 * w + g, y0, x1, cut_y - g)})
+        third = x0 + 0.5 * (1 + share) * w  # the polygons share what the space diagram leaves
+        out.append({"space": (x0, y0, cut_x - g, y1), "velocity": (cut_x + g, y0, third - g, y1),
+                    "acceleration": (third + g, y0, x1, y1)})
+        out.append({"space": (x0, y0, cut_x - g, y1), "velocity": (cut_x + g, y0 + 0.5 * h + g, x1, y1),
+                    "acceleration": (cut_x + g, y0, x1, y0 + 0.5 * h - g)})
+    return out
 
 
 def _fit_view(construction, name: str, box, size: Symbols) -> View:
@@ -97,13 +103,22 @@ def _fit_view(construction, name: str, box, size: Symbols) -> View:
 
 
 def _best_views(construction, area, size: Symbols) -> dict:
-    """The arrangement whose views come out largest (product of their drawn sizes)."""
+    """The arrangement whose views come out largest (product of their drawn
+    sizes), among those whose boxes are wide enough for their scale captions."""
     def score(views):
         return math.prod(_extent_mm(construction, v) for v in views.values())
 
+    def captions_fit(views):
+        return all(text_width(_caption(v), size.text) + 2 * size.text <= v.box[2] - v.box[0] + 2 * VIEW_PAD
+                   for v in views.values())
+
     candidates = [{name: _fit_view(construction, name, box, size) for name, box in boxes.items()}
                   for boxes in _arrangements(area)]
-    return max(candidates, key=score)
+    return max([views for views in candidates if captions_fit(views)] or candidates, key=score)
+
+
+def _caption(view: View) -> str:
+    return f"{NAMES[view.name]} {view.scale_text}"
 
 
 def _extent_mm(construction, view: View) -> float:
@@ -127,7 +142,7 @@ def _draw_view(rec: Recorder, construction, view: View, size: Symbols) -> None:
     bx0, by0, bx1, _ = view.box
     left, bottom = bx0 - VIEW_PAD, by0 - VIEW_PAD - scale_bar_height(size)
     scale_bar(rec, (left + size.text, bottom + 1.2 * size.text), per_value, bar_unit,
-              min(60.0, 0.6 * (bx1 - bx0 + 2 * VIEW_PAD)), f"{NAMES[view.name]} {view.scale_text}", size, view.name)
+              min(60.0, 0.6 * (bx1 - bx0 + 2 * VIEW_PAD)), _caption(view), size, view.name)
 
 
 def _scales(views: dict) -> dict:

@@ -6,6 +6,8 @@ figures join the images already computed. Nothing here solves anything.
 
 from __future__ import annotations
 
+import math
+
 import numpy as np
 
 from ..construct import Role
@@ -41,24 +43,39 @@ def draw_polygon(rec: Recorder, polygon, solution, view: View, size: Symbols) ->
             symbols.arrow(rec, coords[0], coords[-1], pen, size, step=step.id, **ids)
         else:
             rec.add(Circle(centre=coords[0], radius=size.dot, pen=pen, filled=True, step=step.id, **ids))
-    labels = {}
-    for step in polygon.steps:
-        if step.label:
-            where = step.geometry.coords[-1]  # a point, or the end of a vector, carries the label
-            labels.setdefault(step.label, (view.place(where), step.id))
-    centre = tuple(np.mean([where for where, _ in labels.values()], axis=0)) if labels else view.origin
-    for text, (where, step_id) in labels.items():
+    labels = _labels(polygon, view, size)
+    centre = tuple(np.mean([where for where, _, _ in labels], axis=0)) if labels else view.origin
+    for where, text, step_id in labels:
         symbols.label(rec, where, text, centre, IMAGE, size, gap=size.dot, step=step_id, **ids)
 
 
+def _labels(polygon, view: View, size: Symbols) -> list:
+    """(where, text, step id) per labelled place; labels of coinciding points join ("a, d")."""
+    merged = []
+    for step in polygon.steps:
+        if not step.label:
+            continue
+        where = view.place(step.geometry.coords[-1])  # a point, or the end of a vector, carries the label
+        same = next((i for i, (at, _, _) in enumerate(merged) if math.dist(at, where) < 0.5 * size.text), None)
+        if same is None:
+            merged.append((where, step.label, step.id))
+        elif step.label not in merged[same][1].split(", "):
+            at, text, step_id = merged[same]
+            merged[same] = (at, f"{text}, {step.label}", step_id)
+    return merged
+
+
 def _draw_image_figures(rec: Recorder, polygon, solution, view: View, ids) -> None:
-    """The image of each plate (three or more joints), directly similar to it."""
+    """The image of each link, directly similar to it: a segment for a bar, a figure for a plate."""
     image_steps = {name: step.id for step in polygon.steps if step.role is Role.IMAGE for name in step.points}
     xy = positions(solution)
     for link, names in solution.mechanism.links.items():
-        if len(names) < 3 or not all(n in polygon.images for n in names):
+        if len(names) < 2 or not all(n in polygon.images for n in names):
             continue
         order, closed = outline(names, xy)
         points = tuple(view.place(polygon.images[n]) for n in order)
         step_id = next((image_steps[n] for n in order if n in image_steps), "")
-        rec.add(Polyline(points=points, pen=IMAGE, closed=closed, step=step_id, part=link, **ids))
+        if len(points) == 2:
+            rec.add(Line(start=points[0], end=points[1], pen=IMAGE, step=step_id, part=link, **ids))
+        else:
+            rec.add(Polyline(points=points, pen=IMAGE, closed=closed, step=step_id, part=link, **ids))

@@ -59,16 +59,28 @@ def draw_space(rec: Recorder, solution, view: View, size: Symbols) -> None:
         _draw_slide(rec, slide, at, size, ids)
     centre = tuple(np.mean(list(at.values()), axis=0))
     sliding = {slide.point for slide in mech.slides.values()}
+    guide_side = {}
+    for slide in mech.slides.values():
+        if slide.guide == GROUND:
+            (ex, ey), (fx, fy) = at[slide.line[0]], at[slide.line[1]]
+            length = math.hypot(fx - ex, fy - ey) or 1.0
+            for name in (*slide.line, slide.point):
+                guide_side[name] = (-(fy - ey) / length, (fx - ex) / length)
     for name, where in at.items():
         bodies = mech.bodies_of(name)
-        if GROUND in bodies:
+        # A fixed point on no link only marks where a guide runs: no pivot symbol for it.
+        pivot = GROUND in bodies and len(bodies) > 1
+        if pivot:
             symbols.fixed_pivot(rec, where, SPACE_GROUND, size, part=name, **ids)
         symbols.pin(rec, where, SPACE_LINK, size, joint=len(bodies) > 1, part=name, **ids)
         # A label clears the fixed-pivot mark under its pin, or the slider block round it.
-        gap = 5.0 * size.pin if GROUND in bodies else 4.0 * size.pin if name in sliding else size.pin
-        symbols.label(rec, where, name, centre, SPACE_LINK, size, gap=gap, part=name, **ids)
+        gap = 5.0 * size.pin if pivot else 4.0 * size.pin if name in sliding else size.pin
+        # On a fixed guide the label goes to the side without hatching.
+        away = guide_side.get(name)
+        away_from = (where[0] - away[0], where[1] - away[1]) if away is not None and not pivot else centre
+        symbols.label(rec, where, name, away_from, SPACE_LINK, size, gap=gap, part=name, **ids)
     if mech.driver is not None:
-        _draw_driver_sense(rec, mech.driver, mech.links[mech.driver.link], at, size, ids)
+        _draw_driver_sense(rec, mech, at, centre, size, ids)
 
 
 def _draw_slide(rec: Recorder, slide, at, size: Symbols, ids) -> None:
@@ -80,22 +92,37 @@ def _draw_slide(rec: Recorder, slide, at, size: Symbols, ids) -> None:
     if slide.guide == GROUND:
         along = [0.0, length, float((d - e) @ u)]
         reach = 4.0 * size.pin  # the guide runs a little past the block's travel shown
-        start, end = e + (min(along) - reach) * u, e + (max(along) + reach) * u
-        rec.add(Line(start=tuple(start), end=tuple(end), pen=SPACE_GROUND, part=slide.name, **ids))
+        lo, hi = min(along) - reach, max(along) + reach
+        rec.add(Line(start=tuple(e + lo * u), end=tuple(e + hi * u), pen=SPACE_GROUND, part=slide.name, **ids))
+        # Hatching on the guide's right-hand side marks it as fixed.
+        below = np.array([u[1], -u[0]])
+        pitch = 3.0 * size.pin
+        for k in range(int((hi - lo) // pitch) + 1):
+            start = e + (lo + k * pitch) * u
+            end = start + 2.0 * size.pin * (0.7071 * below - 0.7071 * u)
+            rec.add(Line(start=tuple(start), end=tuple(end), pen=SPACE_GROUND, part=slide.name, **ids))
     symbols.slider_block(rec, tuple(d), tuple(u), SPACE_LINK, size, part=slide.name, **ids)
 
 
-def _draw_driver_sense(rec: Recorder, driver, link_points, at, size: Symbols, ids) -> None:
-    """A curved arrow round the driver's pivot in the sense it turns."""
-    others = [n for n in link_points if n != driver.pivot]
-    if not others or driver.speed_rad_s == 0.0:
+def _angle_gap(a: float, b: float) -> float:
+    return abs((a - b + math.pi) % (2.0 * math.pi) - math.pi)
+
+
+def _draw_driver_sense(rec: Recorder, mech, at, centre, size: Symbols, ids) -> None:
+    """A curved arrow round the driver's pivot in the sense it turns, set where
+    it is clearest of the lines meeting at the pivot and of the pivot's label."""
+    driver = mech.driver
+    if driver.speed_rad_s == 0.0:
         return
     cx, cy = at[driver.pivot]
-    tx, ty = at[others[0]]
-    start = math.atan2(ty - cy, tx - cx)
+    busy = [math.atan2(at[n][1] - cy, at[n][0] - cx) for names in mech.links.values() if driver.pivot in names
+            for n in names if n != driver.pivot]
+    busy.append(math.atan2(cy - centre[1], cx - centre[0]))  # the label sits away from the middle
+    busy.append(-0.5 * math.pi)  # the fixed-pivot mark hangs below
+    middle = max((math.radians(d) for d in range(0, 360, 10)), key=lambda c: min(_angle_gap(c, b) for b in busy))
     sense = 1.0 if driver.speed_rad_s > 0 else -1.0
-    radius = 7.0 * size.pin
-    angles = [start + sense * math.radians(20 + 5 * k) for k in range(21)]  # 20° to 120° past the crank
+    radius = 5.5 * size.pin
+    angles = [middle + sense * math.radians(-45 + 5 * k) for k in range(19)]  # 90° of arc
     points = tuple((cx + radius * math.cos(a), cy + radius * math.sin(a)) for a in angles)
     rec.add(Polyline(points=points[:-8], pen=ANNOTATION, part=driver.link, **ids))
     symbols.arrow(rec, points[-9], points[-1], ANNOTATION, size, part=driver.link, **ids)
