@@ -128,11 +128,12 @@ def page_layout(paper: str, landscape: bool) -> QPageLayout:
     return layout
 
 
-def paint_sheet(sheet, device) -> None:
-    """Paint ``sheet`` on a paged device whose page layout is already set (full page)."""
+def paint_sheet(sheet, device, where: str = "") -> None:
+    """Paint ``sheet`` on a paged device whose page layout is already set (full
+    page); ``where`` names the device in an error."""
     painter = QPainter()
     if not painter.begin(device):
-        raise OutputError("the printer or PDF file could not be opened for painting", "")
+        raise OutputError("the printer or PDF file could not be opened for painting", where)
     try:
         painter.setRenderHint(QPainter.RenderHint.Antialiasing, True)
         backend = PainterBackend(painter, sheet.height, device.resolution() / 25.4)
@@ -158,14 +159,14 @@ def print_construction(construction, printer_or_path, paper: str = "A4", landsca
             writer.setTitle(sheet.title or "Kinepoly construction")
             writer.setCreator("Kinepoly")
             writer.setPageLayout(page_layout(paper, landscape))
-            paint_sheet(sheet, writer)
-            del writer  # the PDF is complete on disk only once the writer is gone
+            paint_sheet(sheet, writer, os.fspath(printer_or_path))
+            del writer  # the writer holds the file open; let it go before the file is moved
 
         write_atomically(printer_or_path, write)
     else:
         printer_or_path.setFullPage(True)
         printer_or_path.setPageLayout(page_layout(paper, landscape))
-        paint_sheet(sheet, printer_or_path)
+        paint_sheet(sheet, printer_or_path, printer_or_path.printerName() or "printer")
     return sheet
 
 

@@ -23,6 +23,7 @@ UNITS_AS_PRINTED = {"m/s^2": "m/s²", "rad/s^2": "rad/s²"}
 
 
 def printed_unit(unit: str) -> str:
+    """A unit as it is printed ("m/s²" for the engine's "m/s^2")."""
     return UNITS_AS_PRINTED.get(unit, unit)
 
 
@@ -32,6 +33,7 @@ def text_width(text: str, height: float) -> float:
 
 
 def outline_box(rec: Recorder, x0, y0, x1, y1, pen, **ids) -> None:
+    """A rectangle as one closed outline."""
     rec.add(Polyline(points=((x0, y0), (x1, y0), (x1, y1), (x0, y1)), pen=pen, closed=True, **ids))
 
 
@@ -87,7 +89,13 @@ def description(construction, scales: dict, file_name: str, date: str) -> list:
     return lines
 
 
+def _fitted(text: str, width: float, height: float) -> str:
+    """``text`` cut at a word, with an ellipsis, so it fits ``width`` mm."""
+    return textwrap.shorten(text, width=max(10, int(width / (height * WIDTH_PER_HEIGHT))), placeholder=" …")
+
+
 def caution_lines(width: float, height: float) -> list:
+    """The safety caution wrapped at spaces to lines ``width`` mm long."""
     return textwrap.wrap(CAUTION, width=max(20, int(width / (height * WIDTH_PER_HEIGHT))))
 
 
@@ -106,15 +114,15 @@ def title_block(rec: Recorder, box, lines: list, size: Symbols) -> None:
     outline_box(rec, x0, y0, x1, y1, FRAME, **ids)
     (_, title), *rest = lines
     y = y1 - 1.6 * pitch
-    rec.add(Text(position=(x0 + pad, y), text=title, height=2 * size.text, pen=ANNOTATION, **ids))
+    rec.add(Text(position=(x0 + pad, y), text=_fitted(title, x1 - x0 - 2 * pad, 2 * size.text), height=2 * size.text,
+                 pen=ANNOTATION, **ids))
     y -= 0.4 * pitch
     rec.add(Line(start=(x0, y), end=(x1, y), pen=ANNOTATION, **ids))
     y -= 0.5 * pitch
     for label, text in rest:
         y -= pitch
         rec.add(Text(position=(x0 + pad, y), text=f"{label}:", height=size.small_text, pen=ANNOTATION, **ids))
-        room = x1 - x0 - 2 * pad - 9 * size.small_text
-        fitted = textwrap.shorten(text, width=max(10, int(room / (size.text * WIDTH_PER_HEIGHT))), placeholder=" …")
+        fitted = _fitted(text, x1 - x0 - 2 * pad - 9 * size.small_text, size.text)
         rec.add(Text(position=(x0 + pad + 9 * size.small_text, y), text=fitted, height=size.text, pen=ANNOTATION,
                      **ids))
     y -= 0.5 * pitch

@@ -151,9 +151,25 @@ def _scales(views: dict) -> dict:
 
 def draw_sheet(construction, paper: str = "A4", landscape: bool = False, file_name: str = "",
                date: str | None = None) -> Sheet:
-    """The printed sheet of ``construction`` on ISO 216 ``paper``, sheet mm, y up.
+    """The printed sheet of a construction.
 
-    Raises ValueError for a paper size not in :data:`PAPER`.
+    Parameters
+    ----------
+    construction : :class:`kinematics.Construction` to draw.
+    paper : ISO 216 size, a key of :data:`PAPER`.
+    landscape : turn the paper to landscape.
+    file_name, date : for the title block (date defaults to today, ISO 8601).
+
+    Returns
+    -------
+    Sheet
+        Sheet millimetres, y up, origin at the paper's lower-left corner; the
+        views "space", "velocity" and "acceleration" with their placements.
+
+    Raises
+    ------
+    ValueError
+        for a paper size not in :data:`PAPER`.
     """
     if paper not in PAPER:
         raise ValueError(f"paper {paper!r}: choose one of {', '.join(PAPER)}")
@@ -163,7 +179,6 @@ def draw_sheet(construction, paper: str = "A4", landscape: bool = False, file_na
     size = Symbols()
     rec = Recorder()
     frame = (MARGIN_FILING, MARGIN, width - MARGIN, height - MARGIN)
-    rec.add_view(View("sheet", (0.0, 0.0, width, height), (0.0, 0.0), 1.0, "mm", "1:1"))
     outline_box(rec, *frame, FRAME, part="frame")
     date = date or datetime.date.today().isoformat()
     # The scales are not known before the views are fitted; the block's height does not depend on them.
@@ -181,9 +196,22 @@ def draw_sheet(construction, paper: str = "A4", landscape: bool = False, file_na
 
 
 def draw_model(construction, file_name: str = "", date: str | None = None) -> Sheet:
-    """The model drawing for CAD: the space diagram at true size in millimetres
-    (sheet mm = model mm, the file's origin kept), the two polygons beside it at
-    round scales, scale bars and a note. The Sheet has no paper (0 × 0)."""
+    """The model drawing for CAD.
+
+    The space diagram at true size in millimetres (sheet mm = model mm, the
+    mechanism's origin kept), the two polygons to its right at round scales,
+    scale bars under each, and a note (title, driver, scales, caution) below.
+
+    Parameters
+    ----------
+    construction : :class:`kinematics.Construction` to draw.
+    file_name, date : for the note (date defaults to today, ISO 8601).
+
+    Returns
+    -------
+    Sheet
+        With no paper (width and height 0) and the three views.
+    """
     solution = construction.solution
     x0, y0, x1, y1 = (1000.0 * v for v in _space_bounds(solution))
     extent = max(x1 - x0, y1 - y0)
@@ -210,7 +238,7 @@ def draw_model(construction, file_name: str = "", date: str | None = None) -> Sh
     for name, view in views.items():
         per_value, unit = (1.0, "mm") if name == "space" else (view.mm_per_unit, view.unit)
         scale_bar(rec, (view.box[0], bar_y), per_value, unit, max(20 * size.text, 0.5 * (view.box[2] - view.box[0])),
-                  f"{NAMES[name]} {view.scale_text}", size, name)
+                  _caption(view), size, name)
     y = bar_y - 2 * pad
     lines = description(construction, _scales(views), file_name, date or datetime.date.today().isoformat())
     texts = [f"{label}: {text}" for label, text in lines] + caution_lines(left - x0, size.text)

@@ -58,14 +58,27 @@ def draw_space(rec: Recorder, solution, view: View, size: Symbols) -> None:
     for slide in mech.slides.values():
         _draw_slide(rec, slide, at, size, ids)
     centre = tuple(np.mean(list(at.values()), axis=0))
-    sliding = {slide.point for slide in mech.slides.values()}
-    guide_side = {}
+    _draw_joints(rec, mech, at, centre, size, ids)
+    if mech.driver is not None:
+        _draw_driver_sense(rec, mech, at, centre, size, ids)
+
+
+def _guide_sides(mech, at) -> dict:
+    """Point name -> unit normal to the left of its fixed guide (the side without hatching)."""
+    sides = {}
     for slide in mech.slides.values():
         if slide.guide == GROUND:
             (ex, ey), (fx, fy) = at[slide.line[0]], at[slide.line[1]]
             length = math.hypot(fx - ex, fy - ey) or 1.0
             for name in (*slide.line, slide.point):
-                guide_side[name] = (-(fy - ey) / length, (fx - ex) / length)
+                sides[name] = (-(fy - ey) / length, (fx - ex) / length)
+    return sides
+
+
+def _draw_joints(rec: Recorder, mech, at, centre, size: Symbols, ids) -> None:
+    """Pins, fixed-pivot marks and point labels."""
+    sliding = {slide.point for slide in mech.slides.values()}
+    sides = _guide_sides(mech, at)
     for name, where in at.items():
         bodies = mech.bodies_of(name)
         # A fixed point on no link only marks where a guide runs: no pivot symbol for it.
@@ -73,17 +86,16 @@ def draw_space(rec: Recorder, solution, view: View, size: Symbols) -> None:
         if pivot:
             symbols.fixed_pivot(rec, where, SPACE_GROUND, size, part=name, **ids)
         symbols.pin(rec, where, SPACE_LINK, size, joint=len(bodies) > 1, part=name, **ids)
-        # A label clears the fixed-pivot mark under its pin, or the slider block round it.
+        # A label clears the fixed-pivot mark under its pin, or the slider block round it;
+        # on a fixed guide it goes to the side without hatching, elsewhere away from the middle.
         gap = 5.0 * size.pin if pivot else 4.0 * size.pin if name in sliding else size.pin
-        # On a fixed guide the label goes to the side without hatching.
-        away = guide_side.get(name)
-        away_from = (where[0] - away[0], where[1] - away[1]) if away is not None and not pivot else centre
+        side = sides.get(name)
+        away_from = (where[0] - side[0], where[1] - side[1]) if side is not None and not pivot else centre
         symbols.label(rec, where, name, away_from, SPACE_LINK, size, gap=gap, part=name, **ids)
-    if mech.driver is not None:
-        _draw_driver_sense(rec, mech, at, centre, size, ids)
 
 
 def _draw_slide(rec: Recorder, slide, at, size: Symbols, ids) -> None:
+    """The slider block on its line; a fixed guide also as a hatched line past the block's reach."""
     e, f, d = (np.array(at[n]) for n in (*slide.line, slide.point))
     length = float(np.hypot(*(f - e)))
     if length == 0.0:
@@ -93,15 +105,19 @@ def _draw_slide(rec: Recorder, slide, at, size: Symbols, ids) -> None:
         along = [0.0, length, float((d - e) @ u)]
         reach = 4.0 * size.pin  # the guide runs a little past the block's travel shown
         lo, hi = min(along) - reach, max(along) + reach
-        rec.add(Line(start=tuple(e + lo * u), end=tuple(e + hi * u), pen=SPACE_GROUND, part=slide.name, **ids))
+        rec.add(Line(start=_point(e + lo * u), end=_point(e + hi * u), pen=SPACE_GROUND, part=slide.name, **ids))
         # Hatching on the guide's right-hand side marks it as fixed.
         below = np.array([u[1], -u[0]])
         pitch = 3.0 * size.pin
         for k in range(int((hi - lo) // pitch) + 1):
             start = e + (lo + k * pitch) * u
             end = start + 2.0 * size.pin * (0.7071 * below - 0.7071 * u)
-            rec.add(Line(start=tuple(start), end=tuple(end), pen=SPACE_GROUND, part=slide.name, **ids))
-    symbols.slider_block(rec, tuple(d), tuple(u), SPACE_LINK, size, part=slide.name, **ids)
+            rec.add(Line(start=_point(start), end=_point(end), pen=SPACE_GROUND, part=slide.name, **ids))
+    symbols.slider_block(rec, _point(d), _point(u), SPACE_LINK, size, part=slide.name, **ids)
+
+
+def _point(array) -> tuple:
+    return (float(array[0]), float(array[1]))
 
 
 def _angle_gap(a: float, b: float) -> float:

@@ -26,7 +26,8 @@ class Symbols:
 
 
 def arrow(rec: Recorder, start, end, pen, size: Symbols, **ids) -> bool:
-    """A vector with its head at ``end``; nothing (False) when shorter than its head."""
+    """A vector with its head at ``end`` (a head at most half the vector long);
+    nothing, and False, for a zero vector."""
     dx, dy = end[0] - start[0], end[1] - start[1]
     length = math.hypot(dx, dy)
     if length < 1e-9:

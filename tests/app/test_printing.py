@@ -177,3 +177,12 @@ def test_unwritable_folder_is_reported_and_leaves_nothing(qapp, tmp_path, capsys
     err = capsys.readouterr().err
     assert "cannot write" in err and "not-a-folder" in err
     assert sorted(p.name for p in tmp_path.iterdir()) == ["design.json", "not-a-folder"]
+
+
+def test_every_stroke_is_an_iso_128_weight_and_nothing_is_rasterised(sheet_pdf):
+    page = sheet_pdf(SWING_LEVER, 140.0)
+    widths = {round(line["linewidth"] * MM_PER_PT, 3) for line in page.lines + page.curves + page.rects
+              if line.get("stroke", True)}
+    # ISO 128 line weights used on the sheet; a cosmetic pen would show up as a 0 mm hairline.
+    assert widths and all(min(abs(w - iso) for iso in (0.25, 0.35, 0.5, 0.7)) < 0.01 for w in widths), widths
+    assert page.images == []  # drawn as vectors, no cached item turned into a bitmap

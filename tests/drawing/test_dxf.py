@@ -195,3 +195,15 @@ def test_ezdxf_version_writes_utf8_text(tmp_path):
     doc = ezdxf.readfile(tmp_path / "g.dxf")
     assert doc.dxfversion >= "AC1021"
     assert any("′" in t.dxf.text for t in doc.modelspace().query("TEXT"))
+
+
+def test_a_design_in_metres_exports_in_millimetres_with_readable_text(tmp_path):
+    # A 1.5 m machine given in metres: the DXF holds millimetres (1 m = 1000 mm), text grows with the drawing.
+    big = {**SWING_LEVER, "length_unit": "m",
+           "points": {n: [x * 0.01, y * 0.01] for n, (x, y) in SWING_LEVER["points"].items()}}
+    write_dxf(construction(big), tmp_path / "big.dxf")
+    msp = _read(tmp_path / "big.dxf").modelspace()
+    crank = [e for e in msp.query(f"LINE[layer=='{style.SPACE_LINK.layer}']")
+             if {tuple(e.dxf.start)[:2], tuple(e.dxf.end)[:2]} == {(0.0, 900.0), (400.0, 900.0)}]
+    assert len(crank) == 1
+    assert min(t.dxf.height for t in msp.query("TEXT")) > 2.5
