@@ -31,6 +31,8 @@ class AngleControl(QWidget):
         self.play.setCheckable(True)
         self.play.setIcon(icon("play"))
         self.play.setToolTip("Play / pause the driver turning")
+        self.rocking = None  # (low, high) dead points of a driver that cannot turn fully
+        self.direction = 1.0
         self.timer = QTimer(self)
         self.timer.setInterval(ANIMATION_INTERVAL_MS)
         layout = QHBoxLayout(self)
@@ -54,6 +56,10 @@ class AngleControl(QWidget):
             widget.setValue(value)
             widget.blockSignals(False)
 
+    def set_range(self, sweep):
+        """Let play rock between the dead points of a driver that cannot turn fully (from the core's sweep)."""
+        self.rocking = None if sweep is None or sweep.full_turn else tuple(sweep.range_deg)
+
     def _play(self, on: bool):
         self.play.setIcon(icon("pause" if on else "play"))
         if on:
@@ -62,8 +68,18 @@ class AngleControl(QWidget):
             self.timer.stop()
 
     def advance(self):
-        """One animation frame: the driver turns on by a fixed step."""
-        self.angle_requested.emit((self.spin.value() + ANIMATION_STEP_DEG) % 360.0)
+        """One animation frame: the driver turns on by a fixed step, or rocks between its dead points."""
+        if self.rocking is None:
+            self.angle_requested.emit((self.spin.value() + ANIMATION_STEP_DEG) % 360.0)
+            return
+        low, high = self.rocking
+        # The shown angle unwrapped into the range, so a range across 0° rocks the right way.
+        angle = low + (self.spin.value() - low) % 360.0
+        step = self.direction * ANIMATION_STEP_DEG
+        if not low <= angle + step <= high:
+            self.direction = -self.direction
+            step = -step
+        self.angle_requested.emit((min(max(angle + step, low), high)) % 360.0)
 
     def stop(self):
         self.play.setChecked(False)

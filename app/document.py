@@ -17,6 +17,7 @@ from kinematics import KinematicsError, Mechanism
 
 # Every drag of one joint shares this command id so that its moves merge.
 DRAG_COMMAND_ID = 4101
+SWEEP_STEPS = 180  # 2° apart: smooth paths at drawing size, about 2 ms for a six-bar
 
 
 @dataclass(frozen=True)
@@ -27,6 +28,17 @@ class Analysis:
     construction: object = None
     findings: tuple = ()
     problem: str = ""
+
+
+def cycle(mechanism: Mechanism):
+    """The core's sweep of one driver cycle (paths, driver range), or None where it has none.
+
+    Sweeps are for dyad chains only; anything else is drawn without paths.
+    """
+    try:
+        return kinematics.sweep(mechanism, steps=SWEEP_STEPS)
+    except KinematicsError:
+        return None
 
 
 def analyse(mechanism: Mechanism, angle_deg: float | None) -> Analysis:
@@ -80,6 +92,7 @@ class Document(QObject):
     mechanism : the current Mechanism (file units).
     angle_deg : the driver angle shown, degrees, or None for the reference pose.
     analysis : :class:`Analysis` of the mechanism at that angle.
+    sweep : the core's :class:`kinematics.Sweep` of one cycle, or None (unfinished, no dyad chain).
     path : the file it was read from or saved to, or None.
     undo_stack : QUndoStack of :class:`EditCommand`.
     """
@@ -93,6 +106,7 @@ class Document(QObject):
         self.angle_deg = None
         self.path = path
         self.analysis = analyse(mechanism, None)
+        self.sweep = cycle(mechanism) if self.analysis.solution is not None else None
 
     @property
     def solution(self):
@@ -111,6 +125,12 @@ class Document(QObject):
         """Make ``mechanism`` current, recompute, and emit ``changed`` once."""
         self.mechanism = mechanism
         self.analysis = analysis or analyse(mechanism, self.angle_deg)
+        if self.analysis.solution is None and self.angle_deg is not None:
+            # Undoing may bring back a design that cannot reach the angle shown: show its reference pose.
+            reference = analyse(mechanism, None)
+            if reference.solution is not None:
+                self.angle_deg, self.analysis = None, reference
+        self.sweep = cycle(mechanism) if self.analysis.solution is not None else None
         self.changed.emit()
 
     def replace(self, mechanism: Mechanism, path=None):

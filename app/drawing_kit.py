@@ -100,18 +100,19 @@ class Label:
         self.text.setBrush(QBrush(QColor(colour)))
         scene.addItem(self.anchor)
 
-    def place(self, at: QPointF, dx: float = 1.0, dy: float = -1.0, flush_left: bool = False):
+    def place(self, at: QPointF, dx: float = 1.0, dy: float = -1.0, flush_left: bool = False,
+              gap: float = GAP_PIXELS):
         """Put the label beside ``at`` (scene), towards screen direction (dx, dy);
         ``flush_left`` starts the text at ``at`` instead of centring it."""
         self.anchor.setPos(at)
         rect = self.text.boundingRect()
         if flush_left:
-            self.text.setPos(0.0, self.GAP_PIXELS if dy > 0 else -self.GAP_PIXELS - rect.height())
+            self.text.setPos(0.0, gap if dy > 0 else -gap - rect.height())
             return
         norm = math.hypot(dx, dy) or 1.0
         ux, uy = dx / norm, dy / norm
         # Centre of the text goes out along the direction far enough to clear the anchor.
-        reach = self.GAP_PIXELS + 0.5 * abs(ux) * rect.width() + 0.5 * abs(uy) * rect.height()
+        reach = gap + 0.5 * abs(ux) * rect.width() + 0.5 * abs(uy) * rect.height()
         self.text.setPos(ux * reach - 0.5 * rect.width(), uy * reach - 0.5 * rect.height())
 
     def set_text(self, text: str):
@@ -158,3 +159,32 @@ def preferred_length(about: float) -> float:
         return 1.0
     power = 10.0 ** math.floor(math.log10(about))
     return max(m * power for m in (1.0, 2.0, 5.0) if m * power <= about)
+
+
+# Directions tried, in order, for a label that would cover another one.
+_COMPASS = [(math.cos(math.radians(a)), -math.sin(math.radians(a))) for a in (45, 135, 225, 315, 0, 90, 180, 270)]
+
+
+def declutter(labels, mm_per_pixel: float, obstacles=()):
+    """Move labels that overlap an earlier label (or an obstacle rect) to a free side.
+
+    ``labels`` is a list of (Label, anchor QPointF, (dx, dy) preferred direction), placed in
+    that order; sizes are on-screen pixels turned into scene units by ``mm_per_pixel``.
+    """
+    from PySide6.QtCore import QRectF
+
+    taken = list(obstacles)
+
+    def footprint(label):
+        box = label.text.boundingRect()
+        corner = label.anchor.pos() + label.text.pos() * mm_per_pixel
+        return QRectF(corner.x(), corner.y(), box.width() * mm_per_pixel, box.height() * mm_per_pixel)
+
+    for label, anchor, preferred in labels:
+        for direction in [preferred, *_COMPASS]:
+            label.place(anchor, *direction)
+            if not any(footprint(label).intersects(other) for other in taken):
+                break
+        else:
+            label.place(anchor, *preferred)
+        taken.append(footprint(label))

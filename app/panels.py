@@ -32,7 +32,7 @@ class DrawingsPanel(QSplitter):
 
     def refresh(self):
         doc = self.document
-        self.space_scene.show(doc.mechanism, doc.solution)
+        self.space_scene.show(doc.mechanism, doc.solution, doc.sweep)
         construction = doc.construction
         plates = {n: pts for n, pts in doc.mechanism.links.items() if len(pts) > 2}
         for scene, view, polygon in (
@@ -40,6 +40,7 @@ class DrawingsPanel(QSplitter):
                 (self.acceleration_scene, self.acceleration_view, construction and construction.acceleration)):
             scene.show(polygon, plates)
             view.show_rect(scene.content_rect)
+            scene.declutter(1.0 / max(view.transform().m11(), 1e-12))
             view.viewport().update()
 
     def fit_space(self):
@@ -47,7 +48,7 @@ class DrawingsPanel(QSplitter):
         rect = self.space_scene.drawing_rect()
         if rect.isEmpty():
             rect = QRectF(-100, -100, 200, 200)
-        grow = 0.15 * max(rect.width(), rect.height())
+        grow = 0.05 * max(rect.width(), rect.height())
         self.space_view.auto_fit = True
         self.space_view.show_rect(rect.adjusted(-grow, -grow, grow, grow))
 

@@ -22,7 +22,7 @@ from shapely.geometry import Point
 from kinematics import Role
 from kinematics.style import ANNOTATION, IMAGE, pen_for
 
-from .drawing_kit import Label, ScaleBar, arrowhead, brush, qpen, scene_xy
+from .drawing_kit import Label, ScaleBar, arrowhead, brush, declutter, qpen, scene_xy
 
 SCALE_BAR_MM = 20.0
 HIGHLIGHT_WEIGHT = 2.6
@@ -93,6 +93,7 @@ class _StepItems:
             self.label.set_text(step.label)
             dx, dy = (away.x(), away.y()) if (away.x() or away.y()) else (-1.0, -1.0)
             self.label.place(tip, dx, dy)
+            self.label_at = (tip, (dx, dy))
 
 
 class PolygonScene(QGraphicsScene):
@@ -175,6 +176,24 @@ class PolygonScene(QGraphicsScene):
         self.scale_bar.place(QPointF(left, bottom), SCALE_BAR_MM, 1.0,
                              f"bar {nice_number(SCALE_BAR_MM * scale)} {unit}\n"
                              f"drawing scale 1 mm = {nice_number(scale)} {unit}")
+
+    def declutter(self, mm_per_pixel: float):
+        """Move step labels that would cover each other (needs the view's zoom, hence not in show)."""
+        labels, seen = [], set()
+        for items in self.step_items.values():
+            if items.label is None:
+                continue
+            tip = items.label_at[0]
+            # A mark and the intersection that found it carry the same label at one place: show it once.
+            key = (items.label.text.text(), round(tip.x() / mm_per_pixel), round(tip.y() / mm_per_pixel))
+            items.label.anchor.setVisible(key not in seen)
+            if key not in seen:
+                seen.add(key)
+                labels.append((items.label, *items.label_at))
+        dots = [items.dot.pos() for items in self.step_items.values() if items.dot is not None]
+        size = 2 * DOT_PIXELS * mm_per_pixel
+        obstacles = [QRectF(p.x() - size / 2, p.y() - size / 2, size, size) for p in dots]
+        declutter(labels, mm_per_pixel, obstacles)
 
     def end_of(self, step_id: str) -> QPointF:
         """Scene position of the end of a step's drawing (a dot's centre, a line's second end)."""

@@ -22,7 +22,7 @@ from PySide6.QtWidgets import (
     QGraphicsScene,
 )
 
-from kinematics.style import ANNOTATION, SPACE_GROUND, SPACE_LINK
+from kinematics.style import ANNOTATION, SPACE_GROUND, SPACE_LINK, SPACE_PATH
 
 from .drawing_kit import Label, ScaleBar, hatch_path, preferred_length, qpen, scene_xy
 
@@ -30,14 +30,16 @@ BAR_COLOUR = "#c9d3de"
 PLATE_COLOUR = "#dfe6ee"
 JOINT_PIXELS = 5.0
 HOVER_COLOUR = "#f1c40f"
+BLOCK_GAP_PIXELS = 15.0
 GUIDE_REACH = 0.25  # a guide runs this fraction of the mechanism's size past its ends
 
 
 def point_kind(mechanism, name: str) -> str:
-    """"pivot" (fixed), "coupler" (a marked point carried by one link only) or "joint"."""
-    if name in mechanism.ground:
-        return "pivot"
+    """"pivot" (fixed, on a link), "guide" (a fixed point that only sets a slide's line), "coupler"
+    (a marked point carried by one link only) or "joint"."""
     on_slide = any(name in (s.point, *s.line) for s in mechanism.slides.values())
+    if name in mechanism.ground:
+        return "guide" if on_slide and len(mechanism.bodies_of(name)) == 1 else "pivot"
     if len(mechanism.bodies_of(name)) == 1 and not on_slide:
         links = mechanism.links[mechanism.bodies_of(name)[0]]
         if len(links) > 2 and name not in links[:2]:
@@ -96,11 +98,11 @@ class _Joint:
             self.sign.setFlag(QGraphicsItem.ItemIgnoresTransformations)
             self.sign.setZValue(3)
             scene.addItem(self.sign)
-        radius = JOINT_PIXELS if kind != "coupler" else JOINT_PIXELS * 0.8
+        radius = JOINT_PIXELS * {"coupler": 0.8, "guide": 0.6}.get(kind, 1.0)
         self.dot = QGraphicsEllipseItem(-radius, -radius, 2 * radius, 2 * radius)
         self.dot.setFlag(QGraphicsItem.ItemIgnoresTransformations)
         self.dot.setZValue(6)
-        self.filled = QColor(SPACE_LINK.colour) if kind == "coupler" else QColor("white")
+        self.filled = QColor(SPACE_LINK.colour) if kind in ("coupler", "guide") else QColor("white")
         self.dot.setData(0, ("point", name))
         scene.addItem(self.dot)
         self.label = Label(scene, name, SPACE_LINK.colour, z=8, bold=True)
@@ -110,11 +112,11 @@ class _Joint:
         self.dot.setPen(qpen(SPACE_LINK, 1.0))
         self.dot.setBrush(QColor(HOVER_COLOUR) if on else self.filled)
 
-    def place(self, at: QPointF, away: QPointF):
+    def place(self, at: QPointF, away: QPointF, gap: float = Label.GAP_PIXELS):
         self.dot.setPos(at)
         if self.sign is not None:
             self.sign.setPos(at)
-        self.label.place(at, away.x(), away.y())
+        self.label.place(at, away.x(), away.y(), gap=gap)
 
 
 class _Slide:
@@ -155,9 +157,13 @@ class SpaceScene(QGraphicsScene):
         self.slides: list[_Slide] = []
         self.positions_mm: dict[str, QPointF] = {}
         self.scale_bar = None
+        self.paths: dict[str, QGraphicsPathItem] = {}
+        self.swept = None
+        self.motion_rect = QRectF()  # where every joint goes over the cycle
 
-    def show(self, mechanism, solution):
-        """Draw ``mechanism`` in the pose of ``solution`` (its reference pose when None)."""
+    def show(self, mechanism, solution, sweep=None):
+        """Draw ``mechanism`` in the pose of ``solution`` (its reference pose when None), with the
+        paths of its coupler points over the cycle ``sweep`` (a :class:`kinematics.Sweep` or None)."""
         topology = (tuple(mechanism.points), tuple(mechanism.links.items()), mechanism.ground,
                     tuple(mechanism.slides.values()), tuple(point_kind(mechanism, p) for p in mechanism.points))
         if topology != self.topology:
@@ -166,7 +172,9 @@ class SpaceScene(QGraphicsScene):
             self.joints = {p: _Joint(self, p, point_kind(mechanism, p)) for p in mechanism.points}
             self.slides = [_Slide(self, s) for s in mechanism.slides.values()]
             self.scale_bar = ScaleBar(self, ANNOTATION)
+            self.paths = {p: self._path_item() for p in mechanism.points if point_kind(mechanism, p) == "coupler"}
             self.topology = topology
+            self.swept = None
         if solution is not None:
             self.positions_mm = {n: scene_xy(1e3 * x, 1e3 * y) for n, (x, y) in zip(solution.point_names,
                                                                                      solution.positions, strict=True)}
@@ -175,12 +183,41 @@ class SpaceScene(QGraphicsScene):
         at = self.positions_mm
         for link in self.links.values():
             link.place(at)
+        blocks = {s.point for s in mechanism.slides.values()}
         for name, joint in self.joints.items():
-            joint.place(at[name], self._clear_side(mechanism, name))
+            # A sliding joint's label must clear its block as well.
+            joint.place(at[name], self._clear_side(mechanism, name), BLOCK_GAP_PIXELS if name in blocks else
+                        Label.GAP_PIXELS)
         reach = GUIDE_REACH * max(1e3 * mechanism.size * mechanism.metres_per_unit, 1.0)
         for slide in self.slides:
             slide.place(at, reach)
         self._place_scale_bar(mechanism)
+        if sweep is not self.swept:
+            self._place_paths(sweep)
+
+    def _path_item(self) -> QGraphicsPathItem:
+        item = QGraphicsPathItem()
+        item.setPen(qpen(SPACE_PATH, 1.6))
+        item.setZValue(0.2)
+        self.addItem(item)
+        return item
+
+    def _place_paths(self, sweep):
+        self.swept = sweep
+        self.motion_rect = QRectF()
+        if sweep is not None:
+            low, high = sweep.positions.min(axis=(0, 1)) * 1e3, sweep.positions.max(axis=(0, 1)) * 1e3
+            self.motion_rect = QRectF(scene_xy(low[0], high[1]), scene_xy(high[0], low[1]))
+        for name, item in self.paths.items():
+            path = QPainterPath()
+            if sweep is not None:
+                track = sweep.positions[:, sweep.point_names.index(name)] * 1e3
+                path.moveTo(scene_xy(*track[0]))
+                for x, y in track[1:]:
+                    path.lineTo(scene_xy(x, y))
+                if sweep.closes:
+                    path.closeSubpath()
+            item.setPath(path)
 
     def _place_scale_bar(self, mechanism):
         # Placed from the reference pose, so it stays put while the driver turns.
@@ -197,18 +234,32 @@ class SpaceScene(QGraphicsScene):
                              f"bar {length:g} mm (space diagram to scale)")
 
     def _clear_side(self, mechanism, name: str) -> QPointF:
-        """The screen direction from joint ``name`` least crowded by the links meeting there."""
+        """The screen direction from joint ``name`` least crowded by the links meeting there.
+
+        A fixed pivot's label goes to one side, level with it, clear of its hatching below; a
+        label that would sit along one of its links is turned square to it.
+        """
         at = self.positions_mm
-        side = QPointF(0.0, -0.8) if name in mechanism.ground else QPointF()  # pivots: keep off the hatching
+        side, units = QPointF(), []
         for body in mechanism.bodies_of(name):
             for other in mechanism.body_points(body) if body != "ground" else ():
                 step = at[other] - at[name]
                 length = math.hypot(step.x(), step.y())
                 if other != name and length > 0:
+                    units.append(step / length)
                     side -= step / length
+        if name in mechanism.ground:
+            return QPointF(-1.0 if side.x() <= 0 else 1.0, -0.25)
         if math.hypot(side.x(), side.y()) < 1e-6:
             side = at[name] - self.centre()
-        return side if math.hypot(side.x(), side.y()) > 1e-9 else QPointF(1.0, -1.0)
+        length = math.hypot(side.x(), side.y())
+        if length < 1e-9:
+            return QPointF(1.0, -1.0)
+        side /= length
+        for u in units:
+            if abs(side.x() * u.y() - side.y() * u.x()) < 0.3:
+                return QPointF(abs(u.y()), -u.x() if u.y() >= 0 else u.x())
+        return side
 
     def centre(self) -> QPointF:
         if not self.positions_mm:
@@ -223,8 +274,9 @@ class SpaceScene(QGraphicsScene):
         for item in self.items():
             if not item.flags() & QGraphicsItem.ItemIgnoresTransformations:
                 path.addRect(item.sceneBoundingRect())
-        rect = path.boundingRect()
-        pad = 0.12 * max(rect.width(), rect.height(), 1.0)
+        rect = path.boundingRect().united(self.motion_rect) if not self.motion_rect.isEmpty() \
+            else path.boundingRect()
+        pad = 0.06 * max(rect.width(), rect.height(), 1.0)
         return rect.adjusted(-pad, -pad, pad, pad)
 
     def emphasise(self, links=(), point: str | None = None):

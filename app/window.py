@@ -149,6 +149,7 @@ class MainWindow(QMainWindow):
         self.steps.show_construction(doc.construction)
         self.angle.show_angle(doc.shown_angle_deg)
         self.angle.setEnabled(doc.solution is not None)
+        self.angle.set_range(doc.sweep)
         self._show_status()
         self._update_title()
 

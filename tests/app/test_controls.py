@@ -55,3 +55,16 @@ def test_the_status_line_lists_every_warning_and_the_cross_check(make_window):
     assert "warning: near a dead point" in text and "warning: group G is not a dyad" in text
     assert status_text(Analysis(problem="cannot assemble at driver angle 9.0°")) == \
         "cannot analyse: cannot assemble at driver angle 9.0°"
+
+
+def test_play_rocks_a_driver_that_cannot_turn_fully_between_its_dead_points(make_window):
+    window = make_window(TRIPLE_ROCKER)
+    low, high = window.document.sweep.range_deg
+    assert not window.document.sweep.full_turn
+    seen = []
+    for _ in range(int(2.5 * (high - low) / 2.0) + 5):
+        window.angle.advance()
+        angle = window.document.solution.driver_angle_deg
+        seen.append(low + (angle - low) % 360.0)
+    assert "cannot turn" not in window.status.text()
+    assert min(seen) == pytest.approx(low, abs=2.1) and max(seen) == pytest.approx(high, abs=2.1)

@@ -124,3 +124,35 @@ def test_an_unfinished_design_draws_its_space_diagram_and_says_what_is_missing(m
     assert not window.drawings.velocity_scene.step_items
     assert "no driver" in window.status.text()
     assert window.table.results.rowCount() == 0
+
+
+def test_coupler_paths_follow_the_cycle_sweep(make_window):
+    window = make_window(FOUR_BAR)
+    sweep = window.document.sweep
+    path = window.drawings.space_scene.paths["P"].path()
+    track = sweep.positions[:, sweep.point_names.index("P")] * 1e3
+    assert path.elementCount() >= len(track)
+    for i in (0, len(track) // 3, len(track) - 1):
+        element = path.elementAt(i)
+        assert (element.x, element.y) == pytest.approx((track[i][0], -track[i][1]), abs=1e-9)
+
+
+def test_no_two_visible_polygon_labels_overlap(make_window):
+    from .designs import SLOTTED_LEVER
+
+    for design in (FOUR_BAR, SLIDER_CRANK, SLOTTED_LEVER):
+        window = make_window(design)
+        for angle in (20.0, 90.0, 200.0):
+            window.turn_driver(angle)
+            for scene, view in ((window.drawings.velocity_scene, window.drawings.velocity_view),
+                                (window.drawings.acceleration_scene, window.drawings.acceleration_view)):
+                boxes = []
+                for items in scene.step_items.values():
+                    if items.label is not None and items.label.anchor.isVisible():
+                        # The label keeps its pixel size: its box is in pixels from its anchor's pixel.
+                        label = items.label
+                        corner = view.mapFromScene(label.anchor.pos()).toPointF() + label.text.pos()
+                        boxes.append(label.text.boundingRect().translated(corner))
+                # Eight directions may all be taken in a crowded spot; most labels must stand free.
+                crowded = sum(1 for i, a in enumerate(boxes) if any(a.intersects(b) for b in boxes[:i]))
+                assert crowded <= len(boxes) // 4, (design["title"], angle, scene.kind)
