@@ -9,14 +9,12 @@ from __future__ import annotations
 import argparse
 import io
 import json
-import os
 import sys
-import tempfile
-from pathlib import Path
 
 from . import CAUTION, construct, diagnose, load_mechanism, solve
 from .errors import CannotAssemble, KinematicsError, MechanismFindings
 from .report_text import construction_text, solution_table
+from .storage import write_atomically
 
 
 def _solution_json(solution) -> dict:
@@ -52,23 +50,6 @@ def construction_json(construction) -> dict:
             "crosscheck": {"max_relative_difference": construction.max_relative_difference,
                            "where": construction.where},
             "warnings": list(construction.warnings)}
-
-
-def write_atomically(path, text: str):
-    """Write ``text`` to ``path`` through a temporary file beside it, so no half-written file is ever left."""
-    path = Path(path)
-    folder = path.parent if str(path.parent) else Path(".")
-    handle, temporary = tempfile.mkstemp(prefix=f".{path.name}.", suffix=".tmp", dir=folder)
-    try:
-        with os.fdopen(handle, "w", encoding="utf-8", newline="") as stream:
-            stream.write(text)
-            stream.flush()
-            os.fsync(stream.fileno())
-        os.replace(temporary, path)
-    except BaseException:
-        if os.path.exists(temporary):
-            os.unlink(temporary)
-        raise
 
 
 def _emit(text: str, output):

@@ -8,9 +8,9 @@ return a new Mechanism.
 from __future__ import annotations
 
 import math
+from collections.abc import Mapping
 from dataclasses import dataclass, field, replace
 from types import MappingProxyType
-from typing import Mapping
 
 from .units import RAD_S2_PER_ACCELERATION_UNIT, RAD_S_PER_SPEED_UNIT, metres_per
 

@@ -80,5 +80,5 @@ def test_sweep_command(tmp_path, extra):
 def test_unwritable_output_says_so(tmp_path):
     target = tmp_path / "missing-folder" / "cycle.csv"
     out = run("sweep", QUICK, "-o", str(target))
-    assert out.returncode == 2 and "No such file or directory" in out.stderr
+    assert out.returncode == 2 and "missing-folder does not exist" in out.stderr
     assert not target.parent.exists()
