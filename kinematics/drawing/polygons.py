@@ -13,7 +13,7 @@ import numpy as np
 from ..construct import Role
 from ..style import IMAGE, pen_for
 from . import symbols
-from .sheet import Circle, Line, Polyline, Recorder, View
+from .sheet import Arrow, Circle, Line, Polyline, Recorder, View
 from .space import outline, positions
 from .symbols import Symbols
 
@@ -45,8 +45,10 @@ def draw_polygon(rec: Recorder, polygon, solution, view: View, size: Symbols) ->
             rec.add(Circle(centre=coords[0], radius=size.dot, pen=pen, filled=True, step=step.id, **ids))
     labels = _labels(polygon, view, size)
     centre = tuple(np.mean([where for where, _, _ in labels], axis=0)) if labels else view.origin
+    segments = [(p.start, p.end) for p in rec.primitives if p.view == view.name and isinstance(p, (Line, Arrow))]
     for where, text, step_id in labels:
-        symbols.label(rec, where, text, centre, IMAGE, size, gap=size.dot, step=step_id, **ids)
+        avoid = symbols.directions_at(where, segments, tolerance=size.dot)
+        symbols.label(rec, where, text, centre, IMAGE, size, gap=size.dot, avoid=avoid, step=step_id, **ids)
 
 
 def _labels(polygon, view: View, size: Symbols) -> list:

@@ -63,6 +63,20 @@ def draw_space(rec: Recorder, solution, view: View, size: Symbols) -> None:
         _draw_driver_sense(rec, mech, at, centre, size, ids)
 
 
+def _segments(primitives, view: str) -> list:
+    """The straight pieces of the link and guide lines already drawn in ``view``."""
+    out = []
+    for p in primitives:
+        if p.view != view or p.pen not in (SPACE_LINK, SPACE_GROUND):
+            continue
+        if isinstance(p, Line):
+            out.append((p.start, p.end))
+        elif isinstance(p, Polyline):
+            ring = list(p.points) + ([p.points[0]] if p.closed else [])
+            out.extend(zip(ring, ring[1:], strict=False))
+    return out
+
+
 def _guide_sides(mech, at) -> dict:
     """Point name -> unit normal to the left of its fixed guide (the side without hatching)."""
     sides = {}
@@ -79,6 +93,7 @@ def _draw_joints(rec: Recorder, mech, at, centre, size: Symbols, ids) -> None:
     """Pins, fixed-pivot marks and point labels."""
     sliding = {slide.point for slide in mech.slides.values()}
     sides = _guide_sides(mech, at)
+    segments = _segments(rec.primitives, ids["view"])
     for name, where in at.items():
         bodies = mech.bodies_of(name)
         # A fixed point on no link only marks where a guide runs: no pivot symbol for it.
@@ -91,7 +106,10 @@ def _draw_joints(rec: Recorder, mech, at, centre, size: Symbols, ids) -> None:
         gap = 5.0 * size.pin if pivot else 4.0 * size.pin if name in sliding else size.pin
         side = sides.get(name)
         away_from = (where[0] - side[0], where[1] - side[1]) if side is not None and not pivot else centre
-        symbols.label(rec, where, name, away_from, SPACE_LINK, size, gap=gap, part=name, **ids)
+        avoid = symbols.directions_at(where, segments, tolerance=size.dot)
+        if pivot:
+            avoid.append(-0.5 * math.pi)  # the fixed-pivot mark hangs below the pin
+        symbols.label(rec, where, name, away_from, SPACE_LINK, size, gap=gap, avoid=avoid, part=name, **ids)
 
 
 def _draw_slide(rec: Recorder, slide, at, size: Symbols, ids) -> None:

@@ -72,11 +72,46 @@ def slider_block(rec: Recorder, at, direction, pen, size: Symbols, **ids) -> Non
     rec.add(Polyline(points=tuple(corners), pen=pen, closed=True, **ids))
 
 
-def label(rec: Recorder, at, text: str, away_from, pen, size: Symbols, gap: float, **ids) -> None:
-    """Text beside ``at``, on the side facing away from ``away_from``, clear of a mark ``gap`` mm wide."""
+def directions_at(point, segments, tolerance: float) -> list:
+    """Directions (radians) of the ``segments`` ((x0, y0), (x1, y1)) that pass within ``tolerance`` of ``point``."""
+    px, py = point
+    out = []
+    for (x0, y0), (x1, y1) in segments:
+        dx, dy = x1 - x0, y1 - y0
+        length2 = dx * dx + dy * dy
+        if length2 == 0.0:
+            continue
+        t = min(1.0, max(0.0, ((px - x0) * dx + (py - y0) * dy) / length2))
+        if math.hypot(x0 + t * dx - px, y0 + t * dy - py) <= tolerance:
+            out.append(math.atan2(dy, dx))
+    return out
+
+
+# A label this far in angle from every line through its point is clear of them.
+CLEAR_ANGLE = math.radians(40.0)
+
+
+def _label_direction(away: float, avoid) -> float:
+    """The direction to set a label in: clear of the lines through the point
+    (``avoid``, radians, either sense), and as near ``away`` as that allows."""
+    if not avoid:
+        return away
+
+    def clearance(c):
+        return min(abs((c - a + 0.5 * math.pi) % math.pi - 0.5 * math.pi) for a in avoid)
+
+    candidates = [away + k * math.pi / 8.0 for k in range(16)]
+    return max(candidates, key=lambda c: min(clearance(c), CLEAR_ANGLE) + 0.3 * math.cos(c - away))
+
+
+def label(rec: Recorder, at, text: str, away_from, pen, size: Symbols, gap: float, avoid=(), **ids) -> None:
+    """Text beside ``at``, clear of a mark ``gap`` mm wide, on the side facing
+    away from ``away_from`` unless that lies along one of the lines through the
+    point (``avoid``: their directions in radians)."""
     dx, dy = at[0] - away_from[0], at[1] - away_from[1]
-    length = math.hypot(dx, dy)
-    ux, uy = (dx / length, dy / length) if length > 1e-9 else (0.7071, 0.7071)
+    away = math.atan2(dy, dx) if math.hypot(dx, dy) > 1e-9 else math.pi / 4.0
+    direction = _label_direction(away, avoid)
+    ux, uy = math.cos(direction), math.sin(direction)
     distance = gap + 0.6 * size.text
     position = (at[0] + distance * ux, at[1] + distance * uy)
     align = "left" if ux > 0.38 else "right" if ux < -0.38 else "centre"
