@@ -1,5 +1,9 @@
 """``kinepoly render FILE [--angle DEG] -o view.png [--size 1600x1000]``:
-the window's three drawings, drawn offscreen into a PNG (for tests and bug reports)."""
+the window's three drawings, drawn offscreen into a PNG (for tests and bug reports).
+
+Exit codes as the other commands: 0 written; 2 a bad file or a mechanism that cannot be
+analysed; 3 the linkage cannot assemble at the asked angle.
+"""
 
 from __future__ import annotations
 
@@ -91,11 +95,14 @@ def main(argv) -> int:
         print(f"kinepoly render: {error}", file=sys.stderr)
         return 2
     document = Document(mechanism, options.file)
+    if document.solution is None:
+        print(f"kinepoly render: {options.file}: {document.analysis.problem}", file=sys.stderr)
+        return 2
     if options.angle is not None:
         problem = document.set_angle(options.angle)
         if problem:
             print(f"kinepoly render: {problem}", file=sys.stderr)
-            return 2
+            return 3
     try:
         write_atomically(options.output, png_bytes(render_image(document, options.size)))
     except OSError as error:

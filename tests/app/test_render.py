@@ -8,7 +8,7 @@ import pytest
 
 from app.main import main as kinepoly
 
-from .designs import FOUR_BAR, SLOTTED_LEVER
+from .designs import FOUR_BAR, SLOTTED_LEVER, TRIPLE_ROCKER, UNFINISHED
 
 SAMPLES = sorted((Path(__file__).resolve().parents[2] / "samples").glob("*.json"))
 
@@ -46,6 +46,15 @@ def test_a_bad_file_or_angle_writes_nothing_and_says_why(qapp, tmp_path, capsys)
     design.write_text(json.dumps(SLOTTED_LEVER), encoding="utf-8")
     assert kinepoly(["render", str(design), "-o", str(tmp_path / "no" / "view.png")]) == 2
     assert "does not exist" in capsys.readouterr().err
+    assert not out.exists()
+    rocker = tmp_path / "rocker.json"
+    rocker.write_text(json.dumps(TRIPLE_ROCKER), encoding="utf-8")
+    assert kinepoly(["render", str(rocker), "--angle", "180", "-o", str(out)]) == 3
+    assert "cannot assemble" in capsys.readouterr().err
+    unfinished = tmp_path / "unfinished.json"
+    unfinished.write_text(json.dumps(UNFINISHED), encoding="utf-8")
+    assert kinepoly(["render", str(unfinished), "-o", str(out)]) == 2
+    assert "no driver" in capsys.readouterr().err
     assert not out.exists()
     with pytest.raises(SystemExit):
         kinepoly(["render", str(design), "-o", str(out), "--size", "big"])
