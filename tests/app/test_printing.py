@@ -4,6 +4,7 @@ and we check lengths on paper against the mechanism file's own numbers."""
 import json
 import math
 import re
+from pathlib import Path
 
 import pdfplumber
 import pytest
@@ -14,6 +15,7 @@ from app.printing import main, print_construction
 from tests.drawing.designs import BOTTLE_PUSHER, GATE_LIFTER, LIMITED_ROCKER, SWING_LEVER, construction
 
 MM_PER_PT = 25.4 / 72.0  # PDF user space is in points of 1/72 inch
+SAMPLES = Path(__file__).resolve().parents[2] / "samples"
 RATIO = re.compile(r"Space diagram (\d+(?:\.\d+)?):(\d+(?:\.\d+)?)")
 PER_MM = re.compile(r"(Velocity|Acceleration) polygon 1 mm = ([\d.]+) m/s")
 
@@ -186,3 +188,21 @@ def test_every_stroke_is_an_iso_128_weight_and_nothing_is_rasterised(sheet_pdf):
     # ISO 128 line weights used on the sheet; a cosmetic pen would show up as a 0 mm hairline.
     assert widths and all(min(abs(w - iso) for iso in (0.25, 0.35, 0.5, 0.7)) < 0.01 for w in widths), widths
     assert page.images == []  # drawn as vectors, no cached item turned into a bitmap
+
+
+def test_lettering_is_iso_3098_capital_height(sheet_pdf):
+    page = sheet_pdf()
+    words = page.extract_words(extra_attrs=["size", "fontname"])
+    # DejaVu Sans: capital height 1493 of 2048 units per em.  # from memory
+    # ISO 3098 lettering of capital height h needs an em of h / (1493 / 2048).
+    for text, h in (("Velocity", 2.5), ("Results", 1.8), ("Gate", 5.0)):
+        word = next(w for w in words if w["text"] == text)
+        assert word["size"] * MM_PER_PT == pytest.approx(h / (1493 / 2048), abs=0.05), text
+        assert word["fontname"].split("+")[-1] == "DejaVuSans"
+
+
+@pytest.mark.parametrize("sample", sorted(SAMPLES.glob("*.json")), ids=lambda p: p.stem)
+def test_every_sample_prints(qapp, sample, tmp_path):
+    assert main([str(sample), "-o", str(tmp_path / "s.pdf")]) == 0
+    page = pdfplumber.open(tmp_path / "s.pdf").pages[0]
+    assert _space_ratio(page) > 0 and len(_segments(page)) > 20

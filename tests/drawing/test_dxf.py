@@ -7,6 +7,7 @@ import os
 import re
 import shutil
 import subprocess
+from pathlib import Path
 
 import ezdxf
 import pdfplumber
@@ -21,6 +22,7 @@ from kinematics.dxf import main, write_dxf
 from .designs import BOTTLE_PUSHER, DESIGNS, GATE_LIFTER, LIMITED_ROCKER, SWING_LEVER, construction
 
 MM_PER_PT = 25.4 / 72.0
+SAMPLES = Path(__file__).resolve().parents[2] / "samples"
 
 
 def _read(path):
@@ -207,3 +209,12 @@ def test_a_design_in_metres_exports_in_millimetres_with_readable_text(tmp_path):
              if {tuple(e.dxf.start)[:2], tuple(e.dxf.end)[:2]} == {(0.0, 900.0), (400.0, 900.0)}]
     assert len(crank) == 1
     assert min(t.dxf.height for t in msp.query("TEXT")) > 2.5
+
+
+@pytest.mark.parametrize("sample", sorted(SAMPLES.glob("*.json")), ids=lambda p: p.stem)
+def test_every_sample_exports_a_clean_dxf(sample, tmp_path):
+    c = kinematics.construct(kinematics.solve(kinematics.load_mechanism(sample)))
+    write_dxf(c, tmp_path / "s.dxf", file_name=sample.name)
+    msp = _read(tmp_path / "s.dxf").modelspace()
+    assert len(msp.query(f"LINE[layer=='{style.SPACE_LINK.layer}']")) >= 1
+    assert sample.name in " ".join(t.dxf.text for t in msp.query("TEXT"))
