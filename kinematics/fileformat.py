@@ -97,8 +97,18 @@ def _depth(value, level=0):
     return level
 
 
-def _is_number(value) -> bool:
-    return isinstance(value, (int, float)) and not isinstance(value, bool) and math.isfinite(value)
+# Coordinates and rates beyond these magnitudes are no machine (and would overflow on squaring).
+MAX_COORDINATE = 1e9
+MAX_RATE = 1e9
+
+
+def _is_number(value, limit: float = math.inf) -> bool:
+    if not isinstance(value, (int, float)) or isinstance(value, bool):
+        return False
+    try:
+        return math.isfinite(float(value)) and abs(float(value)) <= limit
+    except OverflowError:
+        return False
 
 
 def _expect(condition, message, location):
@@ -124,6 +134,8 @@ def _read_points(doc, names):
         _check_name(name, f"points.{name}", names)
         _expect(isinstance(xy, list) and len(xy) == 2 and all(_is_number(c) for c in xy),
                 "a point is [x, y] with two finite numbers", f"points.{name}")
+        _expect(all(_is_number(c, MAX_COORDINATE) for c in xy),
+                f"a coordinate is beyond ±{MAX_COORDINATE:g} length units", f"points.{name}")
     return points
 
 
@@ -186,8 +198,9 @@ def _quantity(spec, units, where, default_unit):
     for key in spec:
         _expect(key in ("value", "unit"), f'unknown key "{key}"', f"{where}.{key}")
     _expect(_is_number(spec["value"]), "value must be a finite number", f"{where}.value")
+    _expect(_is_number(spec["value"], MAX_RATE), f"value is beyond ±{MAX_RATE:g}", f"{where}.value")
     unit = spec.get("unit", default_unit)
-    _expect(unit in units, f'unknown unit "{unit}" (use {" or ".join(units)})', f"{where}.unit")
+    _expect(isinstance(unit, str) and unit in units, f'unknown unit "{unit}" (use {" or ".join(units)})', f"{where}.unit")
     return spec["value"], unit
 
 
@@ -274,7 +287,7 @@ def mechanism_from_document(doc: dict, where: str = "") -> Mechanism:
     for key in ("title", "notes"):
         _expect(isinstance(doc.get(key, ""), str), f"{key} must be text", key)
     length_unit = doc.get("length_unit", "mm")
-    _expect(length_unit in METRES_PER_LENGTH_UNIT, f'unknown length unit "{length_unit}" (use mm, m or in)',
+    _expect(isinstance(length_unit, str) and length_unit in METRES_PER_LENGTH_UNIT, f'unknown length unit "{length_unit}" (use mm, m or in)',
             "length_unit")
     names: dict = {}
     points = {k: list(v) for k, v in _read_points(doc, names).items()}
