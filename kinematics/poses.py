@@ -43,7 +43,7 @@ def pose_warnings(mech: Mechanism, decomposition: Decomposition, xy: dict) -> li
             if square < IN_LINE_DEG:
                 warnings.append(f"near a dead point of the driver: link {group.links[0]} is {square:.2f}° from "
                                 f"square to the line of slide {slide.name}")
-        if group.form == "RPR":
+        if group.form in ("RPR", "numeric"):
             continue
         for pin, other in ((r["A"], r.get("B", r.get("D"))), (r.get("C"), r.get("B"))):
             if pin is None or other is None:

@@ -129,3 +129,30 @@ def test_random_slotted_levers(r, gap, offset, theta, rpm, alpha):
 @given(theta=angles, rpm=speeds, alpha=accelerations, share=st.floats(0.2, 2.0))
 def test_random_blocks_on_rotating_guides(theta, rpm, alpha, share):
     _crosscheck_ok(_assemblable(lambda: block_on_rotating_guide(theta, rpm=rpm, alpha=alpha, share=share)))
+
+
+def triad_linkage():
+    """A crank driving a three-link group (ternary link B-C-D held by rockers O4-C and O6-D):
+    no dyad fits, so the construction must say so and take that group from the solver."""
+    return {"kinepoly": 1, "length_unit": "mm",
+            "points": {"O2": [0, 0], "A": [30, 30], "B": [110, 90], "C": [170, 120], "D": [150, 40],
+                       "O4": [230, 160], "O6": [200, -30]},
+            "ground": ["O2", "O4", "O6"],
+            "links": {"crank": ["O2", "A"], "rod": ["A", "B"], "plate": ["B", "C", "D"],
+                      "upper": ["O4", "C"], "lower": ["O6", "D"]},
+            "driver": {"link": "crank", "pivot": "O2", "speed": {"value": 100, "unit": "rpm"}}}
+
+
+def test_a_group_that_is_no_dyad_is_marked_and_taken_from_the_solver():
+    mech = kinematics.load_mechanism(triad_linkage())
+    assert kinematics.diagnose(mech) == []
+    solution = kinematics.solve(mech, 40.0)
+    construction = kinematics.construct(solution)
+    (group,) = construction.decomposition.groups
+    assert group.form == "numeric" and set(group.links) == {"rod", "plate", "upper", "lower"}
+    assert any("is not a dyad" in w for w in construction.warnings)
+    numeric = [s for s in construction.velocity.steps if s.numeric]
+    assert {s.label for s in numeric} == {"b", "c", "d"}
+    assert all("taken from the numeric solver" in s.text for s in numeric)
+    with pytest.raises(kinematics.KinematicsError, match="no dyad"):
+        kinematics.sweep(mech, 36)
