@@ -29,7 +29,7 @@ from PySide6.QtGui import (
     QPolygonF,
 )
 
-from kinematics.drawing import PAPER, Arrow, Circle, Hatch, Line, Polyline, Text, draw_sheet
+from kinematics.drawing import PAPER, Arrow, Circle, Hatch, Line, Note, Polyline, Text, draw_sheet
 from kinematics.drawing.output import OutputError, construction_from_file, run_reporting, write_atomically
 from kinematics.drawing.sheet import DASHES
 
@@ -100,6 +100,11 @@ class PainterBackend:
             p.drawEllipse(self.point(primitive.centre), r, r)
         elif isinstance(primitive, Text):
             self._text(primitive)
+        elif isinstance(primitive, Note):
+            x, top = primitive.position
+            for i, line in enumerate(primitive.lines):
+                self._text(Text(position=(x, top - i * primitive.pitch), text=line, height=primitive.height,
+                                pen=primitive.pen, anchor="top"))
         else:
             raise TypeError(f"no way to paint {type(primitive).__name__}")
 

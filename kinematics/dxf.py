@@ -17,12 +17,15 @@ import ezdxf
 from ezdxf import bbox
 from ezdxf.enums import TextEntityAlignment
 
-from .drawing import Arrow, Circle, Hatch, Line, Polyline, Text, draw_model
+from .drawing import Arrow, Circle, Hatch, Line, Note, Polyline, Text, draw_model
 from .drawing.output import construction_from_file, run_reporting, write_atomically
 from .drawing.sheet import DASHES
 
 DXF_VERSION = "R2013"  # UTF-8 text (ω, α, ², ′) and true colour on layers
 INSUNITS_MILLIMETRES = 4
+APP_ID = "KINEPOLY"  # extended data naming the construction step or part an entity draws
+# MTEXT's default line pitch is 5/3 of the text height (DXF reference).  # from memory
+MTEXT_PITCH = 5.0 / 3.0
 ALIGNMENTS = {
     ("left", "baseline"): TextEntityAlignment.LEFT, ("centre", "baseline"): TextEntityAlignment.CENTER,
     ("right", "baseline"): TextEntityAlignment.RIGHT, ("left", "middle"): TextEntityAlignment.MIDDLE_LEFT,
@@ -71,35 +74,61 @@ def new_document():
     return doc
 
 
-def _solid(msp, points, attribs) -> None:
+def _solid(msp, points, attribs):
     hatch = msp.add_hatch(dxfattribs=attribs)
     hatch.paths.add_polyline_path([tuple(p) for p in points], is_closed=True)
+    return hatch
+
+
+def _mtext(lines) -> str:
+    # Backslash and braces are MTEXT's escapes; lines join with its paragraph code.
+    escaped = (line.replace("\\", "\\\\").replace("{", "\\{").replace("}", "\\}") for line in lines)
+    return "\\P".join(escaped)
+
+
+def _tag(entities, primitive) -> None:
+    """Extended data: which construction step or part of the mechanism the entity draws."""
+    tags = [(1000, f"{key} {value}") for key, value in (("step", primitive.step), ("part", primitive.part),
+                                                        ("view", primitive.view)) if value]
+    if tags:
+        for entity in entities:
+            entity.set_xdata(APP_ID, tags)
 
 
 def replay(sheet, doc) -> None:
     """Add every primitive of ``sheet`` to the modelspace of ``doc`` (sheet mm = drawing mm)."""
     msp = doc.modelspace()
+    if APP_ID not in doc.appids:
+        doc.appids.add(APP_ID)
     for primitive in sheet.primitives:
-        attribs = {"layer": _layer(doc, primitive.pen)}
-        if isinstance(primitive, Line):
-            msp.add_line(primitive.start, primitive.end, dxfattribs=attribs)
-        elif isinstance(primitive, Polyline):
-            msp.add_lwpolyline(primitive.points, close=primitive.closed, dxfattribs=attribs)
-        elif isinstance(primitive, Arrow):
-            msp.add_line(primitive.start, primitive.end, dxfattribs=attribs)
-            _solid(msp, primitive.head, attribs)
-        elif isinstance(primitive, Hatch):
-            _solid(msp, primitive.points, attribs)
-        elif isinstance(primitive, Circle):
-            msp.add_circle(primitive.centre, primitive.radius, dxfattribs=attribs)
-            if primitive.filled:
-                hatch = msp.add_hatch(dxfattribs=attribs)
-                hatch.paths.add_edge_path().add_arc(primitive.centre, primitive.radius, 0.0, 360.0)
-        elif isinstance(primitive, Text):
-            text = msp.add_text(primitive.text, height=primitive.height, dxfattribs=attribs)
-            text.set_placement(primitive.position, align=ALIGNMENTS[(primitive.align, primitive.anchor)])
-        else:
-            raise TypeError(f"no DXF entity for {type(primitive).__name__}")
+        _tag(_add(msp, {"layer": _layer(doc, primitive.pen)}, primitive), primitive)
+
+
+def _add(msp, attribs, primitive) -> list:
+    """The entities drawing one primitive."""
+    if isinstance(primitive, Line):
+        return [msp.add_line(primitive.start, primitive.end, dxfattribs=attribs)]
+    if isinstance(primitive, Polyline):
+        return [msp.add_lwpolyline(primitive.points, close=primitive.closed, dxfattribs=attribs)]
+    if isinstance(primitive, Arrow):
+        return [msp.add_line(primitive.start, primitive.end, dxfattribs=attribs), _solid(msp, primitive.head, attribs)]
+    if isinstance(primitive, Hatch):
+        return [_solid(msp, primitive.points, attribs)]
+    if isinstance(primitive, Circle):
+        entities = [msp.add_circle(primitive.centre, primitive.radius, dxfattribs=attribs)]
+        if primitive.filled:
+            entities.append(msp.add_hatch(dxfattribs=attribs))
+            entities[-1].paths.add_edge_path().add_arc(primitive.centre, primitive.radius, 0.0, 360.0)
+        return entities
+    if isinstance(primitive, Text):
+        text = msp.add_text(primitive.text, height=primitive.height, dxfattribs=attribs)
+        text.set_placement(primitive.position, align=ALIGNMENTS[(primitive.align, primitive.anchor)])
+        return [text]
+    if isinstance(primitive, Note):
+        return [msp.add_mtext(_mtext(primitive.lines), dxfattribs={
+            **attribs, "insert": primitive.position, "char_height": primitive.height, "attachment_point": 1,
+            "line_spacing_factor": primitive.pitch / (MTEXT_PITCH * primitive.height)})]
+    raise TypeError(f"no DXF entity for {type(primitive).__name__}")
 
 
 def _frame_view(doc) -> None:

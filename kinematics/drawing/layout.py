@@ -23,7 +23,7 @@ from .annotate import (
 from .polygons import draw_polygon, polygon_bounds
 from .results import results_band, results_height
 from .scaling import bar_value, iso5455_ratio, plain, polygon_scale, ratio_text
-from .sheet import FRAME, Recorder, Sheet, Text, View
+from .sheet import FRAME, Note, Recorder, Sheet, View
 from .space import draw_space, positions
 from .symbols import Symbols
 
@@ -239,10 +239,8 @@ def draw_model(construction, file_name: str = "", date: str | None = None) -> Sh
         per_value, unit = (1.0, "mm") if name == "space" else (view.mm_per_unit, view.unit)
         scale_bar(rec, (view.box[0], bar_y), per_value, unit, max(20 * size.text, 0.5 * (view.box[2] - view.box[0])),
                   _caption(view), size, name)
-    y = bar_y - 2 * pad
     lines = description(construction, _scales(views), file_name, date or datetime.date.today().isoformat())
     texts = [f"{label}: {text}" for label, text in lines] + caution_lines(left - x0, size.text)
-    for text in texts:
-        rec.add(Text(position=(x0, y), text=text, height=size.text, pen=ANNOTATION, part="note"))
-        y -= 1.8 * size.text
+    rec.add(Note(position=(x0, bar_y - 2 * pad), lines=tuple(texts), height=size.text, pitch=1.8 * size.text,
+                 pen=ANNOTATION, part="note"))
     return rec.sheet(0.0, 0.0, title=solution.mechanism.title)

@@ -99,6 +99,21 @@ class Hatch:
 
 
 @dataclass(frozen=True)
+class Note:
+    """A paragraph: ``lines`` from ``position`` (left end of the first line's
+    capitals' top) downwards, ``pitch`` mm apart, capital height ``height``."""
+
+    position: tuple
+    lines: tuple
+    height: float
+    pitch: float
+    pen: Pen
+    view: str = ""
+    step: str = ""
+    part: str = ""
+
+
+@dataclass(frozen=True)
 class View:
     """Where one view sits: ``box`` (x0, y0, x1, y1) in sheet mm, ``origin`` the
     sheet position of the model's zero, and ``mm_per_unit`` sheet mm per model

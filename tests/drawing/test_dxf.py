@@ -84,8 +84,10 @@ def test_polygon_vectors_are_the_steps_geometry_at_the_stated_scale(exported):
             start = (view.origin[0] + x0 / stated, view.origin[1] + y0 / stated)
             end = (view.origin[0] + x1 / stated, view.origin[1] + y1 / stated)
             layer = style.pen_for(step).layer
-            assert any(math.dist(tuple(e.dxf.start)[:2], start) < 1e-9 and math.dist(tuple(e.dxf.end)[:2], end) < 1e-9
-                       for e in msp.query(f"LINE[layer=='{layer}']")), (kind, step.id)
+            drawn = [e for e in msp.query(f"LINE[layer=='{layer}']")
+                     if math.dist(tuple(e.dxf.start)[:2], start) < 1e-9 and math.dist(tuple(e.dxf.end)[:2], end) < 1e-9]
+            assert drawn, (kind, step.id)
+            assert (1000, f"step {step.id}") in drawn[0].get_xdata("KINEPOLY")  # leads back to the step
 
 
 def test_labels_scale_bars_and_note_are_text(exported):
@@ -93,9 +95,10 @@ def test_labels_scale_bars_and_note_are_text(exported):
     msp = doc.modelspace()
     texts = [t.dxf.text for t in msp.query("TEXT")]
     joined = " ".join(texts)
-    assert "m/s²" in joined and "^" not in joined + "".join(m.text for m in msp.query("MTEXT"))
-    assert kinematics.CAUTION in joined
-    assert "35.00°" in joined and "Space diagram 1:1" in joined
+    (note,) = msp.query("MTEXT")
+    assert "m/s²" in joined + note.text and "^" not in joined + note.text  # ^ is an MTEXT escape
+    assert " ".join(kinematics.CAUTION.split()) in " ".join(note.plain_text().split())
+    assert "35.00°" in note.plain_text() and "Space diagram 1:1" in joined
     for name in c.solution.mechanism.points:
         assert name in texts
     # The space diagram's scale bar at 1:1 is as long as its label in mm.
@@ -109,7 +112,8 @@ def test_dxf_written_from_the_command(tmp_path):
     design = tmp_path / "pusher.json"
     design.write_text(json.dumps(BOTTLE_PUSHER), encoding="utf-8")
     assert main([str(design), "--angle", "120", "-o", str(tmp_path / "pusher.dxf")]) == 0
-    assert "120.00°" in " ".join(t.dxf.text for t in _read(tmp_path / "pusher.dxf").modelspace().query("TEXT"))
+    (note,) = _read(tmp_path / "pusher.dxf").modelspace().query("MTEXT")
+    assert "120.00°" in note.plain_text()
 
 
 def test_command_exit_codes_and_messages(tmp_path, capsys):
@@ -217,4 +221,4 @@ def test_every_sample_exports_a_clean_dxf(sample, tmp_path):
     write_dxf(c, tmp_path / "s.dxf", file_name=sample.name)
     msp = _read(tmp_path / "s.dxf").modelspace()
     assert len(msp.query(f"LINE[layer=='{style.SPACE_LINK.layer}']")) >= 1
-    assert sample.name in " ".join(t.dxf.text for t in msp.query("TEXT"))
+    assert sample.name in msp.query("MTEXT")[0].plain_text()
