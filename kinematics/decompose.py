@@ -20,6 +20,7 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 
+from .memo import remembered
 from .model import GROUND, Mechanism
 
 
@@ -77,7 +78,11 @@ def _branch_sign(mech: Mechanism, form: str, roles: dict, slide=None) -> float:
 
 
 def decompose(mech: Mechanism) -> Decomposition:
-    """Order the links into the driver and groups. Needs a driver."""
+    """Order the links into the driver and groups. Needs a driver. Kept per mechanism."""
+    return remembered(mech, "decomposition", lambda: _decompose(mech))
+
+
+def _decompose(mech: Mechanism) -> Decomposition:
     driver = mech.driver.link
     known_bodies = {GROUND, driver}
     known_points = set(mech.ground) | set(mech.links[driver])

@@ -200,7 +200,8 @@ def _quantity(spec, units, where, default_unit):
     _expect(_is_number(spec["value"]), "value must be a finite number", f"{where}.value")
     _expect(_is_number(spec["value"], MAX_RATE), f"value is beyond ±{MAX_RATE:g}", f"{where}.value")
     unit = spec.get("unit", default_unit)
-    _expect(isinstance(unit, str) and unit in units, f'unknown unit "{unit}" (use {" or ".join(units)})', f"{where}.unit")
+    _expect(isinstance(unit, str) and unit in units, f'unknown unit "{unit}" (use {" or ".join(units)})',
+            f"{where}.unit")
     return spec["value"], unit
 
 
@@ -287,7 +288,8 @@ def mechanism_from_document(doc: dict, where: str = "") -> Mechanism:
     for key in ("title", "notes"):
         _expect(isinstance(doc.get(key, ""), str), f"{key} must be text", key)
     length_unit = doc.get("length_unit", "mm")
-    _expect(isinstance(length_unit, str) and length_unit in METRES_PER_LENGTH_UNIT, f'unknown length unit "{length_unit}" (use mm, m or in)',
+    _expect(isinstance(length_unit, str) and length_unit in METRES_PER_LENGTH_UNIT,
+            f'unknown length unit "{length_unit}" (use mm, m or in)',
             "length_unit")
     names: dict = {}
     points = {k: list(v) for k, v in _read_points(doc, names).items()}

@@ -3,13 +3,13 @@ from the rank of the constraint Jacobian, and what stops analysis."""
 
 from __future__ import annotations
 
-import weakref
 from dataclasses import dataclass
 
 import numpy as np
 
 from .constraints import build_system
 from .errors import MechanismFindings
+from .memo import remembered
 from .model import GROUND, Mechanism
 
 
@@ -61,18 +61,11 @@ def jacobian_mobility(mech: Mechanism):
     return mobility, redundant
 
 
-_FINDINGS: dict = {}
-
-
 def diagnose(mech: Mechanism) -> list:
     """The findings that stop analysis (an empty list means ready to solve).
 
     Mechanisms are immutable, so the answer is kept for as long as the mechanism lives."""
-    key = id(mech)
-    if key not in _FINDINGS:
-        _FINDINGS[key] = tuple(_diagnose(mech))
-        weakref.finalize(mech, _FINDINGS.pop, key, None)
-    return list(_FINDINGS[key])
+    return list(remembered(mech, "findings", lambda: tuple(_diagnose(mech))))
 
 
 def _diagnose(mech: Mechanism) -> list:

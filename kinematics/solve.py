@@ -10,6 +10,7 @@ way; otherwise the linkage cannot assemble there.
 
 from __future__ import annotations
 
+import bisect
 import math
 from dataclasses import dataclass
 
@@ -18,6 +19,7 @@ import numpy as np
 from .constraints import ConstraintSystem, build_system, reference_driver_angle
 from .decompose import decompose
 from .errors import CannotAssemble
+from .memo import remembered
 from .model import Mechanism
 from .poses import pose_warnings
 
@@ -206,9 +208,36 @@ def _slide_rates(mech: Mechanism, index, x, xdot, xddot, omega, alpha):
     return velocity, acceleration
 
 
+class _Way:
+    """The poses already reached along one way (one turning sense) from the reference pose,
+    so that a later angle continues from the nearest of them instead of starting over."""
+
+    MAX_KEPT = 720
+
+    def __init__(self, q_reference):
+        self.spans, self.poses, self.passed = [0.0], [q_reference], [False]
+        self.blocked = math.inf  # a dead point lies before this span
+
+    def reach(self, driven, theta_ref, span, direction, size):
+        if span >= self.blocked:
+            return None
+        i = bisect.bisect_right(self.spans, span) - 1
+        tracked = _track(driven, self.poses[i], theta_ref + direction * self.spans[i], span - self.spans[i],
+                         direction, size)
+        if tracked is None:
+            self.blocked = span
+            return None
+        q, passed = tracked[0], tracked[1] or self.passed[i]
+        if span > self.spans[i] and len(self.spans) < self.MAX_KEPT:
+            self.spans.insert(i + 1, span)
+            self.poses.insert(i + 1, q)
+            self.passed.insert(i + 1, passed)
+        return q, passed
+
+
 def solve_pose(mechanism: Mechanism, angle_deg=None, system: ConstraintSystem | None = None) -> Solution:
     """Solve without checking findings first (see :func:`kinematics.solve`)."""
-    system = system or build_system(mechanism)
+    system = system or remembered(mechanism, "constraints", lambda: build_system(mechanism))
     driven = _Driven(system)
     driver = mechanism.driver
     omega, alpha = driver.speed_rad_s, driver.angular_acceleration_rad_s2
@@ -224,9 +253,10 @@ def solve_pose(mechanism: Mechanism, angle_deg=None, system: ConstraintSystem | 
         span = ((theta - theta_ref) * turn) % (2 * math.pi)
         if span > 2 * math.pi - 1e-12:
             span = 0.0
-        tracked = _track(driven, q, theta_ref, span, turn, size) if span > 0 else (q, False)
+        ways = remembered(mechanism, "ways", lambda: {1.0: _Way(q), -1.0: _Way(q)})
+        tracked = ways[turn].reach(driven, theta_ref, span, turn, size) if span > 0 else (q, False)
         if tracked is None:
-            tracked = _track(driven, q, theta_ref, 2 * math.pi - span, -turn, size)
+            tracked = ways[-turn].reach(driven, theta_ref, 2 * math.pi - span, -turn, size)
         if tracked is None:
             raise CannotAssemble(f"cannot assemble at driver angle {float(angle_deg):.1f}°",
                                  f"driver angle {float(angle_deg):.1f}°")

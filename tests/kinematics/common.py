@@ -1,8 +1,11 @@
 """Named test mechanisms, built from their defining dimensions (mm, degrees)."""
 
 import math
+import os
 
 SAMPLES = __import__("pathlib").Path(__file__).resolve().parents[2] / "samples"
+# KINEPOLY_FULL=1 runs every property test on ten times as many cases (randomised, see tests/conftest.py).
+CASE_FACTOR = 10 if os.environ.get("KINEPOLY_FULL") else 1
 
 
 def driver(link="crank", pivot="O2", rpm=120.0, alpha=0.0):

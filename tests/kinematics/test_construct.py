@@ -9,7 +9,7 @@ from hypothesis import strategies as st
 
 import kinematics
 from kinematics import Component, Role, groups
-from tests.kinematics.common import SAMPLES, block_on_rotating_guide, four_bar, slider_crank, slotted_lever
+from tests.kinematics.common import CASE_FACTOR, SAMPLES, block_on_rotating_guide, four_bar, slider_crank, slotted_lever
 
 SAMPLE_FILES = sorted(SAMPLES.glob("*.json"))
 
@@ -103,21 +103,21 @@ def _crosscheck_ok(solution):
         assert any(s.flagged for s in steps)
 
 
-@settings(max_examples=150)
+@settings(max_examples=150 * CASE_FACTOR)
 @given(a=st.floats(10, 80), b=st.floats(60, 200), c=st.floats(40, 180), d=st.floats(60, 200), theta=angles,
        rpm=speeds, alpha=accelerations, p=st.floats(5, 100), delta=st.floats(-170, 170))
 def test_random_four_bars(a, b, c, d, theta, rpm, alpha, p, delta):
     _crosscheck_ok(_assemblable(lambda: four_bar(a, b, c, d, theta, rpm=rpm, alpha=alpha, coupler_point=(p, delta))))
 
 
-@settings(max_examples=120)
+@settings(max_examples=120 * CASE_FACTOR)
 @given(r=st.floats(10, 80), extra=st.floats(20, 300), e=st.floats(-60, 60), theta=angles, rpm=speeds,
        alpha=accelerations)
 def test_random_slider_cranks(r, extra, e, theta, rpm, alpha):
     _crosscheck_ok(_assemblable(lambda: slider_crank(r, r + abs(e) + extra, e, theta, rpm=rpm, alpha=alpha)))
 
 
-@settings(max_examples=120)
+@settings(max_examples=120 * CASE_FACTOR)
 @given(r=st.floats(10, 100), gap=st.floats(10, 200), offset=st.floats(-0.9, 0.9), theta=angles, rpm=speeds,
        alpha=accelerations)
 def test_random_slotted_levers(r, gap, offset, theta, rpm, alpha):
@@ -125,7 +125,7 @@ def test_random_slotted_levers(r, gap, offset, theta, rpm, alpha):
                                                       offset=offset * gap)))
 
 
-@settings(max_examples=120)
+@settings(max_examples=120 * CASE_FACTOR)
 @given(theta=angles, rpm=speeds, alpha=accelerations, share=st.floats(0.2, 2.0))
 def test_random_blocks_on_rotating_guides(theta, rpm, alpha, share):
     _crosscheck_ok(_assemblable(lambda: block_on_rotating_guide(theta, rpm=rpm, alpha=alpha, share=share)))

@@ -10,7 +10,7 @@ from hypothesis import strategies as st
 import kinematics
 from kinematics.checks import grashof_class, output_motion
 from kinematics.sweep import sweep, sweep_csv, verify_sweep
-from tests.kinematics.common import SAMPLES, four_bar, slider_crank
+from tests.kinematics.common import CASE_FACTOR, SAMPLES, four_bar, slider_crank
 
 SAMPLE_FILES = sorted(SAMPLES.glob("*.json"))
 
@@ -50,7 +50,7 @@ def test_swept_rates_are_derivatives_of_the_swept_motion(path):
         _derivative_check(mech)
 
 
-@settings(max_examples=40)
+@settings(max_examples=40 * CASE_FACTOR)
 @given(a=st.floats(10, 60), b=st.floats(80, 200), c=st.floats(60, 180), d=st.floats(80, 200),
        theta=st.floats(0, 359))
 def test_random_crank_rockers_close_the_loop_and_differentiate(a, b, c, d, theta):
@@ -70,7 +70,7 @@ def test_random_crank_rockers_close_the_loop_and_differentiate(a, b, c, d, theta
     _derivative_check(mech, 20000)
 
 
-@settings(max_examples=40)
+@settings(max_examples=40 * CASE_FACTOR)
 @given(r=st.floats(10, 60), extra=st.floats(30, 200), e=st.floats(-40, 40), theta=st.floats(0, 359))
 def test_random_slider_cranks_differentiate(r, extra, e, theta):
     mech = kinematics.load_mechanism(slider_crank(r, r + abs(e) + extra, e, theta))
@@ -119,3 +119,15 @@ def test_a_driver_that_cannot_turn_fully_sweeps_between_its_dead_points():
         a = np.array([100 * math.cos(t), 100 * math.sin(t)])
         assert np.linalg.norm(a - [120, 0]) == pytest.approx(60 + 90, abs=1e-6) or \
             np.linalg.norm(a - [120, 0]) == pytest.approx(90 - 60, abs=1e-6)
+
+
+def test_solve_does_not_depend_on_what_was_solved_before():
+    """Poses reached earlier are kept as starting points; the answer must not depend on them."""
+    path = SAMPLES / "stacker-transfer-stephenson.json"
+    fresh = kinematics.solve(kinematics.load_mechanism(path), 301.0)
+    mech = kinematics.load_mechanism(path)
+    for angle in (10.0, 250.0, 120.0, 299.0, 302.0):
+        kinematics.solve(mech, angle)
+    again = kinematics.solve(mech, 301.0)
+    assert np.allclose(again.positions, fresh.positions, rtol=0, atol=1e-12)
+    assert np.allclose(again.accelerations, fresh.accelerations, rtol=1e-10, atol=1e-10)
