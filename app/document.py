@@ -151,13 +151,15 @@ class Document(QObject):
         self.changed.emit()
         return ""
 
-    def edit(self, after: Mechanism, text: str, drag: int | None = None) -> str:
-        """Push an undoable edit if its result can be analysed at the current angle.
+    def edit(self, after: Mechanism, text: str, drag: int | None = None, check: bool = True) -> str:
+        """Push an undoable edit.
 
-        Returns "" on success, else the reason; the design is then left as it was.
+        With ``check`` (drags), the edit is refused unless its result can be analysed at the
+        current angle; the reason is returned and the design left as it was. Building steps pass
+        ``check=False``: an unfinished design is a normal stage of building one.
         """
         analysis = analyse(after, self.angle_deg)
-        if analysis.solution is None and self.solution is not None:
+        if check and analysis.solution is None and self.solution is not None:
             return analysis.problem
         self.undo_stack.push(EditCommand(self, self.mechanism, after, text, drag, analysis))
         return ""

@@ -13,23 +13,9 @@ import math
 
 from kinematics import Mechanism, move_point
 
+from .building import keep_slides_on_guides, snap
+
 _drag_serials = itertools.count(1)
-
-
-def keep_slides_on_guides(mechanism: Mechanism) -> Mechanism:
-    """Each sliding point set back onto its slide line (as the file format requires of a reference pose)."""
-    for slide in mechanism.slides.values():
-        (ex, ey), (fx, fy) = (mechanism.points[p] for p in slide.line)
-        dx, dy = fx - ex, fy - ey
-        length2 = dx * dx + dy * dy
-        if length2 == 0.0:
-            continue
-        px, py = mechanism.points[slide.point]
-        t = ((px - ex) * dx + (py - ey) * dy) / length2
-        on_line = (ex + t * dx, ey + t * dy)
-        if math.hypot(px - on_line[0], py - on_line[1]) > 1e-12 * math.sqrt(length2):
-            mechanism = move_point(mechanism, slide.point, on_line)
-    return mechanism
 
 
 def turns_driver(mechanism: Mechanism, name: str) -> bool:
@@ -40,10 +26,11 @@ def turns_driver(mechanism: Mechanism, name: str) -> bool:
 
 
 class JointDrag:
-    """One drag of joint ``name`` with the mouse, from scene position ``start_mm`` (machine mm, y up)."""
+    """One drag of joint ``name`` with the mouse, from scene position ``start_mm`` (machine mm, y up),
+    landing on grid nodes ``grid_mm`` apart when snapping (0: free)."""
 
-    def __init__(self, document, name: str, start_mm: tuple):
-        self.document, self.name, self.start_mm = document, name, start_mm
+    def __init__(self, document, name: str, start_mm: tuple, grid_mm: float = 0.0):
+        self.document, self.name, self.start_mm, self.grid_mm = document, name, start_mm, grid_mm
         self.turning = turns_driver(document.mechanism, name) and document.solution is not None
         self.serial = next(_drag_serials)
         self.message = ""
@@ -72,6 +59,7 @@ class JointDrag:
             return f"the driver cannot turn to {angle:.1f}°: {problem}" if problem else ""
         x = self.start_xy[0] + (at_mm[0] - self.start_mm[0]) / self.mm_per_unit
         y = self.start_xy[1] + (at_mm[1] - self.start_mm[1]) / self.mm_per_unit
+        x, y = snap((x, y), self.grid_mm / self.mm_per_unit)
         after = keep_slides_on_guides(move_point(self.document.mechanism, self.name, (x, y)))
         unit = self.document.mechanism.length_unit
         problem = self.document.edit(after, f"move {self.name}", drag=self.serial)

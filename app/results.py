@@ -126,7 +126,6 @@ class ResultsTable(QTableView):
         self.verticalHeader().setVisible(False)
         # Sized to the contents when the rows change, not on every frame (that reads every cell).
         self.horizontalHeader().setSectionResizeMode(QHeaderView.Interactive)
-        self.horizontalHeader().setStretchLastSection(True)
         self.setAlternatingRowColors(True)
         self.results.layout_reset.connect(self.resizeColumnsToContents)
         self.results.headerDataChanged.connect(self.resizeColumnsToContents)

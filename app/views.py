@@ -3,6 +3,8 @@ space, fit to window; the space view also drags joints and reports hovering."""
 
 from __future__ import annotations
 
+import math
+
 from PySide6.QtCore import QPointF, QRectF, Qt, Signal
 from PySide6.QtGui import QColor, QPainter, QPen
 from PySide6.QtWidgets import QGraphicsView
@@ -112,12 +114,42 @@ class SpaceView(DrawingView):
     dragged = Signal(tuple)
     drag_finished = Signal()
     hovered = Signal(object)
+    picked = Signal(object, tuple)  # a building tool's click: joint name or None, and where
+    finished = Signal()  # Enter: close the chain being built
+    cancelled = Signal()  # Esc: drop it
 
     def __init__(self, scene, parent=None):
         super().__init__(scene, parent)
         self.setMouseTracking(True)
         self.dragging = None
         self._hover = None
+        self.building = False  # a building tool is active: clicks pick instead of drag
+        self.grid_mm = 0.0  # grid spacing drawn behind the diagram (0: none)
+
+    def drawBackground(self, painter: QPainter, rect):
+        super().drawBackground(painter, rect)
+        step = self.grid_mm
+        if not step or rect.width() / step > 400:  # too dense to read at this zoom: leave it out
+            return
+        pen = QPen(QColor("#e3e6ea"))
+        pen.setCosmetic(True)
+        painter.setPen(pen)
+        x = math.floor(rect.left() / step) * step
+        while x <= rect.right():
+            painter.drawLine(QPointF(x, rect.top()), QPointF(x, rect.bottom()))
+            x += step
+        y = math.floor(rect.top() / step) * step
+        while y <= rect.bottom():
+            painter.drawLine(QPointF(rect.left(), y), QPointF(rect.right(), y))
+            y += step
+
+    def keyPressEvent(self, event):
+        if self.building and event.key() in (Qt.Key_Return, Qt.Key_Enter):
+            self.finished.emit()
+        elif self.building and event.key() == Qt.Key_Escape:
+            self.cancelled.emit()
+        else:
+            super().keyPressEvent(event)
 
     def joint_at(self, pos) -> str | None:
         for item in self.items(pos):
@@ -131,6 +163,12 @@ class SpaceView(DrawingView):
         return (at.x(), -at.y())
 
     def mousePressEvent(self, event):
+        if self.building and event.button() == Qt.LeftButton:
+            pos = event.position().toPoint()
+            self.setFocus()
+            self.picked.emit(self.joint_at(pos), self._machine_mm(pos))
+            event.accept()
+            return
         name = self.joint_at(event.position().toPoint()) if event.button() == Qt.LeftButton else None
         if name is None:
             super().mousePressEvent(event)

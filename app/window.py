@@ -7,7 +7,7 @@ import sys
 from pathlib import Path
 
 from PySide6.QtCore import Qt
-from PySide6.QtGui import QAction, QKeySequence
+from PySide6.QtGui import QAction, QActionGroup, QKeySequence
 from PySide6.QtWidgets import (
     QApplication,
     QComboBox,
@@ -24,20 +24,22 @@ import kinematics
 from kinematics import KinematicsError, Mechanism
 
 from .angle_control import AngleControl
+from .build_tools import HINTS, Builder
+from .building import empty
 from .document import Document
+from .drawing_kit import preferred_length
 from .editing import JointDrag
 from .files import recent_files, remember, save_atomically
 from .icons import icon
 from .panels import DrawingsPanel
+from .properties import PropertiesPanel
 from .results import ResultsTable
 from .status import status_text
 from .steps_panel import StepsPanel
 
 FILE_FILTER = "Kinepoly mechanism (*.json);;All files (*)"
-
-
-def empty_mechanism() -> Mechanism:
-    return Mechanism(points={}, links={}, title="new design")
+TOOL_NAMES = {"select": "Select", "pivot": "Pivot", "joint": "Joint", "link": "Link", "slide": "Slide",
+              "driver": "Driver", "delete": "Delete"}
 
 
 class MainWindow(QMainWindow):
@@ -45,15 +47,18 @@ class MainWindow(QMainWindow):
 
     def __init__(self, mechanism: Mechanism | None = None, path=None):
         super().__init__()
-        self.document = Document(mechanism or empty_mechanism(), path, self)
+        self.document = Document(mechanism or empty(), path, self)
         self.note = ""
         self.drag = None
         self.drawings = DrawingsPanel(self.document)
         self.table = ResultsTable()
         self.steps = StepsPanel()
+        self.properties = PropertiesPanel(self.document, self.say)
+        self.builder = Builder(self.document, self.say, self.grid_mm)
         lower = QTabWidget()
         lower.addTab(self.table, "Results")
         lower.addTab(self.steps, "Construction steps")
+        lower.addTab(self.properties, "Design")
         splitter = QSplitter(Qt.Vertical)
         splitter.addWidget(self.drawings)
         splitter.addWidget(lower)
@@ -85,6 +90,9 @@ class MainWindow(QMainWindow):
         view.drag_started.connect(self.begin_drag)
         view.dragged.connect(self.continue_drag)
         view.drag_finished.connect(self.end_drag)
+        view.picked.connect(self.builder.pick)
+        view.finished.connect(self.builder.finish)
+        view.cancelled.connect(self.builder.cancel)
         self.resize(1600, 1000)
         self.refresh()
         self.drawings.fit_all()
@@ -100,6 +108,19 @@ class MainWindow(QMainWindow):
         bar.addWidget(QLabel(" ω in "))
         bar.addWidget(self.speed_units)
         self.addToolBar(bar)
+        tools = QToolBar("Build")
+        tools.setObjectName("build")
+        self.tools = QActionGroup(self)
+        self.tool_actions = {}
+        for tool, text in TOOL_NAMES.items():
+            action = QAction(text, self.tools)
+            action.setCheckable(True)
+            action.setToolTip(HINTS[tool])
+            action.triggered.connect(lambda _checked=False, t=tool: self.use_tool(t))
+            tools.addAction(action)
+            self.tool_actions[tool] = action
+        self.tool_actions["select"].setChecked(True)
+        self.addToolBar(Qt.LeftToolBarArea, tools)
 
     def _action(self, menu, text, slot, shortcut=None, icon_name=None):
         action = QAction(text, self)
@@ -131,6 +152,11 @@ class MainWindow(QMainWindow):
         self._action(view, "Zoom &in", lambda: space.zoom(1.25), QKeySequence.ZoomIn)
         self._action(view, "Zoom &out", lambda: space.zoom(0.8), QKeySequence.ZoomOut)
         self._action(view, "&Fit to window", self.drawings.fit_all, QKeySequence("Ctrl+0"), "fit")
+        self.snapping = QAction("&Snap to grid", self)
+        self.snapping.setCheckable(True)
+        self.snapping.setShortcut(QKeySequence("Ctrl+G"))
+        self.snapping.toggled.connect(self._snapping_changed)
+        view.addAction(self.snapping)
         helps = self.menuBar().addMenu("&Help")
         self._action(helps, "&About Kinepoly", self.about)
         self._fill_recent()
@@ -147,6 +173,8 @@ class MainWindow(QMainWindow):
         self.drawings.refresh()
         self.table.show_solution(doc.solution)
         self.steps.show_construction(doc.construction)
+        self.properties.refresh()
+        self.drawings.space_view.grid_mm = self.grid_mm()
         self.angle.show_angle(doc.shown_angle_deg)
         self.angle.setEnabled(doc.solution is not None)
         self.angle.set_range(doc.sweep)
@@ -171,6 +199,25 @@ class MainWindow(QMainWindow):
     def _units_changed(self, *_):
         self.table.set_units(self.length_units.currentText(), self.speed_units.currentText())
 
+    # building -------------------------------------------------------------
+    def use_tool(self, tool: str):
+        """Pick a building tool ("select" drags; the others pick joints and places)."""
+        self.tool_actions[tool].setChecked(True)
+        self.drawings.space_view.building = tool != "select"
+        self.builder.set_tool(tool)
+
+    def grid_mm(self) -> float:
+        """The snapping step in mm: a 1-2-5 length near a twentieth of the design, 10 mm for an empty one."""
+        if not self.snapping.isChecked():
+            return 0.0
+        mech = self.document.mechanism
+        size = 1e3 * mech.size * mech.metres_per_unit
+        return preferred_length(size / 20.0) if size > 0 else 10.0
+
+    def _snapping_changed(self, *_):
+        self.drawings.space_view.grid_mm = self.grid_mm()
+        self.drawings.space_view.viewport().update()
+
     # turning and dragging -------------------------------------------------
     def turn_driver(self, angle_deg: float):
         problem = self.document.set_angle(angle_deg)
@@ -181,7 +228,7 @@ class MainWindow(QMainWindow):
 
     def begin_drag(self, name: str, at_mm: tuple):
         self.angle.stop()
-        self.drag = JointDrag(self.document, name, at_mm)
+        self.drag = JointDrag(self.document, name, at_mm, self.grid_mm())
         self.say(self.drag.message)
 
     def continue_drag(self, at_mm: tuple):
@@ -206,7 +253,7 @@ class MainWindow(QMainWindow):
     def new_design(self):
         if self.ask_to_save():
             self.note = ""
-            self.document.replace(empty_mechanism())
+            self.document.replace(empty())
             self.drawings.fit_all()
 
     def open_dialog(self):

@@ -1,0 +1,171 @@
+"""Building a mechanism from nothing: pure edits that return a new Mechanism.
+
+Each function refuses what cannot make sense with a :class:`BuildError`
+whose message says why in the user's words; none of them needs Qt.
+
+>>> m, o = add_point(empty(), (0.0, 0.0), fixed=True)
+>>> m, a = add_point(m, (30.0, 40.0))
+>>> join(m, [o, a])[0].links
+mappingproxy({'link1': ('O1', 'A')})
+"""
+
+from __future__ import annotations
+
+import math
+import string
+from dataclasses import replace
+
+from kinematics import Driver, Mechanism, Slide, move_point
+from kinematics.model import GROUND
+
+DEFAULT_SPEED_RPM = 60.0
+
+
+class BuildError(ValueError):
+    """An edit that cannot be made; the message is for the status line."""
+
+
+def empty(length_unit: str = "mm") -> Mechanism:
+    return Mechanism(points={}, links={}, length_unit=length_unit, title="new design")
+
+
+def _fresh(existing, candidates) -> str:
+    return next(name for name in candidates if name not in existing)
+
+
+def _joint_names():
+    yield from (c for c in string.ascii_uppercase if c != "O")
+    n = 1
+    while True:
+        yield f"J{n}"
+        n += 1
+
+
+def _numbered(prefix):
+    n = 1
+    while True:
+        yield f"{prefix}{n}"
+        n += 1
+
+
+def add_point(mech: Mechanism, xy, fixed: bool = False) -> tuple[Mechanism, str]:
+    """A new joint (or fixed pivot) at ``xy`` in the file's length unit."""
+    name = _fresh(mech.points, _numbered("O") if fixed else _joint_names())
+    points = {**mech.points, name: (float(xy[0]), float(xy[1]))}
+    ground = (*mech.ground, name) if fixed else mech.ground
+    return replace(mech, points=points, ground=ground, warnings=()), name
+
+
+def join(mech: Mechanism, names) -> tuple[Mechanism, str]:
+    """A new rigid link through the joints ``names`` (two for a bar, more for a plate)."""
+    names = list(dict.fromkeys(names))
+    if len(names) < 2:
+        raise BuildError("a link needs at least two joints")
+    if all(n in mech.ground for n in names):
+        raise BuildError("a link between fixed points only would never move: the frame already joins them")
+    first, second = (mech.points[n] for n in names[:2])
+    if math.dist(first, second) == 0.0:
+        raise BuildError(f"{names[0]} and {names[1]} are at the same place: the link would have no length")
+    for existing, points in mech.links.items():
+        if set(points) == set(names):
+            raise BuildError(f"link {existing} already joins {', '.join(names)}")
+    name = _fresh(mech.links, _numbered("link"))
+    return replace(mech, links={**mech.links, name: tuple(names)}, warnings=()), name
+
+
+def guide_of(mech: Mechanism, e: str, f: str) -> str:
+    """The body that carries both line points: ``"ground"`` or a link."""
+    if e in mech.ground and f in mech.ground:
+        return GROUND
+    for link, points in mech.links.items():
+        if e in points and f in points:
+            return link
+    raise BuildError(f"{e} and {f} must both be fixed, or both on one link, to set a slide's line")
+
+
+def add_slide(mech: Mechanism, point: str, e: str, f: str) -> tuple[Mechanism, str]:
+    """Joint ``point`` slides along the line through ``e`` and ``f``; it is set onto that line."""
+    if point in (e, f) or e == f:
+        raise BuildError("a slide needs the sliding joint and two other points for its line")
+    if math.dist(mech.points[e], mech.points[f]) == 0.0:
+        raise BuildError(f"{e} and {f} are at the same place: they set no line")
+    guide = guide_of(mech, e, f)
+    if point in mech.body_points(guide):
+        raise BuildError(f"{point} is on {guide} itself: it cannot slide on it")
+    name = _fresh(mech.slides, _numbered("slide"))
+    slides = {**mech.slides, name: Slide(name, point, guide, (e, f))}
+    return keep_slides_on_guides(replace(mech, slides=slides, warnings=())), name
+
+
+def set_driver(mech: Mechanism, pivot: str, point: str, speed_value: float | None = None,
+               speed_unit: str | None = None) -> Mechanism:
+    """The link through fixed ``pivot`` and ``point`` becomes the driver (keeping a former speed)."""
+    if pivot not in mech.ground:
+        raise BuildError(f"{pivot} is not fixed: a driver turns about a fixed pivot")
+    link = next((n for n, pts in mech.links.items() if pivot in pts and point in pts), None)
+    if link is None:
+        raise BuildError(f"no link joins {pivot} and {point}: join them first")
+    old = mech.driver
+    value = speed_value if speed_value is not None else (old.speed_value if old else DEFAULT_SPEED_RPM)
+    unit = speed_unit or (old.speed_unit if old else "rpm")
+    alpha = (old.angular_acceleration_value, old.angular_acceleration_unit) if old else (0.0, "rad/s^2")
+    return replace(mech, driver=Driver(link, pivot, float(value), unit, *alpha), warnings=())
+
+
+def set_speed(mech: Mechanism, speed_value: float, speed_unit: str, angular_acceleration: float) -> Mechanism:
+    """The driver's speed (in ``speed_unit``) and angular acceleration (rad/s²)."""
+    if mech.driver is None:
+        raise BuildError("there is no driver yet: choose one with the Driver tool")
+    return replace(mech, driver=replace(mech.driver, speed_value=float(speed_value), speed_unit=speed_unit,
+                                        angular_acceleration_value=float(angular_acceleration),
+                                        angular_acceleration_unit="rad/s^2"), warnings=())
+
+
+def set_fixed(mech: Mechanism, name: str, fixed: bool) -> Mechanism:
+    """Fix joint ``name`` to the frame, or free it."""
+    ground = tuple(dict.fromkeys((*mech.ground, name))) if fixed else tuple(g for g in mech.ground if g != name)
+    driver = mech.driver if fixed or mech.driver is None or mech.driver.pivot != name else None
+    return replace(mech, ground=ground, driver=driver, warnings=())
+
+
+def delete_point(mech: Mechanism, name: str) -> Mechanism:
+    """Remove joint ``name`` and whatever cannot stand without it (short links, its slides, the driver)."""
+    points = {n: xy for n, xy in mech.points.items() if n != name}
+    links = {}
+    for link, members in mech.links.items():
+        kept = tuple(p for p in members if p != name)
+        if len(kept) >= 2:
+            links[link] = kept
+    slides = {n: s for n, s in mech.slides.items()
+              if name not in (s.point, *s.line) and (s.guide == GROUND or s.guide in links)}
+    driver = mech.driver
+    if driver is not None and (driver.link not in links or driver.pivot == name):
+        driver = None
+    output = mech.output
+    if output is not None and (output.get("point") == name or output.get("link", "") not in (*links, "")):
+        output = None
+    return replace(mech, points=points, links=links, slides=slides, driver=driver, output=output,
+                   ground=tuple(g for g in mech.ground if g != name), warnings=())
+
+
+def keep_slides_on_guides(mechanism: Mechanism) -> Mechanism:
+    """Each sliding point set back onto its slide line (as the file format requires of a reference pose)."""
+    for slide in mechanism.slides.values():
+        (ex, ey), (fx, fy) = (mechanism.points[p] for p in slide.line)
+        dx, dy = fx - ex, fy - ey
+        length2 = dx * dx + dy * dy
+        if length2 == 0.0:
+            continue
+        px, py = mechanism.points[slide.point]
+        t = ((px - ex) * dx + (py - ey) * dy) / length2
+        on_line = (ex + t * dx, ey + t * dy)
+        if math.hypot(px - on_line[0], py - on_line[1]) > 1e-12 * math.sqrt(length2):
+            mechanism = move_point(mechanism, slide.point, on_line)
+    return mechanism
+
+
+def snap(xy, step: float):
+    """``xy`` rounded to the nearest grid node ``step`` apart (no snapping for step 0)."""
+    if not step:
+        return (float(xy[0]), float(xy[1]))
+    return (round(xy[0] / step) * step, round(xy[1] / step) * step)

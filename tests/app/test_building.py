@@ -1,0 +1,163 @@
+"""Building a mechanism from nothing with real clicks, and the pure building edits."""
+
+import json
+import math
+
+import pytest
+from PySide6.QtCore import QPointF, Qt
+from PySide6.QtTest import QTest
+
+import kinematics
+from app import building
+from app.building import BuildError
+
+from .designs import FOUR_BAR, SLIDER_CRANK, load
+
+
+def click_at(window, x_mm, y_mm):
+    view = window.drawings.space_view
+    QTest.mouseClick(view.viewport(), Qt.LeftButton, Qt.NoModifier, view.mapFromScene(QPointF(x_mm, -y_mm)))
+
+
+def click_joint(window, name):
+    view = window.drawings.space_view
+    at = window.drawings.space_scene.joints[name].dot.pos()
+    QTest.mouseClick(view.viewport(), Qt.LeftButton, Qt.NoModifier, view.mapFromScene(at))
+
+
+def test_a_four_bar_built_by_clicks_solves_and_saves(make_window, tmp_path):
+    window = make_window(FOUR_BAR)
+    window.new_design()
+    window.snapping.setChecked(True)  # a 10 mm grid on an empty design: the clicks land on round numbers
+    window.use_tool("pivot")
+    click_at(window, 0.4, -0.3)
+    click_at(window, 169.0, 2.0)
+    window.use_tool("joint")
+    click_at(window, 31.0, 41.0)
+    click_at(window, 139.0, 111.0)
+    doc = window.document
+    assert dict(doc.mechanism.points) == {"O1": (0.0, 0.0), "O2": (170.0, 0.0), "A": (30.0, 40.0),
+                                          "B": (140.0, 110.0)}
+    assert doc.mechanism.ground == ("O1", "O2")
+    window.use_tool("link")
+    click_joint(window, "O1")
+    click_joint(window, "A")
+    click_joint(window, "A")  # the last one again finishes the link
+    click_joint(window, "A")
+    click_joint(window, "B")
+    QTest.keyClick(window.drawings.space_view, Qt.Key_Return)
+    click_joint(window, "O2")
+    click_joint(window, "B")
+    QTest.keyClick(window.drawings.space_view, Qt.Key_Enter)
+    assert dict(doc.mechanism.links) == {"link1": ("O1", "A"), "link2": ("A", "B"), "link3": ("O2", "B")}
+    assert "no driver" in window.status.text()
+    window.use_tool("driver")
+    click_joint(window, "O1")
+    click_joint(window, "A")
+    assert doc.mechanism.driver.link == "link1" and doc.mechanism.driver.pivot == "O1"
+    assert doc.solution is not None and doc.construction is not None
+    assert kinematics.diagnose(doc.mechanism) == []
+    target = tmp_path / "built.json"
+    assert window.save_to(target)
+    assert kinematics.load_mechanism(target).links == doc.mechanism.links
+    steps = doc.undo_stack.count()
+    while doc.undo_stack.canUndo():
+        doc.undo_stack.undo()
+    assert steps == 4 + 3 + 1 and not doc.mechanism.points
+
+
+def test_a_link_tool_click_on_empty_space_adds_a_joint(make_window):
+    window = make_window(FOUR_BAR)
+    window.use_tool("link")
+    click_joint(window, "P")
+    click_at(window, 60.0, 200.0)
+    QTest.keyClick(window.drawings.space_view, Qt.Key_Escape)
+    assert "cancelled" in window.status.text()
+    assert "C" in window.document.mechanism.points and len(window.document.mechanism.links) == 3
+
+
+def test_a_slide_and_a_deletion_by_clicks(make_window):
+    window = make_window(SLIDER_CRANK)
+    doc = window.document
+    window.use_tool("delete")
+    click_joint(window, "D")
+    assert "D" not in doc.mechanism.points and "rod" not in doc.mechanism.links and not doc.mechanism.slides
+    doc.undo_stack.undo()
+    window.use_tool("slide")
+    click_joint(window, "A")
+    click_at(window, 0.0, 500.0)  # empty space: the tool asks again for a joint
+    assert "click on a joint" in window.status.text()
+    window.use_tool("select")
+    assert not window.drawings.space_view.building
+
+
+def test_the_design_tab_edits_place_fixing_title_and_speed(make_window):
+    window = make_window(FOUR_BAR)
+    doc, panel = window.document, window.properties
+    panel.show_point("P")
+    panel.x.setValue(75.0)
+    assert doc.mechanism.points["P"] == (75.0, 140.0)
+    panel.title.setText("claw feed, longer stroke")
+    panel.title.editingFinished.emit()
+    assert doc.mechanism.title == "claw feed, longer stroke"
+    panel.speed_unit.setCurrentText("rad/s")
+    panel.speed.setValue(10.0)
+    assert doc.mechanism.driver.speed_rad_s == pytest.approx(10.0)
+    assert doc.solution.angular_velocity["crank"] == pytest.approx(10.0)
+    panel.show_point("B")
+    panel.fixed.setChecked(True)
+    assert "B" in doc.mechanism.ground and "mobility" in window.status.text()
+    count = doc.undo_stack.count()
+    assert count == 5
+    doc.undo_stack.undo()
+    assert "B" not in doc.mechanism.ground and panel.fixed.isChecked() is False
+
+
+def test_building_edits_refuse_what_makes_no_sense():
+    mech = load(FOUR_BAR)
+    with pytest.raises(BuildError, match="fixed points only"):
+        building.join(mech, ["O2", "O4"])
+    with pytest.raises(BuildError, match="at least two"):
+        building.join(mech, ["A", "A"])
+    with pytest.raises(BuildError, match="already joins"):
+        building.join(mech, ["B", "O4"])
+    with pytest.raises(BuildError, match="not fixed"):
+        building.set_driver(mech, "A", "B")
+    with pytest.raises(BuildError, match="no link joins"):
+        building.set_driver(mech, "O2", "B")
+    with pytest.raises(BuildError, match="must both be fixed, or both on one link"):
+        building.add_slide(mech, "P", "O2", "B")
+
+
+def test_a_new_slide_sets_its_joint_onto_the_line_and_a_deleted_pivot_drops_the_driver():
+    bare = building.delete_point(load(SLIDER_CRANK), "F")
+    bare = kinematics.move_point(bare, "D", (150.0, -10.0))  # free of its slide now: off the old line
+    assert not bare.slides
+    again, name = building.add_slide(building.add_point(bare, (260.0, -15.0), fixed=True)[0], "D", "E", "O1")
+    e, f, d = (again.points[p] for p in ("E", "O1", "D"))
+    assert abs((f[0] - e[0]) * (d[1] - e[1]) - (f[1] - e[1]) * (d[0] - e[0])) < 1e-9
+    assert building.delete_point(again, "O2").driver is None
+    assert building.snap((14.9, -25.1), 10.0) == (10.0, -30.0)
+    assert json.loads(kinematics.dumps(again))["slides"][name]["line"] == ["E", "O1"]
+    assert math.isclose(again.points["D"][1], -15.0, abs_tol=1e-9)
+
+
+def test_snapping_draws_the_grid_and_lands_drags_on_it(make_window):
+    window = make_window(FOUR_BAR)
+    view = window.drawings.space_view
+
+    def grid_pixels():
+        image = view.viewport().grab().toImage()
+        return sum(1 for x in range(0, image.width(), 3) for y in range(0, image.height(), 3)
+                   if image.pixelColor(x, y).name() == "#e3e6ea")
+
+    assert grid_pixels() == 0
+    window.snapping.setChecked(True)
+    step = window.grid_mm()
+    assert step == 10.0  # a twentieth of the 245 mm diagonal, down to the 1-2-5 series
+    assert grid_pixels() > 100
+    start = window.drawings.space_scene.joints["P"].dot.pos()
+    QTest.mousePress(view.viewport(), Qt.LeftButton, Qt.NoModifier, view.mapFromScene(start))
+    QTest.mouseMove(view.viewport(), view.mapFromScene(start + QPointF(13.0, -4.0)))
+    QTest.mouseRelease(view.viewport(), Qt.LeftButton, Qt.NoModifier, view.mapFromScene(start + QPointF(13.0, -4.0)))
+    assert window.document.mechanism.points["P"] == (80.0, 140.0)
