@@ -1,5 +1,15 @@
 """Drawing a construction: the Sheet of recorded primitives that the printer,
-the DXF writer and (later) the window replay. No Qt here."""
+the DXF writer and (later) the window replay. No Qt here.
+
+>>> import kinematics
+>>> from kinematics.drawing import draw_sheet
+>>> mech = kinematics.load_mechanism({"kinepoly": 1, "length_unit": "mm",
+...     "points": {"O": [0, 0], "A": [30, 40]}, "ground": ["O"], "links": {"crank": ["O", "A"]},
+...     "driver": {"link": "crank", "pivot": "O", "speed": {"value": 60, "unit": "rpm"}}})
+>>> sheet = draw_sheet(kinematics.construct(kinematics.solve(mech)), paper="A4")
+>>> sheet.width, sheet.height, sheet.views["space"].scale_text
+(210.0, 297.0, '1:1')
+"""
 
 from .layout import PAPER, draw_model, draw_sheet
 from .sheet import Arrow, Circle, Hatch, Line, Note, Polyline, Recorder, Sheet, Text, View
