@@ -206,3 +206,13 @@ def test_every_sample_prints(qapp, sample, tmp_path):
     assert main([str(sample), "-o", str(tmp_path / "s.pdf")]) == 0
     page = pdfplumber.open(tmp_path / "s.pdf").pages[0]
     assert _space_ratio(page) > 0 and len(_segments(page)) > 20
+
+
+def test_frame_sits_at_its_margins_from_the_paper_edge(sheet_pdf):
+    # A device margin (Qt's default is about 3.5 mm) would shift everything; full-page mode must not.
+    page = sheet_pdf()
+    frames = [r for r in page.rects + page.curves if round(r["linewidth"] * MM_PER_PT, 2) == 0.7]
+    # ISO 5457 frame: 20 mm from the left (filing) edge, 10 mm from the others.  # from memory
+    assert any(abs(f["x0"] * MM_PER_PT - 20) < 0.1 and abs(f["top"] * MM_PER_PT - 10) < 0.1
+               and abs(f["x1"] * MM_PER_PT - 200) < 0.1 and abs(f["bottom"] * MM_PER_PT - 287) < 0.1
+               for f in frames), [(f["x0"] * MM_PER_PT, f["top"] * MM_PER_PT) for f in frames]
