@@ -13,7 +13,7 @@ import sys
 
 from . import CAUTION, construct, diagnose, load_mechanism, solve
 from .errors import CannotAssemble, KinematicsError, MechanismFindings
-from .report_text import construction_text, solution_table
+from .report_text import construction_text, peaks_text, solution_table
 from .storage import write_atomically
 
 
@@ -137,7 +137,7 @@ def _sweep(args) -> int:
         json.dump({"kinepoly_sweep": 1, "peaks": peaks(result), "csv": sweep_csv(result)}, stream, indent=1)
         _emit(stream.getvalue(), args.output)
     elif args.peaks:
-        _emit(json.dumps(peaks(result), indent=1), args.output)
+        _emit(peaks_text(peaks(result)), args.output)
     else:
         _emit(sweep_csv(result), args.output)
     for warning in result.warnings:

@@ -59,3 +59,37 @@ def construction_text(construction: Construction) -> str:
     for warning in construction.warnings:
         lines.append(f"warning: {warning}")
     return "\n".join(lines)
+
+
+def peaks_text(table: dict) -> str:
+    """The peaks table of :func:`kinematics.peaks.peaks`, for people."""
+    lines = [f"{'point':<8}{'max |v| [m/s]':>15}{'at [°]':>9}{'max |a| [m/s²]':>16}{'at [°]':>9}"]
+    for name, p in table["points"].items():
+        lines.append(f"{name:<8}{p['max_speed']:>15.4f}{p['at_deg'] % 360:>9.1f}{p['max_acceleration']:>16.4f}"
+                     f"{p['acceleration_at_deg'] % 360:>9.1f}")
+    lines += ["", f"{'link':<12}{'max |ω| [rad/s]':>17}{'at [°]':>9}{'max |α| [rad/s²]':>18}{'at [°]':>9}"]
+    for name, p in table["links"].items():
+        lines.append(f"{name:<12}{p['max_angular_velocity']:>17.4f}{p['at_deg'] % 360:>9.1f}"
+                     f"{p['max_angular_acceleration']:>18.4f}{p['acceleration_at_deg'] % 360:>9.1f}")
+    if table["slides"]:
+        lines += ["", f"{'slide':<12}{'max |v| [m/s]':>15}{'at [°]':>9}{'max |a| [m/s²]':>16}{'at [°]':>9}"]
+        for name, p in table["slides"].items():
+            lines.append(f"{name:<12}{p['max_sliding_velocity']:>15.4f}{p['at_deg'] % 360:>9.1f}"
+                         f"{p['max_sliding_acceleration']:>16.4f}{p['acceleration_at_deg'] % 360:>9.1f}")
+    for key, t in table["transmission"].items():
+        lines.append(f"transmission angle {key}: minimum {t['min_deg']:.2f}° at {t['at_deg'] % 360:.1f}°, "
+                     f"largest deviation from 90° {t['largest_deviation_from_90_deg']:.2f}°")
+    out = table.get("output")
+    if out:
+        lines.append(f"output {out['output']}: travel {out['travel']:.4g} {out['unit']}; limit positions at "
+                     + ", ".join(f"{a % 360:.2f}°" for a in out["rate_reversals_deg"]))
+        if "time_ratio" in out:
+            lines.append(f"time ratio {out['time_ratio']:.4f} (slow stroke: {out['slow_stroke']})")
+    ratio = table.get("velocity_ratio")
+    if ratio:
+        lines.append(f"velocity ratio (output over driver speed) {ratio['min']:.4g} to {ratio['max']:.4g} "
+                     f"{ratio['unit']}")
+    if not table["full_turn"]:
+        low, high = table["range_deg"]
+        lines.append(f"the driver rocks between its dead points {low:.3f}° and {high:.3f}°")
+    return "\n".join(lines)

@@ -19,7 +19,7 @@ from .errors import CannotAssemble, KinematicsError
 from .groups import Frame, acceleration, drive, position, velocity
 from .mobility import require_ready
 from .model import Mechanism
-from .solve import _Driven, _newton, _track, solve_pose
+from .solve import _Driven, _newton, _track
 
 # Dead points are located to this fraction of a degree.
 DEAD_POINT_RESOLUTION_DEG = 1e-9
@@ -206,24 +206,25 @@ def verify_sweep(result: Sweep, branch_step_deg: float = 10.0) -> dict:
     for key, numeric, swept in (("position", x, closed), ("velocity", xdot, result.velocities[:, index]),
                                 ("acceleration", xddot, result.accelerations[:, index])):
         worst[key] = float(np.abs(numeric - swept).max() / (np.abs(swept).max() or 1.0))
-    # The branch, independently: one continuation walk from the reference pose at a coarse step.
-    stride = max(1, int(round(branch_step_deg / abs(result.driver_angle_deg[1] - result.driver_angle_deg[0]))))
+    # The branch, independently: continuation walks from the reference pose at a coarse step,
+    # one each way (a ranged sweep reaches both of its dead points from the reference pose).
+    step = abs(result.driver_angle_deg[1] - result.driver_angle_deg[0])
+    stride = max(1, int(round(branch_step_deg / step)))
+    offsets = theta - math.radians(reference_angle_deg(mech))
     worst["branch"] = 0.0
-    q_walk = system.x0.reshape(-1)[driven.columns]
-    previous = math.radians(result.driver_angle_deg[0]) if result.full_turn else None
-    if previous is None:
-        pose = solve_pose(mech, float(result.driver_angle_deg[0]), system)
-        q_walk = pose.positions.reshape(-1)[driven.columns]
-        previous = math.radians(result.driver_angle_deg[0])
-    for k in range(0, len(theta), stride):
-        span = abs(theta[k] - previous)
-        tracked = _track(driven, q_walk, previous, span, 1.0 if theta[k] >= previous else -1.0, size)
-        if tracked is None:
-            raise CannotAssemble("continuation from the reference pose stops at a dead point",
-                                 f"driver angle {result.driver_angle_deg[k]:.3f}°")
-        q_walk, previous = tracked[0], theta[k]
-        walked = driven.full(q_walk)
-        worst["branch"] = max(worst["branch"], float(np.abs(walked - closed[k]).max() / size))
+    for direction in (1.0, -1.0):
+        ahead = np.flatnonzero(offsets * direction > -1e-12)
+        ahead = ahead[np.argsort(np.abs(offsets[ahead]))][::stride]
+        q_walk, reached = system.x0.reshape(-1)[driven.columns], 0.0
+        for k in ahead:
+            tracked = _track(driven, q_walk, theta[k] - offsets[k] + direction * reached,
+                             abs(offsets[k]) - reached, direction, size)
+            if tracked is None:
+                raise CannotAssemble("continuation from the reference pose stops at a dead point",
+                                     f"driver angle {result.driver_angle_deg[k]:.3f}°")
+            q_walk, reached = tracked[0], abs(offsets[k])
+            walked = driven.full(q_walk)
+            worst["branch"] = max(worst["branch"], float(np.abs(walked - closed[k]).max() / size))
     return worst
 
 

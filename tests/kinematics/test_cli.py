@@ -72,9 +72,17 @@ def test_sweep_command(tmp_path, extra):
     assert out.returncode == 0, out.stderr
     text = target.read_text()
     if extra:
-        assert json.loads(text)["output"]["time_ratio"] > 1.6
+        # 36 steps of 10°: the interpolated limit angles give the ratio to about 1 %.
+        ratio = float(text.split("time ratio ")[1].split()[0])
+        assert ratio == pytest.approx(1.71, rel=0.01) and "max |α| [rad/s²]" in text
     else:
         assert len(text.splitlines()) == 37
+
+
+def test_sweep_json_has_peaks_and_csv():
+    data = json.loads(run("sweep", QUICK, "--steps", "36", "--json").stdout)
+    assert data["peaks"]["output"]["time_ratio"] > 1.6
+    assert data["csv"].splitlines()[0].startswith("driver_angle_deg,")
 
 
 def test_unwritable_output_says_so(tmp_path):
