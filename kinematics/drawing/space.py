@@ -12,7 +12,7 @@ import numpy as np
 from ..model import GROUND
 from ..style import ANNOTATION, SPACE_GROUND, SPACE_LINK
 from . import symbols
-from .sheet import Line, Polyline, Recorder, View
+from .sheet import Line, Polyline, Recorder, Text, View
 from .symbols import Symbols
 
 # Points this close to one line (relative to the link's size) make a straight bar, not a plate.
@@ -59,6 +59,7 @@ def draw_space(rec: Recorder, solution, view: View, size: Symbols) -> None:
         _draw_slide(rec, slide, at, size, ids)
     centre = tuple(np.mean(list(at.values()), axis=0))
     _draw_joints(rec, mech, at, centre, size, ids)
+    _draw_link_names(rec, mech, xy, at, centre, size, ids)
     if mech.driver is not None:
         _draw_driver_sense(rec, mech, at, centre, size, ids)
 
@@ -75,6 +76,29 @@ def _segments(primitives, view: str) -> list:
             ring = list(p.points) + ([p.points[0]] if p.closed else [])
             out.extend(zip(ring, ring[1:], strict=False))
     return out
+
+
+def _draw_link_names(rec: Recorder, mech, xy, at, centre, size: Symbols, ids) -> None:
+    """Each link's name in small text, so the results table reads against the
+    drawing: beside a bar's middle (on the side away from the mechanism's
+    middle), at a plate's centre."""
+    for link, names in mech.links.items():
+        order, closed = outline(names, xy)
+        if closed:
+            where = tuple(np.mean([at[n] for n in order], axis=0))
+            rec.add(Text(position=where, text=link, height=size.small_text, pen=ANNOTATION, align="centre",
+                         anchor="middle", part=link, **ids))
+            continue
+        (x0, y0), (x1, y1) = at[order[0]], at[order[-1]]
+        length = math.hypot(x1 - x0, y1 - y0)
+        if length < 4 * size.text:
+            continue  # too short on paper to carry its name
+        middle = (0.5 * (x0 + x1), 0.5 * (y0 + y1))
+        nx, ny = -(y1 - y0) / length, (x1 - x0) / length
+        if (middle[0] - centre[0]) * nx + (middle[1] - centre[1]) * ny < 0:
+            nx, ny = -nx, -ny
+        symbols.label(rec, middle, link, (middle[0] - nx, middle[1] - ny), ANNOTATION,
+                      Symbols(text=size.small_text), gap=0.5 * size.small_text, part=link, **ids)
 
 
 def _guide_sides(mech, at) -> dict:
