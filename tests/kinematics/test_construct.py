@@ -86,9 +86,12 @@ accelerations = st.floats(-50.0, 50.0)
 
 def _assemblable(make):
     try:
-        mech = kinematics.load_mechanism(make())
-        return kinematics.solve(mech)
-    except (kinematics.KinematicsError, ValueError):
+        doc = make()
+    except (ValueError, ZeroDivisionError):  # the test's builder cannot place this geometry
+        return None
+    try:
+        return kinematics.solve(kinematics.load_mechanism(doc))
+    except kinematics.KinematicsError:  # the product's own refusal: fine, it is not assemblable
         return None
 
 
