@@ -67,6 +67,7 @@ class PainterBackend:
         if pixels not in self._fonts:
             probe = QFont(FONT_FAMILY)
             probe.setPixelSize(1000)
+            # A font without a cap-height entry reports 0; 0.73 em is typical of sans faces.  # common practice
             cap_ratio = QFontMetricsF(probe).capHeight() / 1000.0 or 0.73
             font = QFont(FONT_FAMILY)
             font.setPixelSize(max(1, round(pixels / cap_ratio)))
@@ -150,11 +151,27 @@ def paint_sheet(sheet, device, where: str = "") -> None:
 
 def print_construction(construction, printer_or_path, paper: str = "A4", landscape: bool = False,
                        file_name: str = "", date: str | None = None):
-    """Print ``construction`` at true scale to a QPrinter, or to a PDF file path.
+    """Print ``construction`` at true scale.
 
-    A PDF is written to a temporary file beside the target and moved into
-    place, so a failure leaves no partial file. Returns the Sheet printed.
-    Raises OutputError when the file cannot be written.
+    Parameters
+    ----------
+    construction : :class:`kinematics.Construction` to print.
+    printer_or_path : a PDF file path, or a configured QPrinter (it is put in
+        full-page mode and given the paper).
+    paper, landscape : ISO 216 size (A4, A3 …) and orientation.
+    file_name, date : for the title block (date defaults to today).
+
+    Returns
+    -------
+    Sheet
+        The sheet printed.
+
+    Raises
+    ------
+    OutputError
+        when the PDF cannot be written; a PDF goes to a temporary file beside
+        the target and is moved into place only when whole, so a failure
+        leaves no partial file.
     """
     sheet = draw_sheet(construction, paper=paper, landscape=landscape, file_name=file_name, date=date)
     if isinstance(printer_or_path, (str, os.PathLike)):
@@ -165,7 +182,12 @@ def print_construction(construction, printer_or_path, paper: str = "A4", landsca
             writer.setCreator("Kinepoly")
             writer.setPageLayout(page_layout(paper, landscape))
             paint_sheet(sheet, writer, os.fspath(printer_or_path))
-            del writer  # the writer holds the file open; let it go before the file is moved
+            del writer  # the writer holds the file open; let it go before the file is checked and moved
+            # QPdfWriter reports no write errors; a whole PDF ends with its %%EOF marker (ISO 32000-1, 7.5.5).
+            with open(temporary, "rb") as pdf:
+                pdf.seek(max(0, os.path.getsize(temporary) - 32))
+                if b"%%EOF" not in pdf.read():
+                    raise OSError("the PDF came out incomplete")
 
         write_atomically(printer_or_path, write)
     else:

@@ -20,10 +20,11 @@ def write_atomically(target, write) -> None:
 
     The temporary file sits beside the target so the final ``os.replace`` is
     atomic: a reader sees the old file or the whole new one, never a part.
-    On any failure the temporary file is removed and OutputError raised.
+    On any failure the temporary file is removed; an OSError is raised again
+    as OutputError naming the target.
     """
     target = Path(target)
-    folder = target.parent if str(target.parent) else Path(".")
+    folder = target.parent
     try:
         handle, temporary = tempfile.mkstemp(prefix=f".{target.name}.", suffix=".part", dir=folder)
     except OSError as err:
