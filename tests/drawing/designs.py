@@ -41,7 +41,20 @@ LIMITED_ROCKER = {
     "driver": {"link": "crank", "pivot": "O2", "speed": {"value": 60, "unit": "rpm"}},
 }
 
-DESIGNS = {"gate lifter": GATE_LIFTER, "bottle pusher": BOTTLE_PUSHER, "swing lever": SWING_LEVER}
+# The crank drives a three-link group (link1, plate, link2, link3 round the plate): no dyad, so its
+# polygon points come from the numeric solver.
+TRIAD_PRESS = {
+    "kinepoly": 1, "title": "Triad press", "length_unit": "mm",
+    "points": {"O2": [0, 0], "A": [30, 20], "B": [80, 60], "C": [130, 70], "D": [110, 110], "O4": [170, 0],
+               "O6": [40, 160]},
+    "ground": ["O2", "O4", "O6"],
+    "links": {"crank": ["O2", "A"], "link1": ["A", "B"], "plate": ["B", "C", "D"], "link2": ["O4", "C"],
+              "link3": ["O6", "D"]},
+    "driver": {"link": "crank", "pivot": "O2", "speed": {"value": 50, "unit": "rpm"}},
+}
+
+DESIGNS = {"gate lifter": GATE_LIFTER, "bottle pusher": BOTTLE_PUSHER, "swing lever": SWING_LEVER,
+           "triad press": TRIAD_PRESS}
 
 
 def construction(design, angle_deg=None):

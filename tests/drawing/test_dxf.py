@@ -48,7 +48,7 @@ def test_header_says_millimetres_metric(exported):
 
 def test_layers_carry_the_pens_colour_weight_and_line_type(exported):
     c, _, doc = exported
-    pens = {style.SPACE_LINK, style.SPACE_GROUND, style.ANNOTATION, style.DIRECTION, style.KNOWN, style.IMAGE}
+    pens = {style.SPACE_LINK, style.SPACE_GROUND, style.ANNOTATION, style.KNOWN, style.IMAGE}
     pens |= {style.pen_for(s) for s in c.velocity.steps + c.acceleration.steps}
     for pen in pens:
         layer = doc.layers.get(pen.layer)

@@ -10,13 +10,14 @@ from pathlib import Path
 import pytest
 
 import kinematics
+from kinematics import style
 from kinematics.construct import Role
 from kinematics.drawing import PAPER, Arrow, Circle, Line, Polyline, Text, draw_model, draw_sheet
 from kinematics.drawing.layout import MARGIN, MARGIN_FILING
 from kinematics.drawing.scaling import iso5455_ratio, polygon_scale, ratio_text
 from kinematics.drawing.space import outline
 
-from .designs import BOTTLE_PUSHER, DESIGNS, GATE_LIFTER, SWING_LEVER, construction
+from .designs import BOTTLE_PUSHER, DESIGNS, GATE_LIFTER, SWING_LEVER, TRIAD_PRESS, construction
 
 SAMPLES_DIR = Path(__file__).resolve().parents[2] / "samples"
 SAMPLES = sorted(SAMPLES_DIR.glob("*.json"))
@@ -139,6 +140,16 @@ def test_the_sheet_states_caution_scales_driver_and_results():
     assert "30.00°" in joined and "200 rpm" in joined and "pusher.json" in joined and "2026-03-04" in joined
     assert "block" in texts and "rod" in texts  # slide and link rows of the results table
     assert f"{math.hypot(*c.solution.velocity('D')):.4g}" in texts
+
+
+def test_points_from_the_numeric_solver_are_drawn_and_said_so():
+    c = construction(TRIAD_PRESS)
+    sheet = draw_sheet(c)
+    numeric = [s for s in c.velocity.steps + c.acceleration.steps if s.numeric]
+    assert numeric
+    for step in numeric:
+        assert any(isinstance(p, Circle) and p.pen is style.NUMERIC for p in sheet.of_step(step.id))
+    assert style.NUMERIC.legend in [p.text for p in sheet.primitives if isinstance(p, Text)]
 
 
 def test_model_drawing_keeps_true_millimetres_and_the_files_origin():
