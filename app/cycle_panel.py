@@ -1,0 +1,364 @@
+"""The cycle plot: chosen velocities and accelerations over one driver cycle,
+a cursor at the pose on screen, a click to turn the driver there, the peaks,
+and a fine sweep computed off the window's thread.
+
+The panel plots what the core's :class:`kinematics.Sweep` holds. Plot rows
+(one per unit) and curves are made when the choice of quantities, units or
+x axis changes; a new sweep only moves data into the existing curves
+(``setData``), so the plot follows a dragged joint.
+"""
+
+from __future__ import annotations
+
+import math
+
+import numpy as np
+import pyqtgraph as pg
+from PySide6.QtCore import Qt, QThread, Signal
+from PySide6.QtWidgets import (
+    QComboBox,
+    QHBoxLayout,
+    QLabel,
+    QListWidget,
+    QListWidgetItem,
+    QProgressBar,
+    QPushButton,
+    QVBoxLayout,
+    QWidget,
+)
+
+import kinematics
+from kinematics import KinematicsError
+
+from .cycle_series import FAMILIES, Units, available, cycle_axis, default_choice, peak, si_values
+
+# Okabe & Ito, "Color Universal Design" (2008): told apart with the common colour-vision deficiencies.
+PALETTE = ("#0072B2", "#D55E00", "#009E73", "#CC79A7", "#E69F00", "#56B4E9", "#000000")
+CURSOR_COLOUR = "#7f7f7f"
+FINE_STEPS = (3_600, 36_000, 360_000)
+NO_CYCLE = "No cycle to plot: the design is unfinished or its driver cannot be swept."
+_RUNNING: set = set()  # jobs kept alive until their thread ends, even past a closed panel
+
+
+def readable(value: float) -> str:
+    """Four significant figures without an exponent over the range a machine shows (1e-3 to 1e7)."""
+    magnitude = abs(value)
+    if magnitude == 0.0 or not 1e-3 <= magnitude < 1e7:
+        return f"{value:.4g}"
+    return f"{value:.{max(0, 3 - math.floor(math.log10(magnitude)))}f}"
+
+
+class FineSweepJob(QThread):
+    """``kinematics.sweep(mechanism, steps)`` on a worker thread.
+
+    The core's sweep is one numpy call with no way in between, so progress is
+    0 % at the start and 100 % at the end, and a cancelled job runs out in the
+    background and its result is dropped (it never reaches ``done``).
+    """
+
+    progressed = Signal(int)
+    done = Signal(object)
+    failed = Signal(str)
+
+    def __init__(self, mechanism, steps: int):
+        super().__init__()
+        self.mechanism, self.steps = mechanism, steps
+
+    def run(self):
+        self.progressed.emit(0)
+        try:
+            result = kinematics.sweep(self.mechanism, self.steps)
+        except KinematicsError as error:
+            if not self.isInterruptionRequested():
+                self.failed.emit(f"fine sweep of {self.steps} steps: {error}")
+            return
+        if not self.isInterruptionRequested():
+            self.progressed.emit(100)
+            self.done.emit(result)
+
+
+class CyclePanel(QWidget):
+    """Curves of one cycle against driver angle or time.
+
+    Signals
+    -------
+    angle_picked(float) : driver angle in [0°, 360°) the user clicked on the plot.
+    """
+
+    angle_picked = Signal(float)
+
+    def __init__(self, parent=None):
+        super().__init__(parent)
+        self.units = Units()
+        self.coarse = None  # the sweep the window gave
+        self.sweep = None  # the sweep plotted: the coarse one or a fine one of the same design
+        self.axis = None
+        self.angle_deg = None
+        self.job = None
+        self.offered: list = []
+        self.layout_key = None
+        self.plots: dict[str, pg.PlotItem] = {}
+        self.curves: dict = {}
+        self.cursors: list = []
+        self.span = None
+        self.reason = NO_CYCLE
+        self.message = None  # the pyqtgraph label in place of the plot, when there is nothing to plot
+        self.choices = QListWidget()
+        self.choices.setToolTip("Tick the quantities to plot")
+        self.x_choice = QComboBox()
+        self.x_choice.addItems(["driver angle (°)", "time (s)"])
+        self.x_choice.setItemData(1, "offered at constant driver speed only", Qt.ToolTipRole)
+        self.graphics = pg.GraphicsLayoutWidget()
+        self.graphics.setBackground("w")
+        self.note = QLabel()
+        self.note.setWordWrap(True)
+        self.peaks = QLabel()
+        self.peaks.setTextFormat(Qt.RichText)
+        self.peaks.setTextInteractionFlags(Qt.TextSelectableByMouse)
+        self.peaks.setWordWrap(True)
+        self.fine_steps = QComboBox()
+        self.fine_steps.addItems([f"{n:,} steps".replace(",", " ") for n in FINE_STEPS])
+        self.fine_steps.setCurrentIndex(1)
+        self.compute = QPushButton("Fine sweep")
+        self.compute.setToolTip("Sweep the cycle again with many more steps, off the window's thread")
+        self.progress = QProgressBar()
+        self.progress.setMaximumWidth(140)
+        self.cancel = QPushButton("Cancel")
+        self.shown_steps = QLabel()
+        self._lay_out()
+        self.choices.itemChanged.connect(self._rebuild)
+        self.x_choice.currentIndexChanged.connect(self._rebuild)
+        self.graphics.scene().sigMouseClicked.connect(self._clicked)
+        self.compute.clicked.connect(self.start_fine_sweep)
+        self.cancel.clicked.connect(self.cancel_fine_sweep)
+        self._set_running(False)
+        self.set_sweep(None)
+
+    def _lay_out(self):
+        side = QVBoxLayout()
+        side.addWidget(QLabel("plot"))
+        side.addWidget(self.choices, 1)
+        side.addWidget(QLabel("x axis"))
+        side.addWidget(self.x_choice)
+        fine = QHBoxLayout()
+        for widget in (self.fine_steps, self.compute, self.progress, self.cancel, self.shown_steps):
+            fine.addWidget(widget)
+        fine.addStretch(1)
+        main = QVBoxLayout()
+        main.addWidget(self.note)
+        main.addWidget(self.graphics, 1)
+        main.addWidget(self.peaks)
+        main.addLayout(fine)
+        layout = QHBoxLayout(self)
+        layout.setContentsMargins(4, 4, 4, 4)
+        layout.addLayout(side, 0)
+        layout.addLayout(main, 1)
+        self.choices.setMaximumWidth(170)
+
+    # what the window calls --------------------------------------------------
+    def set_sweep(self, sweep, reason: str = NO_CYCLE):
+        """Plot ``sweep`` (a :class:`kinematics.Sweep`); None clears the plot and says ``reason``.
+
+        The same sweep again (the window refreshes on every turn of the driver) keeps a fine
+        sweep on show; a new one drops it and any fine sweep still running.
+        """
+        if sweep is self.coarse and sweep is not None:
+            return
+        self.cancel_fine_sweep()
+        self.coarse = sweep
+        self._show(sweep, reason)
+
+    def set_angle(self, angle_deg: float | None):
+        """Put the cursor at driver angle ``angle_deg`` (degrees; None hides it)."""
+        self.angle_deg = angle_deg
+        self._place_cursor()
+
+    def set_units(self, length_unit: str, speed_unit: str):
+        """Show lengths per s in ``length_unit`` (mm, m, in) and ω in ``speed_unit`` (rad/s, rpm)."""
+        self.units = Units(length_unit, speed_unit)
+        self._rebuild()
+
+    @property
+    def chosen(self) -> list:
+        """The ticked quantities, in list order."""
+        items = (self.choices.item(i) for i in range(self.choices.count()))
+        return [item.data(Qt.UserRole) for item in items if item.checkState() == Qt.Checked]
+
+    def choose(self, quantities):
+        """Tick exactly ``quantities`` (those the design offers)."""
+        wanted = set(quantities)
+        self.choices.blockSignals(True)
+        for i in range(self.choices.count()):
+            item = self.choices.item(i)
+            item.setCheckState(Qt.Checked if item.data(Qt.UserRole) in wanted else Qt.Unchecked)
+        self.choices.blockSignals(False)
+        self._rebuild()
+
+    # showing ----------------------------------------------------------------
+    def _show(self, sweep, reason: str = ""):
+        self.sweep = sweep
+        offered = available(sweep.mechanism) if sweep is not None else []
+        if offered != self.offered:
+            self._offer(offered, [q for q in self.chosen if q in offered] or
+                        (default_choice(sweep.mechanism) if sweep is not None else []))
+        timed = sweep is not None and sweep.time_s is not None
+        self.x_choice.model().item(1).setEnabled(timed)
+        if not timed and self.x_choice.currentIndex() == 1:
+            self.x_choice.blockSignals(True)
+            self.x_choice.setCurrentIndex(0)
+            self.x_choice.blockSignals(False)
+        self.compute.setEnabled(sweep is not None and self.job is None)
+        self.reason = reason
+        self.note.setText("" if sweep is None else "; ".join(sweep.warnings))
+        self.note.setVisible(bool(self.note.text()))
+        self.shown_steps.setText("" if sweep is None else
+                                 f"showing {len(sweep.driver_angle_deg):,} steps".replace(",", " "))
+        self.axis = None if sweep is None else cycle_axis(sweep, "time" if self.x_choice.currentIndex() else "angle")
+        key = (tuple(self.chosen), self.units, self.axis.kind if self.axis else reason)
+        if key != self.layout_key:
+            self._build_rows()
+            self.layout_key = key
+        self._fill()
+
+    def _offer(self, offered, ticked):
+        self.choices.blockSignals(True)
+        self.choices.clear()
+        for quantity in offered:
+            item = QListWidgetItem(quantity.label)
+            item.setData(Qt.UserRole, quantity)
+            item.setCheckState(Qt.Checked if quantity in ticked else Qt.Unchecked)
+            self.choices.addItem(item)
+        self.choices.blockSignals(False)
+        self.offered = offered
+
+    def _rebuild(self, *_):
+        self._show(self.sweep, self.reason)
+
+    def _build_rows(self):
+        """One plot row per unit among the ticked quantities, x linked, labels with units."""
+        self.graphics.clear()
+        self.plots, self.curves, self.cursors, self.span = {}, {}, [], None
+        chosen = self.chosen if self.axis is not None else []
+        families = [f for f in FAMILIES if any(q.family == f for q in chosen)]
+        for row, family in enumerate(families):
+            plot = self.graphics.addPlot(row=row, col=0)
+            plot.showGrid(x=True, y=True, alpha=0.25)
+            plot.setLabel("left", f"{FAMILIES[family]} ({self.units.unit(family)})")
+            plot.setMenuEnabled(False)
+            plot.hideButtons()
+            plot.addItem(pg.InfiniteLine(0.0, angle=0, pen=pg.mkPen("#b0b0b0")), ignoreBounds=True)
+            cursor = pg.InfiniteLine(angle=90, pen=pg.mkPen(CURSOR_COLOUR, width=1.5, style=Qt.DashLine))
+            plot.addItem(cursor, ignoreBounds=True)
+            self.cursors.append(cursor)
+            for side in ("left", "bottom"):
+                plot.getAxis(side).setTextPen("k")
+                plot.getAxis(side).setPen("#555555")
+            last = row == len(families) - 1
+            # Rows share the x axis: its numbers and name once, under the bottom row.
+            plot.getAxis("bottom").setStyle(showValues=last)
+            if last:
+                plot.setLabel("bottom", f"{self.axis.label} ({self.axis.unit})")
+            if self.axis.kind == "angle":
+                plot.getAxis("bottom").setTickSpacing(major=30.0, minor=10.0)
+            if row:
+                plot.setXLink(self.plots[families[0]])
+            plot.getViewBox().enableAutoRange(x=False)
+            self.plots[family] = plot
+        for index, quantity in enumerate(chosen):
+            pen = pg.mkPen(PALETTE[index % len(PALETTE)], width=2)
+            self.curves[quantity] = self.plots[quantity.family].plot(name=quantity.label, pen=pen, antialias=True)
+        self.message = None
+        if not families:
+            self.message = self.graphics.addLabel(
+                self.reason if self.axis is None else "tick a quantity on the left to plot it", color="k", size="11pt")
+
+    def _fill(self):
+        """Data of the plotted sweep into the existing curves, the x range, the cursor and the peaks."""
+        axis, sweep = self.axis, self.sweep
+        if axis is None:
+            self.peaks.setText("")
+            return
+        lines = []
+        for index, (quantity, curve) in enumerate(self.curves.items()):
+            values = self.units.shown(quantity.family, si_values(sweep, quantity))
+            curve.setData(axis.x, values[axis.order])
+            at = peak(values)
+            where = f"{axis.along[at]:.1f}" if axis.kind == "angle" else f"{axis.along[at]:.4g} "
+            lines.append(f"<span style='color:{PALETTE[index % len(PALETTE)]}'>■</span> <b>{quantity.label}</b> "
+                         f"peak {readable(values[at])} {self.units.unit(quantity.family)} at {where}{axis.unit}")
+        self.peaks.setText("&nbsp;&nbsp;&nbsp; ".join(lines))
+        if self.plots and axis.span != self.span:
+            # Only when the range itself changes, so a zoom the user made survives a drag.
+            next(iter(self.plots.values())).setXRange(*axis.span, padding=0.0)
+            self.span = axis.span
+        self._place_cursor()
+
+    def _place_cursor(self):
+        visible = self.axis is not None and self.angle_deg is not None
+        for cursor in self.cursors:
+            cursor.setVisible(visible)
+            if visible:
+                cursor.setValue(self.axis.x_of_angle(self.angle_deg))
+
+    def _clicked(self, event):
+        if event.button() != Qt.LeftButton or self.axis is None:
+            return
+        for plot in self.plots.values():
+            box = plot.getViewBox()
+            if box.sceneBoundingRect().contains(event.scenePos()):
+                x = float(np.clip(box.mapSceneToView(event.scenePos()).x(), *self.axis.span))
+                self.angle_picked.emit(self.axis.angle_of_x(x))
+                return
+
+    # the fine sweep -----------------------------------------------------------
+    def start_fine_sweep(self, steps: int | None = None) -> FineSweepJob | None:
+        """Sweep the plotted design with ``steps`` (default: the chosen count) on a worker thread."""
+        if self.coarse is None or self.job is not None:
+            return None
+        steps = steps or FINE_STEPS[self.fine_steps.currentIndex()]
+        job = FineSweepJob(self.coarse.mechanism, int(steps))
+        job.progressed.connect(self._progressed)
+        job.done.connect(self._fine_done)
+        job.failed.connect(self._fine_failed)
+        job.finished.connect(self._job_ended)
+        self.job = job
+        _RUNNING.add(job)
+        self.progress.setRange(0, 0)  # busy until the one call returns
+        self._set_running(True)
+        job.start()
+        return job
+
+    def cancel_fine_sweep(self):
+        """Stop waiting for the running fine sweep: the plot keeps what it shows."""
+        if self.job is not None:
+            self.job.requestInterruption()
+            self.job = None
+        self._set_running(False)
+
+    def _set_running(self, running: bool):
+        self.progress.setVisible(running)
+        self.cancel.setVisible(running)
+        self.compute.setEnabled(not running and self.coarse is not None)
+        self.fine_steps.setEnabled(not running)
+
+    def _progressed(self, percent: int):
+        if self.sender() is self.job and percent >= 100:
+            self.progress.setRange(0, 100)
+            self.progress.setValue(percent)
+
+    def _fine_done(self, result):
+        if self.sender() is not self.job:
+            return
+        self.job = None
+        self._set_running(False)
+        self._show(result)
+
+    def _fine_failed(self, message: str):
+        if self.sender() is self.job:
+            self.job = None
+            self._set_running(False)
+            self.note.setText(message)
+            self.note.setVisible(True)
+
+    def _job_ended(self):
+        _RUNNING.discard(self.sender())

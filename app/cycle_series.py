@@ -1,0 +1,205 @@
+"""What the cycle plot draws, read from the core's :class:`kinematics.Sweep`
+(numpy only, no Qt): the quantities a design offers, their values in the
+units the window shows, the x axis (driver angle or time) and the peaks.
+
+>>> Quantity("velocity", "x", "P").label
+'vₓ P'
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+
+import numpy as np
+
+from kinematics.model import GROUND
+
+from .display_units import LENGTH_SYSTEMS, angular_speed
+
+# family -> symbol; each family is one row of the plot (one unit per row)
+FAMILIES = {
+    "velocity": "v",
+    "acceleration": "a",
+    "angular velocity": "ω",
+    "angular acceleration": "α",
+}
+_FORMS = {"magnitude": "|{}|", "x": "{}ₓ", "y": "{}ᵧ", "rate": "{}", "sliding": "{}"}
+_SLIDING_SYMBOLS = {"velocity": "ṡ", "acceleration": "s̈"}
+
+
+@dataclass(frozen=True)
+class Quantity:
+    """One plottable series.
+
+    family : a key of :data:`FAMILIES` (the unit it is shown in).
+    form : "magnitude", "x" or "y" of a point's vector; "rate" of a link; "sliding" of a slide.
+    subject : the point, link or slide name.
+    """
+
+    family: str
+    form: str
+    subject: str
+
+    @property
+    def label(self) -> str:
+        symbol = _SLIDING_SYMBOLS[self.family] if self.form == "sliding" else FAMILIES[self.family]
+        return f"{_FORMS[self.form].format(symbol)} {self.subject}"
+
+
+def available(mechanism) -> list[Quantity]:
+    """Every quantity worth plotting: moving points, links, slides (fixed points never move)."""
+    found = []
+    for point in mechanism.points:
+        if point not in mechanism.ground:
+            found += [Quantity("velocity", "magnitude", point), Quantity("acceleration", "magnitude", point)]
+            found += [Quantity(family, axis, point) for family in ("velocity", "acceleration") for axis in "xy"]
+    for link in mechanism.links:
+        found += [Quantity("angular velocity", "rate", link), Quantity("angular acceleration", "rate", link)]
+    for slide in mechanism.slides:
+        found += [Quantity("velocity", "sliding", slide), Quantity("acceleration", "sliding", slide)]
+    return found
+
+
+def default_choice(mechanism) -> list[Quantity]:
+    """What a designer looks at first: the declared output, else the first coupler point, else the last link."""
+    output = mechanism.output or {}
+    if "link" in output:
+        return [Quantity(f"angular {family}", "rate", output["link"]) for family in ("velocity", "acceleration")]
+    paths = [p for p in mechanism.points if _on_one_link(mechanism, p)]
+    point = output.get("point") or (paths[-1] if paths else None)
+    if point is not None:
+        return [Quantity(family, "magnitude", point) for family in ("velocity", "acceleration")]
+    return [Quantity("angular velocity", "rate", list(mechanism.links)[-1])] if mechanism.links else []
+
+
+def si_values(sweep, quantity: Quantity) -> np.ndarray:
+    """The (N,) series in SI (m/s, m/s², rad/s, rad/s²), in the order the sweep holds it."""
+    if quantity.form == "rate":
+        table = sweep.angular_velocity if quantity.family == "angular velocity" else sweep.angular_acceleration
+        return table[quantity.subject]
+    if quantity.form == "sliding":
+        table = sweep.sliding_velocity if quantity.family == "velocity" else sweep.sliding_acceleration
+        return table[quantity.subject]
+    vectors = sweep.velocities if quantity.family == "velocity" else sweep.accelerations
+    vector = vectors[:, sweep.point_names.index(quantity.subject)]
+    if quantity.form == "magnitude":
+        return np.linalg.norm(vector, axis=1)
+    return vector[:, 0 if quantity.form == "x" else 1]
+
+
+@dataclass(frozen=True)
+class Units:
+    """The window's choice: lengths in mm, m or in; ω in rad/s or rpm (α stays rad/s²)."""
+
+    length: str = "mm"
+    speed: str = "rad/s"
+
+    def unit(self, family: str) -> str:
+        length = LENGTH_SYSTEMS[self.length]
+        return {"velocity": length.velocity_unit, "acceleration": length.acceleration_unit,
+                "angular velocity": self.speed, "angular acceleration": "rad/s²"}[family]
+
+    def shown(self, family: str, si: np.ndarray) -> np.ndarray:
+        """``si`` converted to this family's shown unit."""
+        length = LENGTH_SYSTEMS[self.length]
+        if family == "velocity":
+            return length.velocity(si)
+        if family == "acceleration":
+            return length.acceleration(si)
+        if family == "angular velocity":
+            return angular_speed(si, self.speed)
+        return si
+
+
+@dataclass(frozen=True)
+class CycleAxis:
+    """The plot's x axis over one sweep.
+
+    along : (N,) abscissa of each sample, in the sweep's order.
+    x : (N,) the same ascending; ``order`` picks the sweep's samples in that order.
+    A full turn is shown as driver angle wrapped into [0°, 360°); a driver that rocks
+    between dead points keeps its range in one piece, centred in [0°, 360°). Time runs
+    from the reference pose at constant driver speed.
+    """
+
+    kind: str  # "angle" or "time"
+    along: np.ndarray
+    x: np.ndarray
+    order: np.ndarray
+    span: tuple
+    first_deg: float
+    sense: float
+    full_turn: bool
+    rad_s: float
+
+    @property
+    def label(self) -> str:
+        return "driver angle" if self.kind == "angle" else "time from the reference pose"
+
+    @property
+    def unit(self) -> str:
+        return "°" if self.kind == "angle" else "s"
+
+    def x_of_angle(self, angle_deg: float) -> float:
+        """Where driver angle ``angle_deg`` (any turn) lies on this axis."""
+        if self.kind == "angle":
+            if self.full_turn:
+                return angle_deg % 360.0
+            middle = 0.5 * (self.span[0] + self.span[1])
+            return middle + (angle_deg - middle + 180.0) % 360.0 - 180.0
+        turned = self.sense * (angle_deg - self.first_deg)
+        turned = turned % 360.0 if self.full_turn else abs(turned)
+        return math.radians(turned) / self.rad_s
+
+    def angle_of_x(self, x: float) -> float:
+        """The driver angle in [0°, 360°) at abscissa ``x`` (the window's convention)."""
+        if self.kind == "angle":
+            return x % 360.0
+        return (self.first_deg + self.sense * math.degrees(x * self.rad_s)) % 360.0
+
+
+def cycle_axis(sweep, kind: str = "angle") -> CycleAxis:
+    """The x axis of ``sweep``; ``kind="time"`` needs ``sweep.time_s`` (constant driver speed)."""
+    angles = sweep.driver_angle_deg
+    common = {"first_deg": float(angles[0]), "sense": 1.0 if angles[-1] >= angles[0] else -1.0,
+              "full_turn": sweep.full_turn, "rad_s": abs(sweep.mechanism.driver.speed_rad_s)}
+    if kind == "time":
+        if sweep.time_s is None:
+            raise ValueError("time axis: the driver accelerates, so the sweep has no time (use the driver angle)")
+        if sweep.full_turn:
+            span = (0.0, 2.0 * math.pi / common["rad_s"])
+        else:
+            span = (0.0, float(sweep.time_s[-1]))
+        return CycleAxis("time", sweep.time_s, sweep.time_s, np.arange(len(angles)), span, **common)
+    if sweep.full_turn:
+        wrapped = angles % 360.0
+        span = (0.0, 360.0)
+    else:
+        middle = 0.5 * (angles.min() + angles.max())
+        wrapped = angles - 360.0 * math.floor(middle / 360.0)
+        span = (float(wrapped.min()), float(wrapped.max()))
+    order = np.argsort(wrapped, kind="stable")
+    return CycleAxis("angle", wrapped, wrapped[order], order, span, **common)
+
+
+def peak(values: np.ndarray) -> int:
+    """Index of the largest magnitude of ``values`` (signed series peak either way)."""
+    return int(np.argmax(np.abs(values)))
+
+
+def _on_one_link(mechanism, point: str) -> bool:
+    bodies = mechanism.bodies_of(point)
+    return len(bodies) == 1 and bodies[0] != GROUND
+
+
+def coupler_paths_mm(sweep, mechanism) -> dict[str, np.ndarray]:
+    """Paths over the cycle of the points carried by exactly one link (not ground).
+
+    Returns
+    -------
+    dict
+        point name -> (N, 2) positions in mm, in the order of ``sweep.driver_angle_deg``.
+    """
+    return {p: sweep.positions[:, sweep.point_names.index(p)] * 1e3 for p in mechanism.points
+            if _on_one_link(mechanism, p)}

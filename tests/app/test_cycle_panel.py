@@ -1,0 +1,270 @@
+"""The cycle plot panel: curves equal to the core's sweep, real clicks, cursor, axes, units,
+peaks, the fine sweep worker, coupler paths, and a look at the screen."""
+
+import doctest
+import math
+from pathlib import Path
+
+import numpy as np
+import pytest
+from PySide6.QtCore import QPointF, Qt
+from PySide6.QtGui import QImage
+from PySide6.QtTest import QTest
+from PySide6.QtWidgets import QApplication
+
+import app.cycle_series
+import kinematics
+from app.cycle_panel import NO_CYCLE, PALETTE, CyclePanel, readable
+from app.cycle_series import Quantity, coupler_paths_mm
+from kinematics.peaks import peaks
+
+from .designs import FOUR_BAR, SLIDER_CRANK, SLOTTED_LEVER, TRIPLE_ROCKER, load
+
+SIX_BAR = Path(__file__).resolve().parents[2] / "samples" / "stacker-transfer-stephenson.json"
+SPEED_P = Quantity("velocity", "magnitude", "P")
+ACCELERATION_P = Quantity("acceleration", "magnitude", "P")
+
+
+@pytest.fixture
+def panel(qtbot):
+    widget = CyclePanel()
+    qtbot.addWidget(widget)
+    widget.resize(1100, 420)
+    widget.show()
+    qtbot.waitExposed(widget)
+    return widget
+
+
+def wrapped_order(result):
+    """The samples sorted by driver angle in [0°, 360°), worked out here, not by the panel."""
+    return np.argsort(result.driver_angle_deg % 360.0, kind="stable")
+
+
+def curve_data(panel, quantity):
+    x, y = panel.curves[quantity].getData()
+    return np.asarray(x), np.asarray(y)
+
+
+def test_the_plotted_speed_is_the_sweeps_own_array(panel):
+    result = kinematics.sweep(load(FOUR_BAR), 360)
+    panel.set_units("m", "rad/s")
+    panel.set_sweep(result)
+    panel.choose([SPEED_P])
+    x, y = curve_data(panel, SPEED_P)
+    order = wrapped_order(result)
+    expected = np.linalg.norm(result.velocities[:, result.point_names.index("P")], axis=1)
+    assert np.array_equal(y, expected[order])
+    assert np.array_equal(x, (result.driver_angle_deg % 360.0)[order])
+    assert np.all(np.diff(x) > 0) and 0.0 <= x[0] and x[-1] < 360.0
+
+
+def test_units_convert_the_same_arrays(panel):
+    result = kinematics.sweep(load(FOUR_BAR), 360)
+    omega = Quantity("angular velocity", "rate", "rocker")
+    panel.set_sweep(result)
+    panel.choose([SPEED_P, omega])
+    panel.set_units("in", "rpm")
+    order = wrapped_order(result)
+    speed = np.linalg.norm(result.velocities[:, result.point_names.index("P")], axis=1)
+    # 1 in = 25.4 mm exactly (international inch, 1959); 1 rev/min = 2π rad / 60 s  # common practice
+    assert np.allclose(curve_data(panel, SPEED_P)[1], speed[order] / 0.0254, rtol=1e-15)
+    assert np.allclose(curve_data(panel, omega)[1], result.angular_velocity["rocker"][order] * 60 / (2 * math.pi),
+                       rtol=1e-15)
+    assert panel.plots["velocity"].getAxis("left").labelText == "v (in/s)"
+    assert panel.plots["angular velocity"].getAxis("left").labelText == "ω (rpm)"
+
+
+def test_a_real_click_on_the_plot_picks_that_angle(panel, qtbot):
+    panel.set_sweep(kinematics.sweep(load(FOUR_BAR), 360))
+    box = panel.plots["velocity"].getViewBox()
+    (low, high), (bottom, top) = box.viewRange()
+    scene_point = box.mapViewToScene(QPointF(123.0, 0.5 * (bottom + top)))
+    at = panel.graphics.mapFromScene(scene_point)
+    with qtbot.waitSignal(panel.angle_picked, timeout=2000) as picked:
+        QTest.mouseClick(panel.graphics.viewport(), Qt.LeftButton, Qt.NoModifier, at)
+    degrees_per_pixel = (high - low) / box.width()
+    assert picked.args[0] == pytest.approx(123.0, abs=degrees_per_pixel)
+
+
+def test_set_angle_moves_the_cursor_on_every_row(panel):
+    panel.set_sweep(kinematics.sweep(load(FOUR_BAR), 360))
+    panel.choose([SPEED_P, ACCELERATION_P])
+    assert len(panel.cursors) == 2
+    panel.set_angle(200.0)
+    assert [c.value() for c in panel.cursors] == [200.0, 200.0]
+    panel.set_angle(-30.0)
+    assert all(c.value() == pytest.approx(330.0) and c.isVisible() for c in panel.cursors)
+    panel.set_angle(None)
+    assert not any(c.isVisible() for c in panel.cursors)
+
+
+def test_ticking_another_quantity_in_the_list_changes_the_curves(panel):
+    result = kinematics.sweep(load(FOUR_BAR), 360)
+    panel.set_sweep(result)
+    assert set(panel.curves) == {SPEED_P, ACCELERATION_P}  # the coupler point first
+    alpha = Quantity("angular acceleration", "rate", "coupler")
+    rows = {panel.choices.item(i).data(Qt.UserRole): panel.choices.item(i) for i in range(panel.choices.count())}
+    rows[SPEED_P].setCheckState(Qt.Unchecked)
+    rows[ACCELERATION_P].setCheckState(Qt.Unchecked)
+    rows[alpha].setCheckState(Qt.Checked)
+    assert list(panel.curves) == [alpha] and list(panel.plots) == ["angular acceleration"]
+    assert np.array_equal(curve_data(panel, alpha)[1], result.angular_acceleration["coupler"][wrapped_order(result)])
+    assert "O2" not in {q.subject for q in rows}  # a fixed pivot never moves: not offered
+
+
+def test_components_and_sliding_rates_are_offered_and_plotted(panel):
+    result = kinematics.sweep(load(SLOTTED_LEVER), 360)
+    panel.set_units("m", "rad/s")
+    panel.set_sweep(result)
+    vy = Quantity("velocity", "y", "A")
+    slip = Quantity("acceleration", "sliding", "slot")
+    panel.choose([vy, slip])
+    order = wrapped_order(result)
+    assert np.array_equal(curve_data(panel, vy)[1], result.velocities[:, result.point_names.index("A"), 1][order])
+    assert np.array_equal(curve_data(panel, slip)[1], result.sliding_acceleration["slot"][order])
+    assert slip.label == "s̈ slot" and vy.label == "vᵧ A"
+
+
+def test_none_clears_the_plot_with_a_plain_message(panel):
+    panel.set_sweep(kinematics.sweep(load(FOUR_BAR), 360))
+    panel.set_sweep(None)
+    assert panel.curves == {} and panel.plots == {} and panel.choices.count() == 0
+    assert panel.message.text == NO_CYCLE
+    assert panel.peaks.text() == "" and not panel.compute.isEnabled()
+    panel.set_sweep(None, "no cycle: the design is unfinished")
+    assert panel.message.text == "no cycle: the design is unfinished"
+
+
+def test_time_axis_only_at_constant_speed(panel):
+    accelerating = kinematics.sweep(load(FOUR_BAR), 360)
+    assert accelerating.time_s is None
+    panel.set_sweep(accelerating)
+    assert not panel.x_choice.model().item(1).isEnabled()
+    steady = kinematics.sweep(load(SLIDER_CRANK), 360)
+    panel.set_sweep(steady)
+    assert panel.x_choice.model().item(1).isEnabled()
+    panel.x_choice.setCurrentIndex(1)
+    quantity = panel.chosen[0]
+    x, _ = curve_data(panel, quantity)
+    assert np.array_equal(x, steady.time_s)
+    bottom_row = list(panel.plots.values())[-1]
+    assert bottom_row.getAxis("bottom").labelText == "time from the reference pose (s)"
+    omega = 300 * 2 * math.pi / 60  # the design's 300 rpm  # common practice
+    # A quarter turn past the reference pose takes (π/2)/ω.
+    panel.set_angle(steady.driver_angle_deg[0] + 90.0)
+    assert panel.cursors[0].value() == pytest.approx(0.5 * math.pi / omega, rel=1e-12)
+    assert panel.axis.angle_of_x(0.5 * math.pi / omega) == pytest.approx((steady.driver_angle_deg[0] + 90) % 360)
+    panel.set_sweep(accelerating)  # the time axis falls back to the driver angle
+    assert panel.x_choice.currentIndex() == 0 and panel.axis.kind == "angle"
+
+
+def test_a_rocking_driver_keeps_its_range_in_one_piece(panel):
+    result = kinematics.sweep(load(TRIPLE_ROCKER), 360)
+    assert not result.full_turn
+    panel.set_sweep(result)
+    low, high = result.range_deg
+    span = panel.axis.span
+    assert span[1] - span[0] == pytest.approx(high - low, abs=1e-5)
+    assert 0.0 <= 0.5 * (span[0] + span[1]) < 360.0
+    assert np.all(np.diff(curve_data(panel, panel.chosen[0])[0]) > 0)
+    assert panel.note.isVisible() and "cannot turn fully" in panel.note.text()
+
+
+def test_the_peaks_readout_agrees_with_the_cores_peaks_table(panel):
+    result = kinematics.sweep(kinematics.load_mechanism(SIX_BAR), 360)
+    panel.set_units("m", "rad/s")
+    panel.set_sweep(result)
+    panel.choose([SPEED_P])
+    table = peaks(result)["points"]["P"]
+    assert f"peak {readable(table['max_speed'])} m/s at {table['at_deg'] % 360:.1f}°" in panel.peaks.text()
+    assert readable(10737.4) == "10737" and readable(-53.3412) == "-53.34" and readable(2.5e-5) == "2.5e-05"
+
+
+def test_a_new_sweep_updates_the_existing_curves_in_place(panel):
+    mech = kinematics.load_mechanism(SIX_BAR)
+    panel.set_sweep(kinematics.sweep(mech, 360))
+    curve, plot = panel.curves[SPEED_P], panel.plots["velocity"]
+    moved = kinematics.move_point(mech, "C", (112.0, 203.0))
+    second = kinematics.sweep(moved, 360)
+    panel.set_sweep(second)
+    assert panel.curves[SPEED_P] is curve and panel.plots["velocity"] is plot
+    speed = np.linalg.norm(second.velocities[:, second.point_names.index("P")], axis=1)
+    assert np.array_equal(curve_data(panel, SPEED_P)[1], (speed / 1e-3)[wrapped_order(second)])  # mm/s shown
+
+
+def test_the_fine_sweep_reaches_100_percent_and_equals_the_cores_sweep(panel, qtbot):
+    mech = load(FOUR_BAR)
+    coarse = kinematics.sweep(mech, 360)
+    panel.set_sweep(coarse)
+    job = panel.start_fine_sweep(36_000)
+    assert panel.progress.isVisible() and panel.cancel.isVisible() and not panel.compute.isEnabled()
+    with qtbot.waitSignal(job.finished, timeout=20_000):
+        pass
+    qtbot.waitUntil(lambda: panel.sweep is not coarse, timeout=5000)
+    assert panel.progress.value() == 100 and not panel.progress.isVisible()
+    reference = kinematics.sweep(mech, 36_000)
+    for field in ("driver_angle_deg", "positions", "velocities", "accelerations"):
+        assert np.array_equal(getattr(panel.sweep, field), getattr(reference, field))
+    assert len(curve_data(panel, SPEED_P)[0]) == 36_000
+    panel.set_sweep(coarse)  # the same coarse sweep again (the window refreshes on every turn)
+    assert len(panel.sweep.driver_angle_deg) == 36_000
+    assert "36 000" in panel.shown_steps.text()
+
+
+def test_cancel_stops_waiting_and_keeps_the_plot(panel, qtbot):
+    coarse = kinematics.sweep(load(FOUR_BAR), 360)
+    panel.set_sweep(coarse)
+    job = panel.start_fine_sweep(360_000)
+    QTest.mouseClick(panel.cancel, Qt.LeftButton)
+    assert panel.job is None and not panel.progress.isVisible() and panel.compute.isEnabled()
+    job.wait(30_000)
+    QApplication.processEvents()
+    assert panel.sweep is coarse and panel.progress.value() != 100
+    assert len(curve_data(panel, SPEED_P)[0]) == 360
+
+
+def test_an_edited_design_drops_the_fine_sweep_still_running(panel, qtbot):
+    mech = load(FOUR_BAR)
+    panel.set_sweep(kinematics.sweep(mech, 360))
+    job = panel.start_fine_sweep(36_000)
+    edited = kinematics.sweep(kinematics.move_point(mech, "P", (72.0, 141.0)), 360)
+    panel.set_sweep(edited)
+    assert panel.job is None
+    job.wait(30_000)
+    QApplication.processEvents()
+    assert panel.sweep is edited
+
+
+def test_coupler_paths_are_the_points_on_one_moving_link_in_mm():
+    mech = load(FOUR_BAR)
+    result = kinematics.sweep(mech, 36)
+    paths = coupler_paths_mm(result, mech)
+    assert list(paths) == ["P"] and paths["P"].shape == (36, 2)
+    # Checked against the numeric pose solver, pose by pose.
+    for k in (0, 7, 23):
+        solved = kinematics.solve(mech, float(result.driver_angle_deg[k])).position("P")
+        assert paths["P"][k] == pytest.approx(np.multiply(solved, 1e3), abs=1e-9)
+    six_bar = kinematics.load_mechanism(SIX_BAR)
+    assert list(coupler_paths_mm(kinematics.sweep(six_bar, 36), six_bar)) == ["P"]
+
+
+def test_the_series_examples_run():
+    assert doctest.testmod(app.cycle_series).failed == 0
+
+
+def test_screenshots_show_labelled_curves(panel):
+    panel.set_sweep(kinematics.sweep(kinematics.load_mechanism(SIX_BAR), 360))
+    panel.set_angle(100.0)
+    QApplication.processEvents()
+    single = panel.grab()
+    single.save("/tmp/cycle_panel.png")
+    panel.choose([SPEED_P, ACCELERATION_P, Quantity("angular velocity", "rate", "follower")])
+    panel.set_units("mm", "rpm")
+    QApplication.processEvents()
+    double = panel.grab()
+    double.save("/tmp/cycle_panel_two.png")
+    image = double.toImage().convertToFormat(QImage.Format_RGB32)
+    pixels = np.frombuffer(image.constBits(), np.uint8).reshape(image.height(), image.bytesPerLine() // 4, 4)
+    colours = {"#{:02x}{:02x}{:02x}".format(*bgr[2::-1]) for bgr in np.unique(pixels.reshape(-1, 4), axis=0)}
+    assert {PALETTE[0].lower(), PALETTE[1].lower(), PALETTE[2].lower()} <= colours  # one curve per row drawn
+    assert len(panel.plots) == 3
