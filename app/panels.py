@@ -10,6 +10,8 @@ from .polygon_scene import PolygonScene
 from .space_scene import SpaceScene
 from .views import PolygonView, SpaceView
 
+EMPTY_VIEW_MM = 200.0
+
 
 class DrawingsPanel(QSplitter):
     """Draws a Document: call :meth:`refresh` after each ``changed``."""
@@ -32,7 +34,10 @@ class DrawingsPanel(QSplitter):
 
     def refresh(self):
         doc = self.document
+        topology = self.space_scene.topology
         self.space_scene.show(doc.mechanism, doc.solution, doc.sweep)
+        if self.space_scene.topology != topology and self.space_view.auto_fit:
+            self.fit_space()  # a joint or link was added or removed: keep the whole design in view
         construction = doc.construction
         plates = {n: pts for n, pts in doc.mechanism.links.items() if len(pts) > 2}
         for scene, view, polygon in (
@@ -46,11 +51,19 @@ class DrawingsPanel(QSplitter):
     def fit_space(self):
         """Fit the space diagram, with room for the links to turn."""
         rect = self.space_scene.drawing_rect()
+        mech = self.document.mechanism
+        # At least the design's own size across (a 200 mm sheet for one point or none), so a
+        # lone pivot is not blown up to fill the view.
+        least = 1e3 * mech.size * mech.metres_per_unit or EMPTY_VIEW_MM
         if rect.isEmpty():
-            rect = QRectF(-100, -100, 200, 200)
+            rect = QRectF(-0.5 * least, -0.5 * least, least, least)
         grow = 0.05 * max(rect.width(), rect.height())
+        rect = rect.adjusted(-grow, -grow, grow, grow)
+        if rect.width() < least and rect.height() < least:
+            centre = rect.center()
+            rect = QRectF(centre.x() - 0.5 * least, centre.y() - 0.5 * least, least, least)
         self.space_view.auto_fit = True
-        self.space_view.show_rect(rect.adjusted(-grow, -grow, grow, grow))
+        self.space_view.show_rect(rect)
 
     def fit_all(self):
         self.fit_space()

@@ -47,6 +47,15 @@ def point_kind(mechanism, name: str) -> str:
     return "joint"
 
 
+def _drawn_to_scale(item) -> bool:
+    """False for items (and children of items) that keep their screen size: their bounds are pixels."""
+    while item is not None:
+        if item.flags() & QGraphicsItem.ItemIgnoresTransformations:
+            return False
+        item = item.parentItem()
+    return True
+
+
 def _hull_order(points: list) -> list:
     """Indices of ``points`` around their centroid, so a plate outline never crosses itself."""
     cx = sum(p.x() for p in points) / len(points)
@@ -269,10 +278,13 @@ class SpaceScene(QGraphicsScene):
         return QPointF(0.5 * (min(xs) + max(xs)), 0.5 * (min(ys) + max(ys)))
 
     def drawing_rect(self) -> QRectF:
-        """The area the mechanism and its guides cover, with a margin for signs and labels."""
+        """The area the mechanism and its guides cover, with a margin for signs and labels
+        (empty for a design without points)."""
+        if not self.positions_mm:
+            return QRectF()
         path = QPainterPath()
         for item in self.items():
-            if not item.flags() & QGraphicsItem.ItemIgnoresTransformations:
+            if _drawn_to_scale(item):
                 path.addRect(item.sceneBoundingRect())
         rect = path.boundingRect().united(self.motion_rect) if not self.motion_rect.isEmpty() \
             else path.boundingRect()

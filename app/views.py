@@ -14,6 +14,7 @@ from .drawing_kit import DASHES, label_font
 ZOOM_PER_WHEEL_STEP = 1.15
 # Panning needs room beyond the drawing; the scene rect is the drawing grown by this factor.
 PAN_ROOM = 4.0
+GRID_MIN_PIXELS = 6.0
 LEGEND_TOP = 38.0
 LEGEND_LINE = 16.0
 
@@ -129,10 +130,12 @@ class SpaceView(DrawingView):
     def drawBackground(self, painter: QPainter, rect):
         super().drawBackground(painter, rect)
         step = self.grid_mm
-        if not step or rect.width() / step > 400:  # too dense to read at this zoom: leave it out
+        if not step or step * self.transform().m11() < GRID_MIN_PIXELS:  # too dense to read at this zoom
             return
         pen = QPen(QColor("#e3e6ea"))
         pen.setCosmetic(True)
+        painter.save()
+        painter.setRenderHint(QPainter.Antialiasing, False)  # crisp one-pixel grid lines
         painter.setPen(pen)
         x = math.floor(rect.left() / step) * step
         while x <= rect.right():
@@ -142,6 +145,7 @@ class SpaceView(DrawingView):
         while y <= rect.bottom():
             painter.drawLine(QPointF(rect.left(), y), QPointF(rect.right(), y))
             y += step
+        painter.restore()
 
     def keyPressEvent(self, event):
         if self.building and event.key() in (Qt.Key_Return, Qt.Key_Enter):

@@ -31,7 +31,7 @@ from .drawing_kit import preferred_length
 from .editing import JointDrag
 from .files import recent_files, remember, save_atomically
 from .icons import icon
-from .panels import DrawingsPanel
+from .panels import EMPTY_VIEW_MM, DrawingsPanel
 from .properties import PropertiesPanel
 from .results import ResultsTable
 from .status import status_text
@@ -207,12 +207,12 @@ class MainWindow(QMainWindow):
         self.builder.set_tool(tool)
 
     def grid_mm(self) -> float:
-        """The snapping step in mm: a 1-2-5 length near a twentieth of the design, 10 mm for an empty one."""
+        """The snapping step in mm: a 1-2-5 length near a twentieth of the design, at least 10 mm
+        (a small or new design is laid out on a 200 mm sheet)."""
         if not self.snapping.isChecked():
             return 0.0
         mech = self.document.mechanism
-        size = 1e3 * mech.size * mech.metres_per_unit
-        return preferred_length(size / 20.0) if size > 0 else 10.0
+        return preferred_length(max(1e3 * mech.size * mech.metres_per_unit, EMPTY_VIEW_MM) / 20.0)
 
     def _snapping_changed(self, *_):
         self.drawings.space_view.grid_mm = self.grid_mm()
