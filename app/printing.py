@@ -30,8 +30,9 @@ from PySide6.QtGui import (
 )
 
 from kinematics.drawing import PAPER, Arrow, Circle, Hatch, Line, Note, Polyline, Text, draw_sheet
-from kinematics.drawing.output import OutputError, construction_from_file, run_reporting, write_atomically
+from kinematics.drawing.output import construction_from_file, run_reporting
 from kinematics.drawing.sheet import DASHES
+from kinematics.storage import StorageError, replace_atomically
 
 FONT_FAMILY = "DejaVu Sans"  # Debian fonts-dejavu-core: has ω α ° ² ′ and subscripts
 PDF_RESOLUTION_DPI = 1200
@@ -139,7 +140,7 @@ def paint_sheet(sheet, device, where: str = "") -> None:
     page); ``where`` names the device in an error."""
     painter = QPainter()
     if not painter.begin(device):
-        raise OutputError("the printer or PDF file could not be opened for painting", where)
+        raise StorageError("the printer or PDF file could not be opened for painting", where)
     try:
         painter.setRenderHint(QPainter.RenderHint.Antialiasing, True)
         backend = PainterBackend(painter, sheet.height, device.resolution() / 25.4)
@@ -168,7 +169,7 @@ def print_construction(construction, printer_or_path, paper: str = "A4", landsca
 
     Raises
     ------
-    OutputError
+    StorageError
         when the PDF cannot be written; a PDF goes to a temporary file beside
         the target and is moved into place only when whole, so a failure
         leaves no partial file.
@@ -189,7 +190,7 @@ def print_construction(construction, printer_or_path, paper: str = "A4", landsca
                 if b"%%EOF" not in pdf.read():
                     raise OSError("the PDF came out incomplete")
 
-        write_atomically(printer_or_path, write)
+        replace_atomically(printer_or_path, write)
     else:
         printer_or_path.setFullPage(True)
         printer_or_path.setPageLayout(page_layout(paper, landscape))

@@ -1,7 +1,8 @@
 """``kinepoly check | solve | construct | sweep | export`` — the analysis commands (no Qt).
 
-Exit codes: 0 ok; 2 a bad file or a mechanism with findings (message on
-stderr names the place); 3 the linkage cannot assemble at the asked angle.
+Exit codes: 0 ok; 1 the output could not be written; 2 a bad file or a
+mechanism with findings (message on stderr names the place); 3 the linkage
+cannot assemble (or has no construction) at the asked angle.
 """
 
 from __future__ import annotations
@@ -12,7 +13,7 @@ import json
 import sys
 
 from . import CAUTION, construct, diagnose, load_mechanism, solve
-from .errors import CannotAssemble, KinematicsError, MechanismFindings
+from .drawing.output import run_reporting
 from .report_text import construction_text, peaks_text, solution_table
 from .storage import write_atomically
 
@@ -145,12 +146,6 @@ def _sweep(args) -> int:
     return 0
 
 
-def _export(args_list) -> int:
-    from .dxf import main as dxf_main
-
-    return dxf_main(args_list)
-
-
 def _parser():
     parser = argparse.ArgumentParser(prog="kinepoly", description="Velocity and acceleration polygons of planar "
                                      "linkages, built by exact graphical construction.")
@@ -175,29 +170,19 @@ def _parser():
     return parser
 
 
+COMMANDS = {"check": _check, "solve": _solve, "construct": _construct, "sweep": _sweep}
+
+
 def main(argv=None) -> int:
     argv = list(sys.argv[1:] if argv is None else argv)
     if argv and argv[0] == "export":
-        runner = lambda: _export(argv[1:])  # noqa: E731
-    else:
-        args = _parser().parse_args(argv)
-        runner = lambda: {"check": _check, "solve": _solve, "construct": _construct,  # noqa: E731
-                          "sweep": _sweep}[args.command](args)
-    try:
-        return runner()
-    except CannotAssemble as err:
-        print(f"error: {err}", file=sys.stderr)
-        return 3
-    except MechanismFindings as err:
-        for finding in err.findings:
-            print(f"error: {finding}", file=sys.stderr)
-        return 2
-    except KinematicsError as err:
-        print(f"error: {err}", file=sys.stderr)
-        return 2
-    except OSError as err:
-        print(f"error: {err.filename or ''}: {err.strerror or err}", file=sys.stderr)
-        return 2
+        from .dxf import main as export_main
+
+        return export_main(argv[1:])
+    args = _parser().parse_args(argv)
+    outcome = []
+    code = run_reporting(lambda: outcome.append(COMMANDS[args.command](args)))
+    return code or outcome[0]
 
 
 if __name__ == "__main__":

@@ -18,8 +18,9 @@ from ezdxf import bbox
 from ezdxf.enums import TextEntityAlignment
 
 from .drawing import Arrow, Circle, Hatch, Line, Note, Polyline, Text, draw_model
-from .drawing.output import construction_from_file, run_reporting, write_atomically
+from .drawing.output import construction_from_file, run_reporting
 from .drawing.sheet import DASHES
+from .storage import replace_atomically
 
 DXF_VERSION = "R2013"  # UTF-8 text (ω, α, ², ′) and true colour on layers
 INSUNITS_MILLIMETRES = 4
@@ -148,13 +149,13 @@ def write_dxf(construction, path, file_name: str = "", date: str | None = None):
     at the scales their scale bars state. The file is written beside the
     target and moved into place, so a failure leaves no partial file.
     Returns the Sheet written. Raises
-    :class:`kinematics.drawing.output.OutputError` when it cannot be written.
+    :class:`kinematics.storage.StorageError` when it cannot be written.
     """
     sheet = draw_model(construction, file_name=file_name, date=date)
     doc = new_document()
     replay(sheet, doc)
     _frame_view(doc)
-    write_atomically(path, lambda temporary: doc.saveas(temporary))
+    replace_atomically(path, lambda temporary: doc.saveas(temporary))
     return sheet
 
 

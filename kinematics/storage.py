@@ -71,7 +71,7 @@ def replace_atomically(target, write: Callable[[str], None], keep_backup: bool =
     target = Path(target)
     folder = target.parent if str(target.parent) else Path(".")
     if not folder.is_dir():
-        raise StorageError(f"the folder {folder} does not exist", str(target))
+        raise StorageError(f"cannot write into the folder {folder}: it is not an existing folder", str(target))
     try:
         handle, temporary = tempfile.mkstemp(prefix=f".{target.name}.", suffix=".part", dir=folder)
     except OSError as err:

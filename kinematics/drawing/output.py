@@ -1,51 +1,13 @@
-"""What every exporter shares: write whole files or nothing, and turn a
-mechanism file into a construction with errors that name the place."""
+"""What every exporter shares: turn a mechanism file into a construction, and
+refusals into exit codes with messages that name the place. Files are written
+whole or not at all by :mod:`kinematics.storage`."""
 
 from __future__ import annotations
 
-import os
 import sys
-import tempfile
-from pathlib import Path
 
 from ..errors import CannotAssemble, KinematicsError, MechanismFindings, ParallelLines
-
-
-class OutputError(KinematicsError):
-    """An output file that could not be written; ``location`` is its path."""
-
-
-def write_atomically(target, write) -> None:
-    """Call ``write(temporary_path)`` and move the result onto ``target``.
-
-    The temporary file sits beside the target so the final ``os.replace`` is
-    atomic: a reader sees the old file or the whole new one, never a part.
-    On any failure the temporary file is removed; an OSError is raised again
-    as OutputError naming the target.
-    """
-    target = Path(target)
-    folder = target.parent
-    try:
-        handle, temporary = tempfile.mkstemp(prefix=f".{target.name}.", suffix=".part", dir=folder)
-    except OSError as err:
-        raise OutputError(f"cannot write into the folder {folder}: {err.strerror or err}", str(target)) from None
-    os.close(handle)
-    try:
-        write(temporary)
-        # mkstemp makes the file private; give it the mode a plain new file (or the old one) would have.
-        os.chmod(temporary, target.stat().st_mode & 0o7777 if target.exists() else 0o666 & ~_umask())
-        os.replace(temporary, target)
-    except OSError as err:
-        raise OutputError(f"cannot write the file: {err.strerror or err}", str(target)) from None
-    finally:
-        if os.path.exists(temporary):
-            os.remove(temporary)
-
-
-def _umask() -> int:
-    mask = os.umask(0)
-    os.umask(mask)
-    return mask
+from ..storage import StorageError
 
 
 def construction_from_file(path, angle_deg=None):
@@ -68,7 +30,7 @@ def run_reporting(action) -> int:
     except (CannotAssemble, ParallelLines) as err:
         print(f"error: {err}", file=sys.stderr)
         return 3
-    except OutputError as err:
+    except StorageError as err:
         print(f"error: {err}", file=sys.stderr)
         return 1
     except KinematicsError as err:

@@ -16,8 +16,8 @@ from ezdxf import recover
 
 import kinematics
 from kinematics import style
-from kinematics.drawing.output import OutputError, write_atomically
 from kinematics.dxf import main, write_dxf
+from kinematics.storage import StorageError, replace_atomically
 
 from .designs import BOTTLE_PUSHER, DESIGNS, GATE_LIFTER, LIMITED_ROCKER, SWING_LEVER, construction
 
@@ -131,7 +131,7 @@ def test_command_exit_codes_and_messages(tmp_path, capsys):
 def test_unwritable_folder_says_so_and_leaves_no_file(tmp_path, capsys):
     blocker = tmp_path / "plain-file"
     blocker.write_text("not a folder")
-    with pytest.raises(OutputError, match="cannot write"):
+    with pytest.raises(StorageError, match="cannot write"):
         write_dxf(construction(SWING_LEVER), blocker / "x.dxf")
     design = tmp_path / "lever.json"
     design.write_text(json.dumps(SWING_LEVER), encoding="utf-8")
@@ -146,7 +146,7 @@ def test_read_only_folder_says_so(tmp_path):
     folder.mkdir()
     folder.chmod(0o500)
     try:
-        with pytest.raises(OutputError, match="cannot write"):
+        with pytest.raises(StorageError, match="cannot write"):
             write_dxf(construction(SWING_LEVER), folder / "x.dxf")
         assert list(folder.iterdir()) == []
     finally:
@@ -162,8 +162,8 @@ def test_a_failed_write_keeps_the_old_file_whole(tmp_path):
             handle.write("0\nSECTION\n")
         raise OSError(28, "No space left on device")
 
-    with pytest.raises(OutputError, match="No space left"):
-        write_atomically(target, half_then_fail)
+    with pytest.raises(StorageError, match="No space left"):
+        replace_atomically(target, half_then_fail)
     assert target.read_text() == "the previous drawing"
     assert [p.name for p in tmp_path.iterdir()] == ["drawing.dxf"]
 

@@ -88,5 +88,5 @@ def test_sweep_json_has_peaks_and_csv():
 def test_unwritable_output_says_so(tmp_path):
     target = tmp_path / "missing-folder" / "cycle.csv"
     out = run("sweep", QUICK, "-o", str(target))
-    assert out.returncode == 2 and "missing-folder does not exist" in out.stderr
+    assert out.returncode == 1 and "missing-folder: it is not an existing folder" in out.stderr
     assert not target.parent.exists()

@@ -75,7 +75,7 @@ def test_vanished_folder_says_so(tmp_path):
     target = tmp_path / "gone" / "press.json"
     with pytest.raises(StorageError) as caught:
         save_mechanism(kinematics.load_mechanism(SAMPLES / "tablet-press-toggle.json"), target)
-    assert str(caught.value) == f"{target}: the folder {target.parent} does not exist"
+    assert str(caught.value) == f"{target}: cannot write into the folder {target.parent}: it is not an existing folder"
 
 
 def test_recovery_copy_round_trips_exactly(tmp_path):
