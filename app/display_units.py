@@ -45,10 +45,11 @@ def angular_speed(rad_s: float, unit: str) -> float:
     return rpm_from_rad_s(rad_s) if unit == "rpm" else rad_s
 
 
-def sense(value: float) -> str:
-    """The sense of an angular rate in words (CCW positive, the core's convention)."""
+def sense(value: float, zero: str = "at rest") -> str:
+    """The sense of an angular rate in words (CCW positive, the core's convention); ``zero``
+    is said for none (a link at rest, or no angular acceleration)."""
     if value == 0.0:
-        return "at rest"
+        return zero
     return "CCW" if value > 0 else "CW"
 
 

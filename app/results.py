@@ -102,7 +102,7 @@ class ResultsModel(QStandardItemModel):
         alpha = solution.angular_acceleration[name]
         shown = angular_speed(abs(omega), self.speed_unit)
         return [(f"link {name}", None), (f"ω {_number(shown)}", shown), (sense(omega), None),
-                (f"α {_number(abs(alpha))}", abs(alpha)), (sense(alpha), None)]
+                (f"α {_number(abs(alpha))}", abs(alpha)), (sense(alpha, zero="none"), None)]
 
     def _slide_cells(self, name, solution):
         slide = solution.mechanism.slides[name]
