@@ -30,11 +30,24 @@ from PySide6.QtWidgets import (
 import kinematics
 from kinematics import KinematicsError
 
-from .cycle_series import FAMILIES, Units, available, cycle_axis, default_choice, peak, si_values
+from .cycle_series import (
+    FAMILIES,
+    Units,
+    available,
+    cycle_axis,
+    default_choice,
+    grid_segments,
+    peak,
+    si_values,
+    steady_range,
+)
 
 # Okabe & Ito, "Color Universal Design" (2008): told apart with the common colour-vision deficiencies.
 PALETTE = ("#0072B2", "#D55E00", "#009E73", "#CC79A7", "#E69F00", "#56B4E9", "#000000")
 CURSOR_COLOUR = "#7f7f7f"
+GRID_COLOUR = "#d2d2d2"
+ZERO_COLOUR = "#8c8c8c"
+AXIS_WIDTH_PX = 64  # the same for every row, so their x axes line up
 FINE_STEPS = (3_600, 36_000, 360_000)
 NO_CYCLE = "No cycle to plot: the design is unfinished or its driver cannot be swept."
 _RUNNING: set = set()  # jobs kept alive until their thread ends, even past a closed panel
@@ -46,6 +59,11 @@ def readable(value: float) -> str:
     if magnitude == 0.0 or not 1e-3 <= magnitude < 1e7:
         return f"{value:.4g}"
     return f"{value:.{max(0, 3 - math.floor(math.log10(magnitude)))}f}"
+
+
+def _major_ticks(axis, low: float, high: float, pixels: float) -> list:
+    levels = axis.tickValues(low, high, max(pixels, 1.0))
+    return list(levels[0][1]) if levels else []
 
 
 class FineSweepJob(QThread):
@@ -96,6 +114,7 @@ class CyclePanel(QWidget):
         self.angle_deg = None
         self.job = None
         self.offered: list = []
+        self._chosen: list = []
         self.layout_key = None
         self.plots: dict[str, pg.PlotItem] = {}
         self.curves: dict = {}
@@ -126,7 +145,7 @@ class CyclePanel(QWidget):
         self.cancel = QPushButton("Cancel")
         self.shown_steps = QLabel()
         self._lay_out()
-        self.choices.itemChanged.connect(self._rebuild)
+        self.choices.itemChanged.connect(self._ticked)
         self.x_choice.currentIndexChanged.connect(self._rebuild)
         self.graphics.scene().sigMouseClicked.connect(self._clicked)
         self.compute.clicked.connect(self.start_fine_sweep)
@@ -181,8 +200,12 @@ class CyclePanel(QWidget):
     @property
     def chosen(self) -> list:
         """The ticked quantities, in list order."""
+        return self._chosen
+
+    def _read_choices(self):
+        # Read from the list once per change, not per frame (item data crosses into Python each time).
         items = (self.choices.item(i) for i in range(self.choices.count()))
-        return [item.data(Qt.UserRole) for item in items if item.checkState() == Qt.Checked]
+        self._chosen = [item.data(Qt.UserRole) for item in items if item.checkState() == Qt.Checked]
 
     def choose(self, quantities):
         """Tick exactly ``quantities`` (those the design offers)."""
@@ -192,6 +215,7 @@ class CyclePanel(QWidget):
             item = self.choices.item(i)
             item.setCheckState(Qt.Checked if item.data(Qt.UserRole) in wanted else Qt.Unchecked)
         self.choices.blockSignals(False)
+        self._read_choices()
         self._rebuild()
 
     # showing ----------------------------------------------------------------
@@ -230,6 +254,11 @@ class CyclePanel(QWidget):
             self.choices.addItem(item)
         self.choices.blockSignals(False)
         self.offered = offered
+        self._read_choices()
+
+    def _ticked(self, _item):
+        self._read_choices()
+        self._rebuild()
 
     def _rebuild(self, *_):
         self._show(self.sweep, self.reason)
@@ -242,17 +271,21 @@ class CyclePanel(QWidget):
         families = [f for f in FAMILIES if any(q.family == f for q in chosen)]
         for row, family in enumerate(families):
             plot = self.graphics.addPlot(row=row, col=0)
-            plot.showGrid(x=True, y=True, alpha=0.25)
             plot.setLabel("left", f"{FAMILIES[family]} ({self.units.unit(family)})")
             plot.setMenuEnabled(False)
             plot.hideButtons()
-            plot.addItem(pg.InfiniteLine(0.0, angle=0, pen=pg.mkPen("#b0b0b0")), ignoreBounds=True)
+            # The y range follows the data (see _fit_rows); the user zooms and pans the angle only.
+            plot.setMouseEnabled(x=True, y=False)
+            plot.getViewBox().disableAutoRange()
+            self._add_grid(plot)
+            plot.addItem(pg.InfiniteLine(0.0, angle=0, pen=pg.mkPen(ZERO_COLOUR)), ignoreBounds=True)
             cursor = pg.InfiniteLine(angle=90, pen=pg.mkPen(CURSOR_COLOUR, width=1.5, style=Qt.DashLine))
             plot.addItem(cursor, ignoreBounds=True)
             self.cursors.append(cursor)
             for side in ("left", "bottom"):
                 plot.getAxis(side).setTextPen("k")
                 plot.getAxis(side).setPen("#555555")
+            plot.getAxis("left").setWidth(AXIS_WIDTH_PX)
             last = row == len(families) - 1
             # Rows share the x axis: its numbers and name once, under the bottom row.
             plot.getAxis("bottom").setStyle(showValues=last)
@@ -262,7 +295,6 @@ class CyclePanel(QWidget):
                 plot.getAxis("bottom").setTickSpacing(major=30.0, minor=10.0)
             if row:
                 plot.setXLink(self.plots[families[0]])
-            plot.getViewBox().enableAutoRange(x=False)
             self.plots[family] = plot
         for index, quantity in enumerate(chosen):
             pen = pg.mkPen(PALETTE[index % len(PALETTE)], width=2)
@@ -289,9 +321,39 @@ class CyclePanel(QWidget):
         self.peaks.setText("&nbsp;&nbsp;&nbsp; ".join(lines))
         if self.plots and axis.span != self.span:
             # Only when the range itself changes, so a zoom the user made survives a drag.
-            next(iter(self.plots.values())).setXRange(*axis.span, padding=0.0)
-            self.span = axis.span
+            self._show_whole_cycle()
+        self._fit_rows()
         self._place_cursor()
+
+    def _show_whole_cycle(self):
+        next(iter(self.plots.values())).setXRange(*self.axis.span, padding=0.0)
+        self.span = self.axis.span
+
+    def _fit_rows(self):
+        for family, plot in self.plots.items():
+            shown = [curve.yData for quantity, curve in self.curves.items() if quantity.family == family]
+            low, high = min(float(y.min()) for y in shown), max(float(y.max()) for y in shown)
+            current = tuple(plot.getViewBox().viewRange()[1])
+            wanted = steady_range(current, low, high)
+            if wanted != current:
+                plot.setYRange(*wanted, padding=0.0)
+
+    def _add_grid(self, plot):
+        """Light lines at the major ticks, as one path redrawn only when the view moves or resizes
+        (pyqtgraph's own grid costs about 12 ms a repaint here, the curves about 1 ms)."""
+        grid = pg.PlotCurveItem(pen=pg.mkPen(GRID_COLOUR), connect="pairs", antialias=False)
+        grid.setZValue(-10)
+        plot.addItem(grid, ignoreBounds=True)
+        box = plot.getViewBox()
+
+        def place(*_):
+            (x0, x1), (y0, y1) = box.viewRange()
+            xs = _major_ticks(plot.getAxis("bottom"), x0, x1, box.width())
+            ys = _major_ticks(plot.getAxis("left"), y0, y1, box.height())
+            grid.setData(*grid_segments(xs, ys, (x0, x1), (y0, y1)))
+
+        box.sigRangeChanged.connect(place)
+        box.sigResized.connect(place)
 
     def _place_cursor(self):
         visible = self.axis is not None and self.angle_deg is not None
@@ -306,6 +368,9 @@ class CyclePanel(QWidget):
         for plot in self.plots.values():
             box = plot.getViewBox()
             if box.sceneBoundingRect().contains(event.scenePos()):
+                if event.double():  # back to the whole cycle after a zoom
+                    self._show_whole_cycle()
+                    return
                 x = float(np.clip(box.mapSceneToView(event.scenePos()).x(), *self.axis.span))
                 self.angle_picked.emit(self.axis.angle_of_x(x))
                 return

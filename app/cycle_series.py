@@ -188,6 +188,32 @@ def peak(values: np.ndarray) -> int:
     return int(np.argmax(np.abs(values)))
 
 
+def steady_range(current: tuple, low: float, high: float, margin: float = 0.06, slack: float = 0.6) -> tuple:
+    """A y range for data over [low, high] that keeps ``current`` while it still fits.
+
+    Zero is always in view (a magnitude reads from zero, a signed rate shows its reversals).
+    The range changes only when the data leaves it or fills less than ``slack`` of it, so
+    the axis holds still while a joint is dragged a little.
+
+    >>> steady_range((0.0, 10.0), 1.0, 9.0)
+    (0.0, 10.0)
+    >>> steady_range((0.0, 10.0), 1.0, 12.0)
+    (-0.72, 12.72)
+    """
+    low, high = min(low, 0.0), max(high, 0.0)
+    extent = (high - low) or 1.0
+    if current[0] <= low and high <= current[1] and extent >= slack * (current[1] - current[0]):
+        return tuple(current)
+    return (low - margin * extent, high + margin * extent)
+
+
+def grid_segments(xs, ys, x_range: tuple, y_range: tuple) -> tuple:
+    """x and y arrays of grid lines as point pairs: verticals at ``xs``, horizontals at ``ys``."""
+    x = [value for v in xs for value in (v, v)] + [value for _ in ys for value in x_range]
+    y = [value for _ in xs for value in y_range] + [value for v in ys for value in (v, v)]
+    return np.asarray(x, float), np.asarray(y, float)
+
+
 def _on_one_link(mechanism, point: str) -> bool:
     bodies = mechanism.bodies_of(point)
     return len(bodies) == 1 and bodies[0] != GROUND
