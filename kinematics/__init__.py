@@ -4,13 +4,13 @@ graphical construction of velocity and acceleration polygons, cycle sweeps.
 Never imports Qt.
 """
 
-from .construct import Component, Construction, Polygon, Role, Step
 from .construct import construct as _construct
 from .errors import CannotAssemble, FileFormatError, KinematicsError, MechanismFindings, ParallelLines
 from .fileformat import dumps, load_mechanism
 from .mobility import Finding, diagnose
 from .model import Driver, Mechanism, Slide, move_point
 from .solve import Solution, solve_pose
+from .steps import Component, Construction, Polygon, Role, Step
 from .sweep import Sweep, sweep, verify_sweep
 
 CAUTION = (

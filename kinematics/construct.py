@@ -12,195 +12,18 @@ The numeric solver's values are used only for the cross-check.
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass, field
-from enum import Enum
 
 import numpy as np
-from shapely.geometry import LineString, Point
+from shapely.geometry import Point
 
-from .decompose import Decomposition, Group, decompose
-from .errors import ParallelLines
+from .decompose import Group, decompose
 from .groups import Frame, Laid, acceleration, drive, velocity
 from .model import GROUND
-from .scales import preferred_scale
 from .solve import Solution
-
-# An intersection whose condition figure exceeds this is flagged on its step.
-FLAG_CONDITION = 1e3
-SUBSCRIPTS = str.maketrans("0123456789", "₀₁₂₃₄₅₆₇₈₉")
-PRIME = "′"
+from .steps import Component, Construction, PolygonBuilder, Role, as_xy, direction_deg, figure
 
 
-class Role(Enum):
-    KNOWN = "known"
-    DIRECTION = "direction"
-    INTERSECTION = "intersection"
-    IMAGE = "image"
-    RESULT = "result"
-
-
-class Component(Enum):
-    DRIVER = "driver"
-    RADIAL = "radial"
-    TANGENTIAL = "tangential"
-    SLIDING = "sliding"
-    CORIOLIS = "coriolis"
-
-
-@dataclass(frozen=True)
-class Step:
-    """One drawn step of a polygon.
-
-    ``geometry`` is a shapely Point (a located point) or LineString (a line
-    or a vector; a vector runs from its start to its end, which takes the
-    arrowhead). ``points`` and ``links`` name what the step concerns.
-    """
-
-    id: str
-    polygon: str
-    role: Role
-    component: Component | None
-    label: str
-    geometry: object
-    equation: str
-    text: str
-    points: tuple = ()
-    links: tuple = ()
-    condition: float | None = None
-    angle_between_deg: float | None = None
-    flagged: bool = False
-    numeric: bool = False
-
-    @property
-    def is_vector(self) -> bool:
-        return self.role in (Role.KNOWN, Role.RESULT) and isinstance(self.geometry, LineString)
-
-
-@dataclass(frozen=True)
-class Polygon:
-    """One polygon: ``images`` (point name -> (x, y), SI, from the pole),
-    ``marks`` (intermediate construction points, label -> (x, y)), ordered
-    ``steps``, and the drawing scale in units per mm of drawing."""
-
-    kind: str
-    unit: str
-    pole_label: str
-    scale_per_mm: float
-    images: dict
-    marks: dict
-    steps: tuple
-
-    @property
-    def extent(self) -> float:
-        values = [math.hypot(*xy) for xy in list(self.images.values()) + list(self.marks.values())]
-        return max(values, default=0.0)
-
-    def image_label(self, point: str) -> str:
-        return point.lower() + (PRIME if self.kind == "acceleration" else "")
-
-
-@dataclass(frozen=True)
-class Construction:
-    """Both polygons of one pose, and their cross-check against the solver."""
-
-    solution: Solution
-    decomposition: Decomposition
-    velocity: Polygon
-    acceleration: Polygon
-    max_relative_difference: float
-    where: str
-    warnings: tuple = ()
-
-
-def _fmt(value: float) -> str:
-    return f"{value:.4g}"
-
-
-def _xy(z) -> tuple:
-    z = complex(z)
-    return (z.real, z.imag)
-
-
-def _direction_deg(z) -> float:
-    return math.degrees(math.atan2(complex(z).imag, complex(z).real)) % 360.0
-
-
-@dataclass
-class _Builder:
-    """Collects the steps of one polygon as the construction proceeds."""
-
-    kind: str
-    unit: str
-    steps: list = field(default_factory=list)
-    marks: dict = field(default_factory=dict)
-    lines: list = field(default_factory=list)  # (index in steps, through, direction, meet)
-
-    @property
-    def prime(self):
-        return PRIME if self.kind == "acceleration" else ""
-
-    def label(self, point: str) -> str:
-        return point.lower() + self.prime
-
-    def add(self, role, component, label, geometry, equation, text, **extra):
-        step = Step(id=f"{self.kind[0]}{len(self.steps) + 1}", polygon=self.kind, role=role, component=component,
-                    label=label, geometry=geometry, equation=equation, text=text, **extra)
-        self.steps.append(step)
-        return step
-
-    def vector(self, component, start, end, label, equation, text, role=Role.KNOWN, **extra):
-        return self.add(role, component, label, LineString([_xy(start), _xy(end)]), equation, text, **extra)
-
-    def mark(self, z, text, equation, **extra) -> str:
-        label = f"n{len(self.marks) + 1}".translate(SUBSCRIPTS) + self.prime
-        self.marks[label] = _xy(z)
-        self.add(Role.IMAGE, None, label, Point(_xy(z)), equation, f"{label}: {text}", **extra)
-        return label
-
-    def direction(self, component, through, direction, equation, text, **extra):
-        self.lines.append((len(self.steps), complex(through), complex(direction)))
-        # The segment is fitted to the finished polygon in finish().
-        return self.add(Role.DIRECTION, component, "", LineString([_xy(through), _xy(through)]), equation, text,
-                        **extra)
-
-    def intersection(self, meet, label, what, group: Group, **extra):
-        point = complex(meet.point)
-        sine = float(meet.sine)
-        angle = math.degrees(math.asin(min(1.0, abs(sine))))
-        if not np.isfinite(point) or sine == 0.0:
-            raise ParallelLines(f"the lines that fix {what} are parallel (a dead point of the driver): "
-                                "the intersection does not exist", f"{self.kind} polygon, {group.name}")
-        condition = float(meet.condition)
-        flagged = condition > FLAG_CONDITION
-        text = f"{label}: {what}, where the two lines meet at {angle:.3g}°"
-        if flagged:
-            text += f" — nearly parallel, condition figure {condition:.3g}"
-        self.lines[-2:] = [line + (point,) for line in self.lines[-2:]]
-        return self.add(Role.INTERSECTION, None, label, Point(_xy(point)), extra.pop("equation", ""), text,
-                        condition=condition, angle_between_deg=angle, flagged=flagged,
-                        links=tuple(group.links), **extra)
-
-    def finish(self, images: dict, box_mm: float, scale: float | None) -> Polygon:
-        images = {k: _xy(v) for k, v in images.items()}
-        everything = list(images.values()) + list(self.marks.values()) + [(0.0, 0.0)]
-        extent = max(math.hypot(*xy) for xy in everything)
-        margin = 0.12 * max(extent, 1e-12)
-        for index, through, direction, *meet in self.lines:
-            ends = [through] + [complex(m) for m in meet]
-            u = direction / abs(direction)
-            along = [((e - through) * u.conjugate()).real for e in ends]
-            lo, hi = min(along) - margin, max(along) + margin
-            old = self.steps[index]
-            self.steps[index] = Step(**{**old.__dict__, "geometry": LineString([_xy(through + lo * u),
-                                                                                _xy(through + hi * u)])})
-        width = 2.0 * max(max(abs(x) for x, _ in everything), max(abs(y) for _, y in everything))
-        chosen = scale if scale else preferred_scale(max(width, extent), box_mm)
-        return Polygon(kind=self.kind, unit=self.unit, pole_label="o" + self.prime, scale_per_mm=chosen,
-                       images=images, marks=dict(self.marks),
-                       steps=tuple(self.steps))
-
-
-def _driver_steps(frame: Frame, mech, vb: _Builder, ab: _Builder):
+def _driver_steps(frame: Frame, mech, vb: PolygonBuilder, ab: PolygonBuilder):
     d = mech.driver
     link, pivot = d.link, d.pivot
     omega, alpha = frame.omega[link], frame.alpha[link]
@@ -210,27 +33,27 @@ def _driver_steps(frame: Frame, mech, vb: _Builder, ab: _Builder):
         r = frame.pos[q] - frame.pos[pivot]
         v = frame.vel[q]
         vb.vector(Component.DRIVER, 0.0, v, vb.label(q), f"v_{q} = ω_{link} × r_{pivot}{q}",
-                  f"velocity of {q}: ω·r = {_fmt(abs(omega))} rad/s × {_fmt(abs(r))} m = {_fmt(abs(v))} m/s, "
-                  f"perpendicular to {pivot}{q}, at {_direction_deg(v):.1f}°", points=(q,), links=(link,))
+                  f"velocity of {q}: ω·r = {figure(abs(omega))} rad/s × {figure(abs(r))} m = {figure(abs(v))} m/s, "
+                  f"perpendicular to {pivot}{q}, at {direction_deg(v):.1f}°", points=(q,), links=(link,))
         radial_end = -(omega ** 2) * r
         ab.vector(Component.RADIAL, 0.0, radial_end, "" if alpha else ab.label(q),
                   f"a_{q}{pivot}^r = ω²·r_{q}{pivot}",
-                  f"radial component of {q} about {pivot}: ω²·r = {_fmt(abs(radial_end))} m/s², "
+                  f"radial component of {q} about {pivot}: ω²·r = {figure(abs(radial_end))} m/s², "
                   f"directed from {q} to {pivot}", points=(q,), links=(link,))
         if alpha:
             ab.vector(Component.TANGENTIAL, radial_end, frame.acc[q], ab.label(q), f"a_{q}{pivot}^t = α_{link} × r",
-                      f"tangential component of {q} about {pivot}: r·α = {_fmt(abs(alpha * r))} m/s², "
+                      f"tangential component of {q} about {pivot}: r·α = {figure(abs(alpha * r))} m/s², "
                       f"perpendicular to {pivot}{q}", points=(q,), links=(link,))
 
 
-def _laid_step(builder: _Builder, laid: Laid, frame: Frame, group: Group):
+def _laid_step(builder: PolygonBuilder, laid: Laid, frame: Frame, group: Group):
     if laid.component == "radial":
         link = next((k for k in group.links if {laid.point, laid.about} <= set(frame.mech.links[k])), group.links[0])
         magnitude = abs(laid.end - laid.start)
         return builder.vector(
             Component.RADIAL, laid.start, laid.end, "", f"a_{laid.point}{laid.about}^r = v_{laid.point}{laid.about}²"
             f" / {laid.point}{laid.about}",
-            f"radial component of {laid.point} relative to {laid.about}: v²/r = {_fmt(magnitude)} m/s², "
+            f"radial component of {laid.point} relative to {laid.about}: v²/r = {figure(magnitude)} m/s², "
             f"directed from {laid.point} to {laid.about}", points=(laid.point,), links=(link,))
     magnitude = abs(laid.end - laid.start)
     slide = frame.mech.slides[group.slide]
@@ -239,11 +62,11 @@ def _laid_step(builder: _Builder, laid: Laid, frame: Frame, group: Group):
         return None
     return builder.vector(
         Component.CORIOLIS, laid.start, laid.end, "", f"a_c = 2·ω_{guide} × v_{laid.point}/{guide}",
-        f"Coriolis component of {laid.point} sliding on {guide}: 2·ω·v = {_fmt(magnitude)} m/s², "
+        f"Coriolis component of {laid.point} sliding on {guide}: 2·ω·v = {figure(magnitude)} m/s², "
         f"the sliding velocity turned 90° the way {guide} turns", points=(laid.point,), links=(guide,))
 
 
-def _image_steps(builder: _Builder, frame: Frame, link: str, placed: set, field_name: str):
+def _image_steps(builder: PolygonBuilder, frame: Frame, link: str, placed: set, field_name: str):
     values = frame.vel if field_name == "vel" else frame.acc
     how = ("directly similar to the link, turned 90° the way it turns" if field_name == "vel"
            else "directly similar to the link, turned by arg(−ω² + iα)")
@@ -251,12 +74,12 @@ def _image_steps(builder: _Builder, frame: Frame, link: str, placed: set, field_
         if name in placed:
             continue
         placed.add(name)
-        builder.add(Role.IMAGE, None, builder.label(name), Point(_xy(values[name])),
+        builder.add(Role.IMAGE, None, builder.label(name), Point(as_xy(values[name])),
                     f"{builder.label(name)} by image of {link}", f"{builder.label(name)}: image of {name} on {link}, "
                     f"{how}", points=(name,), links=(link,))
 
 
-def _velocity_group(vb: _Builder, frame: Frame, group: Group, placed: set):
+def _velocity_group(vb: PolygonBuilder, frame: Frame, group: Group, placed: set):
     mech, pos = frame.mech, frame.pos
     r = group.roles
     if group.form == "RRR":
@@ -274,8 +97,8 @@ def _velocity_group(vb: _Builder, frame: Frame, group: Group, placed: set):
         for pin, link in ((a, l1), (c, l2)):
             rel = frame.vel[b] - frame.vel[pin]
             vb.vector(None, frame.vel[pin], frame.vel[b], "", f"v_{b}{pin} = ω_{link} × r_{pin}{b}",
-                      f"velocity of {b} relative to {pin}: {_fmt(abs(rel))} m/s, so ω_{link} = "
-                      f"{_fmt(float(frame.omega[link]))} rad/s", role=Role.RESULT, points=(b,), links=(link,))
+                      f"velocity of {b} relative to {pin}: {figure(abs(rel))} m/s, so ω_{link} = "
+                      f"{figure(float(frame.omega[link]))} rad/s", role=Role.RESULT, points=(b,), links=(link,))
         placed.add(b)
         for link in group.links:
             _image_steps(vb, frame, link, placed, "vel")
@@ -300,10 +123,10 @@ def _velocity_group(vb: _Builder, frame: Frame, group: Group, placed: set):
                         equation=f"v_{d} = v_{a} + v_{d}{a} = " + (
                             "v_slide" if slide.guide == GROUND else f"v_{d}/{slide.guide} + v_slide"))
         vb.vector(None, frame.vel[a], frame.vel[d], "", f"v_{d}{a} = ω_{link} × r_{a}{d}",
-                  f"velocity of {d} relative to {a}: {_fmt(abs(frame.vel[d] - frame.vel[a]))} m/s, so ω_{link} = "
-                  f"{_fmt(float(frame.omega[link]))} rad/s", role=Role.RESULT, points=(d,), links=(link,))
+                  f"velocity of {d} relative to {a}: {figure(abs(frame.vel[d] - frame.vel[a]))} m/s, so ω_{link} = "
+                  f"{figure(float(frame.omega[link]))} rad/s", role=Role.RESULT, points=(d,), links=(link,))
         vb.vector(Component.SLIDING, coincident, frame.vel[d], "", "v_slide ∥ guide",
-                  f"sliding velocity of {d} on {slide.guide}: {_fmt(float(frame.sliding_velocity[slide.name]))} m/s "
+                  f"sliding velocity of {d} on {slide.guide}: {figure(float(frame.sliding_velocity[slide.name]))} m/s "
                   f"from {slide.line[0]} towards {slide.line[1]}", role=Role.RESULT, points=(d,))
         placed.add(d)
         _image_steps(vb, frame, link, placed, "vel")
@@ -319,13 +142,13 @@ def _velocity_group(vb: _Builder, frame: Frame, group: Group, placed: set):
                     f"v_{d} = v_{d}/{link} + v_slide", points=(d,), links=(link,))
     vb.intersection(meet, label, f"velocity image of the point of {link} under {d}", group, points=(d,))
     vb.vector(Component.SLIDING, meet.point, frame.vel[d], "", "v_slide ∥ slot",
-              f"sliding velocity of {d} in the slot of {link}: {_fmt(float(frame.sliding_velocity[slide.name]))} m/s "
-              f"from {slide.line[0]} towards {slide.line[1]}; ω_{link} = {_fmt(float(frame.omega[link]))} rad/s",
+              f"sliding velocity of {d} in the slot of {link}: {figure(float(frame.sliding_velocity[slide.name]))} m/s "
+              f"from {slide.line[0]} towards {slide.line[1]}; ω_{link} = {figure(float(frame.omega[link]))} rad/s",
               role=Role.RESULT, points=(d,), links=(link,))
     _image_steps(vb, frame, link, placed, "vel")
 
 
-def _acceleration_group(ab: _Builder, frame: Frame, group: Group, placed: set):
+def _acceleration_group(ab: PolygonBuilder, frame: Frame, group: Group, placed: set):
     mech, pos = frame.mech, frame.pos
     r = group.roles
     # The arithmetic runs first; the steps then draw its records in the draftsman's order.
@@ -341,8 +164,8 @@ def _acceleration_group(ab: _Builder, frame: Frame, group: Group, placed: set):
                         equation=f"a_{b} = a_{a} + a^r + a^t = a_{c} + a^r + a^t")
         for item, pin, link in zip(laid, (a, c), group.links, strict=True):
             ab.vector(Component.TANGENTIAL, item.end, frame.acc[b], "", f"a_{b}{pin}^t = α_{link} × r_{pin}{b}",
-                      f"tangential component of {b} relative to {pin}: r·α = {_fmt(abs(frame.acc[b] - item.end))} "
-                      f"m/s², so α_{link} = {_fmt(float(frame.alpha[link]))} rad/s²", role=Role.RESULT,
+                      f"tangential component of {b} relative to {pin}: r·α = {figure(abs(frame.acc[b] - item.end))} "
+                      f"m/s², so α_{link} = {figure(float(frame.alpha[link]))} rad/s²", role=Role.RESULT,
                       points=(b,), links=(link,))
         placed.add(b)
         for link in group.links:
@@ -371,11 +194,11 @@ def _acceleration_group(ab: _Builder, frame: Frame, group: Group, placed: set):
                         equation=f"a_{d} = a_{a} + a^r + a^t = " + (
                             "a_slide" if slide.guide == GROUND else f"a_{d}/{slide.guide} + a_c + a_slide"))
         ab.vector(Component.TANGENTIAL, radial_laid.end, frame.acc[d], "", f"a_{d}{a}^t",
-                  f"tangential component of {d} relative to {a}: {_fmt(abs(frame.acc[d] - radial_laid.end))} m/s², "
-                  f"so α_{link} = {_fmt(float(frame.alpha[link]))} rad/s²", role=Role.RESULT, points=(d,),
+                  f"tangential component of {d} relative to {a}: {figure(abs(frame.acc[d] - radial_laid.end))} m/s², "
+                  f"so α_{link} = {figure(float(frame.alpha[link]))} rad/s²", role=Role.RESULT, points=(d,),
                   links=(link,))
         ab.vector(Component.SLIDING, coriolis_laid.end, frame.acc[d], "", "a_slide ∥ guide",
-                  f"sliding acceleration of {d}: {_fmt(float(frame.sliding_acceleration[slide.name]))} m/s² from "
+                  f"sliding acceleration of {d}: {figure(float(frame.sliding_acceleration[slide.name]))} m/s² from "
                   f"{slide.line[0]} towards {slide.line[1]}", role=Role.RESULT, points=(d,))
         placed.add(d)
         _image_steps(ab, frame, link, placed, "acc")
@@ -392,16 +215,17 @@ def _acceleration_group(ab: _Builder, frame: Frame, group: Group, placed: set):
                     points=(d,), links=(link,))
     ab.intersection(meet, label, f"acceleration image of the point of {link} under {d}", group, points=(d,))
     ab.vector(Component.TANGENTIAL, radial_laid.end, meet.point, "", f"a_{d}/{link}^t = α_{link} × r_{c}{d}",
-              f"tangential component: {_fmt(abs(meet.point - radial_laid.end))} m/s², so α_{link} = "
-              f"{_fmt(float(frame.alpha[link]))} rad/s²", role=Role.RESULT, points=(d,), links=(link,))
+              f"tangential component: {figure(abs(meet.point - radial_laid.end))} m/s², so α_{link} = "
+              f"{figure(float(frame.alpha[link]))} rad/s²", role=Role.RESULT, points=(d,), links=(link,))
     ab.vector(Component.SLIDING, meet.point, coriolis_laid.end, "", "a_slide ∥ slot",
               f"sliding acceleration of {d} in the slot of {link}: "
-              f"{_fmt(float(frame.sliding_acceleration[slide.name]))} m/s² from {slide.line[0]} towards "
+              f"{figure(float(frame.sliding_acceleration[slide.name]))} m/s² from {slide.line[0]} towards "
               f"{slide.line[1]}", role=Role.RESULT, points=(d,), links=(link,))
     _image_steps(ab, frame, link, placed, "acc")
 
 
-def _numeric_group(vb: _Builder, ab: _Builder, frame: Frame, group: Group, solution: Solution, placed_v, placed_a):
+def _numeric_group(vb: PolygonBuilder, ab: PolygonBuilder, frame: Frame, group: Group, solution: Solution,
+                   placed_v, placed_a):
     """A group that is no dyad: its images are taken from the numeric solver, and say so."""
     for link in group.links:
         frame.omega[link] = solution.angular_velocity[link]
@@ -414,7 +238,7 @@ def _numeric_group(vb: _Builder, ab: _Builder, frame: Frame, group: Group, solut
                     continue
                 placed.add(name)
                 values[name] = complex(*getattr(solution, field_name)[solution.point_names.index(name)])
-                builder.add(Role.IMAGE, None, builder.label(name), Point(_xy(values[name])),
+                builder.add(Role.IMAGE, None, builder.label(name), Point(as_xy(values[name])),
                             "from the numeric solver",
                             f"{builder.label(name)}: taken from the numeric solver ({group.name} is not a dyad; "
                             "no intersection construction)", points=(name,), links=(link,), numeric=True)
@@ -454,7 +278,7 @@ def construct(solution: Solution, box_mm: float = 120.0, velocity_scale: float |
     drive(frame, driver.link, driver.pivot, angle, driver.speed_rad_s, driver.angular_acceleration_rad_s2)
     for i, name in enumerate(solution.point_names):  # keep the solver's space diagram exactly
         frame.pos[name] = np.complex128(complex(*solution.positions[i]))
-    vb, ab = _Builder("velocity", "m/s"), _Builder("acceleration", "m/s^2")
+    vb, ab = PolygonBuilder("velocity", "m/s"), PolygonBuilder("acceleration", "m/s^2")
     placed_v, placed_a = set(mech.ground), set(mech.ground)
     vb.add(Role.IMAGE, None, "o", Point(0.0, 0.0), "v = 0 for every fixed point",
            "o: the pole; every fixed point has its velocity image here", points=tuple(mech.ground))

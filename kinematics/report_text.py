@@ -4,8 +4,8 @@ from __future__ import annotations
 
 import math
 
-from .construct import Construction
 from .solve import Solution
+from .steps import Construction
 
 
 def sense(value: float) -> str:

@@ -9,7 +9,7 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 
-from .construct import Component, Role, Step
+from .steps import Component, Role, Step
 
 
 @dataclass(frozen=True)

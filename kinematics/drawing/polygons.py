@@ -10,7 +10,7 @@ import math
 
 import numpy as np
 
-from ..construct import Role
+from ..steps import Role
 from ..style import IMAGE, pen_for
 from . import symbols
 from .sheet import Arrow, Circle, Line, Polyline, Recorder, View

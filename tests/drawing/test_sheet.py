@@ -11,11 +11,11 @@ import pytest
 
 import kinematics
 from kinematics import style
-from kinematics.construct import Role
 from kinematics.drawing import PAPER, Arrow, Circle, Line, Polyline, Text, draw_model, draw_sheet
 from kinematics.drawing.layout import MARGIN, MARGIN_FILING
 from kinematics.drawing.scaling import iso5455_ratio, polygon_scale, ratio_text
 from kinematics.drawing.space import outline
+from kinematics.steps import Role
 
 from .designs import BOTTLE_PUSHER, DESIGNS, GATE_LIFTER, SWING_LEVER, TRIAD_PRESS, construction
 

@@ -1,0 +1,196 @@
+"""The data of a construction: ordered, labelled steps with their geometry.
+
+A :class:`Construction` holds both polygons of one pose; each :class:`Polygon`
+holds its images, its intermediate marks and its :class:`Step` records, each
+with a role and a component in the trade's words. The window, the printer and
+the DXF writer draw from these; :mod:`kinematics.construct` builds them.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass, field
+from enum import Enum
+
+import numpy as np
+from shapely.geometry import LineString, Point
+
+from .decompose import Decomposition, Group
+from .errors import ParallelLines
+from .scales import preferred_scale
+from .solve import Solution
+
+# An intersection whose condition figure exceeds this is flagged on its step.
+FLAG_CONDITION = 1e3
+SUBSCRIPTS = str.maketrans("0123456789", "₀₁₂₃₄₅₆₇₈₉")
+PRIME = "′"
+
+
+class Role(Enum):
+    KNOWN = "known"
+    DIRECTION = "direction"
+    INTERSECTION = "intersection"
+    IMAGE = "image"
+    RESULT = "result"
+
+
+class Component(Enum):
+    DRIVER = "driver"
+    RADIAL = "radial"
+    TANGENTIAL = "tangential"
+    SLIDING = "sliding"
+    CORIOLIS = "coriolis"
+
+
+@dataclass(frozen=True)
+class Step:
+    """One drawn step of a polygon.
+
+    ``geometry`` is a shapely Point (a located point) or LineString (a line
+    or a vector; a vector runs from its start to its end, which takes the
+    arrowhead). ``points`` and ``links`` name what the step concerns.
+    """
+
+    id: str
+    polygon: str
+    role: Role
+    component: Component | None
+    label: str
+    geometry: object
+    equation: str
+    text: str
+    points: tuple = ()
+    links: tuple = ()
+    condition: float | None = None
+    angle_between_deg: float | None = None
+    flagged: bool = False
+    numeric: bool = False
+
+    @property
+    def is_vector(self) -> bool:
+        return self.role in (Role.KNOWN, Role.RESULT) and isinstance(self.geometry, LineString)
+
+
+@dataclass(frozen=True)
+class Polygon:
+    """One polygon: ``images`` (point name -> (x, y), SI, from the pole),
+    ``marks`` (intermediate construction points, label -> (x, y)), ordered
+    ``steps``, and the drawing scale in units per mm of drawing."""
+
+    kind: str
+    unit: str
+    pole_label: str
+    scale_per_mm: float
+    images: dict
+    marks: dict
+    steps: tuple
+
+    @property
+    def extent(self) -> float:
+        values = [math.hypot(*xy) for xy in list(self.images.values()) + list(self.marks.values())]
+        return max(values, default=0.0)
+
+    def image_label(self, point: str) -> str:
+        return point.lower() + (PRIME if self.kind == "acceleration" else "")
+
+
+@dataclass(frozen=True)
+class Construction:
+    """Both polygons of one pose, and their cross-check against the solver."""
+
+    solution: Solution
+    decomposition: Decomposition
+    velocity: Polygon
+    acceleration: Polygon
+    max_relative_difference: float
+    where: str
+    warnings: tuple = ()
+
+
+def figure(value: float) -> str:
+    """A value to four significant figures, for the sentences of the steps."""
+    return f"{value:.4g}"
+
+
+def as_xy(z) -> tuple:
+    z = complex(z)
+    return (z.real, z.imag)
+
+
+def direction_deg(z) -> float:
+    return math.degrees(math.atan2(complex(z).imag, complex(z).real)) % 360.0
+
+
+@dataclass
+class PolygonBuilder:
+    """Collects the steps of one polygon as the construction proceeds."""
+
+    kind: str
+    unit: str
+    steps: list = field(default_factory=list)
+    marks: dict = field(default_factory=dict)
+    lines: list = field(default_factory=list)  # (index in steps, through, direction, meet)
+
+    @property
+    def prime(self):
+        return PRIME if self.kind == "acceleration" else ""
+
+    def label(self, point: str) -> str:
+        return point.lower() + self.prime
+
+    def add(self, role, component, label, geometry, equation, text, **extra):
+        step = Step(id=f"{self.kind[0]}{len(self.steps) + 1}", polygon=self.kind, role=role, component=component,
+                    label=label, geometry=geometry, equation=equation, text=text, **extra)
+        self.steps.append(step)
+        return step
+
+    def vector(self, component, start, end, label, equation, text, role=Role.KNOWN, **extra):
+        return self.add(role, component, label, LineString([as_xy(start), as_xy(end)]), equation, text, **extra)
+
+    def mark(self, z, text, equation, **extra) -> str:
+        label = f"n{len(self.marks) + 1}".translate(SUBSCRIPTS) + self.prime
+        self.marks[label] = as_xy(z)
+        self.add(Role.IMAGE, None, label, Point(as_xy(z)), equation, f"{label}: {text}", **extra)
+        return label
+
+    def direction(self, component, through, direction, equation, text, **extra):
+        self.lines.append((len(self.steps), complex(through), complex(direction)))
+        # The segment is fitted to the finished polygon in finish().
+        return self.add(Role.DIRECTION, component, "", LineString([as_xy(through), as_xy(through)]), equation, text,
+                        **extra)
+
+    def intersection(self, meet, label, what, group: Group, **extra):
+        point = complex(meet.point)
+        sine = float(meet.sine)
+        angle = math.degrees(math.asin(min(1.0, abs(sine))))
+        if not np.isfinite(point) or sine == 0.0:
+            raise ParallelLines(f"the lines that fix {what} are parallel (a dead point of the driver): "
+                                "the intersection does not exist", f"{self.kind} polygon, {group.name}")
+        condition = float(meet.condition)
+        flagged = condition > FLAG_CONDITION
+        text = f"{label}: {what}, where the two lines meet at {angle:.3g}°"
+        if flagged:
+            text += f" — nearly parallel, condition figure {condition:.3g}"
+        self.lines[-2:] = [line + (point,) for line in self.lines[-2:]]
+        return self.add(Role.INTERSECTION, None, label, Point(as_xy(point)), extra.pop("equation", ""), text,
+                        condition=condition, angle_between_deg=angle, flagged=flagged,
+                        links=tuple(group.links), **extra)
+
+    def finish(self, images: dict, box_mm: float, scale: float | None) -> Polygon:
+        images = {k: as_xy(v) for k, v in images.items()}
+        everything = list(images.values()) + list(self.marks.values()) + [(0.0, 0.0)]
+        extent = max(math.hypot(*xy) for xy in everything)
+        margin = 0.12 * max(extent, 1e-12)
+        for index, through, direction, *meet in self.lines:
+            ends = [through] + [complex(m) for m in meet]
+            u = direction / abs(direction)
+            along = [((e - through) * u.conjugate()).real for e in ends]
+            lo, hi = min(along) - margin, max(along) + margin
+            old = self.steps[index]
+            self.steps[index] = Step(**{**old.__dict__, "geometry": LineString([as_xy(through + lo * u),
+                                                                                as_xy(through + hi * u)])})
+        width = 2.0 * max(max(abs(x) for x, _ in everything), max(abs(y) for _, y in everything))
+        chosen = scale if scale else preferred_scale(max(width, extent), box_mm)
+        return Polygon(kind=self.kind, unit=self.unit, pole_label="o" + self.prime, scale_per_mm=chosen,
+                       images=images, marks=dict(self.marks),
+                       steps=tuple(self.steps))
