@@ -10,8 +10,6 @@ x axis changes; a new sweep only moves data into the existing curves
 
 from __future__ import annotations
 
-import math
-
 import numpy as np
 import pyqtgraph as pg
 from PySide6.QtCore import Qt, QThread, Signal
@@ -30,17 +28,7 @@ from PySide6.QtWidgets import (
 import kinematics
 from kinematics import KinematicsError
 
-from .cycle_series import (
-    FAMILIES,
-    Units,
-    available,
-    cycle_axis,
-    default_choice,
-    grid_segments,
-    peak,
-    si_values,
-    steady_range,
-)
+from . import cycle_series as series
 
 # Okabe & Ito, "Color Universal Design" (2008): told apart with the common colour-vision deficiencies.
 PALETTE = ("#0072B2", "#D55E00", "#009E73", "#CC79A7", "#E69F00", "#56B4E9", "#000000")
@@ -51,19 +39,6 @@ AXIS_WIDTH_PX = 64  # the same for every row, so their x axes line up
 FINE_STEPS = (3_600, 36_000, 360_000)
 NO_CYCLE = "No cycle to plot: the design is unfinished or its driver cannot be swept."
 _RUNNING: set = set()  # jobs kept alive until their thread ends, even past a closed panel
-
-
-def readable(value: float) -> str:
-    """Four significant figures without an exponent over the range a machine shows (1e-3 to 1e7)."""
-    magnitude = abs(value)
-    if magnitude == 0.0 or not 1e-3 <= magnitude < 1e7:
-        return f"{value:.4g}"
-    return f"{value:.{max(0, 3 - math.floor(math.log10(magnitude)))}f}"
-
-
-def _major_ticks(axis, low: float, high: float, pixels: float) -> list:
-    levels = axis.tickValues(low, high, max(pixels, 1.0))
-    return list(levels[0][1]) if levels else []
 
 
 class FineSweepJob(QThread):
@@ -107,14 +82,14 @@ class CyclePanel(QWidget):
 
     def __init__(self, parent=None):
         super().__init__(parent)
-        self.units = Units()
+        self.units = series.Units()
         self.coarse = None  # the sweep the window gave
         self.sweep = None  # the sweep plotted: the coarse one or a fine one of the same design
         self.axis = None
         self.angle_deg = None
         self.job = None
         self.offered: list = []
-        self._chosen: list = []
+        self.chosen: list = []
         self.layout_key = None
         self.plots: dict[str, pg.PlotItem] = {}
         self.curves: dict = {}
@@ -136,7 +111,7 @@ class CyclePanel(QWidget):
         self.peaks.setTextInteractionFlags(Qt.TextSelectableByMouse)
         self.peaks.setWordWrap(True)
         self.fine_steps = QComboBox()
-        self.fine_steps.addItems([f"{n:,} steps".replace(",", " ") for n in FINE_STEPS])
+        self.fine_steps.addItems([series.steps_text(n) for n in FINE_STEPS])
         self.fine_steps.setCurrentIndex(1)
         self.compute = QPushButton("Fine sweep")
         self.compute.setToolTip("Sweep the cycle again with many more steps, off the window's thread")
@@ -145,7 +120,7 @@ class CyclePanel(QWidget):
         self.cancel = QPushButton("Cancel")
         self.shown_steps = QLabel()
         self._lay_out()
-        self.choices.itemChanged.connect(self._ticked)
+        self.choices.itemChanged.connect(lambda _item: (self._read_choices(), self._rebuild()))
         self.x_choice.currentIndexChanged.connect(self._rebuild)
         self.graphics.scene().sigMouseClicked.connect(self._clicked)
         self.compute.clicked.connect(self.start_fine_sweep)
@@ -194,18 +169,13 @@ class CyclePanel(QWidget):
 
     def set_units(self, length_unit: str, speed_unit: str):
         """Show lengths per s in ``length_unit`` (mm, m, in) and ω in ``speed_unit`` (rad/s, rpm)."""
-        self.units = Units(length_unit, speed_unit)
+        self.units = series.Units(length_unit, speed_unit)
         self._rebuild()
 
-    @property
-    def chosen(self) -> list:
-        """The ticked quantities, in list order."""
-        return self._chosen
-
     def _read_choices(self):
-        # Read from the list once per change, not per frame (item data crosses into Python each time).
+        # ``chosen``: the ticked quantities in list order, read once per change, not per frame.
         items = (self.choices.item(i) for i in range(self.choices.count()))
-        self._chosen = [item.data(Qt.UserRole) for item in items if item.checkState() == Qt.Checked]
+        self.chosen = [item.data(Qt.UserRole) for item in items if item.checkState() == Qt.Checked]
 
     def choose(self, quantities):
         """Tick exactly ``quantities`` (those the design offers)."""
@@ -221,10 +191,10 @@ class CyclePanel(QWidget):
     # showing ----------------------------------------------------------------
     def _show(self, sweep, reason: str = ""):
         self.sweep = sweep
-        offered = available(sweep.mechanism) if sweep is not None else []
+        offered = series.available(sweep.mechanism) if sweep is not None else []
         if offered != self.offered:
             self._offer(offered, [q for q in self.chosen if q in offered] or
-                        (default_choice(sweep.mechanism) if sweep is not None else []))
+                        (series.default_choice(sweep.mechanism) if sweep is not None else []))
         timed = sweep is not None and sweep.time_s is not None
         self.x_choice.model().item(1).setEnabled(timed)
         if not timed and self.x_choice.currentIndex() == 1:
@@ -235,9 +205,9 @@ class CyclePanel(QWidget):
         self.reason = reason
         self.note.setText("" if sweep is None else "; ".join(sweep.warnings))
         self.note.setVisible(bool(self.note.text()))
-        self.shown_steps.setText("" if sweep is None else
-                                 f"showing {len(sweep.driver_angle_deg):,} steps".replace(",", " "))
-        self.axis = None if sweep is None else cycle_axis(sweep, "time" if self.x_choice.currentIndex() else "angle")
+        self.shown_steps.setText("" if sweep is None else f"showing {series.steps_text(len(sweep.driver_angle_deg))}")
+        kind = "time" if self.x_choice.currentIndex() else "angle"
+        self.axis = None if sweep is None else series.cycle_axis(sweep, kind)
         key = (tuple(self.chosen), self.units, self.axis.kind if self.axis else reason)
         if key != self.layout_key:
             self._build_rows()
@@ -256,10 +226,6 @@ class CyclePanel(QWidget):
         self.offered = offered
         self._read_choices()
 
-    def _ticked(self, _item):
-        self._read_choices()
-        self._rebuild()
-
     def _rebuild(self, *_):
         self._show(self.sweep, self.reason)
 
@@ -268,10 +234,10 @@ class CyclePanel(QWidget):
         self.graphics.clear()
         self.plots, self.curves, self.cursors, self.span = {}, {}, [], None
         chosen = self.chosen if self.axis is not None else []
-        families = [f for f in FAMILIES if any(q.family == f for q in chosen)]
+        families = [f for f in series.FAMILIES if any(q.family == f for q in chosen)]
         for row, family in enumerate(families):
             plot = self.graphics.addPlot(row=row, col=0)
-            plot.setLabel("left", f"{FAMILIES[family]} ({self.units.unit(family)})")
+            plot.setLabel("left", f"{series.FAMILIES[family]} ({self.units.unit(family)})")
             plot.setMenuEnabled(False)
             plot.hideButtons()
             # The y range follows the data (see _fit_rows); the user zooms and pans the angle only.
@@ -312,12 +278,10 @@ class CyclePanel(QWidget):
             return
         lines = []
         for index, (quantity, curve) in enumerate(self.curves.items()):
-            values = self.units.shown(quantity.family, si_values(sweep, quantity))
+            values = self.units.shown(quantity.family, series.si_values(sweep, quantity))
             curve.setData(axis.x, values[axis.order])
-            at = peak(values)
-            where = f"{axis.along[at]:.1f}" if axis.kind == "angle" else f"{axis.along[at]:.4g} "
-            lines.append(f"<span style='color:{PALETTE[index % len(PALETTE)]}'>■</span> <b>{quantity.label}</b> "
-                         f"peak {readable(values[at])} {self.units.unit(quantity.family)} at {where}{axis.unit}")
+            lines.append(f"<span style='color:{PALETTE[index % len(PALETTE)]}'>■</span> "
+                         + series.peak_text(quantity, values, axis, self.units.unit(quantity.family)))
         self.peaks.setText("&nbsp;&nbsp;&nbsp; ".join(lines))
         if self.plots and axis.span != self.span:
             # Only when the range itself changes, so a zoom the user made survives a drag.
@@ -334,7 +298,7 @@ class CyclePanel(QWidget):
             shown = [curve.yData for quantity, curve in self.curves.items() if quantity.family == family]
             low, high = min(float(y.min()) for y in shown), max(float(y.max()) for y in shown)
             current = tuple(plot.getViewBox().viewRange()[1])
-            wanted = steady_range(current, low, high)
+            wanted = series.steady_range(current, low, high)
             if wanted != current:
                 plot.setYRange(*wanted, padding=0.0)
 
@@ -348,9 +312,9 @@ class CyclePanel(QWidget):
 
         def place(*_):
             (x0, x1), (y0, y1) = box.viewRange()
-            xs = _major_ticks(plot.getAxis("bottom"), x0, x1, box.width())
-            ys = _major_ticks(plot.getAxis("left"), y0, y1, box.height())
-            grid.setData(*grid_segments(xs, ys, (x0, x1), (y0, y1)))
+            xs = series.major_ticks(plot.getAxis("bottom"), x0, x1, box.width())
+            ys = series.major_ticks(plot.getAxis("left"), y0, y1, box.height())
+            grid.setData(*series.grid_segments(xs, ys, (x0, x1), (y0, y1)))
 
         box.sigRangeChanged.connect(place)
         box.sigResized.connect(place)

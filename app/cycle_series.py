@@ -214,6 +214,36 @@ def grid_segments(xs, ys, x_range: tuple, y_range: tuple) -> tuple:
     return np.asarray(x, float), np.asarray(y, float)
 
 
+def readable(value: float) -> str:
+    """Four significant figures without an exponent over the range a machine shows (1e-3 to 1e7)."""
+    magnitude = abs(value)
+    if magnitude == 0.0 or not 1e-3 <= magnitude < 1e7:
+        return f"{value:.4g}"
+    return f"{value:.{max(0, 3 - math.floor(math.log10(magnitude)))}f}"
+
+
+def steps_text(steps: int) -> str:
+    """A step count with its thousands set apart by a space (digit grouping of ISO 80000-1).
+
+    >>> steps_text(36000)
+    '36 000 steps'
+    """
+    return f"{steps:,} steps".replace(",", " ")
+
+
+def peak_text(quantity: Quantity, values: np.ndarray, axis: CycleAxis, unit: str) -> str:
+    """The readout of one plotted series: its largest magnitude (with sign) and where on the axis."""
+    at = peak(values)
+    where = f"{axis.along[at]:.1f}°" if axis.kind == "angle" else f"{axis.along[at]:.4g} s"
+    return f"<b>{quantity.label}</b> peak {readable(values[at])} {unit} at {where}"
+
+
+def major_ticks(axis, low: float, high: float, pixels: float) -> list:
+    """Values of the major ticks a pyqtgraph axis item draws over [low, high] in ``pixels``."""
+    levels = axis.tickValues(low, high, max(pixels, 1.0))
+    return list(levels[0][1]) if levels else []
+
+
 def _on_one_link(mechanism, point: str) -> bool:
     bodies = mechanism.bodies_of(point)
     return len(bodies) == 1 and bodies[0] != GROUND

@@ -14,8 +14,8 @@ from PySide6.QtWidgets import QApplication
 
 import app.cycle_series
 import kinematics
-from app.cycle_panel import NO_CYCLE, PALETTE, CyclePanel, readable
-from app.cycle_series import Quantity, coupler_paths_mm
+from app.cycle_panel import NO_CYCLE, PALETTE, CyclePanel
+from app.cycle_series import Quantity, coupler_paths_mm, readable
 from kinematics.peaks import peaks
 
 from .designs import FOUR_BAR, SLIDER_CRANK, SLOTTED_LEVER, TRIPLE_ROCKER, load
