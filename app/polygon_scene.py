@@ -101,6 +101,8 @@ class PolygonScene(QGraphicsScene):
 
     def __init__(self, kind: str, parent=None):
         super().__init__(parent)
+        # Every item moves with each pose: a spatial index would be rebuilt each frame for nothing.
+        self.setItemIndexMethod(QGraphicsScene.NoIndex)
         self.kind = kind
         self.polygon = None
         self.structure = None

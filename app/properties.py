@@ -78,11 +78,13 @@ class PropertiesPanel(QWidget):
     def _fill(self):
         mech = self.document.mechanism
         self.title.setText(mech.title)
-        chosen = self.point.currentText()
-        self.point.clear()
-        self.point.addItems(list(mech.points))
-        if chosen in mech.points:
-            self.point.setCurrentText(chosen)
+        names = list(mech.points)
+        if [self.point.itemText(i) for i in range(self.point.count())] != names:  # not on every drag frame
+            chosen = self.point.currentText()
+            self.point.clear()
+            self.point.addItems(names)
+            if chosen in mech.points:
+                self.point.setCurrentText(chosen)
         suffix = f" {mech.length_unit}"
         self.x.setSuffix(suffix)
         self.y.setSuffix(suffix)

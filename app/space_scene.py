@@ -160,6 +160,8 @@ class SpaceScene(QGraphicsScene):
 
     def __init__(self, parent=None):
         super().__init__(parent)
+        # Every item moves with each pose: a spatial index would be rebuilt each frame for nothing.
+        self.setItemIndexMethod(QGraphicsScene.NoIndex)
         self.topology = None
         self.links: dict[str, _Link] = {}
         self.joints: dict[str, _Joint] = {}

@@ -28,19 +28,24 @@ import app.document  # noqa: E402
 import kinematics  # noqa: E402
 from app.window import MainWindow  # noqa: E402
 
-COMPUTE_MS = []  # time inside the core (diagnose + solve + construct), per call
-_analyse = app.document.analyse
+PHASES = {"core": [], "sweep": [], "window update": [], "repaint": []}  # ms per call
 
 
-def _timed_analyse(*args):
-    began = time.perf_counter()
-    try:
-        return _analyse(*args)
-    finally:
-        COMPUTE_MS.append(1e3 * (time.perf_counter() - began))
+def _timed(phase, function):
+    def timed(*args, **kwargs):
+        began = time.perf_counter()
+        try:
+            return function(*args, **kwargs)
+        finally:
+            PHASES[phase].append(1e3 * (time.perf_counter() - began))
+    return timed
 
 
-app.document.analyse = _timed_analyse
+# The core (diagnose + solve + construct, and the cycle sweep) and the window's refresh
+# (scene items, table, steps, fields), timed apart from the whole frame.
+app.document.analyse = _timed("core", app.document.analyse)
+app.document.cycle = _timed("sweep", app.document.cycle)
+MainWindow.refresh = _timed("window update", MainWindow.refresh)
 
 ROOT = Path(__file__).resolve().parent.parent
 DEFAULT_FILE = ROOT / "samples" / "baler-tamper-watt.json"
@@ -52,9 +57,11 @@ def percentile(values, fraction):
 
 
 def repaint(window):
+    began = time.perf_counter()
     for view in (window.drawings.space_view, window.drawings.velocity_view, window.drawings.acceleration_view):
         view.viewport().repaint()
     window.table.viewport().repaint()
+    PHASES["repaint"].append(1e3 * (time.perf_counter() - began))
 
 
 def timed_drag(window, name, frames, radius_mm):
@@ -63,7 +70,8 @@ def timed_drag(window, name, frames, radius_mm):
     start = window.drawings.space_scene.joints[name].dot.pos()
     QTest.mousePress(view.viewport(), Qt.LeftButton, Qt.NoModifier, view.mapFromScene(start))
     times = []
-    COMPUTE_MS.clear()
+    for values in PHASES.values():
+        values.clear()
     for i in range(frames):
         angle = 6.283185307179586 * i / frames
         offset = QPointF(radius_mm * (1 - math.cos(angle)), radius_mm * math.sin(angle))
@@ -77,8 +85,10 @@ def timed_drag(window, name, frames, radius_mm):
 
 def report(label, times):
     print(f"{label}: median {statistics.median(times):.1f} ms, p95 {percentile(times, 0.95):.1f} ms "
-          f"over {len(times)} frames (of which the core: median {statistics.median(COMPUTE_MS):.1f} ms, "
-          f"p95 {percentile(COMPUTE_MS, 0.95):.1f} ms)")
+          f"per frame over {len(times)} frames")
+    for phase, values in PHASES.items():
+        if values:
+            print(f"    {phase}: median {statistics.median(values):.1f} ms, p95 {percentile(values, 0.95):.1f} ms")
 
 
 def main(argv=None) -> int:
