@@ -29,6 +29,7 @@ from .building import empty
 from .document import Document
 from .drawing_kit import preferred_length
 from .editing import JointDrag
+from .exports import SheetOutputs
 from .files import recent_files, remember, save_atomically
 from .icons import icon
 from .panels import EMPTY_VIEW_MM, DrawingsPanel
@@ -42,7 +43,7 @@ TOOL_NAMES = {"select": "Select", "pivot": "Pivot", "joint": "Joint", "link": "L
               "driver": "Driver", "delete": "Delete"}
 
 
-class MainWindow(QMainWindow):
+class MainWindow(SheetOutputs, QMainWindow):
     """One window drafting one Document."""
 
     def __init__(self, mechanism: Mechanism | None = None, path=None):
@@ -144,6 +145,10 @@ class MainWindow(QMainWindow):
         self.recent_menu = files.addMenu("Open &recent")
         self._action(files, "&Save", self.save, QKeySequence.Save)
         self._action(files, "Save &as…", self.save_as, QKeySequence.SaveAs)
+        files.addSeparator()
+        self._action(files, "&Print…", self.print_dialog, QKeySequence.Print)
+        self._action(files, "Export sheet as P&DF…", lambda: self._export("PDF sheet (*.pdf)", self.export_pdf))
+        self._action(files, "Export drawing as D&XF…", lambda: self._export("DXF drawing (*.dxf)", self.export_dxf))
         files.addSeparator()
         self._action(files, "&Quit", self.close, QKeySequence.Quit)
         edit = self.menuBar().addMenu("&Edit")
