@@ -12,7 +12,7 @@ from __future__ import annotations
 
 import numpy as np
 import pyqtgraph as pg
-from PySide6.QtCore import Qt, QThread, Signal
+from PySide6.QtCore import QCoreApplication, Qt, QThread, Signal
 from PySide6.QtWidgets import (
     QComboBox,
     QHBoxLayout,
@@ -220,6 +220,7 @@ class CyclePanel(QWidget):
         for quantity in offered:
             item = QListWidgetItem(quantity.label)
             item.setData(Qt.UserRole, quantity)
+            item.setToolTip(quantity.description)
             item.setCheckState(Qt.Checked if quantity in ticked else Qt.Unchecked)
             self.choices.addItem(item)
         self.choices.blockSignals(False)
@@ -237,7 +238,8 @@ class CyclePanel(QWidget):
         families = [f for f in series.FAMILIES if any(q.family == f for q in chosen)]
         for row, family in enumerate(families):
             plot = self.graphics.addPlot(row=row, col=0)
-            plot.setLabel("left", f"{series.FAMILIES[family]} ({self.units.unit(family)})")
+            symbols = ", ".join(dict.fromkeys(q.symbol for q in chosen if q.family == family))
+            plot.setLabel("left", f"{symbols} ({self.units.unit(family)})", **{"font-size": "9pt"})
             plot.setMenuEnabled(False)
             plot.hideButtons()
             # The y range follows the data (see _fit_rows); the user zooms and pans the angle only.
@@ -249,6 +251,7 @@ class CyclePanel(QWidget):
             plot.addItem(cursor, ignoreBounds=True)
             self.cursors.append(cursor)
             for side in ("left", "bottom"):
+                plot.getAxis(side).enableAutoSIPrefix(False)  # the unit is in the label: no "(x0.001)"
                 plot.getAxis(side).setTextPen("k")
                 plot.getAxis(side).setPen("#555555")
             plot.getAxis("left").setWidth(AXIS_WIDTH_PX)
@@ -276,27 +279,31 @@ class CyclePanel(QWidget):
         if axis is None:
             self.peaks.setText("")
             return
-        lines = []
+        lines, extents = [], {family: [] for family in self.plots}
+        clear = series.clear_of_dead_points(sweep)
         for index, (quantity, curve) in enumerate(self.curves.items()):
             values = self.units.shown(quantity.family, series.si_values(sweep, quantity))
             curve.setData(axis.x, values[axis.order])
+            extents[quantity.family].append((float(values[clear].min()), float(values[clear].max())))
             lines.append(f"<span style='color:{PALETTE[index % len(PALETTE)]}'>■</span> "
-                         + series.peak_text(quantity, values, axis, self.units.unit(quantity.family)))
+                         + series.peak_text(quantity, values, axis, self.units.unit(quantity.family), clear))
+        if not sweep.full_turn and lines:
+            lines.append(f"(the outer {series.DEAD_POINT_END_FRACTION:.0%} of the range at each dead point "
+                         "is left out of the scale and the peaks)")
         self.peaks.setText("&nbsp;&nbsp;&nbsp; ".join(lines))
         if self.plots and axis.span != self.span:
             # Only when the range itself changes, so a zoom the user made survives a drag.
             self._show_whole_cycle()
-        self._fit_rows()
+        self._fit_rows(extents)
         self._place_cursor()
 
     def _show_whole_cycle(self):
         next(iter(self.plots.values())).setXRange(*self.axis.span, padding=0.0)
         self.span = self.axis.span
 
-    def _fit_rows(self):
+    def _fit_rows(self, extents):
         for family, plot in self.plots.items():
-            shown = [curve.yData for quantity, curve in self.curves.items() if quantity.family == family]
-            low, high = min(float(y.min()) for y in shown), max(float(y.max()) for y in shown)
+            low, high = min(e[0] for e in extents[family]), max(e[1] for e in extents[family])
             current = tuple(plot.getViewBox().viewRange()[1])
             wanted = series.steady_range(current, low, high)
             if wanted != current:
@@ -352,6 +359,7 @@ class CyclePanel(QWidget):
         job.finished.connect(self._job_ended)
         self.job = job
         _RUNNING.add(job)
+        QCoreApplication.instance().aboutToQuit.connect(job.wait)  # a thread must end before Qt does
         self.progress.setRange(0, 0)  # busy until the one call returns
         self._set_running(True)
         job.start()
@@ -376,11 +384,10 @@ class CyclePanel(QWidget):
             self.progress.setValue(percent)
 
     def _fine_done(self, result):
-        if self.sender() is not self.job:
-            return
-        self.job = None
-        self._set_running(False)
-        self._show(result)
+        if self.sender() is self.job:
+            self.job = None
+            self._set_running(False)
+            self._show(result)
 
     def _fine_failed(self, message: str):
         if self.sender() is self.job:

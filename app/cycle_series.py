@@ -25,7 +25,9 @@ FAMILIES = {
     "angular acceleration": "α",
 }
 _FORMS = {"magnitude": "|{}|", "x": "{}ₓ", "y": "{}ᵧ", "rate": "{}", "sliding": "{}"}
-_SLIDING_SYMBOLS = {"velocity": "ṡ", "acceleration": "s̈"}
+# A subscript s, not a dot over s: the double dot (combining U+0308) is lost in common fonts.
+_SLIDING_SYMBOLS = {"velocity": "vₛ", "acceleration": "aₛ"}
+DEAD_POINT_END_FRACTION = 0.03
 
 
 @dataclass(frozen=True)
@@ -42,9 +44,26 @@ class Quantity:
     subject: str
 
     @property
+    def symbol(self) -> str:
+        return _SLIDING_SYMBOLS[self.family] if self.form == "sliding" else FAMILIES[self.family]
+
+    @property
     def label(self) -> str:
-        symbol = _SLIDING_SYMBOLS[self.family] if self.form == "sliding" else FAMILIES[self.family]
-        return f"{_FORMS[self.form].format(symbol)} {self.subject}"
+        return f"{_FORMS[self.form].format(self.symbol)} {self.subject}"
+
+    @property
+    def description(self) -> str:
+        """The label in words, for a tooltip.
+
+        >>> Quantity("acceleration", "sliding", "slot").description
+        'sliding acceleration of slide slot, along its guide'
+        """
+        if self.form == "sliding":
+            return f"sliding {self.family} of slide {self.subject}, along its guide"
+        if self.form == "rate":
+            return f"{self.family} {self.symbol} of link {self.subject} (counter-clockwise positive)"
+        what = "magnitude" if self.form == "magnitude" else f"{self.form} component"
+        return f"{what} of the {self.family} of point {self.subject}"
 
 
 def available(mechanism) -> list[Quantity]:
@@ -183,9 +202,23 @@ def cycle_axis(sweep, kind: str = "angle") -> CycleAxis:
     return CycleAxis("angle", wrapped, wrapped[order], order, span, **common)
 
 
-def peak(values: np.ndarray) -> int:
-    """Index of the largest magnitude of ``values`` (signed series peak either way)."""
-    return int(np.argmax(np.abs(values)))
+def clear_of_dead_points(sweep) -> np.ndarray:
+    """(N,) True for the samples away from the driver's dead points (every sample of a full turn).
+
+    Swept at constant driver speed, rates grow without bound towards a dead point, where a
+    real driver stops and turns back; the outer ``DEAD_POINT_END_FRACTION`` of a rocking
+    range at each end would only set the scale and the peaks.
+    """
+    clear = np.ones(len(sweep.driver_angle_deg), bool)
+    if not sweep.full_turn:
+        end = max(1, round(DEAD_POINT_END_FRACTION * len(clear)))
+        clear[:end] = clear[-end:] = False
+    return clear
+
+
+def peak(values: np.ndarray, clear: np.ndarray) -> int:
+    """Index of the largest magnitude of ``values`` among the ``clear`` samples (signed either way)."""
+    return int(np.flatnonzero(clear)[np.argmax(np.abs(values[clear]))])
 
 
 def steady_range(current: tuple, low: float, high: float, margin: float = 0.06, slack: float = 0.6) -> tuple:
@@ -231,9 +264,9 @@ def steps_text(steps: int) -> str:
     return f"{steps:,} steps".replace(",", " ")
 
 
-def peak_text(quantity: Quantity, values: np.ndarray, axis: CycleAxis, unit: str) -> str:
+def peak_text(quantity: Quantity, values: np.ndarray, axis: CycleAxis, unit: str, clear: np.ndarray) -> str:
     """The readout of one plotted series: its largest magnitude (with sign) and where on the axis."""
-    at = peak(values)
+    at = peak(values, clear)
     where = f"{axis.along[at]:.1f}°" if axis.kind == "angle" else f"{axis.along[at]:.4g} s"
     return f"<b>{quantity.label}</b> peak {readable(values[at])} {unit} at {where}"
 

@@ -122,7 +122,7 @@ def test_components_and_sliding_rates_are_offered_and_plotted(panel):
     order = wrapped_order(result)
     assert np.array_equal(curve_data(panel, vy)[1], result.velocities[:, result.point_names.index("A"), 1][order])
     assert np.array_equal(curve_data(panel, slip)[1], result.sliding_acceleration["slot"][order])
-    assert slip.label == "s̈ slot" and vy.label == "vᵧ A"
+    assert slip.label == "aₛ slot" and vy.label == "vᵧ A"
 
 
 def test_none_clears_the_plot_with_a_plain_message(panel):
@@ -168,6 +168,33 @@ def test_a_rocking_driver_keeps_its_range_in_one_piece(panel):
     assert 0.0 <= 0.5 * (span[0] + span[1]) < 360.0
     assert np.all(np.diff(curve_data(panel, panel.chosen[0])[0]) > 0)
     assert panel.note.isVisible() and "cannot turn fully" in panel.note.text()
+
+
+def test_dead_point_ends_set_neither_the_scale_nor_the_peaks(panel):
+    result = kinematics.sweep(load(TRIPLE_ROCKER), 360)
+    omega = Quantity("angular velocity", "rate", "output")
+    panel.set_sweep(result)
+    panel.choose([omega])
+    values = result.angular_velocity["output"]
+    end = round(0.03 * len(values))
+    inner = values[end:-end]
+    low, high = panel.plots["angular velocity"].getViewBox().viewRange()[1]
+    assert low <= inner.min() and inner.max() <= high
+    assert high - low < np.ptp(values)  # the unbounded ends run off the plot
+    at = end + int(np.argmax(np.abs(inner)))
+    assert f"peak {readable(values[at])} rad/s at {panel.axis.along[at]:.1f}°" in panel.peaks.text()
+    assert "left out of the scale and the peaks" in panel.peaks.text()
+
+
+def test_a_clockwise_driver_counts_time_the_way_it_turns(panel):
+    design = {**SLIDER_CRANK, "driver": {**SLIDER_CRANK["driver"], "speed": {"value": -300, "unit": "rpm"}}}
+    result = kinematics.sweep(load(design), 360)
+    assert result.driver_angle_deg[1] < result.driver_angle_deg[0]
+    panel.set_sweep(result)
+    panel.x_choice.setCurrentIndex(1)
+    panel.set_angle(result.driver_angle_deg[0] - 90.0)  # a quarter turn clockwise: (π/2)/ω
+    assert panel.cursors[0].value() == pytest.approx(0.5 * math.pi / (300 * 2 * math.pi / 60), rel=1e-12)
+    assert np.array_equal(curve_data(panel, panel.chosen[0])[0], result.time_s)
 
 
 def test_the_peaks_readout_agrees_with_the_cores_peaks_table(panel):
