@@ -241,13 +241,23 @@ def test_the_fine_sweep_reaches_100_percent_and_equals_the_cores_sweep(panel, qt
 def test_cancel_stops_waiting_and_keeps_the_plot(panel, qtbot):
     coarse = kinematics.sweep(load(FOUR_BAR), 360)
     panel.set_sweep(coarse)
-    job = panel.start_fine_sweep(360_000)
+    job = panel.start_fine_sweep(100_000)
     QTest.mouseClick(panel.cancel, Qt.LeftButton)
     assert panel.job is None and not panel.progress.isVisible() and panel.compute.isEnabled()
     job.wait(30_000)
     QApplication.processEvents()
     assert panel.sweep is coarse and panel.progress.value() != 100
     assert len(curve_data(panel, SPEED_P)[0]) == 360
+
+
+def test_a_fine_sweep_the_core_refuses_says_why(panel, qtbot):
+    panel.set_sweep(kinematics.sweep(load(FOUR_BAR), 360))
+    job = panel.start_fine_sweep(1)
+    with qtbot.waitSignal(job.finished, timeout=10_000):
+        pass
+    qtbot.waitUntil(lambda: panel.job is None, timeout=5000)
+    assert panel.note.isVisible() and "fine sweep of 1 steps" in panel.note.text() and "at least 2" in panel.note.text()
+    assert len(panel.sweep.driver_angle_deg) == 360 and panel.compute.isEnabled()
 
 
 def test_an_edited_design_drops_the_fine_sweep_still_running(panel, qtbot):
