@@ -91,10 +91,8 @@ class CyclePanel(QWidget):
         self.offered: list = []
         self.chosen: list = []
         self.layout_key = None
-        self.plots: dict[str, pg.PlotItem] = {}
-        self.curves: dict = {}
-        self.cursors: list = []
-        self.span = None
+        # One plot row per family, one curve per chosen quantity, one cursor per row; the x span shown.
+        self.plots, self.curves, self.cursors, self.span = {}, {}, [], None
         self.reason = NO_CYCLE
         self.message = None  # the pyqtgraph label in place of the plot, when there is nothing to plot
         self.choices = QListWidget()
