@@ -1,6 +1,7 @@
 """What the cycle plot draws, read from the core's :class:`kinematics.Sweep`
 (numpy only, no Qt): the quantities a design offers, their values in the
-units the window shows, the x axis (driver angle or time) and the peaks.
+units the window shows, the x axis (driver angle or time), the peaks
+readout, the y range and the grid lines.
 
 >>> Quantity("velocity", "x", "P").label
 'vₓ P'
@@ -34,6 +35,8 @@ DEAD_POINT_END_FRACTION = 0.03
 class Quantity:
     """One plottable series.
 
+    Attributes
+    ----------
     family : a key of :data:`FAMILIES` (the unit it is shown in).
     form : "magnitude", "x" or "y" of a point's vector; "rate" of a link; "sliding" of a slide.
     subject : the point, link or slide name.
@@ -135,14 +138,21 @@ class Units:
 class CycleAxis:
     """The plot's x axis over one sweep.
 
-    along : (N,) abscissa of each sample, in the sweep's order.
-    x : (N,) the same ascending; ``order`` picks the sweep's samples in that order.
     A full turn is shown as driver angle wrapped into [0°, 360°); a driver that rocks
     between dead points keeps its range in one piece, centred in [0°, 360°). Time runs
     from the reference pose at constant driver speed.
+
+    Attributes
+    ----------
+    kind : "angle" (degrees) or "time" (seconds).
+    along : (N,) abscissa of each sample, in the sweep's order.
+    x : (N,) the same ascending; ``order`` picks the sweep's samples in that order.
+    span : (low, high) of the axis: [0, 360) for a full turn, the dead points of a rocking driver.
+    first_deg, sense, full_turn, rad_s : the sweep's first angle, its sense (+1 CCW), whether
+        it is a full turn, and the driver's speed in rad/s, to map angles to the axis and back.
     """
 
-    kind: str  # "angle" or "time"
+    kind: str
     along: np.ndarray
     x: np.ndarray
     order: np.ndarray
