@@ -220,8 +220,8 @@ def clear_of_dead_points(sweep) -> np.ndarray:
     range at each end would only set the scale and the peaks.
     """
     clear = np.ones(len(sweep.driver_angle_deg), bool)
-    if not sweep.full_turn:
-        end = max(1, round(DEAD_POINT_END_FRACTION * len(clear)))
+    end = max(1, round(DEAD_POINT_END_FRACTION * len(clear)))
+    if not sweep.full_turn and len(clear) > 2 * end:  # a sweep too short to trim keeps every sample
         clear[:end] = clear[-end:] = False
     return clear
 

@@ -186,6 +186,12 @@ def test_dead_point_ends_set_neither_the_scale_nor_the_peaks(panel):
     assert "left out of the scale and the peaks" in panel.peaks.text()
 
 
+def test_a_two_step_rocking_sweep_still_has_peaks(panel):
+    result = kinematics.sweep(load(TRIPLE_ROCKER), 2)
+    panel.set_sweep(result)
+    assert len(curve_data(panel, panel.chosen[0])[0]) == 2 and "peak" in panel.peaks.text()
+
+
 def test_a_clockwise_driver_counts_time_the_way_it_turns(panel):
     design = {**SLIDER_CRANK, "driver": {**SLIDER_CRANK["driver"], "speed": {"value": -300, "unit": "rpm"}}}
     result = kinematics.sweep(load(design), 360)
