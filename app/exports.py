@@ -10,9 +10,6 @@ from PySide6.QtPrintSupport import QPrintDialog, QPrinter
 from PySide6.QtWidgets import QFileDialog
 
 from kinematics import KinematicsError
-from kinematics.dxf import write_dxf
-
-from .printing import print_construction
 
 
 class SheetOutputs:
@@ -39,6 +36,8 @@ class SheetOutputs:
         construction = self._ready_construction()
         if construction is None:
             return False
+        from .printing import print_construction  # the sheet machinery loads when first used
+
         try:
             print_construction(construction, str(path), file_name=self._file_name())
         except (KinematicsError, OSError) as error:
@@ -52,6 +51,8 @@ class SheetOutputs:
         construction = self._ready_construction()
         if construction is None:
             return False
+        from kinematics.dxf import write_dxf  # ezdxf takes half a second to import: only when asked
+
         try:
             write_dxf(construction, str(path), file_name=self._file_name())
         except (KinematicsError, OSError) as error:
@@ -64,6 +65,8 @@ class SheetOutputs:
         construction = self._ready_construction()
         if construction is None:
             return
+        from .printing import print_construction
+
         printer = QPrinter(QPrinter.HighResolution)
         if QPrintDialog(printer, self).exec() == QPrintDialog.Accepted:
             try:

@@ -18,6 +18,7 @@ from PySide6.QtWidgets import (
     QSplitter,
     QTabWidget,
     QToolBar,
+    QWidget,
 )
 
 import kinematics
@@ -39,6 +40,7 @@ from .status import status_text
 from .steps_panel import StepsPanel
 
 FILE_FILTER = "Kinepoly mechanism (*.json);;All files (*)"
+CYCLE_TAB = "Cycle"
 TOOL_NAMES = {"select": "Select", "pivot": "Pivot", "joint": "Joint", "link": "Link", "slide": "Slide",
               "driver": "Driver", "delete": "Delete"}
 
@@ -60,6 +62,9 @@ class MainWindow(SheetOutputs, QMainWindow):
         side = QTabWidget()
         side.addTab(self.steps, "Construction steps")
         side.addTab(self.properties, "Design")
+        self.cycle = None  # made when its tab is first opened: pyqtgraph takes most of a second to import
+        side.addTab(QWidget(), CYCLE_TAB)
+        side.currentChanged.connect(self._open_cycle_tab)
         self.side_tabs = side
         lower = QSplitter(Qt.Horizontal)
         lower.addWidget(self.table)
@@ -184,12 +189,37 @@ class MainWindow(SheetOutputs, QMainWindow):
         self.table.show_solution(doc.solution)
         self.steps.show_construction(doc.construction)
         self.properties.refresh()
+        if self.cycle is not None:
+            self._update_cycle()
         self.drawings.space_view.grid_mm = self.grid_mm()
         self.angle.show_angle(doc.shown_angle_deg)
         self.angle.setEnabled(doc.solution is not None)
         self.angle.set_range(doc.sweep)
         self._show_status()
         self._update_title()
+
+    def _open_cycle_tab(self, index: int):
+        if self.cycle is not None or self.side_tabs.tabText(index) != CYCLE_TAB:
+            return
+        from .cycle_panel import CyclePanel  # pyqtgraph loads here, when the plot is first wanted
+
+        self.cycle = CyclePanel()
+        self.cycle.angle_picked.connect(self.turn_driver)
+        self.side_tabs.removeTab(index)
+        self.side_tabs.insertTab(index, self.cycle, CYCLE_TAB)
+        self.side_tabs.setCurrentIndex(index)
+        self.cycle.set_units(self.length_units.currentText(), self.speed_units.currentText())
+        self._update_cycle()
+
+    def _update_cycle(self):
+        # The panel keeps its curves (and a fine sweep) while the same sweep comes again.
+        doc = self.document
+        if doc.solution is None:
+            self.cycle.set_sweep(None, f"not ready to plot — {doc.analysis.problem}")
+            self.cycle.set_angle(None)
+        else:
+            self.cycle.set_sweep(doc.sweep)
+            self.cycle.set_angle(doc.shown_angle_deg)
 
     def _update_title(self, *_):
         doc = self.document
@@ -208,6 +238,8 @@ class MainWindow(SheetOutputs, QMainWindow):
 
     def _units_changed(self, *_):
         self.table.set_units(self.length_units.currentText(), self.speed_units.currentText())
+        if self.cycle is not None:
+            self.cycle.set_units(self.length_units.currentText(), self.speed_units.currentText())
 
     # building -------------------------------------------------------------
     def use_tool(self, tool: str):

@@ -68,3 +68,24 @@ def test_play_rocks_a_driver_that_cannot_turn_fully_between_its_dead_points(make
         seen.append(low + (angle - low) % 360.0)
     assert "cannot turn" not in window.status.text()
     assert min(seen) == pytest.approx(low, abs=2.1) and max(seen) == pytest.approx(high, abs=2.1)
+
+
+def test_the_cycle_tab_plots_the_document_sweep_and_turns_the_driver(make_window):
+    window = make_window(FOUR_BAR)
+    assert window.cycle is None, "made on first use only"
+    window.turn_driver(120.0)
+    tabs = window.side_tabs
+    tabs.setCurrentIndex(next(i for i in range(tabs.count()) if tabs.tabText(i) == "Cycle"))
+    doc, cycle = window.document, window.cycle
+    assert tabs.currentWidget() is cycle
+    assert cycle.coarse is doc.sweep and doc.sweep is not None
+    assert cycle.angle_deg == pytest.approx(120.0)
+    window.turn_driver(150.0)
+    assert cycle.angle_deg == pytest.approx(150.0)
+    cycle.angle_picked.emit(222.0)  # a click on the plot
+    assert doc.solution.driver_angle_deg == pytest.approx(222.0)
+    window.length_units.setCurrentText("m")
+    window.speed_units.setCurrentText("rpm")
+    assert (cycle.units.length, cycle.units.speed) == ("m", "rpm")
+    window.new_design()
+    assert cycle.coarse is None and "not ready to plot" in cycle.reason
