@@ -10,11 +10,23 @@ from __future__ import annotations
 
 import math
 
+import numpy as np
 from PySide6.QtCore import Qt, Signal
 from PySide6.QtGui import QStandardItem, QStandardItemModel
 from PySide6.QtWidgets import QAbstractItemView, QHeaderView, QTableView
 
 from .display_units import LENGTH_SYSTEMS, angular_speed, direction_deg, sense
+
+# Below this fraction of the pose's largest value of its kind a number is the solver's rounding
+# (its residuals are near 1e-13 relative), far below anything a drawing or a bearing cares
+# about: it is shown as 0, so a crank at constant speed reads α 0, not 1.8e-13 CW.
+NEGLIGIBLE = 1e-9
+
+
+def _clean(value, scale: float):
+    """``value`` (a number or a vector) with parts below NEGLIGIBLE × ``scale`` set to 0."""
+    cleaned = np.where(np.abs(value) < NEGLIGIBLE * scale, 0.0, value)
+    return cleaned if cleaned.ndim else float(cleaned)
 
 
 def _number(value: float) -> str:
@@ -42,6 +54,7 @@ class ResultsModel(QStandardItemModel):
         self.solution = None
         self.layout_key = ()
         self.rows: dict[str, int] = {}
+        self.scale = {}  # the pose's largest |v|, |a|, |ω|, |α|: see _scales
         self._headers()
 
     def _headers(self):
@@ -63,6 +76,8 @@ class ResultsModel(QStandardItemModel):
             mech = solution.mechanism
             rows = ([("point", p) for p in mech.points] + [("link", n) for n in mech.links]
                     + [("slide", n) for n in mech.slides])
+        if solution is not None:
+            self._scales(solution)
         cells = [getattr(self, f"_{kind}_cells")(name, solution) for kind, name in rows]
         if tuple(rows) != self.layout_key:
             self.setRowCount(0)
@@ -90,24 +105,36 @@ class ResultsModel(QStandardItemModel):
         self.blockSignals(False)
         self.dataChanged.emit(self.index(0, 0), self.index(len(cells) - 1, 4))
 
+    def _scales(self, solution):
+        """The largest speed, acceleration, ω and α of the pose: what "negligible" is measured against."""
+        self.scale = {
+            "v": float(np.max(np.hypot(*solution.velocities.T), initial=0.0)),
+            "a": float(np.max(np.hypot(*solution.accelerations.T), initial=0.0)),
+            "omega": max((abs(w) for w in solution.angular_velocity.values()), default=0.0),
+        }
+        # α is compared with ω² too: at constant speed every α may be solver noise alone.
+        self.scale["alpha"] = max([abs(x) for x in solution.angular_acceleration.values()]
+                                  + [self.scale["omega"] ** 2], default=0.0)
+
     def _point_cells(self, name, solution):
-        v, a = solution.velocity(name), solution.acceleration(name)
+        v = _clean(solution.velocity(name), self.scale["v"])
+        a = _clean(solution.acceleration(name), self.scale["a"])
         speed = self.length.velocity(math.hypot(*v))
         accel = self.length.acceleration(math.hypot(*a))
         return [(f"point {name}", None), (_number(speed), speed), (_angle(direction_deg(*v)), direction_deg(*v)),
                 (_number(accel), accel), (_angle(direction_deg(*a)), direction_deg(*a))]
 
     def _link_cells(self, name, solution):
-        omega = solution.angular_velocity[name]
-        alpha = solution.angular_acceleration[name]
+        omega = float(_clean(solution.angular_velocity[name], self.scale["omega"]))
+        alpha = float(_clean(solution.angular_acceleration[name], self.scale["alpha"]))
         shown = angular_speed(abs(omega), self.speed_unit)
         return [(f"link {name}", None), (f"ω {_number(shown)}", shown), (sense(omega), None),
                 (f"α {_number(abs(alpha))}", abs(alpha)), (sense(alpha, zero="none"), None)]
 
     def _slide_cells(self, name, solution):
         slide = solution.mechanism.slides[name]
-        velocity = self.length.velocity(solution.sliding_velocity[name])
-        accel = self.length.acceleration(solution.sliding_acceleration[name])
+        velocity = self.length.velocity(float(_clean(solution.sliding_velocity[name], self.scale["v"])))
+        accel = self.length.acceleration(float(_clean(solution.sliding_acceleration[name], self.scale["a"])))
         towards = (f"+ = {slide.line[0]}→{slide.line[1]}", None)
         return [(f"slide {name} ({slide.point} on {slide.guide})", None), (f"sliding {_number(velocity)}", velocity),
                 towards, (f"sliding {_number(accel)}", accel), towards]

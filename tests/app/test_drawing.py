@@ -156,3 +156,14 @@ def test_no_two_visible_polygon_labels_overlap(make_window):
                 # Eight directions may all be taken in a crowded spot; most labels must stand free.
                 crowded = sum(1 for i, a in enumerate(boxes) if any(a.intersects(b) for b in boxes[:i]))
                 assert crowded <= len(boxes) // 4, (design["title"], angle, scene.kind)
+
+
+def test_solver_rounding_reads_as_zero_not_as_a_sense(make_window):
+    window = make_window(SLIDER_CRANK)  # the crank turns at constant speed: α = 0 exactly in theory
+    for angle in (30.0, 250.0, 333.0):
+        window.turn_driver(angle)
+        raw = window.document.solution.angular_acceleration["crank"]
+        assert abs(raw) < 1e-9
+        assert cell(window, "link crank", 3) == (0.0, "α 0")
+        assert cell(window, "link crank", 4)[1] == "none"
+        assert cell(window, "link rod", 3)[0] > 1.0  # real values are untouched
