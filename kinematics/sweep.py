@@ -123,13 +123,45 @@ def _first(mech):
     return next(p for p in mech.links[mech.driver.link] if p != mech.driver.pivot)
 
 
-def sweep(mechanism: Mechanism, steps: int = 360) -> Sweep:
+class SweepCancelled(KinematicsError):
+    """The ``progress`` callback of :func:`sweep` asked to stop."""
+
+
+# A sweep with a progress callback reports after every chunk of this many poses.
+PROGRESS_CHUNK = 10_000
+
+
+def _columns(mech: Mechanism, frame: Frame) -> dict:
+    """The frame's results as arrays over the angles: (N, n, 2) for points, (N,) for the rest."""
+    names = tuple(mech.points)
+    count = len(np.atleast_1d(frame.pos[names[0]]))
+
+    def stack(values):
+        # A (N, n) complex array viewed as (N, n, 2) floats: x and y without a copy.
+        return np.stack([values[n] for n in names], axis=1).view(np.float64).reshape(count, len(names), 2)
+
+    columns = {"positions": stack(frame.pos), "velocities": stack(frame.vel), "accelerations": stack(frame.acc)}
+    for link, pts in mech.links.items():
+        columns[("angle", link)] = np.degrees(np.angle(frame.pos[pts[1]] - frame.pos[pts[0]]))
+        columns[("omega", link)] = np.asarray(frame.omega[link], float)
+        columns[("alpha", link)] = np.asarray(frame.alpha[link], float)
+    for slide in mech.slides:
+        columns[("slide_v", slide)] = np.asarray(frame.sliding_velocity[slide], float)
+        columns[("slide_a", slide)] = np.asarray(frame.sliding_acceleration[slide], float)
+    return columns
+
+
+def sweep(mechanism: Mechanism, steps: int = 360, progress=None) -> Sweep:
     """Solve ``steps`` equal steps of the driver turn in closed form.
 
     A full turn runs over [θ_ref, θ_ref + 360°) in the driver's sense, end
     excluded; a driver that cannot turn fully sweeps its assemblable range
     between its dead points, ends included (less a hair, see
     ``DEAD_POINT_MARGIN_DEG``).
+
+    ``progress``, if given, is called with the fraction done after every
+    ``PROGRESS_CHUNK`` poses; returning False stops the sweep with
+    :class:`SweepCancelled`.
     """
     require_ready(mechanism)
     if steps < 2:
@@ -141,10 +173,12 @@ def sweep(mechanism: Mechanism, steps: int = 360) -> Sweep:
     omega = mechanism.driver.speed_rad_s
     sense = 1.0 if omega >= 0 else -1.0
     start = reference_angle_deg(mechanism)
+    chunk = PROGRESS_CHUNK if progress is not None else steps
     angles = start + sense * np.arange(steps) * 360.0 / steps
-    frame = _place(mechanism, decomposition, np.radians(angles))
-    ccw_mask = ~frame.invalid if sense > 0 else np.roll(~frame.invalid[::-1], 1)
-    full, (low, high) = driver_range(mechanism, decomposition, steps, ccw_mask)
+    # The probe for dead points is the first placement itself, unless the sweep goes by chunks.
+    frame = _place(mechanism, decomposition, np.radians(angles)) if chunk >= steps else None
+    ccw_mask = None if frame is None else (~frame.invalid if sense > 0 else np.roll(~frame.invalid[::-1], 1))
+    full, (low, high) = driver_range(mechanism, decomposition, steps if frame is not None else 3600, ccw_mask)
     warnings = []
     if not full:
         margin = DEAD_POINT_MARGIN_DEG
@@ -152,31 +186,31 @@ def sweep(mechanism: Mechanism, steps: int = 360) -> Sweep:
         if sense < 0:
             angles = angles[::-1]
         warnings.append(f"the driver cannot turn fully: it rocks between its dead points {low:.2f}° and {high:.2f}°")
-        frame = _place(mechanism, decomposition, np.radians(angles))
-    _move(frame, decomposition)
-    names = tuple(mechanism.points)
-    def stack(values):
-        # A (N, n) complex array viewed as (N, n, 2) floats: x and y without a copy.
-        return np.stack([values[n] for n in names], axis=1).view(np.float64).reshape(len(angles), len(names), 2)
-
-    positions, velocities, accelerations = stack(frame.pos), stack(frame.vel), stack(frame.acc)
-    # Every group's closed form is a single-valued function of the driver angle on its branch,
-    # so a full turn of a dyad chain brings the linkage back to its first pose.
-    closes = full
-    link_angle = {}
-    for link, pts in mechanism.links.items():
-        r = frame.pos[pts[1]] - frame.pos[pts[0]]
-        link_angle[link] = np.degrees(np.angle(r))
+        frame = None
+    parts = []
+    for begin in range(0, steps, chunk):
+        part = frame if frame is not None else _place(mechanism, decomposition, np.radians(angles[begin:begin + chunk]))
+        if np.any(part.invalid):
+            raise CannotAssemble("the linkage cannot assemble at some swept angles between probed ones",
+                                 f"driver angle {angles[begin]:.3f}°")
+        parts.append(_columns(mechanism, _move(part, decomposition)))
+        if progress is not None and progress(min(begin + chunk, steps) / steps) is False:
+            raise SweepCancelled("the sweep was cancelled", f"driver angle {angles[begin]:.3f}°")
+    columns = parts[0] if len(parts) == 1 else {k: np.concatenate([p[k] for p in parts]) for k in parts[0]}
     time_s = None
     if mechanism.driver.angular_acceleration_rad_s2 == 0.0 and omega != 0.0:
         time_s = np.radians(np.abs(angles - angles[0])) / abs(omega)
-    return Sweep(mechanism=mechanism, driver_angle_deg=angles, point_names=names, positions=positions,
-                 velocities=velocities, accelerations=accelerations, link_angle_deg=link_angle,
-                 angular_velocity={k: np.asarray(frame.omega[k], float) for k in mechanism.links},
-                 angular_acceleration={k: np.asarray(frame.alpha[k], float) for k in mechanism.links},
-                 sliding_velocity={k: np.asarray(v, float) for k, v in frame.sliding_velocity.items()},
-                 sliding_acceleration={k: np.asarray(v, float) for k, v in frame.sliding_acceleration.items()},
-                 full_turn=full, range_deg=(low, high), closes=closes, time_s=time_s, warnings=tuple(warnings))
+    # Every group's closed form is a single-valued function of the driver angle on its branch,
+    # so a full turn of a dyad chain brings the linkage back to its first pose.
+    return Sweep(mechanism=mechanism, driver_angle_deg=angles, point_names=tuple(mechanism.points),
+                 positions=columns["positions"], velocities=columns["velocities"],
+                 accelerations=columns["accelerations"],
+                 link_angle_deg={k: columns[("angle", k)] for k in mechanism.links},
+                 angular_velocity={k: columns[("omega", k)] for k in mechanism.links},
+                 angular_acceleration={k: columns[("alpha", k)] for k in mechanism.links},
+                 sliding_velocity={k: columns[("slide_v", k)] for k in mechanism.slides},
+                 sliding_acceleration={k: columns[("slide_a", k)] for k in mechanism.slides},
+                 full_turn=full, range_deg=(low, high), closes=full, time_s=time_s, warnings=tuple(warnings))
 
 
 def verify_sweep(result: Sweep, branch_step_deg: float = 10.0) -> dict:
