@@ -27,6 +27,7 @@ from PySide6.QtWidgets import (
 
 import kinematics
 from kinematics import KinematicsError
+from kinematics.sweep import SweepCancelled
 
 from . import cycle_series as series
 
@@ -44,9 +45,8 @@ _RUNNING: set = set()  # jobs kept alive until their thread ends, even past a cl
 class FineSweepJob(QThread):
     """``kinematics.sweep(mechanism, steps)`` on a worker thread.
 
-    The core's sweep is one numpy call with no way in between, so progress is
-    0 % at the start and 100 % at the end, and a cancelled job runs out in the
-    background and its result is dropped (it never reaches ``done``).
+    The core sweeps by chunks and reports after each; a cancelled job stops at
+    the next chunk and its result is dropped (it never reaches ``done``).
     """
 
     progressed = Signal(int)
@@ -59,8 +59,15 @@ class FineSweepJob(QThread):
 
     def run(self):
         self.progressed.emit(0)
+
+        def report(done: float) -> bool:
+            self.progressed.emit(int(round(100 * done)))
+            return not self.isInterruptionRequested()
+
         try:
-            result = kinematics.sweep(self.mechanism, self.steps)
+            result = kinematics.sweep(self.mechanism, self.steps, progress=report)
+        except SweepCancelled:
+            return
         except KinematicsError as error:
             if not self.isInterruptionRequested():
                 self.failed.emit(f"fine sweep of {self.steps} steps: {error}")
@@ -359,7 +366,7 @@ class CyclePanel(QWidget):
         self.job = job
         _RUNNING.add(job)
         QCoreApplication.instance().aboutToQuit.connect(job.wait)  # a thread must end before Qt does
-        self.progress.setRange(0, 0)  # busy until the one call returns
+        self.progress.setRange(0, 0)  # busy until the first chunk reports
         self._set_running(True)
         job.start()
         return job
@@ -378,7 +385,7 @@ class CyclePanel(QWidget):
         self.fine_steps.setEnabled(not running)
 
     def _progressed(self, percent: int):
-        if self.sender() is self.job and percent >= 100:
+        if self.sender() is self.job and percent > 0:
             self.progress.setRange(0, 100)
             self.progress.setValue(percent)
 

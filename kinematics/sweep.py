@@ -21,7 +21,9 @@ from .mobility import require_ready
 from .model import Mechanism
 from .solve import _Driven, _newton, _track
 
-# Dead points are located to this fraction of a degree.
+# Dead points are looked for among at least this many poses of a turn ...
+PROBE_STEPS = 3600
+# ... and located to this fraction of a degree.
 DEAD_POINT_RESOLUTION_DEG = 1e-9
 # A swept range stops this far short of a dead point, where velocities grow without bound.
 DEAD_POINT_MARGIN_DEG = 1e-6
@@ -100,11 +102,12 @@ def reference_angle_deg(mech: Mechanism) -> float:
     return math.degrees(math.atan2(y, x))
 
 
-def driver_range(mech: Mechanism, decomposition=None, probe_steps=3600, ok=None):
+def driver_range(mech: Mechanism, decomposition=None, probe_steps=None, ok=None):
     """(full_turn, (low_deg, high_deg)): the dead points around the reference pose
     (low < θ_ref < high), or the full turn from θ_ref. ``ok`` may give the
     assemblable mask of ``probe_steps`` equal CCW steps from θ_ref."""
     decomposition = decomposition or decompose(mech)
+    probe_steps = probe_steps or PROBE_STEPS
     theta_ref = math.radians(reference_angle_deg(mech))
     offsets = np.linspace(0.0, 2 * math.pi, probe_steps, endpoint=False)
     if ok is None:
@@ -175,10 +178,13 @@ def sweep(mechanism: Mechanism, steps: int = 360, progress=None) -> Sweep:
     start = reference_angle_deg(mechanism)
     chunk = PROGRESS_CHUNK if progress is not None else steps
     angles = start + sense * np.arange(steps) * 360.0 / steps
-    # The probe for dead points is the first placement itself, unless the sweep goes by chunks.
-    frame = _place(mechanism, decomposition, np.radians(angles)) if chunk >= steps else None
+    # The probe for dead points (at least PROBE_STEPS poses a turn) is the first placement
+    # itself when the sweep is that fine and goes in one piece.
+    frame = None
+    if chunk >= steps >= PROBE_STEPS:
+        frame = _place(mechanism, decomposition, np.radians(angles))
     ccw_mask = None if frame is None else (~frame.invalid if sense > 0 else np.roll(~frame.invalid[::-1], 1))
-    full, (low, high) = driver_range(mechanism, decomposition, steps if frame is not None else 3600, ccw_mask)
+    full, (low, high) = driver_range(mechanism, decomposition, steps if frame is not None else PROBE_STEPS, ccw_mask)
     warnings = []
     if not full:
         margin = DEAD_POINT_MARGIN_DEG
