@@ -168,8 +168,8 @@ _COMPASS = [(math.cos(math.radians(a)), -math.sin(math.radians(a))) for a in (45
 def declutter(labels, mm_per_pixel: float, obstacles=()):
     """Move labels that overlap an earlier label (or an obstacle rect) to a free side.
 
-    ``labels`` is a list of (Label, anchor QPointF, (dx, dy) preferred direction), placed in
-    that order; sizes are on-screen pixels turned into scene units by ``mm_per_pixel``.
+    ``labels`` is a list of (Label, anchor QPointF, (dx, dy) preferred direction[, gap pixels]),
+    placed in that order; sizes are on-screen pixels turned into scene units by ``mm_per_pixel``.
     """
     from PySide6.QtCore import QRectF
 
@@ -180,11 +180,12 @@ def declutter(labels, mm_per_pixel: float, obstacles=()):
         corner = label.anchor.pos() + label.text.pos() * mm_per_pixel
         return QRectF(corner.x(), corner.y(), box.width() * mm_per_pixel, box.height() * mm_per_pixel)
 
-    for label, anchor, preferred in labels:
+    for label, anchor, preferred, *gap in labels:
+        gap = gap[0] if gap else Label.GAP_PIXELS
         for direction in [preferred, *_COMPASS]:
-            label.place(anchor, *direction)
+            label.place(anchor, *direction, gap=gap)
             if not any(footprint(label).intersects(other) for other in taken):
                 break
         else:
-            label.place(anchor, *preferred)
+            label.place(anchor, *preferred, gap=gap)
         taken.append(footprint(label))

@@ -29,6 +29,8 @@ class DrawingsPanel(QSplitter):
             self.addWidget(view)
         self.setSizes([620, 490, 490])
         self.space_view.hovered.connect(self.mark_point)
+        for scene, view in self._pairs():
+            view.rescaled.connect(lambda scene=scene, view=view: scene.declutter(self._mm_per_pixel(view)))
         self.refresh()
         self.fit_space()
 
@@ -38,6 +40,7 @@ class DrawingsPanel(QSplitter):
         self.space_scene.show(doc.mechanism, doc.solution, doc.sweep)
         if self.space_scene.topology != topology and self.space_view.auto_fit:
             self.fit_space()  # a joint or link was added or removed: keep the whole design in view
+        self.space_scene.declutter(self._mm_per_pixel(self.space_view))
         construction = doc.construction
         plates = {n: pts for n, pts in doc.mechanism.links.items() if len(pts) > 2}
         for scene, view, polygon in (
@@ -45,8 +48,16 @@ class DrawingsPanel(QSplitter):
                 (self.acceleration_scene, self.acceleration_view, construction and construction.acceleration)):
             scene.show(polygon, plates)
             view.show_rect(scene.content_rect)
-            scene.declutter(1.0 / max(view.transform().m11(), 1e-12))
+            scene.declutter(self._mm_per_pixel(view))
             view.viewport().update()
+
+    def _pairs(self):
+        return ((self.space_scene, self.space_view), (self.velocity_scene, self.velocity_view),
+                (self.acceleration_scene, self.acceleration_view))
+
+    @staticmethod
+    def _mm_per_pixel(view) -> float:
+        return 1.0 / max(view.transform().m11(), 1e-12)
 
     def fit_space(self):
         """Fit the space diagram, with room for the links to turn."""
@@ -64,6 +75,7 @@ class DrawingsPanel(QSplitter):
             rect = QRectF(centre.x() - 0.5 * least, centre.y() - 0.5 * least, least, least)
         self.space_view.auto_fit = True
         self.space_view.show_rect(rect)
+        self.space_scene.declutter(self._mm_per_pixel(self.space_view))
 
     def fit_all(self):
         self.fit_space()

@@ -24,7 +24,7 @@ from PySide6.QtWidgets import (
 
 from kinematics.style import ANNOTATION, SPACE_GROUND, SPACE_LINK, SPACE_PATH
 
-from .drawing_kit import Label, ScaleBar, hatch_path, preferred_length, qpen, scene_xy
+from .drawing_kit import Label, ScaleBar, declutter, hatch_path, preferred_length, qpen, scene_xy
 
 BAR_COLOUR = "#c9d3de"
 PLATE_COLOUR = "#dfe6ee"
@@ -126,6 +126,7 @@ class _Joint:
         if self.sign is not None:
             self.sign.setPos(at)
         self.label.place(at, away.x(), away.y(), gap=gap)
+        self.label_at = (at, (away.x(), away.y()), gap)
 
 
 class _Slide:
@@ -271,6 +272,16 @@ class SpaceScene(QGraphicsScene):
             if abs(side.x() * u.y() - side.y() * u.x()) < 0.3:
                 return QPointF(abs(u.y()), -u.x() if u.y() >= 0 else u.x())
         return side
+
+    def declutter(self, mm_per_pixel: float):
+        """Move joint labels that would cover each other, a joint or a block (needs the view's zoom)."""
+        def square(at, half_pixels):
+            half = half_pixels * mm_per_pixel
+            return QRectF(at.x() - half, at.y() - half, 2 * half, 2 * half)
+
+        obstacles = [square(j.dot.pos(), JOINT_PIXELS) for j in self.joints.values()]
+        obstacles += [square(s.block.pos(), 11.0) for s in self.slides]
+        declutter([(j.label, *j.label_at) for j in self.joints.values()], mm_per_pixel, obstacles)
 
     def centre(self) -> QPointF:
         if not self.positions_mm:

@@ -20,7 +20,12 @@ LEGEND_LINE = 16.0
 
 
 class DrawingView(QGraphicsView):
-    """A view that keeps its drawing fitted until the user zooms or pans."""
+    """A view that keeps its drawing fitted until the user zooms or pans.
+
+    ``rescaled`` says the zoom changed, so screen-sized labels may need to be set apart again.
+    """
+
+    rescaled = Signal()
 
     def __init__(self, scene, parent=None):
         super().__init__(scene, parent)
@@ -46,10 +51,12 @@ class DrawingView(QGraphicsView):
     def fit_to_window(self):
         self.auto_fit = True
         self.fitInView(self.fit_rect, Qt.KeepAspectRatio)
+        self.rescaled.emit()
 
     def zoom(self, factor: float):
         self.auto_fit = False
         self.scale(factor, factor)
+        self.rescaled.emit()
 
     def wheelEvent(self, event):
         steps = event.angleDelta().y() / 120.0
@@ -66,6 +73,7 @@ class DrawingView(QGraphicsView):
         super().resizeEvent(event)
         if self.auto_fit:
             self.fitInView(self.fit_rect, Qt.KeepAspectRatio)
+            self.rescaled.emit()
 
 
 class PolygonView(DrawingView):

@@ -2,9 +2,10 @@
 compared with the Solution and the Construction; items are moved in place between poses."""
 
 import math
+from pathlib import Path
 
 import pytest
-from PySide6.QtCore import Qt
+from PySide6.QtCore import QRectF, Qt
 from shapely.geometry import Point
 
 from .designs import FOUR_BAR, SLIDER_CRANK, SLOTTED_LEVER
@@ -167,3 +168,22 @@ def test_solver_rounding_reads_as_zero_not_as_a_sense(make_window):
         assert cell(window, "link crank", 3) == (0.0, "α 0")
         assert cell(window, "link crank", 4)[1] == "none"
         assert cell(window, "link rod", 3)[0] > 1.0  # real values are untouched
+
+
+def test_joint_labels_stand_clear_of_each_other_and_of_the_joints(make_window):
+    crowded = {**FOUR_BAR, "points": {**FOUR_BAR["points"], "P": [146, 113]}}  # P 7 mm from B
+    samples = Path(__file__).resolve().parents[2] / "samples"
+    for design in (crowded, samples / "tile-trimmer-quick-return.json", samples / "baler-tamper-watt.json"):
+        window = make_window(crowded)
+        if isinstance(design, Path):
+            assert window.open_path(design)
+        view, scene = window.drawings.space_view, window.drawings.space_scene
+        boxes, dots = [], []
+        for joint in scene.joints.values():
+            corner = view.mapFromScene(joint.label.anchor.pos()).toPointF() + joint.label.text.pos()
+            boxes.append(joint.label.text.boundingRect().translated(corner))
+            centre = view.mapFromScene(joint.dot.pos()).toPointF()
+            dots.append(QRectF(centre.x() - 4, centre.y() - 4, 8, 8))
+        for i, box in enumerate(boxes):
+            assert not any(box.intersects(other) for other in boxes[:i]), (design, i)
+            assert not any(box.intersects(dot) for dot in dots), (design, i)
