@@ -161,3 +161,31 @@ def test_snapping_draws_the_grid_and_lands_drags_on_it(make_window):
     QTest.mouseMove(view.viewport(), view.mapFromScene(start + QPointF(13.0, -4.0)))
     QTest.mouseRelease(view.viewport(), Qt.LeftButton, Qt.NoModifier, view.mapFromScene(start + QPointF(13.0, -4.0)))
     assert window.document.mechanism.points["P"] == (80.0, 140.0)
+
+
+def test_random_building_never_fails(make_window):
+    """Any tool clicked anywhere, on any joint, in any order: messages, never an exception."""
+    import random
+
+    window = make_window(FOUR_BAR)
+    window.new_design()
+    chance = random.Random(4242)
+    tools = ["pivot", "joint", "link", "slide", "driver", "delete", "select"]
+    for _ in range(150):
+        window.use_tool(chance.choice(tools))
+        names = list(window.document.mechanism.points)
+        for _ in range(chance.randint(1, 4)):
+            if names and chance.random() < 0.6:
+                click_joint(window, chance.choice(names))
+            else:
+                click_at(window, chance.uniform(-80, 80), chance.uniform(-80, 80))
+            names = list(window.document.mechanism.points)
+        if chance.random() < 0.3:
+            QTest.keyClick(window.drawings.space_view, chance.choice([Qt.Key_Return, Qt.Key_Escape]))
+        assert window.status.text()
+    doc = window.document
+    built = doc.mechanism
+    assert len(built.points) > 10 and built.links, "the clicks did build something"
+    while doc.undo_stack.canUndo():
+        doc.undo_stack.undo()
+    assert not doc.mechanism.points
