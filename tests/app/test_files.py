@@ -133,3 +133,22 @@ def test_kinepoly_file_opens_it(qtbot, tmp_path, monkeypatch):
     qtbot.addWidget(window)
     assert window.isVisible() and window.document.path == str(path)
     assert window.document.solution is not None
+
+
+def test_the_kinepoly_command_runs_the_window_on_a_file(qapp, tmp_path):
+    from PySide6.QtCore import QTimer
+
+    from app.main import main as kinepoly
+
+    path = write(tmp_path / "claw.json", FOUR_BAR)
+    opened = []
+
+    def look_and_quit():
+        opened.extend(w for w in QApplication.topLevelWidgets() if isinstance(w, MainWindow) and w.isVisible())
+        for window in opened:
+            window.close()
+        qapp.quit()
+
+    QTimer.singleShot(200, look_and_quit)
+    assert kinepoly([str(path)]) == 0
+    assert any(w.document.path == str(path) and w.document.solution is not None for w in opened)
