@@ -141,12 +141,15 @@ class ResultsModel(QStandardItemModel):
 
 
 class ResultsTable(QTableView):
-    """The view of a :class:`ResultsModel`."""
+    """The view of a :class:`ResultsModel`; choosing a point's row emits ``point_chosen(name)``."""
+
+    point_chosen = Signal(object)
 
     def __init__(self, parent=None):
         super().__init__(parent)
         self.results = ResultsModel(self)
         self.setModel(self.results)
+        self.selectionModel().currentRowChanged.connect(self._row_changed)
         self.setEditTriggers(QAbstractItemView.NoEditTriggers)
         self.setSelectionBehavior(QAbstractItemView.SelectRows)
         self.setSelectionMode(QAbstractItemView.SingleSelection)
@@ -162,6 +165,10 @@ class ResultsTable(QTableView):
 
     def set_units(self, length_unit: str, speed_unit: str):
         self.results.set_units(length_unit, speed_unit)
+
+    def _row_changed(self, current, _previous):
+        names = {row: name for name, row in self.results.rows.items()}
+        self.point_chosen.emit(names.get(current.row()))
 
     def mark_point(self, name: str | None):
         """Select the row of joint ``name`` (hovering in the space diagram)."""

@@ -40,5 +40,13 @@ class StepsPanel(QListWidget):
             if self.item(row).text() != text:
                 self.item(row).setText(text)
 
+    def select_step(self, step_id: str):
+        """Make step ``step_id`` current (as if clicked in the list) and bring it into sight."""
+        for row in range(self.count()):
+            if self.item(row).data(Qt.UserRole) == step_id:
+                self.setCurrentRow(row)
+                self.scrollToItem(self.item(row))
+                return
+
     def _current_changed(self, current, _previous):
         self.step_selected.emit(current.data(Qt.UserRole) if current is not None else "")

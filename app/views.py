@@ -5,7 +5,7 @@ from __future__ import annotations
 
 import math
 
-from PySide6.QtCore import QPointF, QRectF, Qt, Signal
+from PySide6.QtCore import QPointF, QRect, QRectF, Qt, Signal
 from PySide6.QtGui import QColor, QPainter, QPen
 from PySide6.QtWidgets import QGraphicsView
 
@@ -15,6 +15,7 @@ ZOOM_PER_WHEEL_STEP = 1.15
 # Panning needs room beyond the drawing; the scene rect is the drawing grown by this factor.
 PAN_ROOM = 4.0
 GRID_MIN_PIXELS = 6.0
+PICK_PIXELS = 4
 LEGEND_TOP = 38.0
 LEGEND_LINE = 16.0
 
@@ -77,11 +78,30 @@ class DrawingView(QGraphicsView):
 
 
 class PolygonView(DrawingView):
-    """A polygon view with its legend in the top left corner (screen pixels)."""
+    """A polygon view with its legend in the top left corner (screen pixels); a click on a
+    step's drawing emits ``step_clicked(step id)``, a press elsewhere pans."""
+
+    step_clicked = Signal(str)
 
     def __init__(self, scene, title: str, parent=None):
         super().__init__(scene, parent)
         self.title = title
+
+    def step_at(self, pos) -> str | None:
+        """The step drawn within a few pixels of ``pos`` (lines are thin: aim need not be exact)."""
+        near = QRect(pos.x() - PICK_PIXELS, pos.y() - PICK_PIXELS, 2 * PICK_PIXELS, 2 * PICK_PIXELS)
+        for item in self.items(near):
+            if isinstance(item.data(0), str):
+                return item.data(0)
+        return None
+
+    def mousePressEvent(self, event):
+        step = self.step_at(event.position().toPoint()) if event.button() == Qt.LeftButton else None
+        if step is None:
+            super().mousePressEvent(event)
+            return
+        self.step_clicked.emit(step)
+        event.accept()
 
     def legend_height(self) -> float:
         """Pixels the title and legend take at the top of the view."""

@@ -97,6 +97,9 @@ class MainWindow(SheetOutputs, QMainWindow):
         self.speed_units.currentTextChanged.connect(self._units_changed)
         self.steps.step_selected.connect(self.drawings.select_step)
         self.drawings.space_view.hovered.connect(self.table.mark_point)
+        self.table.point_chosen.connect(self.drawings.mark_point)
+        for polygon_view in (self.drawings.velocity_view, self.drawings.acceleration_view):
+            polygon_view.step_clicked.connect(self.show_step)
         view = self.drawings.space_view
         view.drag_started.connect(self.begin_drag)
         view.dragged.connect(self.continue_drag)
@@ -197,6 +200,11 @@ class MainWindow(SheetOutputs, QMainWindow):
         self.angle.set_range(doc.sweep)
         self._show_status()
         self._update_title()
+
+    def show_step(self, step_id: str):
+        """A click on a polygon's drawing: its step in the list, emphasised."""
+        self.side_tabs.setCurrentWidget(self.steps)
+        self.steps.select_step(step_id)
 
     def _open_cycle_tab(self, index: int):
         if self.cycle is not None or self.side_tabs.tabText(index) != CYCLE_TAB:

@@ -90,3 +90,29 @@ def test_selecting_a_step_emphasises_its_geometry_and_links(make_window):
     assert step.text in window.steps.item(row).text()
     window.steps.setCurrentRow(-1)
     assert scene.selected_step is None
+
+
+def test_clicking_a_polygon_line_shows_its_step(make_window):
+    window = make_window(FOUR_BAR)
+    construction = window.document.construction
+    step = next(s for s in construction.acceleration.steps if s.role.value == "result")
+    view, scene = window.drawings.acceleration_view, window.drawings.acceleration_scene
+    line = scene.step_items[step.id].line.line()
+    middle = view.mapFromScene(line.pointAt(0.5))
+    QTest.mouseClick(view.viewport(), Qt.LeftButton, Qt.NoModifier, middle + QPoint(2, 1))  # a near miss is fine
+    assert window.side_tabs.currentWidget() is window.steps
+    assert window.steps.currentItem().data(Qt.UserRole) == step.id
+    assert scene.selected_step == step.id
+
+
+def test_choosing_a_table_row_rings_the_point_images(make_window):
+    window = make_window(FOUR_BAR)
+    row = window.table.results.rows["P"]
+    index = window.table.model().index(row, 1)
+    QTest.mouseClick(window.table.viewport(), Qt.LeftButton, Qt.NoModifier, window.table.visualRect(index).center())
+    drawings = window.drawings
+    assert drawings.velocity_scene.ring_visible() and drawings.acceleration_scene.ring_visible()
+    image = window.document.construction.acceleration.images["P"]
+    scale = window.document.construction.acceleration.scale_per_mm
+    ring = drawings.acceleration_scene._ring.pos()
+    assert abs(ring.x() - image[0] / scale) < 1e-9 and abs(ring.y() + image[1] / scale) < 1e-9
