@@ -113,7 +113,7 @@ class MainWindow(SheetOutputs, QMainWindow):
 
     # building -----------------------------------------------------------
     def _build_toolbar(self):
-        bar = QToolBar("Driver")
+        bar = self.driver_bar = QToolBar("Driver")
         bar.setObjectName("driver")
         bar.addWidget(self.angle)
         bar.addSeparator()
@@ -169,7 +169,8 @@ class MainWindow(SheetOutputs, QMainWindow):
         space = self.drawings.space_view
         self._action(view, "Zoom &in", lambda: space.zoom(1.25), QKeySequence.ZoomIn)
         self._action(view, "Zoom &out", lambda: space.zoom(0.8), QKeySequence.ZoomOut)
-        self._action(view, "&Fit to window", self.drawings.fit_all, QKeySequence("Ctrl+0"), "fit")
+        fit = self._action(view, "&Fit to window", self.drawings.fit_all, QKeySequence("Ctrl+0"), "fit")
+        self.driver_bar.addAction(fit)
         self.snapping = QAction("&Snap to grid", self)
         self.snapping.setCheckable(True)
         self.snapping.setShortcut(QKeySequence("Ctrl+G"))
@@ -373,6 +374,8 @@ class MainWindow(SheetOutputs, QMainWindow):
     def closeEvent(self, event):
         self.angle.stop()
         if self.ask_to_save():
+            if self.cycle is not None:
+                self.cycle.cancel_fine_sweep()  # the plot's worker thread need not outlive its window
             event.accept()
         else:
             event.ignore()
