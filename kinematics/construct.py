@@ -50,10 +50,12 @@ def _laid_step(builder: PolygonBuilder, laid: Laid, frame: Frame, group: Group):
     if laid.component == "radial":
         link = next((k for k in group.links if {laid.point, laid.about} <= set(frame.mech.links[k])), group.links[0])
         magnitude = abs(laid.end - laid.start)
+        # In a slotted link the radial component belongs to the link's point under the slider.
+        who = f"the point of {link} under {laid.point}" if group.form == "RPR" else laid.point
         return builder.vector(
             Component.RADIAL, laid.start, laid.end, "", f"a_{laid.point}{laid.about}^r = v_{laid.point}{laid.about}²"
             f" / {laid.point}{laid.about}",
-            f"radial component of {laid.point} relative to {laid.about}: v²/r = {figure(magnitude)} m/s², "
+            f"radial component of {who} relative to {laid.about}: v²/r = {figure(magnitude)} m/s², "
             f"directed from {laid.point} to {laid.about}", points=(laid.point,), links=(link,))
     magnitude = abs(laid.end - laid.start)
     slide = frame.mech.slides[group.slide]

@@ -273,6 +273,8 @@ def solve_pose(mechanism: Mechanism, angle_deg=None, system: ConstraintSystem | 
     xdot, xddot = driven.rates(x, jac, theta, omega, alpha)
     index = {n: i for i, n in enumerate(system.names)}
     angle, link_omega, link_alpha = _link_rates(mechanism, index, x, xdot, xddot)
+    # The driver's own rates are given, not solved: report them as given, free of rounding.
+    link_omega[driver.link], link_alpha[driver.link] = float(omega), float(alpha)
     slide_v, slide_a = _slide_rates(mechanism, index, x, xdot, xddot, link_omega, link_alpha)
     if condition > NEAR_SINGULAR_CONDITION:
         warnings.append(f"near a dead point of the driver: condition figure {condition:.3g}")
