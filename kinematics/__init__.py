@@ -4,6 +4,8 @@ graphical construction of velocity and acceleration polygons, cycle sweeps.
 Never imports Qt.
 """
 
+import math
+
 from .construct import construct as _construct
 from .errors import CannotAssemble, FileFormatError, KinematicsError, MechanismFindings, ParallelLines
 from .fileformat import dumps, load_mechanism
@@ -19,6 +21,10 @@ CAUTION = (
 )
 
 
+# Beyond this the angle's fraction of a turn is lost to rounding.
+MAX_ANGLE_DEG = 1e6
+
+
 def solve(mechanism: Mechanism, angle_deg: float | None = None) -> Solution:
     """Position, velocity and acceleration of every point at driver angle
     ``angle_deg`` (degrees; None for the reference pose).
@@ -28,6 +34,10 @@ def solve(mechanism: Mechanism, angle_deg: float | None = None) -> Solution:
     """
     from .mobility import require_ready
 
+    if angle_deg is not None and not (isinstance(angle_deg, (int, float)) and math.isfinite(angle_deg)
+                                      and abs(angle_deg) <= MAX_ANGLE_DEG):
+        raise KinematicsError(f"the driver angle must be a finite number of degrees within ±{MAX_ANGLE_DEG:g}, "
+                              f"not {angle_deg!r}", "angle")
     require_ready(mechanism)
     return solve_pose(mechanism, angle_deg)
 

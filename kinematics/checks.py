@@ -10,6 +10,7 @@ from dataclasses import dataclass
 import numpy as np
 
 from .decompose import decompose
+from .errors import KinematicsError
 from .model import GROUND, Mechanism
 from .sweep import Sweep, sweep
 
@@ -58,7 +59,11 @@ def loop_checks(mech: Mechanism) -> list:
     for group in decompose(mech).groups:
         if group.form == "numeric":
             continue
-        r = group.roles
+        r = dict(group.roles)
+        links = tuple(group.links)
+        if group.form == "RRR" and r["A"] in mech.ground and r["C"] not in mech.ground:
+            # The file listed the rocker first: read the loop from the crank's side.
+            r["A"], r["C"], links = r["C"], r["A"], links[::-1]
         pin = r["A"] if group.form != "RPR" else r["D"]
         carrier = next((b for b in mech.bodies_of(pin) if b not in group.links and b != GROUND), None)
         pivot = _ground_pivot(mech, carrier) if carrier else None
@@ -69,12 +74,11 @@ def loop_checks(mech: Mechanism) -> list:
             frame, coupler, output = _length(mech, pivot, r["C"]), _length(mech, r["A"], r["B"]), \
                 _length(mech, r["C"], r["B"])
             verdict, turns = grashof_class(frame, crank, coupler, output)
-            names = {"input": carrier, "output": group.links[1], "coupler": group.links[0], "frame": "ground",
-                     "input and output": f"{carrier} and {group.links[1]}"}
-            checks.append(LoopCheck(f"four-bar {carrier}-{group.links[0]}-{group.links[1]}", verdict,
+            names = {"input": carrier, "output": links[1], "coupler": links[0], "frame": "ground",
+                     "input and output": f"{carrier} and {links[1]}"}
+            checks.append(LoopCheck(f"four-bar {carrier}-{links[0]}-{links[1]}", verdict,
                                     names.get(turns) if turns else None,
-                                    {"frame": frame, carrier: crank, group.links[0]: coupler,
-                                     group.links[1]: output}))
+                                    {"frame": frame, carrier: crank, links[0]: coupler, links[1]: output}))
             continue
         slide = mech.slides[group.slide] if group.slide else None
         if slide is None or slide.guide != GROUND and group.form == "RRP":
@@ -85,19 +89,26 @@ def loop_checks(mech: Mechanism) -> list:
             offset = abs((px - ex) * (fy - ey) - (py - ey) * (fx - ex)) / math.hypot(fx - ex, fy - ey)
             rod = _length(mech, pin, r["D"])
             turns = crank + offset < rod
-            checks.append(LoopCheck(f"slider-crank {carrier}-{group.links[0]}",
+            checks.append(LoopCheck(f"slider-crank {carrier}-{links[0]}",
                                     f"r + |e| {'<' if turns else '≥'} l: {crank:.4g} + {offset:.4g} vs {rod:.4g}",
                                     carrier if turns else None, {carrier: crank, "offset": offset,
-                                                                 group.links[0]: rod}))
+                                                                 links[0]: rod}))
         elif r["C"] in mech.ground:
-            lever = group.links[0]
+            lever = links[0]
             (ex, ey), (fx, fy) = (mech.points[p] for p in slide.line)
             cx, cy = mech.points[r["C"]]
             offset = abs((cx - ex) * (fy - ey) - (cy - ey) * (fx - ex)) / math.hypot(fx - ex, fy - ey)
             centres = _length(mech, pivot, r["C"])
-            turns = crank + offset < centres
-            checks.append(LoopCheck(f"crank and slotted lever {carrier}-{lever}",
-                                    f"r + |e| {'<' if turns else '≥'} d: {crank:.4g} + {offset:.4g} vs {centres:.4g}",
+            # The slot must pass the crank pin at every crank angle: |C - pin| stays ≥ |e|, and it
+            # ranges over [|d - r|, d + r]. Below d the lever rocks; beyond, it turns too (Whitworth).
+            if crank + offset < centres:
+                verdict = f"r + |e| < d: {crank:.4g} + {offset:.4g} < {centres:.4g}, the lever rocks"
+            elif crank - offset > centres:
+                verdict = f"r − |e| > d: {crank:.4g} − {offset:.4g} > {centres:.4g}, the lever turns fully too"
+            else:
+                verdict = f"|d − r| < |e| or the pin passes the pivot: {crank:.4g}, {offset:.4g}, {centres:.4g}"
+            turns = crank + offset < centres or crank - offset > centres
+            checks.append(LoopCheck(f"crank and slotted lever {carrier}-{lever}", verdict,
                                     carrier if turns else None, {carrier: crank, "offset": offset,
                                                                  "centre distance": centres}))
     return checks
@@ -172,15 +183,14 @@ def output_motion(mech: Mechanism, result: Sweep) -> dict | None:
 
 
 def report(mech: Mechanism, steps: int = 3600) -> dict:
-    """Everything ``kinepoly check`` prints, as data."""
-    result = sweep(mech, steps)
-    angles = transmission_angles(mech, result)
-    transmission = {}
-    for key, mu in angles.items():
-        worst = int(np.argmax(np.abs(mu - 90.0)))
-        transmission[key] = {"min_deg": float(mu.min()), "max_deg": float(mu.max()),
-                             "largest_deviation_from_90_deg": float(abs(mu[worst] - 90.0)),
-                             "at_driver_angle_deg": float(result.driver_angle_deg[worst])}
-    return {"loops": loop_checks(mech), "transmission": transmission,
-            "full_turn": result.full_turn, "range_deg": result.range_deg,
-            "output": output_motion(mech, result), "warnings": result.warnings}
+    """Everything ``kinepoly check`` prints, as data. A cycle that cannot be swept (a change
+    point on the way, a group that is no dyad) leaves the loop checks and says why in ``cycle``."""
+    from .peaks import peaks
+
+    loops = loop_checks(mech)
+    try:
+        table = peaks(sweep(mech, steps))
+    except KinematicsError as err:
+        return {"loops": loops, "cycle": str(err)}
+    return {"loops": loops, "cycle": "", "transmission": table["transmission"], "full_turn": table["full_turn"],
+            "range_deg": table["range_deg"], "output": table["output"], "warnings": table["warnings"]}

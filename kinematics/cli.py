@@ -14,7 +14,7 @@ import sys
 
 from . import CAUTION, construct, diagnose, load_mechanism, solve
 from .drawing.output import run_reporting
-from .report_text import construction_text, peaks_text, solution_table
+from .report_text import construction_text, peaks_text, solution_table, turn
 from .storage import write_atomically
 
 
@@ -84,6 +84,9 @@ def _check(args) -> int:
     for loop in data["loops"]:
         turns = f"; turns fully: {loop.turns_fully}" if loop.turns_fully else "; no link turns fully"
         print(f"{loop.loop}: {loop.verdict}{turns}")
+    if data["cycle"]:
+        print(f"cycle not swept: {data['cycle']}")
+        return 0
     if data["full_turn"]:
         print(f"driver {mech.driver.link} turns fully")
     else:
@@ -91,11 +94,12 @@ def _check(args) -> int:
         print(f"driver {mech.driver.link} cannot turn fully: dead points at {low:.3f}° and {high:.3f}°")
     for key, t in data["transmission"].items():
         print(f"transmission angle {key}: {t['min_deg']:.2f}° to {t['max_deg']:.2f}°, largest deviation from 90° "
-              f"{t['largest_deviation_from_90_deg']:.2f}° at driver angle {t['at_driver_angle_deg'] % 360:.2f}°")
+              f"{t['largest_deviation_from_90_deg']:.2f}° at driver angle {turn(t['deviation_at_deg'], 2):.2f}°")
     out = data["output"]
     if out:
-        print(f"output {out['output']}: travel {out['travel']:.4g} {out['unit']}, rate reverses (limit positions) at "
-              + ", ".join(f"{a % 360:.2f}°" for a in out["rate_reversals_deg"]))
+        reversals = ", ".join(f"{turn(a, 2):.2f}°" for a in out["rate_reversals_deg"]) or "none (it turns one way)"
+        print(f"output {out['output']}: travel {out['travel']:.4g} {out['unit']}; rate reverses (limit positions) "
+              f"at {reversals}")
         if "time_ratio" in out:
             print(f"time ratio {out['time_ratio']:.4f}: slow stroke {out['slow_stroke']} over "
                   f"{out['slow_stroke_driver_deg']:.2f}° of driver turn, "

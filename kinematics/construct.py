@@ -17,6 +17,7 @@ import numpy as np
 from shapely.geometry import Point
 
 from .decompose import Group, decompose
+from .errors import KinematicsError
 from .groups import Frame, Laid, acceleration, drive, velocity
 from .model import GROUND
 from .solve import Solution
@@ -52,9 +53,11 @@ def _laid_step(builder: PolygonBuilder, laid: Laid, frame: Frame, group: Group):
         magnitude = abs(laid.end - laid.start)
         # In a slotted link the radial component belongs to the link's point under the slider.
         who = f"the point of {link} under {laid.point}" if group.form == "RPR" else laid.point
+        equation = (f"a^r = ω_{link}²·{laid.about}{laid.point} (point of {link} under {laid.point})"
+                    if group.form == "RPR" else f"a_{laid.point}{laid.about}^r = v_{laid.point}{laid.about}² / "
+                    f"{laid.point}{laid.about}")
         return builder.vector(
-            Component.RADIAL, laid.start, laid.end, "", f"a_{laid.point}{laid.about}^r = v_{laid.point}{laid.about}²"
-            f" / {laid.point}{laid.about}",
+            Component.RADIAL, laid.start, laid.end, "", equation,
             f"radial component of {who} relative to {laid.about}: v²/r = {figure(magnitude)} m/s², "
             f"directed from {laid.point} to {laid.about}", points=(laid.point,), links=(link,))
     magnitude = abs(laid.end - laid.start)
@@ -270,6 +273,12 @@ def construct(solution: Solution, box_mm: float = 120.0, velocity_scale: float |
     box_mm : size of the square box each polygon should fit when drawn.
     velocity_scale, acceleration_scale : fixed scales (m/s or m/s² per mm), or None to choose.
     """
+    for name, value, allow_none in (("box_mm", box_mm, False), ("velocity_scale", velocity_scale, True),
+                                    ("acceleration_scale", acceleration_scale, True)):
+        if value is None and allow_none:
+            continue
+        if not (isinstance(value, (int, float)) and math.isfinite(value) and value > 0):
+            raise KinematicsError(f"{name} must be a positive number, not {value!r}", name)
     mech = solution.mechanism
     decomposition = decompose(mech)
     frame = Frame.start(mech)
@@ -280,7 +289,8 @@ def construct(solution: Solution, box_mm: float = 120.0, velocity_scale: float |
     drive(frame, driver.link, driver.pivot, angle, driver.speed_rad_s, driver.angular_acceleration_rad_s2)
     for i, name in enumerate(solution.point_names):  # keep the solver's space diagram exactly
         frame.pos[name] = np.complex128(complex(*solution.positions[i]))
-    vb, ab = PolygonBuilder("velocity", "m/s"), PolygonBuilder("acceleration", "m/s^2")
+    ground = frozenset(mech.ground)
+    vb, ab = PolygonBuilder("velocity", "m/s", ground), PolygonBuilder("acceleration", "m/s^2", ground)
     placed_v, placed_a = set(mech.ground), set(mech.ground)
     vb.add(Role.IMAGE, None, "o", Point(0.0, 0.0), "v = 0 for every fixed point",
            "o: the pole; every fixed point has its velocity image here", points=tuple(mech.ground))

@@ -320,7 +320,9 @@ def load_mechanism(source) -> Mechanism:
         for anything not well-formed, with ``location`` naming the place.
     """
     if isinstance(source, dict):
-        return mechanism_from_document(source)
+        return mechanism_from_document(source, "document")
+    if not isinstance(source, (str, os.PathLike)):
+        raise FileFormatError(f"give a file path or a parsed mechanism document, not {type(source).__name__}")
     doc = read_document(source)
     try:
         return mechanism_from_document(doc, str(source))
@@ -359,4 +361,8 @@ def document_from_mechanism(mechanism: Mechanism) -> dict:
 
 
 def dumps(mechanism: Mechanism) -> str:
-    return json.dumps(document_from_mechanism(mechanism), indent=2, ensure_ascii=False) + "\n"
+    """The file text of a Mechanism. Refuses data JSON cannot store (NaN under an ``x-`` key)."""
+    try:
+        return json.dumps(document_from_mechanism(mechanism), indent=2, ensure_ascii=False, allow_nan=False) + "\n"
+    except ValueError as err:
+        raise FileFormatError(f"the design holds a number a file cannot store: {err}", "extensions") from None

@@ -34,6 +34,10 @@ def unit(z):
     return z * (1.0 / np.abs(z))
 
 
+# A pose drawn exactly at a dead point computes as reaching by a hair more than it can.
+REACH_TOLERANCE = 1e-12
+
+
 @dataclass(frozen=True)
 class Line:
     """The line through ``through`` with direction ``direction`` (complex)."""
@@ -89,6 +93,9 @@ class Frame:
     ref: dict
     strict: bool = True
     invalid: np.ndarray | bool = False
+    # Group name -> how near each pose is to the group's straight (dead or change) configuration:
+    # 1 where the two candidate positions of the group meet, above 1 where it cannot assemble.
+    nearness: dict = field(default_factory=dict)
     pos: dict = field(default_factory=dict)
     vel: dict = field(default_factory=dict)
     acc: dict = field(default_factory=dict)
@@ -185,7 +192,8 @@ def position(frame: Frame, group: Group, where: str = ""):
         dist = np.abs(d)
         with np.errstate(divide="ignore", invalid="ignore"):
             cos_beta = (la ** 2 + dist ** 2 - lc ** 2) / (2.0 * la * dist)
-        _refuse(frame, where, message, ~(np.abs(cos_beta) <= 1.0))
+        frame.nearness[group.name] = np.abs(cos_beta)
+        _refuse(frame, where, message, ~(np.abs(cos_beta) <= 1.0 + REACH_TOLERANCE))
         beta = np.arccos(np.clip(cos_beta, -1.0, 1.0))
         pos[r["B"]] = a + la * unit(d) * np.exp(1j * group.sign * beta)
         frame.place(group.links[0], r["A"], r["B"])
@@ -196,7 +204,8 @@ def position(frame: Frame, group: Group, where: str = ""):
         a = pos[r["A"]]
         length = abs(ref[r["D"]] - ref[r["A"]])
         h = cross(u, a - e)
-        _refuse(frame, where, message, h ** 2 > length ** 2)
+        frame.nearness[group.name] = np.abs(h) / length
+        _refuse(frame, where, message, np.abs(h) > length * (1.0 + REACH_TOLERANCE))
         s = dot(u, a - e) + group.sign * np.sqrt(np.maximum(length ** 2 - h ** 2, 0.0))
         pos[r["D"]] = e + s * u
         frame.place(group.links[0], r["A"], r["D"])
@@ -208,7 +217,11 @@ def position(frame: Frame, group: Group, where: str = ""):
         offset = cross(u_ref, ref[r["C"]] - e_ref)
         w = pos[r["D"]] - pos[r["C"]]
         rho = np.abs(w)
-        _refuse(frame, where, message, np.abs(offset) > rho)
+        # Straight here means the slot's line is tangent to the circle |C − D| = |e|, or, for a slot
+        # through the pivot, the pin passing over the pivot (the slot's direction is then undefined).
+        with np.errstate(divide="ignore", invalid="ignore"):
+            frame.nearness[group.name] = np.fmax(np.abs(offset) / rho, 1.0 - rho / abs(ref[r["D"]] - ref[r["C"]]))
+        _refuse(frame, where, message, np.abs(offset) > rho * (1.0 + REACH_TOLERANCE))
         turn_in = np.arcsin(np.clip(offset / rho, -1.0, 1.0))
         psi = np.angle(w) + np.where(group.sign > 0, turn_in, np.pi - turn_in)
         turn = np.exp(1j * psi) / u_ref

@@ -70,6 +70,12 @@ def diagnose(mech: Mechanism) -> list:
 
 def _diagnose(mech: Mechanism) -> list:
     findings = []
+    for link, pts in mech.links.items():
+        if tuple(mech.points[pts[0]]) == tuple(mech.points[pts[1]]):
+            findings.append(Finding(f"links.{link}", f"the first two points {pts[0]} and {pts[1]} of link {link} "
+                                                     "coincide: the link has no length to keep"))
+    if findings:
+        return findings
     for p in loose_points(mech):
         findings.append(Finding(f"points.{p}", f"point {p} is on no link and not on ground"))
     if mech.driver is None:

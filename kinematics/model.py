@@ -12,6 +12,7 @@ from collections.abc import Mapping
 from dataclasses import dataclass, field, replace
 from types import MappingProxyType
 
+from .errors import KinematicsError
 from .units import RAD_S2_PER_ACCELERATION_UNIT, RAD_S_PER_SPEED_UNIT, metres_per
 
 GROUND = "ground"
@@ -135,6 +136,9 @@ def move_point(mechanism: Mechanism, name: str, xy) -> Mechanism:
     """
     points = dict(mechanism.points)
     if name not in points:
-        raise KeyError(name)
-    points[name] = (float(xy[0]), float(xy[1]))
+        raise KinematicsError(f'unknown point "{name}"', "points")
+    x, y = (float(c) for c in xy)
+    if not (math.isfinite(x) and math.isfinite(y)):
+        raise KinematicsError(f"point {name} cannot go to ({x}, {y}): coordinates must be finite", f"points.{name}")
+    points[name] = (x, y)
     return replace(mechanism, points=points, warnings=())

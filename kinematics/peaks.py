@@ -2,10 +2,27 @@
 
 from __future__ import annotations
 
+from dataclasses import replace
+
 import numpy as np
 
 from .checks import output_motion, transmission_angles
 from .sweep import Sweep
+
+DEAD_POINT_SHARE = 0.01
+
+
+def _trimmed(result: Sweep, kept: slice) -> Sweep:
+    def cut(mapping):
+        return {k: v[kept] for k, v in mapping.items()}
+
+    return replace(result, driver_angle_deg=result.driver_angle_deg[kept], positions=result.positions[kept],
+                   velocities=result.velocities[kept], accelerations=result.accelerations[kept],
+                   link_angle_deg=cut(result.link_angle_deg), angular_velocity=cut(result.angular_velocity),
+                   angular_acceleration=cut(result.angular_acceleration),
+                   sliding_velocity=cut(result.sliding_velocity),
+                   sliding_acceleration=cut(result.sliding_acceleration),
+                   time_s=None if result.time_s is None else result.time_s[kept])
 
 
 def _at(values, angles):
@@ -22,7 +39,13 @@ def peaks(result: Sweep) -> dict:
     travel and time ratio; ``velocity_ratio``: output rate over driver speed,
     its extremes over the cycle.
     """
-    mech, angles = result.mechanism, result.driver_angle_deg
+    mech = result.mechanism
+    # Speeds grow without bound towards a dead point: a rocking driver's peaks leave out the
+    # outer DEAD_POINT_SHARE of its range at each end, and say so.
+    trim = 0 if result.full_turn else max(1, int(DEAD_POINT_SHARE * len(result.driver_angle_deg)))
+    kept = slice(trim, len(result.driver_angle_deg) - trim)
+    angles = result.driver_angle_deg[kept]
+    whole, result = result, _trimmed(result, kept)
     points = {}
     for i, name in enumerate(result.point_names):
         speed, at_v = _at(np.linalg.norm(result.velocities[:, i], axis=1), angles)
@@ -47,7 +70,8 @@ def peaks(result: Sweep) -> dict:
                              "max_deg": float(mu.max()), "largest_deviation_from_90_deg": deviation,
                              "deviation_at_deg": at}
     table = {"points": points, "links": links, "slides": slides, "transmission": transmission,
-             "output": output_motion(mech, result), "full_turn": result.full_turn,
+             "dead_point_share_left_out": DEAD_POINT_SHARE if trim else 0.0,
+             "output": output_motion(mech, whole), "warnings": list(whole.warnings), "full_turn": result.full_turn,
              "range_deg": list(result.range_deg), "closes": result.closes}
     out = mech.output
     omega = mech.driver.speed_rad_s

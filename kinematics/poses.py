@@ -52,7 +52,9 @@ def pose_warnings(mech: Mechanism, decomposition: Decomposition, xy: dict) -> li
             for carrier in mech.bodies_of(pin):
                 if carrier in (GROUND, *group.links):
                     continue
-                base = next((p for p in mech.links[carrier] if p != pin), None)
+                # The carrier's line runs from its pivot (a ground point if it has one) to the pin.
+                others = [p for p in mech.links[carrier] if p != pin]
+                base = next((p for p in others if p in mech.ground), others[0] if others else None)
                 in_line = _angle_between_lines(_vector(xy, base, pin), _vector(xy, pin, other))
                 if in_line < IN_LINE_DEG:
                     warnings.append(f"toggle: links {carrier} and {link} are {in_line:.2f}° from being in line at "

@@ -15,8 +15,13 @@ def sense(value: float) -> str:
     return "CW" if value < 0 else "at rest"
 
 
+def turn(angle_deg: float, digits: int) -> float:
+    """An angle in [0°, 360°) as it will print to ``digits`` decimals (359.99999° prints as 0.00°)."""
+    return round(angle_deg, digits) % 360.0
+
+
 def direction_deg(vx: float, vy: float) -> float:
-    return math.degrees(math.atan2(vy, vx)) % 360.0
+    return turn(math.degrees(math.atan2(vy, vx)), 1)
 
 
 def solution_table(solution: Solution) -> str:
@@ -65,24 +70,24 @@ def peaks_text(table: dict) -> str:
     """The peaks table of :func:`kinematics.peaks.peaks`, for people."""
     lines = [f"{'point':<8}{'max |v| [m/s]':>15}{'at [°]':>9}{'max |a| [m/s²]':>16}{'at [°]':>9}"]
     for name, p in table["points"].items():
-        lines.append(f"{name:<8}{p['max_speed']:>15.4f}{p['at_deg'] % 360:>9.1f}{p['max_acceleration']:>16.4f}"
-                     f"{p['acceleration_at_deg'] % 360:>9.1f}")
+        lines.append(f"{name:<8}{p['max_speed']:>15.4f}{turn(p['at_deg'], 1):>9.1f}{p['max_acceleration']:>16.4f}"
+                     f"{turn(p['acceleration_at_deg'], 1):>9.1f}")
     lines += ["", f"{'link':<12}{'max |ω| [rad/s]':>17}{'at [°]':>9}{'max |α| [rad/s²]':>18}{'at [°]':>9}"]
     for name, p in table["links"].items():
-        lines.append(f"{name:<12}{p['max_angular_velocity']:>17.4f}{p['at_deg'] % 360:>9.1f}"
-                     f"{p['max_angular_acceleration']:>18.4f}{p['acceleration_at_deg'] % 360:>9.1f}")
+        lines.append(f"{name:<12}{p['max_angular_velocity']:>17.4f}{turn(p['at_deg'], 1):>9.1f}"
+                     f"{p['max_angular_acceleration']:>18.4f}{turn(p['acceleration_at_deg'], 1):>9.1f}")
     if table["slides"]:
         lines += ["", f"{'slide':<12}{'max |v| [m/s]':>15}{'at [°]':>9}{'max |a| [m/s²]':>16}{'at [°]':>9}"]
         for name, p in table["slides"].items():
-            lines.append(f"{name:<12}{p['max_sliding_velocity']:>15.4f}{p['at_deg'] % 360:>9.1f}"
-                         f"{p['max_sliding_acceleration']:>16.4f}{p['acceleration_at_deg'] % 360:>9.1f}")
+            lines.append(f"{name:<12}{p['max_sliding_velocity']:>15.4f}{turn(p['at_deg'], 1):>9.1f}"
+                         f"{p['max_sliding_acceleration']:>16.4f}{turn(p['acceleration_at_deg'], 1):>9.1f}")
     for key, t in table["transmission"].items():
-        lines.append(f"transmission angle {key}: minimum {t['min_deg']:.2f}° at {t['at_deg'] % 360:.1f}°, "
+        lines.append(f"transmission angle {key}: minimum {t['min_deg']:.2f}° at {turn(t['at_deg'], 1):.1f}°, "
                      f"largest deviation from 90° {t['largest_deviation_from_90_deg']:.2f}°")
     out = table.get("output")
     if out:
         lines.append(f"output {out['output']}: travel {out['travel']:.4g} {out['unit']}; limit positions at "
-                     + ", ".join(f"{a % 360:.2f}°" for a in out["rate_reversals_deg"]))
+                     + ", ".join(f"{turn(a, 2):.2f}°" for a in out["rate_reversals_deg"]))
         if "time_ratio" in out:
             lines.append(f"time ratio {out['time_ratio']:.4f} (slow stroke: {out['slow_stroke']})")
     ratio = table.get("velocity_ratio")
@@ -91,5 +96,7 @@ def peaks_text(table: dict) -> str:
                      f"{ratio['unit']}")
     if not table["full_turn"]:
         low, high = table["range_deg"]
-        lines.append(f"the driver rocks between its dead points {low:.3f}° and {high:.3f}°")
+        lines.append(f"the driver rocks between its dead points {low:.3f}° and {high:.3f}°; the peaks leave out "
+                     f"{100 * table['dead_point_share_left_out']:g} % of that range at each end, where speeds grow "
+                     "without bound")
     return "\n".join(lines)

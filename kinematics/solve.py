@@ -91,9 +91,13 @@ class _Driven:
         self.columns = system.unknown_columns
         self.n = len(system.names)
         self.driver_columns = np.array([2 * system.driver_point, 2 * system.driver_point + 1])
+        self.zeros = np.zeros(2 * self.n)  # fixed points neither move nor accelerate
 
-    def full(self, q):
-        x = np.broadcast_to(self.system.x0.reshape(-1), q.shape[:-1] + (2 * self.n,)).copy()
+    def full(self, q, base=None):
+        """All point coordinates (..., n, 2): the unknowns q scattered over ``base``
+        (flattened coordinates; the reference pose by default, so fixed points stay put)."""
+        base = self.system.x0.reshape(-1) if base is None else base
+        x = np.broadcast_to(base, q.shape[:-1] + (2 * self.n,)).copy()
         x[..., self.columns] = q
         return x.reshape(q.shape[:-1] + (self.n, 2))
 
@@ -112,11 +116,6 @@ class _Driven:
         row[..., 0, self.driver_columns[1]] = np.cos(theta)
         return np.concatenate([jac, row], axis=-2)[..., self.columns]
 
-    def _expand(self, q):
-        x = np.zeros(q.shape[:-1] + (2 * self.n,))
-        x[..., self.columns] = q
-        return x.reshape(q.shape[:-1] + (self.n, 2))
-
     def rates(self, x, jac, theta, omega, alpha):
         """Velocities and accelerations (..., n, 2) of all points at pose x."""
         theta = np.asarray(theta, float)
@@ -125,16 +124,23 @@ class _Driven:
         w = self._lever(x)
         rhs = np.zeros(jac.shape[:-1])
         rhs[..., -1] = -_cross(perp_u, w) * omega
-        xdot = self._expand(np.linalg.solve(jac, rhs[..., None])[..., 0])
+        xdot = self.full(np.linalg.solve(jac, rhs[..., None])[..., 0], self.zeros)
         wdot = self._lever(xdot)
         driver_term = -_cross(u, w) * omega ** 2 + _cross(perp_u, w) * alpha + 2 * omega * _cross(perp_u, wdot)
         rhs = -np.concatenate([self.system.quadratic_term(xdot), driver_term[..., None]], axis=-1)
-        xddot = self._expand(np.linalg.solve(jac, rhs[..., None])[..., 0])
+        xddot = self.full(np.linalg.solve(jac, rhs[..., None])[..., 0], self.zeros)
         return xdot, xddot
 
 
+def newton_tolerance(system: ConstraintSystem) -> float:
+    """Residual (a length, m) below which a pose is converged: 1e-12 of the larger of the
+    mechanism's size and its distance from the origin, so rounding never blocks convergence."""
+    extent = np.ptp(system.x0, axis=0).max() if len(system.x0) else 0.0
+    return 1e-12 * max(float(extent), float(np.abs(system.x0).max(initial=0.0)), 1e-3)
+
+
 def _newton(driven: _Driven, q, theta, tolerance):
-    """Newton-Raphson from q (..., k); None where any pose of the batch fails."""
+    """Newton-Raphson from q (..., k); None where any pose of the batch fails to converge."""
     for _ in range(NEWTON_ITERATIONS):
         x = driven.full(q)
         try:
@@ -142,9 +148,11 @@ def _newton(driven: _Driven, q, theta, tolerance):
         except np.linalg.LinAlgError:
             return None
         q = q + step
-        if np.max(np.abs(step)) < tolerance:
-            if np.max(np.abs(driven.residual(driven.full(q), theta))) < 10 * tolerance:
-                return q
+        residual = np.max(np.abs(driven.residual(driven.full(q), theta)))
+        if not np.isfinite(residual):
+            return None
+        if residual < tolerance:
+            return q
     return None
 
 
@@ -152,7 +160,7 @@ def _track(driven: _Driven, q, theta0, span, direction, size):
     """Turn the driver from theta0 through ``span`` (rad, ≥ 0) in ``direction``.
 
     Returns (q, passed_singular) or None where a dead point stops the way."""
-    tolerance = 1e-13 * max(size, 1e-3)
+    tolerance = newton_tolerance(driven.system)
     done, step, theta, passed_singular = 0.0, MAX_STEP_RAD, theta0, False
     while done < span - 1e-15:
         h = min(step, span - done)
@@ -218,9 +226,29 @@ class _Way:
         self.spans, self.poses, self.passed = [0.0], [q_reference], [False]
         self.blocked = math.inf  # a dead point lies before this span
 
+    def _step_off(self, driven, theta_ref, direction):
+        """A reference pose drawn exactly at a dead point has no tangent to follow: take a
+        first pose a hair away by Newton alone, if the linkage can go this way at all."""
+        tolerance = newton_tolerance(driven.system)
+        q_ref = self.poses[0]
+        # The branches open along the Jacobian's null direction, as the square root of the turn.
+        null = np.linalg.svd(driven.jacobian(driven.full(q_ref), theta_ref))[2][-1]
+        size = max(float(np.ptp(driven.system.x0, axis=0).max()), 1e-3)
+        for nudge in (1e-8, 1e-6, 1e-4):
+            for side in (1.0, -1.0):
+                start = q_ref + side * math.sqrt(nudge) * size * null
+                q = _newton(driven, start, theta_ref + direction * nudge, tolerance)
+                if q is not None:
+                    self.spans.insert(1, nudge)
+                    self.poses.insert(1, q)
+                    self.passed.insert(1, False)
+                    return
+
     def reach(self, driven, theta_ref, span, direction, size):
         if span >= self.blocked:
             return None
+        if len(self.spans) == 1 and np.linalg.cond(driven.jacobian(driven.full(self.poses[0]), theta_ref)) > 1e12:
+            self._step_off(driven, theta_ref, direction)
         i = bisect.bisect_right(self.spans, span) - 1
         tracked = _track(driven, self.poses[i], theta_ref + direction * self.spans[i], span - self.spans[i],
                          direction, size)

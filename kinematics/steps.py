@@ -85,11 +85,6 @@ class Polygon:
     marks: dict
     steps: tuple
 
-    @property
-    def extent(self) -> float:
-        values = [math.hypot(*xy) for xy in list(self.images.values()) + list(self.marks.values())]
-        return max(values, default=0.0)
-
     def image_label(self, point: str) -> str:
         return point.lower() + (PRIME if self.kind == "acceleration" else "")
 
@@ -127,6 +122,7 @@ class PolygonBuilder:
 
     kind: str
     unit: str
+    ground: frozenset = frozenset()
     steps: list = field(default_factory=list)
     marks: dict = field(default_factory=dict)
     lines: list = field(default_factory=list)  # (index in steps, through, direction, meet)
@@ -136,7 +132,8 @@ class PolygonBuilder:
         return PRIME if self.kind == "acceleration" else ""
 
     def label(self, point: str) -> str:
-        return point.lower() + self.prime
+        """The image label of a point; every fixed point's image is the pole."""
+        return ("o" if point in self.ground else point.lower()) + self.prime
 
     def add(self, role, component, label, geometry, equation, text, **extra):
         step = Step(id=f"{self.kind[0]}{len(self.steps) + 1}", polygon=self.kind, role=role, component=component,

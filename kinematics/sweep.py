@@ -15,12 +15,14 @@ import numpy as np
 
 from .constraints import build_system
 from .decompose import decompose
-from .errors import CannotAssemble, KinematicsError
+from .errors import CannotAssemble, KinematicsError, ParallelLines
 from .groups import Frame, acceleration, drive, position, velocity
 from .mobility import require_ready
 from .model import Mechanism
-from .solve import _Driven, _newton, _track
+from .solve import _Driven, _newton, _track, newton_tolerance
 
+# About 100 bytes a pose per point: a million poses of a six-bar take about 1 GB.
+MAX_STEPS = 1_000_000
 # Dead points are looked for among at least this many poses of a turn ...
 PROBE_STEPS = 3600
 # ... and located to this fraction of a degree.
@@ -114,16 +116,59 @@ def driver_range(mech: Mechanism, decomposition=None, probe_steps=None, ok=None)
         ok = _assemblable(mech, decomposition, theta_ref + offsets)
     if ok.all():
         return True, (math.degrees(theta_ref), math.degrees(theta_ref) + 360.0)
-    forward = int(np.argmin(ok))                       # first failing probe going CCW
-    backward = probe_steps - int(np.argmin(ok[::-1]))  # last failing probe, counted CCW
-    high = _edge(mech, decomposition, theta_ref + offsets[forward - 1], theta_ref + offsets[forward])
-    low = _edge(mech, decomposition, theta_ref + offsets[backward % probe_steps] - 2 * math.pi,
-                theta_ref + offsets[backward - 1] - 2 * math.pi)
+    if not ok[0]:
+        raise CannotAssemble("the linkage cannot assemble in its own reference pose", "reference pose")
+    failing = np.flatnonzero(~ok)
+    first_bad, last_bad = int(failing[0]), int(failing[-1])  # nearest failing probes CCW and CW of the reference
+    high = _edge(mech, decomposition, theta_ref + offsets[first_bad - 1], theta_ref + offsets[first_bad])
+    # The reference pose itself may be the dead point (the last probe before it fails).
+    good_low = theta_ref + (offsets[last_bad + 1] - 2 * math.pi if last_bad + 1 < probe_steps else 0.0)
+    low = _edge(mech, decomposition, good_low, theta_ref + offsets[last_bad] - 2 * math.pi)
     return False, (math.degrees(low), math.degrees(high))
 
 
 def _first(mech):
     return next(p for p in mech.links[mech.driver.link] if p != mech.driver.pivot)
+
+
+# A group whose nearness peaks above this between probes is examined for a change point.
+CHANGE_POINT_SUSPECT = 0.999
+# A group whose refined nearness reaches 1 within this is passing straight: a change point.
+CHANGE_POINT_TOUCH = 1e-10
+
+
+def _nearness_at(mech, decomposition, group_name, angle_deg) -> float:
+    frame = _place(mech, decomposition, np.radians(np.array([angle_deg])))
+    return float(frame.nearness[group_name][0])
+
+
+def change_points(mech: Mechanism, decomposition, angles_deg: np.ndarray, probe: Frame) -> list:
+    """(group name, driver angle °) where a dyad passes straight inside the swept range.
+
+    There its two closed-form branches meet: the motion may go on along either, and the
+    construction lines are parallel. ``probe`` is the placement at ``angles_deg`` (in sweep
+    order); each suspect peak of its nearness is refined by a golden-section search."""
+    found = []
+    ratio = (math.sqrt(5.0) - 1.0) / 2.0
+    count = len(angles_deg)
+    for name, nearness in probe.nearness.items():
+        neighbours = np.roll(nearness, 1), np.roll(nearness, -1)
+        peaks = np.flatnonzero((nearness >= neighbours[0]) & (nearness >= neighbours[1])
+                               & (nearness > CHANGE_POINT_SUSPECT))
+        for k in peaks:
+            if k in (0, count - 1) and abs(angles_deg[-1] - angles_deg[0]) < 359.0:
+                continue  # the end of a ranged sweep is a dead point, not a change point
+            step = (angles_deg[1] - angles_deg[0])
+            low, high = angles_deg[k] - step, angles_deg[k] + step
+            for _ in range(60):
+                first, second = high - ratio * (high - low), low + ratio * (high - low)
+                if _nearness_at(mech, decomposition, name, first) > _nearness_at(mech, decomposition, name, second):
+                    high = second
+                else:
+                    low = first
+            if _nearness_at(mech, decomposition, name, 0.5 * (low + high)) >= 1.0 - CHANGE_POINT_TOUCH:
+                found.append((name, 0.5 * (low + high)))
+    return found
 
 
 class SweepCancelled(KinematicsError):
@@ -166,9 +211,10 @@ def sweep(mechanism: Mechanism, steps: int = 360, progress=None) -> Sweep:
     ``PROGRESS_CHUNK`` poses; returning False stops the sweep with
     :class:`SweepCancelled`.
     """
+    if not (isinstance(steps, int) and not isinstance(steps, bool) and 2 <= steps <= MAX_STEPS):
+        raise KinematicsError(f"a sweep takes a whole number of steps from 2 to {MAX_STEPS:,}, not {steps!r}",
+                              "steps")
     require_ready(mechanism)
-    if steps < 2:
-        raise KinematicsError(f"a sweep needs at least 2 steps, not {steps}", "steps")
     decomposition = decompose(mechanism)
     if not decomposition.all_dyads:
         raise KinematicsError("the linkage has a group that is no dyad; sweep it pose by pose with solve()",
@@ -193,6 +239,19 @@ def sweep(mechanism: Mechanism, steps: int = 360, progress=None) -> Sweep:
             angles = angles[::-1]
         warnings.append(f"the driver cannot turn fully: it rocks between its dead points {low:.2f}° and {high:.2f}°")
         frame = None
+    probe = frame
+    if probe is None:
+        probe_angles = np.linspace(angles[0], angles[-1], PROBE_STEPS, endpoint=not full)
+        probe = _place(mechanism, decomposition, np.radians(probe_angles))
+    else:
+        probe_angles = angles
+    passed = change_points(mechanism, decomposition, probe_angles, probe)
+    if passed:
+        name, where = passed[0]
+        raise ParallelLines(f"the {name} passes straight (a change point) at driver angle {where % 360:.3f}°: "
+                            "the linkage may go on along either branch there and the construction lines are "
+                            "parallel; a sweep through it is not made (solve pose by pose instead)",
+                            f"driver angle {where % 360:.3f}°")
     parts = []
     for begin in range(0, steps, chunk):
         part = frame if frame is not None else _place(mechanism, decomposition, np.radians(angles[begin:begin + chunk]))
@@ -232,7 +291,7 @@ def verify_sweep(result: Sweep, branch_step_deg: float = 10.0) -> dict:
     system = build_system(mech)
     driven = _Driven(system)
     omega, alpha = mech.driver.speed_rad_s, mech.driver.angular_acceleration_rad_s2
-    tolerance = 1e-13 * max(mech.size * mech.metres_per_unit, 1e-3)
+    tolerance = newton_tolerance(system)
     index = [result.point_names.index(n) for n in system.names]
     closed = result.positions[:, index]
     theta = np.radians(result.driver_angle_deg)
