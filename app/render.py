@@ -12,8 +12,6 @@ import os
 import sys
 from pathlib import Path
 
-from .files import write_atomically
-
 FOOTER_PIXELS = 44
 
 
@@ -85,6 +83,7 @@ def main(argv) -> int:
     from PySide6.QtWidgets import QApplication
 
     import kinematics
+    from kinematics.storage import write_atomically
 
     from .document import Document
 
@@ -105,9 +104,9 @@ def main(argv) -> int:
             return 3
     try:
         write_atomically(options.output, png_bytes(render_image(document, options.size)))
-    except OSError as error:
+    except kinematics.KinematicsError as error:
         print(f"kinepoly render: {error}", file=sys.stderr)
-        return 2
+        return 1
     app.processEvents()
     print(f"wrote {options.output} ({options.size[0]}x{options.size[1]} px)")
     return 0

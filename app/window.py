@@ -23,6 +23,7 @@ from PySide6.QtWidgets import (
 
 import kinematics
 from kinematics import KinematicsError, Mechanism
+from kinematics.storage import save_mechanism
 
 from .angle_control import AngleControl
 from .build_tools import HINTS, Builder
@@ -31,10 +32,11 @@ from .document import Document
 from .drawing_kit import preferred_length
 from .editing import JointDrag
 from .exports import SheetOutputs
-from .files import recent_files, remember, save_atomically
+from .files import recent_files, remember
 from .icons import icon
 from .panels import EMPTY_VIEW_MM, DrawingsPanel
 from .properties import PropertiesPanel
+from .recovery import Autosave, offer_recovery
 from .results import ResultsTable
 from .status import status_text
 from .steps_panel import StepsPanel
@@ -51,6 +53,7 @@ class MainWindow(SheetOutputs, QMainWindow):
     def __init__(self, mechanism: Mechanism | None = None, path=None):
         super().__init__()
         self.document = Document(mechanism or empty(), path, self)
+        self.autosave = Autosave(self.document, parent=self)
         self.note = ""
         self.drag = None
         self.drawings = DrawingsPanel(self.document)
@@ -339,7 +342,7 @@ class MainWindow(SheetOutputs, QMainWindow):
 
     def save_to(self, path) -> bool:
         try:
-            save_atomically(self.document.mechanism, path)
+            save_mechanism(self.document.mechanism, path)
         except (KinematicsError, OSError) as error:
             self.show_error("Cannot save", f"{path}:\n{error}")
             return False
@@ -371,11 +374,19 @@ class MainWindow(SheetOutputs, QMainWindow):
             self.open_path(local[0], ask=True)
             event.acceptProposedAction()
 
+    def restore(self, mechanism: Mechanism, path=None):
+        """Take back a recovered design: shown as unsaved, its file name kept for Save."""
+        self.document.replace(mechanism, path)
+        self.document.undo_stack.resetClean()
+        self.drawings.fit_all()
+        self._update_title()
+
     def closeEvent(self, event):
         self.angle.stop()
         if self.ask_to_save():
             if self.cycle is not None:
                 self.cycle.cancel_fine_sweep()  # the plot's worker thread need not outlive its window
+            self.autosave.discard()  # a clean exit leaves no recovery copy
             event.accept()
         else:
             event.ignore()
@@ -395,5 +406,6 @@ def run(argv) -> int:
     """``kinepoly [FILE]``: open the window, with FILE if given, and run until it closes."""
     app = QApplication.instance() or QApplication([sys.argv[0], *[a for a in argv if a.startswith("-")]])
     app.setApplicationName("Kinepoly")
-    window = open_window(argv)  # noqa: F841 -- kept referenced while the event loop runs
+    window = open_window(argv)
+    offer_recovery(window)
     return app.exec()

@@ -53,10 +53,13 @@ def _keep_backup(target: Path):
     staging = target.with_name(f".{target.name}.bak.part")
     staging.unlink(missing_ok=True)
     try:
-        os.link(target, staging)
-    except OSError:
-        shutil.copy2(target, staging)
-    os.replace(staging, backup)
+        try:
+            os.link(target, staging)
+        except OSError:
+            shutil.copy2(target, staging)
+        os.replace(staging, backup)
+    finally:
+        staging.unlink(missing_ok=True)
 
 
 def replace_atomically(target, write: Callable[[str], None], keep_backup: bool = False) -> None:

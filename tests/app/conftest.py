@@ -4,7 +4,7 @@ import pytest
 from PySide6.QtCore import QSettings
 from PySide6.QtWidgets import QApplication
 
-from app import files
+from app import files, recovery
 from app.window import MainWindow
 
 from .designs import FOUR_BAR, load
@@ -12,9 +12,10 @@ from .designs import FOUR_BAR, load
 
 @pytest.fixture(autouse=True)
 def private_settings(tmp_path, monkeypatch):
-    """Recent files go to a temporary INI file, never the user's own settings."""
+    """Recent files and recovery copies go to a temporary folder, never the user's own."""
     path = str(tmp_path / "settings.ini")
     monkeypatch.setattr(files, "settings", lambda: QSettings(path, QSettings.IniFormat))
+    monkeypatch.setattr(recovery, "recovery_folder", lambda: tmp_path / "recovery")
 
 
 @pytest.fixture

@@ -1,0 +1,119 @@
+"""Recovery copies of unsaved work.
+
+While the design has unsaved changes, a copy is written every 60 s and on
+every 20th edit to the platform's application-data folder, never over the
+user's file. The next start after a crash offers it back, with its time and
+title; saving, or a clean exit, removes it. A copy belongs to the process
+that wrote it, so a second Kinepoly running at the same time leaves it alone.
+"""
+
+from __future__ import annotations
+
+import os
+from pathlib import Path
+
+from PySide6.QtCore import QObject, QStandardPaths, QTimer
+from PySide6.QtWidgets import QMessageBox
+
+from kinematics import KinematicsError
+from kinematics.storage import read_recovery, write_recovery
+
+AUTOSAVE_MS = 60_000
+EDITS_PER_COPY = 20
+PREFIX = "recovery-"
+
+
+def recovery_folder() -> Path:
+    """Where recovery copies live: ``<AppDataLocation>/recovery``."""
+    return Path(QStandardPaths.writableLocation(QStandardPaths.AppDataLocation)) / "recovery"
+
+
+def _alive(pid: int) -> bool:
+    try:
+        os.kill(pid, 0)
+    except ProcessLookupError:
+        return False
+    except PermissionError:
+        return True
+    return True
+
+
+class Autosave(QObject):
+    """Keeps a recovery copy of one Document while it has unsaved changes."""
+
+    def __init__(self, document, folder: Path | None = None, parent=None):
+        super().__init__(parent)
+        self.document = document
+        self.folder = Path(folder) if folder is not None else recovery_folder()
+        self.path = self.folder / f"{PREFIX}{os.getpid()}-{id(self):x}.json"
+        self.edits = 0
+        self.timer = QTimer(self)
+        self.timer.setInterval(AUTOSAVE_MS)
+        self.timer.timeout.connect(self.write_if_unsaved)
+        self.timer.start()
+        document.undo_stack.indexChanged.connect(self._edited)
+        document.undo_stack.cleanChanged.connect(self._clean_changed)
+
+    def _edited(self, _index: int):
+        self.edits += 1
+        if self.edits % EDITS_PER_COPY == 0:
+            self.write_if_unsaved()
+
+    def _clean_changed(self, clean: bool):
+        if clean:
+            self.discard()
+
+    def write_if_unsaved(self) -> bool:
+        """Write the copy if there is unsaved work; a copy that cannot be written never interrupts it."""
+        if self.document.undo_stack.isClean():
+            return False
+        try:
+            self.folder.mkdir(parents=True, exist_ok=True)
+            write_recovery(self.document.mechanism, self.path, source=str(self.document.path or ""))
+        except (KinematicsError, OSError):
+            return False
+        return True
+
+    def discard(self):
+        try:
+            self.path.unlink(missing_ok=True)
+        except OSError:
+            pass  # a folder that never held a copy
+
+
+def left_behind(folder: Path | None = None) -> list[Path]:
+    """Recovery copies of processes that are no longer running, newest first."""
+    folder = Path(folder) if folder is not None else recovery_folder()
+    copies = []
+    for path in folder.glob(f"{PREFIX}*.json"):
+        try:
+            pid = int(path.name[len(PREFIX):].split("-")[0])
+        except ValueError:
+            continue
+        if pid != os.getpid() and not _alive(pid):
+            copies.append(path)
+    return sorted(copies, key=lambda p: p.stat().st_mtime, reverse=True)
+
+
+def offer_recovery(window, folder: Path | None = None) -> bool:
+    """Offer the newest left-behind copy; True when the user took it back. Copies declined or
+    unreadable are removed, so the question comes once."""
+    for path in left_behind(folder):
+        try:
+            mechanism, saved_at, source = read_recovery(path)
+        except KinematicsError:
+            path.unlink(missing_ok=True)
+            continue
+        title = mechanism.title or "an untitled design"
+        origin = f" (from {source})" if source else ""
+        answer = QMessageBox.question(
+            window, "Restore unsaved work?",
+            f"Kinepoly stopped before “{title}”{origin} was saved.\nA recovery copy from {saved_at} is kept.\n\n"
+            "Restore it? (No deletes the copy.)")
+        if answer == QMessageBox.Yes:
+            window.restore(mechanism, source or None)
+            window.autosave.write_if_unsaved()
+            path.unlink(missing_ok=True)
+            return True
+        path.unlink(missing_ok=True)
+    return False
