@@ -143,22 +143,21 @@ def _nearness_at(mech, decomposition, group_name, angle_deg) -> float:
 
 
 def change_points(mech: Mechanism, decomposition, angles_deg: np.ndarray, probe: Frame) -> list:
-    """(group name, driver angle °) where a dyad passes straight inside the swept range.
+    """(group name, driver angle °) where a dyad passes straight inside the assemblable range.
 
     There its two closed-form branches meet: the motion may go on along either, and the
-    construction lines are parallel. ``probe`` is the placement at ``angles_deg`` (in sweep
-    order); each suspect peak of its nearness is refined by a golden-section search."""
+    construction lines are parallel. ``probe`` is the placement at the equally spaced
+    ``angles_deg``; each suspect peak of its nearness is refined by a golden-section search."""
     found = []
     ratio = (math.sqrt(5.0) - 1.0) / 2.0
-    count = len(angles_deg)
+    ok = ~np.asarray(probe.invalid, dtype=bool)
+    # A pose next to one that cannot assemble is at the end of the range: a dead point, not a change point.
+    inside = ok & np.roll(ok, 1) & np.roll(ok, -1)
+    step = abs(angles_deg[1] - angles_deg[0])
     for name, nearness in probe.nearness.items():
-        neighbours = np.roll(nearness, 1), np.roll(nearness, -1)
-        peaks = np.flatnonzero((nearness >= neighbours[0]) & (nearness >= neighbours[1])
+        peaks = np.flatnonzero(inside & (nearness >= np.roll(nearness, 1)) & (nearness >= np.roll(nearness, -1))
                                & (nearness > CHANGE_POINT_SUSPECT))
         for k in peaks:
-            if k in (0, count - 1) and abs(angles_deg[-1] - angles_deg[0]) < 359.0:
-                continue  # the end of a ranged sweep is a dead point, not a change point
-            step = (angles_deg[1] - angles_deg[0])
             low, high = angles_deg[k] - step, angles_deg[k] + step
             for _ in range(60):
                 first, second = high - ratio * (high - low), low + ratio * (high - low)
@@ -224,27 +223,13 @@ def sweep(mechanism: Mechanism, steps: int = 360, progress=None) -> Sweep:
     start = reference_angle_deg(mechanism)
     chunk = PROGRESS_CHUNK if progress is not None else steps
     angles = start + sense * np.arange(steps) * 360.0 / steps
-    # The probe for dead points (at least PROBE_STEPS poses a turn) is the first placement
-    # itself when the sweep is that fine and goes in one piece.
-    frame = None
-    if chunk >= steps >= PROBE_STEPS:
-        frame = _place(mechanism, decomposition, np.radians(angles))
-    ccw_mask = None if frame is None else (~frame.invalid if sense > 0 else np.roll(~frame.invalid[::-1], 1))
-    full, (low, high) = driver_range(mechanism, decomposition, steps if frame is not None else PROBE_STEPS, ccw_mask)
-    warnings = []
-    if not full:
-        margin = DEAD_POINT_MARGIN_DEG
-        angles = np.linspace(low + margin, high - margin, steps)
-        if sense < 0:
-            angles = angles[::-1]
-        warnings.append(f"the driver cannot turn fully: it rocks between its dead points {low:.2f}° and {high:.2f}°")
-        frame = None
-    probe = frame
-    if probe is None:
-        probe_angles = np.linspace(angles[0], angles[-1], PROBE_STEPS, endpoint=not full)
-        probe = _place(mechanism, decomposition, np.radians(probe_angles))
-    else:
-        probe_angles = angles
+    # One probe of at least PROBE_STEPS poses a turn finds the dead points and the change points;
+    # a sweep that fine, going in one piece, is its own probe.
+    own_probe = chunk >= steps >= PROBE_STEPS
+    probe_angles = angles if own_probe else start + sense * np.arange(PROBE_STEPS) * 360.0 / PROBE_STEPS
+    probe = _place(mechanism, decomposition, np.radians(probe_angles))
+    ccw_mask = ~probe.invalid if sense > 0 else np.roll(~probe.invalid[::-1], 1)
+    full, (low, high) = driver_range(mechanism, decomposition, len(probe_angles), ccw_mask)
     passed = change_points(mechanism, decomposition, probe_angles, probe)
     if passed:
         name, where = passed[0]
@@ -252,6 +237,14 @@ def sweep(mechanism: Mechanism, steps: int = 360, progress=None) -> Sweep:
                             "the linkage may go on along either branch there and the construction lines are "
                             "parallel; a sweep through it is not made (solve pose by pose instead)",
                             f"driver angle {where % 360:.3f}°")
+    frame = probe if own_probe and full else None
+    warnings = []
+    if not full:
+        margin = DEAD_POINT_MARGIN_DEG
+        angles = np.linspace(low + margin, high - margin, steps)
+        if sense < 0:
+            angles = angles[::-1]
+        warnings.append(f"the driver cannot turn fully: it rocks between its dead points {low:.2f}° and {high:.2f}°")
     parts = []
     for begin in range(0, steps, chunk):
         part = frame if frame is not None else _place(mechanism, decomposition, np.radians(angles[begin:begin + chunk]))
