@@ -8,8 +8,23 @@ import sys
 CORE_COMMANDS = ("check", "solve", "construct", "sweep", "export")
 
 
+USAGE = """usage: kinepoly [FILE]                 open the drafting window (on FILE)
+       kinepoly check FILE              mobility, Grashof, transmission angle, limit positions
+       kinepoly solve FILE [--angle DEG] [--json | --csv]
+       kinepoly construct FILE [--angle DEG] [--json]
+       kinepoly sweep FILE [--steps N] [-o cycle.csv] [--peaks] [--json]
+       kinepoly render FILE [--angle DEG] -o view.png [--size 1600x1000]
+       kinepoly print FILE [--angle DEG] [--paper A3] [--landscape] -o sheet.pdf
+       kinepoly export FILE [--angle DEG] -o drawing.dxf
+Each command takes --help. Exit codes: 0 ok, 1 output not written, 2 bad file or findings,
+3 cannot assemble at that angle."""
+
+
 def main(argv=None) -> int:
     argv = list(sys.argv[1:] if argv is None else argv)
+    if argv[:1] in (["-h"], ["--help"]):
+        print(USAGE)
+        return 0
     if argv and argv[0] in CORE_COMMANDS:
         from kinematics.cli import main as core_main
 

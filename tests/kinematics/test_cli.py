@@ -90,3 +90,10 @@ def test_unwritable_output_says_so(tmp_path):
     out = run("sweep", QUICK, "-o", str(target))
     assert out.returncode == 1 and "missing-folder: it is not an existing folder" in out.stderr
     assert not target.parent.exists()
+
+
+def test_top_level_help_lists_every_command():
+    out = run("--help")
+    assert out.returncode == 0
+    for command in ("check", "solve", "construct", "sweep", "render", "print", "export"):
+        assert f"kinepoly {command} FILE" in out.stdout
