@@ -53,6 +53,13 @@ def _length(mech, p, q):
     return math.hypot(float(x2) - float(x1), float(y2) - float(y1))
 
 
+def _distance_from_line(mech, point, line) -> float:
+    """Distance (file units) of ``point`` from the line through the two points of ``line``."""
+    (ex, ey), (fx, fy) = (mech.points[p] for p in line)
+    px, py = mech.points[point]
+    return abs((px - ex) * (fy - ey) - (py - ey) * (fx - ex)) / math.hypot(fx - ex, fy - ey)
+
+
 def loop_checks(mech: Mechanism) -> list:
     """Rotatability of each loop closed by a dyad whose input link is pivoted on ground."""
     checks = []
@@ -84,9 +91,7 @@ def loop_checks(mech: Mechanism) -> list:
         if slide is None or slide.guide != GROUND and group.form == "RRP":
             continue
         if group.form == "RRP":
-            (ex, ey), (fx, fy) = (mech.points[p] for p in slide.line)
-            px, py = mech.points[pivot]
-            offset = abs((px - ex) * (fy - ey) - (py - ey) * (fx - ex)) / math.hypot(fx - ex, fy - ey)
+            offset = _distance_from_line(mech, pivot, slide.line)
             rod = _length(mech, pin, r["D"])
             turns = crank + offset < rod
             checks.append(LoopCheck(f"slider-crank {carrier}-{links[0]}",
@@ -95,9 +100,7 @@ def loop_checks(mech: Mechanism) -> list:
                                                                  links[0]: rod}))
         elif r["C"] in mech.ground:
             lever = links[0]
-            (ex, ey), (fx, fy) = (mech.points[p] for p in slide.line)
-            cx, cy = mech.points[r["C"]]
-            offset = abs((cx - ex) * (fy - ey) - (cy - ey) * (fx - ex)) / math.hypot(fx - ex, fy - ey)
+            offset = _distance_from_line(mech, r["C"], slide.line)
             centres = _length(mech, pivot, r["C"])
             # The slot must pass the crank pin at every crank angle: |C - pin| stays ≥ |e|, and it
             # ranges over [|d - r|, d + r]. Below d the lever rocks; beyond, it turns too (Whitworth).

@@ -20,6 +20,7 @@ from functools import cached_property
 
 import numpy as np
 
+from .memo import remembered
 from .model import Mechanism
 
 DOT, CROSS = 0, 1
@@ -136,6 +137,11 @@ def build_system(mechanism: Mechanism) -> ConstraintSystem:
     return ConstraintSystem(names=names, x0=x0, free=free, kind=kind, a=a, b=b, c=c, d=d, k=k,
                             weight=weight, owner=tuple(r[5] for r in rows),
                             driver_pivot=pivot, driver_point=point)
+
+
+def constraint_system(mechanism: Mechanism) -> ConstraintSystem:
+    """The constraint system of ``mechanism``, built once for as long as the mechanism lives."""
+    return remembered(mechanism, "constraints", lambda: build_system(mechanism))
 
 
 def reference_driver_angle(system: ConstraintSystem) -> float:

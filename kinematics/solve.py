@@ -16,7 +16,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from .constraints import ConstraintSystem, build_system, reference_driver_angle
+from .constraints import ConstraintSystem, constraint_system, reference_driver_angle
 from .decompose import decompose
 from .errors import CannotAssemble
 from .memo import remembered
@@ -265,7 +265,7 @@ class _Way:
 
 def solve_pose(mechanism: Mechanism, angle_deg=None, system: ConstraintSystem | None = None) -> Solution:
     """Solve without checking findings first (see :func:`kinematics.solve`)."""
-    system = system or remembered(mechanism, "constraints", lambda: build_system(mechanism))
+    system = system or constraint_system(mechanism)
     driven = _Driven(system)
     driver = mechanism.driver
     omega, alpha = driver.speed_rad_s, driver.angular_acceleration_rad_s2

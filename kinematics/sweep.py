@@ -13,7 +13,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from .constraints import build_system
+from .constraints import constraint_system, reference_driver_angle
 from .decompose import decompose
 from .errors import CannotAssemble, KinematicsError, ParallelLines
 from .groups import Frame, acceleration, drive, position, velocity
@@ -100,8 +100,8 @@ def _edge(mech, decomposition, good, bad):
 
 
 def reference_angle_deg(mech: Mechanism) -> float:
-    x, y = np.subtract(mech.position_m(_first(mech)), mech.position_m(mech.driver.pivot))
-    return math.degrees(math.atan2(y, x))
+    """The driver angle of the reference pose, degrees (the solver's own definition)."""
+    return math.degrees(reference_driver_angle(constraint_system(mech)))
 
 
 def driver_range(mech: Mechanism, decomposition=None, probe_steps=None, ok=None):
@@ -125,10 +125,6 @@ def driver_range(mech: Mechanism, decomposition=None, probe_steps=None, ok=None)
     good_low = theta_ref + (offsets[last_bad + 1] - 2 * math.pi if last_bad + 1 < probe_steps else 0.0)
     low = _edge(mech, decomposition, good_low, theta_ref + offsets[last_bad] - 2 * math.pi)
     return False, (math.degrees(low), math.degrees(high))
-
-
-def _first(mech):
-    return next(p for p in mech.links[mech.driver.link] if p != mech.driver.pivot)
 
 
 # A group whose nearness peaks above this between probes is examined for a change point.
@@ -281,7 +277,7 @@ def verify_sweep(result: Sweep, branch_step_deg: float = 10.0) -> dict:
     ``acceleration``, and ``branch`` (position at the continuation poses).
     """
     mech = result.mechanism
-    system = build_system(mech)
+    system = constraint_system(mech)
     driven = _Driven(system)
     omega, alpha = mech.driver.speed_rad_s, mech.driver.angular_acceleration_rad_s2
     tolerance = newton_tolerance(system)
