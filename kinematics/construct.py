@@ -14,14 +14,13 @@ from __future__ import annotations
 import math
 
 import numpy as np
-from shapely.geometry import Point
 
 from .decompose import Group, decompose
 from .errors import KinematicsError
 from .groups import Frame, Laid, acceleration, drive, velocity
 from .model import GROUND
 from .solve import Solution
-from .steps import Component, Construction, PolygonBuilder, Role, as_xy, direction_deg, figure
+from .steps import Component, Construction, PolygonBuilder, Role, direction_deg, figure
 
 
 def _driver_steps(frame: Frame, mech, vb: PolygonBuilder, ab: PolygonBuilder):
@@ -79,7 +78,7 @@ def _image_steps(builder: PolygonBuilder, frame: Frame, link: str, placed: set, 
         if name in placed:
             continue
         placed.add(name)
-        builder.add(Role.IMAGE, None, builder.label(name), Point(as_xy(values[name])),
+        builder.add(Role.IMAGE, None, builder.label(name), (values[name],),
                     f"{builder.label(name)} by image of {link}", f"{builder.label(name)}: image of {name} on {link}, "
                     f"{how}", points=(name,), links=(link,))
 
@@ -243,7 +242,7 @@ def _numeric_group(vb: PolygonBuilder, ab: PolygonBuilder, frame: Frame, group: 
                     continue
                 placed.add(name)
                 values[name] = complex(*getattr(solution, field_name)[solution.point_names.index(name)])
-                builder.add(Role.IMAGE, None, builder.label(name), Point(as_xy(values[name])),
+                builder.add(Role.IMAGE, None, builder.label(name), (values[name],),
                             "from the numeric solver",
                             f"{builder.label(name)}: taken from the numeric solver ({group.name} is not a dyad; "
                             "no intersection construction)", points=(name,), links=(link,), numeric=True)
@@ -292,9 +291,9 @@ def construct(solution: Solution, box_mm: float = 120.0, velocity_scale: float |
     ground = frozenset(mech.ground)
     vb, ab = PolygonBuilder("velocity", "m/s", ground), PolygonBuilder("acceleration", "m/s^2", ground)
     placed_v, placed_a = set(mech.ground), set(mech.ground)
-    vb.add(Role.IMAGE, None, "o", Point(0.0, 0.0), "v = 0 for every fixed point",
+    vb.add(Role.IMAGE, None, "o", (0j,), "v = 0 for every fixed point",
            "o: the pole; every fixed point has its velocity image here", points=tuple(mech.ground))
-    ab.add(Role.IMAGE, None, "o′", Point(0.0, 0.0), "a = 0 for every fixed point",
+    ab.add(Role.IMAGE, None, "o′", (0j,), "a = 0 for every fixed point",
            "o′: the pole; every fixed point has its acceleration image here", points=tuple(mech.ground))
     _driver_steps(frame, mech, vb, ab)
     placed_v.update(mech.links[driver.link])
@@ -312,12 +311,12 @@ def construct(solution: Solution, box_mm: float = 120.0, velocity_scale: float |
     velocity_images = {n: frame.vel[n] for n in mech.points if n in frame.vel}
     acceleration_images = {n: frame.acc[n] for n in mech.points if n in frame.acc}
     worst, where = _crosscheck(solution, velocity_images, acceleration_images)
-    for step in vb.steps + ab.steps:
+    velocity = vb.finish(velocity_images, box_mm, velocity_scale)
+    acceleration = ab.finish(acceleration_images, box_mm, acceleration_scale)
+    for step in velocity.steps + acceleration.steps:
         if step.flagged:
             warnings.append(f"{step.polygon} polygon, step {step.id} ({step.label}): construction lines meet at "
                             f"{step.angle_between_deg:.3g}°, condition figure {step.condition:.3g}")
-    return Construction(
-        solution=solution, decomposition=decomposition,
-        velocity=vb.finish(velocity_images, box_mm, velocity_scale),
-        acceleration=ab.finish(acceleration_images, box_mm, acceleration_scale),
-        max_relative_difference=worst, where=where, warnings=tuple(warnings))
+    return Construction(solution=solution, decomposition=decomposition, velocity=velocity,
+                        acceleration=acceleration, max_relative_difference=worst, where=where,
+                        warnings=tuple(warnings))

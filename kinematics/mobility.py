@@ -7,7 +7,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from .constraints import build_system
+from .constraints import constraint_system
 from .errors import MechanismFindings
 from .memo import remembered
 from .model import GROUND, Mechanism
@@ -44,7 +44,7 @@ def _rank(matrix) -> int:
 
 def jacobian_mobility(mech: Mechanism):
     """(mobility, redundant links) from the rank of the constraint Jacobian at the reference pose."""
-    system = build_system(mech)
+    system = constraint_system(mech)
     loose = set(loose_points(mech))
     keep = [i for i, n in enumerate(system.names) if system.free[i] and n not in loose]
     columns = np.array([2 * i + k for i in keep for k in (0, 1)], dtype=int)

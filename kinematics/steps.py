@@ -13,7 +13,8 @@ from dataclasses import dataclass, field
 from enum import Enum
 
 import numpy as np
-from shapely.geometry import LineString, Point
+import shapely
+from shapely.geometry import LineString
 
 from .decompose import Decomposition, Group
 from .errors import ParallelLines
@@ -118,12 +119,16 @@ def direction_deg(z) -> float:
 
 @dataclass
 class PolygonBuilder:
-    """Collects the steps of one polygon as the construction proceeds."""
+    """Collects the steps of one polygon as the construction proceeds.
+
+    Each step is held as its fields and its ends (one complex number for a located point, two
+    for a line or vector) until :meth:`finish` makes all the geometry in one go.
+    """
 
     kind: str
     unit: str
     ground: frozenset = frozenset()
-    steps: list = field(default_factory=list)
+    steps: list = field(default_factory=list)  # dicts of Step fields, with "ends" for "geometry"
     marks: dict = field(default_factory=dict)
     lines: list = field(default_factory=list)  # (index in steps, through, direction, meet)
 
@@ -135,26 +140,25 @@ class PolygonBuilder:
         """The image label of a point; every fixed point's image is the pole."""
         return ("o" if point in self.ground else point.lower()) + self.prime
 
-    def add(self, role, component, label, geometry, equation, text, **extra):
-        step = Step(id=f"{self.kind[0]}{len(self.steps) + 1}", polygon=self.kind, role=role, component=component,
-                    label=label, geometry=geometry, equation=equation, text=text, **extra)
-        self.steps.append(step)
-        return step
+    def add(self, role, component, label, ends, equation, text, **extra):
+        """A step located by ``ends``: (z,) a point, (z0, z1) a line or a vector from z0 to z1."""
+        self.steps.append(dict(id=f"{self.kind[0]}{len(self.steps) + 1}", polygon=self.kind, role=role,
+                               component=component, label=label, ends=tuple(complex(z) for z in ends),
+                               equation=equation, text=text, **extra))
 
     def vector(self, component, start, end, label, equation, text, role=Role.KNOWN, **extra):
-        return self.add(role, component, label, LineString([as_xy(start), as_xy(end)]), equation, text, **extra)
+        self.add(role, component, label, (start, end), equation, text, **extra)
 
     def mark(self, z, text, equation, **extra) -> str:
         label = f"n{len(self.marks) + 1}".translate(SUBSCRIPTS) + self.prime
         self.marks[label] = as_xy(z)
-        self.add(Role.IMAGE, None, label, Point(as_xy(z)), equation, f"{label}: {text}", **extra)
+        self.add(Role.IMAGE, None, label, (z,), equation, f"{label}: {text}", **extra)
         return label
 
     def direction(self, component, through, direction, equation, text, **extra):
         self.lines.append((len(self.steps), complex(through), complex(direction)))
         # The segment is fitted to the finished polygon in finish().
-        return self.add(Role.DIRECTION, component, "", LineString([as_xy(through), as_xy(through)]), equation, text,
-                        **extra)
+        self.add(Role.DIRECTION, component, "", (through, through), equation, text, **extra)
 
     def intersection(self, meet, label, what, group: Group, **extra):
         point = complex(meet.point)
@@ -169,9 +173,8 @@ class PolygonBuilder:
         if flagged:
             text += f" — nearly parallel, condition figure {condition:.3g}"
         self.lines[-2:] = [line + (point,) for line in self.lines[-2:]]
-        return self.add(Role.INTERSECTION, None, label, Point(as_xy(point)), extra.pop("equation", ""), text,
-                        condition=condition, angle_between_deg=angle, flagged=flagged,
-                        links=tuple(group.links), **extra)
+        self.add(Role.INTERSECTION, None, label, (point,), extra.pop("equation", ""), text,
+                 condition=condition, angle_between_deg=angle, flagged=flagged, links=tuple(group.links), **extra)
 
     def finish(self, images: dict, box_mm: float, scale: float | None) -> Polygon:
         images = {k: as_xy(v) for k, v in images.items()}
@@ -182,12 +185,21 @@ class PolygonBuilder:
             ends = [through] + [complex(m) for m in meet]
             u = direction / abs(direction)
             along = [((e - through) * u.conjugate()).real for e in ends]
-            lo, hi = min(along) - margin, max(along) + margin
-            old = self.steps[index]
-            self.steps[index] = Step(**{**old.__dict__, "geometry": LineString([as_xy(through + lo * u),
-                                                                                as_xy(through + hi * u)])})
+            self.steps[index]["ends"] = (through + (min(along) - margin) * u, through + (max(along) + margin) * u)
         width = 2.0 * max(max(abs(x) for x, _ in everything), max(abs(y) for _, y in everything))
         chosen = scale if scale else preferred_scale(max(width, extent), box_mm)
         return Polygon(kind=self.kind, unit=self.unit, pole_label="o" + self.prime, scale_per_mm=chosen,
-                       images=images, marks=dict(self.marks),
-                       steps=tuple(self.steps))
+                       images=images, marks=dict(self.marks), steps=self._made_steps())
+
+    def _made_steps(self) -> tuple:
+        # Geometry made in two batches (points, segments): one at a time costs ten times as much.
+        located = {1: [], 2: []}
+        for index, record in enumerate(self.steps):
+            located[len(record["ends"])].append(index)
+        geometry = {}
+        for count, make in ((1, shapely.points), (2, shapely.linestrings)):
+            if located[count]:
+                xy = np.array([[as_xy(z) for z in self.steps[i]["ends"]] for i in located[count]], dtype=float)
+                geometry.update(zip(located[count], make(xy[:, 0] if count == 1 else xy), strict=True))
+        return tuple(Step(**{k: v for k, v in record.items() if k != "ends"}, geometry=geometry[i])
+                     for i, record in enumerate(self.steps))
