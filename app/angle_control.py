@@ -81,5 +81,9 @@ class AngleControl(QWidget):
             step = -step
         self.angle_requested.emit((min(max(angle + step, low), high)) % 360.0)
 
+    @property
+    def playing(self) -> bool:
+        return self.play.isChecked()
+
     def stop(self):
         self.play.setChecked(False)

@@ -15,6 +15,8 @@ from PySide6.QtGui import QUndoCommand, QUndoStack
 import kinematics
 from kinematics import KinematicsError, Mechanism
 
+from .throttle import Throttle
+
 # Every drag of one joint shares this command id so that its moves merge.
 DRAG_COMMAND_ID = 4101
 SWEEP_STEPS = 180  # 2° apart: smooth paths at drawing size, about 2 ms for a six-bar
@@ -78,7 +80,8 @@ class EditCommand(QUndoCommand):
 
     def redo(self):
         fresh, self._fresh = self._fresh, None
-        self.document.set_mechanism(self.after, fresh)
+        # A drag's own frame (fresh, not a later redo) may leave the cycle sweep for a moment.
+        self.document.set_mechanism(self.after, fresh, live=fresh is not None and self.drag is not None)
 
     def undo(self):
         self.document.set_mechanism(self.before)
@@ -92,12 +95,15 @@ class Document(QObject):
     mechanism : the current Mechanism (file units).
     angle_deg : the driver angle shown, degrees, or None for the reference pose.
     analysis : :class:`Analysis` of the mechanism at that angle.
-    sweep : the core's :class:`kinematics.Sweep` of one cycle, or None (unfinished, no dyad chain).
+    sweep : the core's :class:`kinematics.Sweep` of one cycle, or None (unfinished, no dyad chain);
+        during a drag it may be up to a tenth of a second behind ``mechanism`` (see
+        :attr:`sweep_behind`); ``swept`` says it has caught up.
     path : the file it was read from or saved to, or None.
     undo_stack : QUndoStack of :class:`EditCommand`.
     """
 
     changed = Signal()
+    swept = Signal()
 
     def __init__(self, mechanism: Mechanism, path=None, parent=None):
         super().__init__(parent)
@@ -106,7 +112,10 @@ class Document(QObject):
         self.angle_deg = None
         self.path = path
         self.analysis = analyse(mechanism, None)
-        self.sweep = cycle(mechanism) if self.analysis.solution is not None else None
+        self.sweep = None
+        self._sweeps = Throttle(self._sweep, parent=self)
+        self._sweeps.ran_late.connect(self.swept)
+        self._sweep()
 
     @property
     def solution(self):
@@ -121,8 +130,13 @@ class Document(QObject):
         """The driver angle of the pose on screen (None when nothing is solved)."""
         return self.solution.driver_angle_deg if self.solution is not None else self.angle_deg
 
-    def set_mechanism(self, mechanism: Mechanism, analysis: Analysis | None = None):
-        """Make ``mechanism`` current, recompute, and emit ``changed`` once."""
+    def set_mechanism(self, mechanism: Mechanism, analysis: Analysis | None = None, live: bool = False):
+        """Make ``mechanism`` current, recompute, and emit ``changed`` once.
+
+        ``live`` (a frame of a drag) sweeps the cycle at most ten times a second: a frame soon
+        after the last sweep leaves it behind, caught up when that tenth of a second is over or
+        the drag ends (:meth:`catch_up_sweep`).
+        """
         self.mechanism = mechanism
         self.analysis = analysis or analyse(mechanism, self.angle_deg)
         if self.analysis.solution is None and self.angle_deg is not None:
@@ -130,8 +144,20 @@ class Document(QObject):
             reference = analyse(mechanism, None)
             if reference.solution is not None:
                 self.angle_deg, self.analysis = None, reference
-        self.sweep = cycle(mechanism) if self.analysis.solution is not None else None
+        self._sweeps(live)
         self.changed.emit()
+
+    @property
+    def sweep_behind(self) -> bool:
+        """True while a drag has left :attr:`sweep` behind the design."""
+        return self._sweeps.held
+
+    def _sweep(self):
+        self.sweep = cycle(self.mechanism) if self.analysis.solution is not None else None
+
+    def catch_up_sweep(self):
+        """Bring a sweep that a drag left behind up to the design (the drag ended)."""
+        self._sweeps.flush()
 
     def replace(self, mechanism: Mechanism, path=None):
         """Start over with another design (New, Open): the history is cleared."""

@@ -98,26 +98,38 @@ class Label:
         self.text = QGraphicsSimpleTextItem(text, self.anchor)
         self.text.setFont(label_font(pixels, bold))
         self.text.setBrush(QBrush(QColor(colour)))
+        # Kept as a pixmap until the text changes: laying out the text anew at every paint of a
+        # drag costs more than all the lines of a polygon.
+        self.text.setCacheMode(QGraphicsItem.DeviceCoordinateCache)
+        self._measure()
         scene.addItem(self.anchor)
+
+    def offset(self, dx: float, dy: float, gap: float = GAP_PIXELS, flush_left: bool = False) -> tuple:
+        """Where the text's top left corner goes from the anchor, in screen pixels (see :meth:`place`)."""
+        width, height = self.size
+        if flush_left:
+            return 0.0, gap if dy > 0 else -gap - height
+        norm = math.hypot(dx, dy) or 1.0
+        ux, uy = dx / norm, dy / norm
+        # Centre of the text goes out along the direction far enough to clear the anchor.
+        reach = gap + 0.5 * abs(ux) * width + 0.5 * abs(uy) * height
+        return ux * reach - 0.5 * width, uy * reach - 0.5 * height
 
     def place(self, at: QPointF, dx: float = 1.0, dy: float = -1.0, flush_left: bool = False,
               gap: float = GAP_PIXELS):
         """Put the label beside ``at`` (scene), towards screen direction (dx, dy);
         ``flush_left`` starts the text at ``at`` instead of centring it."""
         self.anchor.setPos(at)
-        rect = self.text.boundingRect()
-        if flush_left:
-            self.text.setPos(0.0, gap if dy > 0 else -gap - rect.height())
-            return
-        norm = math.hypot(dx, dy) or 1.0
-        ux, uy = dx / norm, dy / norm
-        # Centre of the text goes out along the direction far enough to clear the anchor.
-        reach = gap + 0.5 * abs(ux) * rect.width() + 0.5 * abs(uy) * rect.height()
-        self.text.setPos(ux * reach - 0.5 * rect.width(), uy * reach - 0.5 * rect.height())
+        self.text.setPos(*self.offset(dx, dy, gap, flush_left))
 
     def set_text(self, text: str):
         if self.text.text() != text:
             self.text.setText(text)
+            self._measure()
+
+    def _measure(self):
+        rect = self.text.boundingRect()
+        self.size = (rect.width(), rect.height())  # screen pixels
 
 
 class ScaleBar:
@@ -165,27 +177,37 @@ def preferred_length(about: float) -> float:
 _COMPASS = [(math.cos(math.radians(a)), -math.sin(math.radians(a))) for a in (45, 135, 225, 315, 0, 90, 180, 270)]
 
 
+def overlap(a: tuple, b: tuple) -> bool:
+    """True when boxes (left, top, width, height) share some area (touching edges do not)."""
+    return a[0] < b[0] + b[2] and b[0] < a[0] + a[2] and a[1] < b[1] + b[3] and b[1] < a[1] + a[3]
+
+
+def square(at: QPointF, half: float) -> tuple:
+    """The box (left, top, width, height) of half-width ``half`` about ``at``."""
+    return (at.x() - half, at.y() - half, 2.0 * half, 2.0 * half)
+
+
 def declutter(labels, mm_per_pixel: float, obstacles=()):
-    """Move labels that overlap an earlier label (or an obstacle rect) to a free side.
+    """Place labels, moving one that would overlap an earlier label or an obstacle to a free side.
 
     ``labels`` is a list of (Label, anchor QPointF, (dx, dy) preferred direction[, gap pixels]),
-    placed in that order; sizes are on-screen pixels turned into scene units by ``mm_per_pixel``.
+    placed in that order; ``obstacles`` are scene boxes (left, top, width, height). Where no side is
+    free of both, a side free of the other labels will do. Label sizes are on-screen pixels, turned
+    into scene units by ``mm_per_pixel``.
     """
-    from PySide6.QtCore import QRectF
-
-    taken = list(obstacles)
-
-    def footprint(label):
-        box = label.text.boundingRect()
-        corner = label.anchor.pos() + label.text.pos() * mm_per_pixel
-        return QRectF(corner.x(), corner.y(), box.width() * mm_per_pixel, box.height() * mm_per_pixel)
-
+    placed = []
     for label, anchor, preferred, *gap in labels:
         gap = gap[0] if gap else Label.GAP_PIXELS
-        for direction in [preferred, *_COMPASS]:
-            label.place(anchor, *direction, gap=gap)
-            if not any(footprint(label).intersects(other) for other in taken):
-                break
-        else:
-            label.place(anchor, *preferred, gap=gap)
-        taken.append(footprint(label))
+        boxes = {d: _footprint(label, anchor, d, gap, mm_per_pixel) for d in [preferred, *_COMPASS]}
+        free = [d for d, box in boxes.items() if not any(overlap(box, other) for other in placed)]
+        chosen = next((d for d in free if not any(overlap(boxes[d], other) for other in obstacles)),
+                      free[0] if free else preferred)
+        label.place(anchor, *chosen, gap=gap)
+        placed.append(boxes[chosen])
+
+
+def _footprint(label: Label, anchor: QPointF, direction: tuple, gap: float, mm_per_pixel: float) -> tuple:
+    """The scene box ``label`` would cover, placed at ``anchor`` towards ``direction``."""
+    dx, dy = label.offset(*direction, gap=gap)
+    return (anchor.x() + dx * mm_per_pixel, anchor.y() + dy * mm_per_pixel,
+            label.size[0] * mm_per_pixel, label.size[1] * mm_per_pixel)

@@ -49,7 +49,10 @@ class DrawingsPanel(QSplitter):
             scene.show(polygon, plates)
             view.show_rect(scene.content_rect)
             scene.declutter(self._mm_per_pixel(view))
-            view.viewport().update()
+
+    def show_paths(self):
+        """Redraw the coupler paths alone (the document's sweep caught up with a drag)."""
+        self.space_scene.show_paths(self.document.sweep)
 
     def _pairs(self):
         return ((self.space_scene, self.space_view), (self.velocity_scene, self.velocity_view),

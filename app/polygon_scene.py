@@ -8,7 +8,7 @@ m/s²) sits at c / scale_per_mm.
 
 from __future__ import annotations
 
-from PySide6.QtCore import QLineF, QPointF, QRectF
+from PySide6.QtCore import QLineF, QPointF, QRectF, Qt
 from PySide6.QtGui import QBrush, QColor, QPen, QPolygonF
 from PySide6.QtWidgets import (
     QGraphicsEllipseItem,
@@ -22,7 +22,7 @@ from shapely.geometry import Point
 from kinematics import Role
 from kinematics.style import ANNOTATION, IMAGE, pen_for
 
-from .drawing_kit import Label, ScaleBar, arrowhead, brush, declutter, qpen, scene_xy
+from .drawing_kit import Label, ScaleBar, arrowhead, brush, declutter, qpen, scene_xy, square
 
 SCALE_BAR_MM = 20.0
 HIGHLIGHT_WEIGHT = 2.6
@@ -45,6 +45,7 @@ class _StepItems:
     def __init__(self, scene: QGraphicsScene, step):
         self.pen = pen_for(step)
         self.line = self.head = self.dot = self.label = None
+        self.head_box = None  # the arrowhead's scene box (left, top, width, height), kept clear of labels
         if isinstance(step.geometry, Point):
             self.dot = QGraphicsEllipseItem(-DOT_PIXELS, -DOT_PIXELS, 2 * DOT_PIXELS, 2 * DOT_PIXELS)
             self.dot.setFlag(QGraphicsItem.ItemIgnoresTransformations)
@@ -73,7 +74,7 @@ class _StepItems:
         if self.line is not None:
             self.line.setPen(pen)
         if self.head is not None:
-            self.head.setPen(qpen(self.pen, 0.5))
+            self.head.setPen(QPen(Qt.NoPen))  # filled only: an outline is stroked at many times the cost
             self.head.setBrush(brush(self.pen))
         if self.dot is not None:
             self.dot.setPen(qpen(self.pen, 0.7))
@@ -87,12 +88,15 @@ class _StepItems:
         else:
             self.line.setLine(QLineF(coords[0], coords[-1]))
             if self.head is not None:
-                self.head.setPolygon(arrowhead(coords[0], coords[-1]))
+                head = arrowhead(coords[0], coords[-1])
+                self.head.setPolygon(head)
+                box = head.boundingRect()
+                self.head_box = (box.x(), box.y(), box.width(), box.height())
             tip, away = coords[-1], coords[-1] - coords[0]
         if self.label is not None:
+            # Placed by the scene's declutter, which knows the zoom.
             self.label.set_text(step.label)
             dx, dy = (away.x(), away.y()) if (away.x() or away.y()) else (-1.0, -1.0)
-            self.label.place(tip, dx, dy)
             self.label_at = (tip, (dx, dy))
 
 
@@ -180,7 +184,8 @@ class PolygonScene(QGraphicsScene):
                              f"drawing scale 1 mm = {nice_number(scale)} {unit}")
 
     def declutter(self, mm_per_pixel: float):
-        """Move step labels that would cover each other (needs the view's zoom, hence not in show)."""
+        """Place the step labels clear of each other, the dots and the arrowheads (needs the view's
+        zoom, so the view calls it after :meth:`show`)."""
         labels, seen = [], set()
         for items in self.step_items.values():
             if items.label is None:
@@ -192,9 +197,9 @@ class PolygonScene(QGraphicsScene):
             if key not in seen:
                 seen.add(key)
                 labels.append((items.label, *items.label_at))
-        dots = [items.dot.pos() for items in self.step_items.values() if items.dot is not None]
-        size = 2 * DOT_PIXELS * mm_per_pixel
-        obstacles = [QRectF(p.x() - size / 2, p.y() - size / 2, size, size) for p in dots]
+        obstacles = [square(items.dot.pos(), DOT_PIXELS * mm_per_pixel) for items in self.step_items.values()
+                     if items.dot is not None]
+        obstacles += [items.head_box for items in self.step_items.values() if items.head_box is not None]
         declutter(labels, mm_per_pixel, obstacles)
 
     def end_of(self, step_id: str) -> QPointF:

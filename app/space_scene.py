@@ -24,7 +24,7 @@ from PySide6.QtWidgets import (
 
 from kinematics.style import ANNOTATION, SPACE_GROUND, SPACE_LINK, SPACE_PATH
 
-from .drawing_kit import Label, ScaleBar, declutter, hatch_path, preferred_length, qpen, scene_xy
+from .drawing_kit import Label, ScaleBar, declutter, hatch_path, preferred_length, qpen, scene_xy, square
 
 BAR_COLOUR = "#c9d3de"
 PLATE_COLOUR = "#dfe6ee"
@@ -122,10 +122,10 @@ class _Joint:
         self.dot.setBrush(QColor(HOVER_COLOUR) if on else self.filled)
 
     def place(self, at: QPointF, away: QPointF, gap: float = Label.GAP_PIXELS):
+        """Move the joint to ``at``; its label goes towards ``away`` when the scene is decluttered."""
         self.dot.setPos(at)
         if self.sign is not None:
             self.sign.setPos(at)
-        self.label.place(at, away.x(), away.y(), gap=gap)
         self.label_at = (at, (away.x(), away.y()), gap)
 
 
@@ -204,8 +204,7 @@ class SpaceScene(QGraphicsScene):
         for slide in self.slides:
             slide.place(at, reach)
         self._place_scale_bar(mechanism)
-        if sweep is not self.swept:
-            self._place_paths(sweep)
+        self.show_paths(sweep)
 
     def _path_item(self) -> QGraphicsPathItem:
         item = QGraphicsPathItem()
@@ -214,7 +213,10 @@ class SpaceScene(QGraphicsScene):
         self.addItem(item)
         return item
 
-    def _place_paths(self, sweep):
+    def show_paths(self, sweep):
+        """Draw the coupler points' paths over the cycle ``sweep`` (None: none), unless drawn already."""
+        if sweep is self.swept:
+            return
         self.swept = sweep
         self.motion_rect = QRectF()
         if sweep is not None:
@@ -274,13 +276,10 @@ class SpaceScene(QGraphicsScene):
         return side
 
     def declutter(self, mm_per_pixel: float):
-        """Move joint labels that would cover each other, a joint or a block (needs the view's zoom)."""
-        def square(at, half_pixels):
-            half = half_pixels * mm_per_pixel
-            return QRectF(at.x() - half, at.y() - half, 2 * half, 2 * half)
-
-        obstacles = [square(j.dot.pos(), JOINT_PIXELS) for j in self.joints.values()]
-        obstacles += [square(s.block.pos(), 11.0) for s in self.slides]
+        """Place the joint labels clear of each other, the joints and the blocks (needs the view's
+        zoom, so the view calls it after :meth:`show`)."""
+        obstacles = [square(j.dot.pos(), JOINT_PIXELS * mm_per_pixel) for j in self.joints.values()]
+        obstacles += [square(s.block.pos(), 11.0 * mm_per_pixel) for s in self.slides]
         declutter([(j.label, *j.label_at) for j in self.joints.values()], mm_per_pixel, obstacles)
 
     def centre(self) -> QPointF:

@@ -5,6 +5,8 @@ from __future__ import annotations
 from PySide6.QtCore import Qt, Signal
 from PySide6.QtWidgets import QListWidget, QListWidgetItem
 
+from .throttle import Throttle
+
 
 def step_text(step) -> str:
     flag = "  ⚠" if step.flagged else ""
@@ -20,10 +22,27 @@ class StepsPanel(QListWidget):
     def __init__(self, parent=None):
         super().__init__(parent)
         self.structure = None
-        self.setWordWrap(True)
+        # One line a step, all of one height: a drag rewrites every value each frame, and a list of
+        # wrapped rows of differing heights would be laid out anew each time. The whole sentence is
+        # the row's tooltip.
+        self.setUniformItemSizes(True)
+        self.setTextElideMode(Qt.ElideRight)
+        self.construction = None
+        self._fill_later = Throttle(self._fill, parent=self)
         self.currentItemChanged.connect(self._current_changed)
 
-    def show_construction(self, construction):
+    def show_construction(self, construction, live: bool = False):
+        """List ``construction``'s steps (None: none); ``live`` (a drag) rewrites them at most ten
+        times a second, the last one always."""
+        self.construction = construction
+        self._fill_later(live)
+
+    def catch_up(self):
+        """Show a construction held back during a drag now (the drag ended)."""
+        self._fill_later.flush()
+
+    def _fill(self):
+        construction = self.construction
         steps = [] if construction is None else [*construction.velocity.steps, *construction.acceleration.steps]
         structure = tuple(s.id for s in steps)
         if structure != self.structure:
@@ -37,8 +56,10 @@ class StepsPanel(QListWidget):
             self.structure = structure
         for row, step in enumerate(steps):
             text = step_text(step)
-            if self.item(row).text() != text:
-                self.item(row).setText(text)
+            item = self.item(row)
+            if item.text() != text:
+                item.setText(text)
+                item.setToolTip(text)
 
     def select_step(self, step_id: str):
         """Make step ``step_id`` current (as if clicked in the list) and bring it into sight."""

@@ -37,6 +37,7 @@ class DrawingView(QGraphicsView):
         self.setHorizontalScrollBarPolicy(Qt.ScrollBarAlwaysOff)
         self.setVerticalScrollBarPolicy(Qt.ScrollBarAlwaysOff)
         self.setBackgroundBrush(QColor("#fbfbf8"))
+        self.viewport().setAutoFillBackground(False)  # the background brush covers it all: fill once, not twice
         self.auto_fit = True
         self.fit_rect = QRectF(-100, -100, 200, 200)
 
@@ -86,6 +87,8 @@ class PolygonView(DrawingView):
     def __init__(self, scene, title: str, parent=None):
         super().__init__(scene, parent)
         self.title = title
+        # The legend is drawn in view pixels over the scene: any change repaints the whole view.
+        self.setViewportUpdateMode(QGraphicsView.FullViewportUpdate)
 
     def step_at(self, pos) -> str | None:
         """The step drawn within a few pixels of ``pos`` (lines are thin: aim need not be exact)."""

@@ -94,6 +94,7 @@ class MainWindow(SheetOutputs, QMainWindow):
         self.setAcceptDrops(True)
         self.setWindowIcon(icon("kinepoly"))
         self.document.changed.connect(self.refresh)
+        self.document.swept.connect(self._show_sweep)
         self.document.undo_stack.cleanChanged.connect(self._update_title)
         self.angle.angle_requested.connect(self.turn_driver)
         self.length_units.currentTextChanged.connect(self._units_changed)
@@ -194,7 +195,7 @@ class MainWindow(SheetOutputs, QMainWindow):
         doc = self.document
         self.drawings.refresh()
         self.table.show_solution(doc.solution)
-        self.steps.show_construction(doc.construction)
+        self.steps.show_construction(doc.construction, live=self.drag is not None or self.angle.playing)
         self.properties.refresh()
         if self.cycle is not None:
             self._update_cycle()
@@ -204,6 +205,13 @@ class MainWindow(SheetOutputs, QMainWindow):
         self.angle.set_range(doc.sweep)
         self._show_status()
         self._update_title()
+
+    def _show_sweep(self):
+        """The cycle sweep caught up with a drag: its paths, the driver's range and the plot."""
+        self.drawings.show_paths()
+        self.angle.set_range(self.document.sweep)
+        if self.cycle is not None:
+            self._update_cycle()
 
     def show_step(self, step_id: str):
         """A click on a polygon's drawing: its step in the list, emphasised."""
@@ -291,6 +299,8 @@ class MainWindow(SheetOutputs, QMainWindow):
 
     def end_drag(self):
         self.drag = None
+        self.document.catch_up_sweep()
+        self.steps.catch_up()
 
     # files ----------------------------------------------------------------
     def ask_to_save(self) -> bool:
