@@ -51,10 +51,12 @@ class AngleControl(QWidget):
         if angle_deg is None:
             return
         angle = angle_deg % 360.0
-        for widget, value in ((self.spin, angle), (self.slider, round(angle * SLIDER_STEPS_PER_DEGREE))):
-            widget.blockSignals(True)
-            widget.setValue(value)
-            widget.blockSignals(False)
+        for widget, value in ((self.spin, round(angle, self.spin.decimals())),
+                              (self.slider, round(angle * SLIDER_STEPS_PER_DEGREE))):
+            if widget.value() != value:  # setting the same value still repaints it, and the bar behind it
+                widget.blockSignals(True)
+                widget.setValue(value)
+                widget.blockSignals(False)
 
     def set_range(self, sweep):
         """Let play rock between the dead points of a driver that cannot turn fully (from the core's sweep)."""

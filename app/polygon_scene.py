@@ -8,6 +8,8 @@ m/s²) sits at c / scale_per_mm.
 
 from __future__ import annotations
 
+import numpy as np
+import shapely
 from PySide6.QtCore import QLineF, QPointF, QRectF, Qt
 from PySide6.QtGui import QBrush, QColor, QPen, QPolygonF
 from PySide6.QtWidgets import (
@@ -80,8 +82,8 @@ class _StepItems:
             self.dot.setPen(qpen(self.pen, 0.7))
             self.dot.setBrush(brush(self.pen) if not on else QBrush(QColor(HOVER_COLOUR)))
 
-    def update(self, step, scale: float):
-        coords = [QPointF(x / scale, -y / scale) for x, y in step.geometry.coords]
+    def update(self, step, coords: list):
+        """Move the items to ``step``, whose geometry is at ``coords`` (scene QPointFs)."""
         if self.dot is not None:
             self.dot.setPos(coords[0])
             tip, away = coords[0], coords[0]
@@ -161,23 +163,28 @@ class PolygonScene(QGraphicsScene):
             self._ring.setVisible(False)
             return
         scale = polygon.scale_per_mm
-        for step in polygon.steps:
-            self.step_items[step.id].update(step, scale)
+        # Every step's coordinates in one call (one at a time through shapely costs several times more).
+        geometry = [step.geometry for step in polygon.steps]
+        xy = shapely.get_coordinates(geometry) * np.array([1.0 / scale, -1.0 / scale])  # scene mm, y down
+        counts = shapely.get_num_coordinates(geometry).tolist()
+        points = [QPointF(x, y) for x, y in xy.tolist()]
+        first = 0
+        for step, count in zip(polygon.steps, counts, strict=True):
+            self.step_items[step.id].update(step, points[first:first + count])
+            first += count
         for name, figure in self.figures.items():
             figure.setPolygon(QPolygonF([scene_xy(*(c / scale for c in polygon.images[p])) for p in plates[name]]))
-        self._place_scale_bar(polygon)
+        self._place_scale_bar(polygon, xy)
 
-    def _place_scale_bar(self, polygon):
+    def _place_scale_bar(self, polygon, xy):
+        """Put the scale bar under the drawing, whose points are ``xy`` (scene mm), and fit around both."""
         scale = polygon.scale_per_mm
-        xs, ys = [0.0], [0.0]
-        for step in polygon.steps:
-            for x, y in step.geometry.coords:
-                xs.append(x / scale)
-                ys.append(-y / scale)
+        with_pole = np.vstack([xy, [0.0, 0.0]])
+        (low_x, low_y), (high_x, high_y) = with_pole.min(axis=0).tolist(), with_pole.max(axis=0).tolist()
         margin = 8.0
-        left, bottom = min(xs), max(ys) + margin
-        self.content_rect = QRectF(min(xs) - margin, min(ys) - margin, max(max(xs) - min(xs), SCALE_BAR_MM)
-                                   + 2 * margin, max(ys) - min(ys) + 4.0 * margin)
+        left, bottom = low_x, high_y + margin
+        self.content_rect = QRectF(low_x - margin, low_y - margin, max(high_x - low_x, SCALE_BAR_MM) + 2 * margin,
+                                   high_y - low_y + 4.0 * margin)
         unit = polygon_unit(polygon)
         self.scale_bar.place(QPointF(left, bottom), SCALE_BAR_MM, 1.0,
                              f"bar {nice_number(SCALE_BAR_MM * scale)} {unit}\n"

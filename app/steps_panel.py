@@ -5,8 +5,6 @@ from __future__ import annotations
 from PySide6.QtCore import Qt, Signal
 from PySide6.QtWidgets import QListWidget, QListWidgetItem
 
-from .throttle import Throttle
-
 
 def step_text(step) -> str:
     flag = "  ⚠" if step.flagged else ""
@@ -27,22 +25,9 @@ class StepsPanel(QListWidget):
         # the row's tooltip.
         self.setUniformItemSizes(True)
         self.setTextElideMode(Qt.ElideRight)
-        self.construction = None
-        self._fill_later = Throttle(self._fill, parent=self)
         self.currentItemChanged.connect(self._current_changed)
 
-    def show_construction(self, construction, live: bool = False):
-        """List ``construction``'s steps (None: none); ``live`` (a drag) rewrites them at most ten
-        times a second, the last one always."""
-        self.construction = construction
-        self._fill_later(live)
-
-    def catch_up(self):
-        """Show a construction held back during a drag now (the drag ended)."""
-        self._fill_later.flush()
-
-    def _fill(self):
-        construction = self.construction
+    def show_construction(self, construction):
         steps = [] if construction is None else [*construction.velocity.steps, *construction.acceleration.steps]
         structure = tuple(s.id for s in steps)
         if structure != self.structure:

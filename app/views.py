@@ -6,7 +6,7 @@ from __future__ import annotations
 import math
 
 from PySide6.QtCore import QPointF, QRect, QRectF, Qt, Signal
-from PySide6.QtGui import QColor, QPainter, QPen
+from PySide6.QtGui import QColor, QPainter, QPen, QPixmap
 from PySide6.QtWidgets import QGraphicsView
 
 from .drawing_kit import DASHES, label_font
@@ -18,6 +18,7 @@ GRID_MIN_PIXELS = 6.0
 PICK_PIXELS = 4
 LEGEND_TOP = 38.0
 LEGEND_LINE = 16.0
+LEGEND_WIDTH = 330.0  # pixels: room for the longest legend line
 
 
 class DrawingView(QGraphicsView):
@@ -87,6 +88,7 @@ class PolygonView(DrawingView):
     def __init__(self, scene, title: str, parent=None):
         super().__init__(scene, parent)
         self.title = title
+        self._legend_key = self._legend_pixmap = None
         # The legend is drawn in view pixels over the scene: any change repaints the whole view.
         self.setViewportUpdateMode(QGraphicsView.FullViewportUpdate)
 
@@ -119,21 +121,35 @@ class PolygonView(DrawingView):
     def drawForeground(self, painter: QPainter, rect):
         painter.save()
         painter.resetTransform()
-        painter.setRenderHint(QPainter.Antialiasing, False)  # crisp swatches at this small size
-        painter.setFont(label_font(13, bold=True))
-        painter.setPen(QColor("#1d2b3a"))
-        painter.drawText(QPointF(10, 20), self.title)
-        painter.setFont(label_font(11))
-        y = LEGEND_TOP
-        for pen in self.scene().used_pens():
-            line = QPen(QColor(pen.colour), max(2.0, pen.weight_mm * 5.0))
-            line.setStyle(DASHES[pen.dash])
-            painter.setPen(line)
-            painter.drawLine(QPointF(10, y - 4), QPointF(34, y - 4))
-            painter.setPen(QColor("#1d2b3a"))
-            painter.drawText(QPointF(40, y), pen.legend)
-            y += LEGEND_LINE
+        painter.drawPixmap(0, 0, self._legend())
         painter.restore()
+
+    def _legend(self) -> QPixmap:
+        """The title and legend, drawn once for each set of pens in use (text is slow to lay out)."""
+        pens = tuple(self.scene().used_pens())
+        ratio = self.devicePixelRatioF()
+        if self._legend_key != (pens, ratio):
+            pixmap = QPixmap(int(LEGEND_WIDTH * ratio), int((LEGEND_TOP + LEGEND_LINE * len(pens)) * ratio))
+            pixmap.setDevicePixelRatio(ratio)
+            pixmap.fill(Qt.transparent)
+            painter = QPainter(pixmap)
+            painter.setRenderHint(QPainter.TextAntialiasing)  # crisp swatches: no antialiasing for them
+            painter.setFont(label_font(13, bold=True))
+            painter.setPen(QColor("#1d2b3a"))
+            painter.drawText(QPointF(10, 20), self.title)
+            painter.setFont(label_font(11))
+            y = LEGEND_TOP
+            for pen in pens:
+                line = QPen(QColor(pen.colour), max(2.0, pen.weight_mm * 5.0))
+                line.setStyle(DASHES[pen.dash])
+                painter.setPen(line)
+                painter.drawLine(QPointF(10, y - 4), QPointF(34, y - 4))
+                painter.setPen(QColor("#1d2b3a"))
+                painter.drawText(QPointF(40, y), pen.legend)
+                y += LEGEND_LINE
+            painter.end()
+            self._legend_key, self._legend_pixmap = (pens, ratio), pixmap
+        return self._legend_pixmap
 
 
 class SpaceView(DrawingView):

@@ -40,6 +40,7 @@ from .recovery import Autosave, offer_recovery
 from .results import ResultsTable
 from .status import status_text
 from .steps_panel import StepsPanel
+from .throttle import Throttle
 
 FILE_FILTER = "Kinepoly mechanism (*.json);;All files (*)"
 CYCLE_TAB = "Cycle"
@@ -56,6 +57,7 @@ class MainWindow(SheetOutputs, QMainWindow):
         self.autosave = Autosave(self.document, parent=self)
         self.note = ""
         self.drag = None
+        self._show_readouts = Throttle(self._readouts, parent=self)
         self.drawings = DrawingsPanel(self.document)
         self.table = ResultsTable()
         self.steps = StepsPanel()
@@ -195,7 +197,6 @@ class MainWindow(SheetOutputs, QMainWindow):
         doc = self.document
         self.drawings.refresh()
         self.table.show_solution(doc.solution)
-        self.steps.show_construction(doc.construction, live=self.drag is not None or self.angle.playing)
         self.properties.refresh()
         if self.cycle is not None:
             self._update_cycle()
@@ -203,7 +204,7 @@ class MainWindow(SheetOutputs, QMainWindow):
         self.angle.show_angle(doc.shown_angle_deg)
         self.angle.setEnabled(doc.solution is not None)
         self.angle.set_range(doc.sweep)
-        self._show_status()
+        self._show_readouts(live=self.live)
         self._update_title()
 
     def _show_sweep(self):
@@ -249,9 +250,17 @@ class MainWindow(SheetOutputs, QMainWindow):
     def say(self, note: str):
         """Put a plain sentence at the head of the status line."""
         self.note = note
-        self._show_status()
+        self._show_readouts(live=self.live)
 
-    def _show_status(self):
+    @property
+    def live(self) -> bool:
+        """True while the pose follows the mouse or the play button, frame after frame."""
+        return self.drag is not None or self.angle.playing
+
+    def _readouts(self):
+        """The step list and the status line: read, not watched, so a drag rewrites them at most ten
+        times a second (their text is costly to lay out), and the last frame's always."""
+        self.steps.show_construction(self.document.construction)
         text = status_text(self.document.analysis, self.note)
         self.status.setText(text)
         self.status.setToolTip(text)
@@ -300,7 +309,7 @@ class MainWindow(SheetOutputs, QMainWindow):
     def end_drag(self):
         self.drag = None
         self.document.catch_up_sweep()
-        self.steps.catch_up()
+        self._show_readouts.flush()
 
     # files ----------------------------------------------------------------
     def ask_to_save(self) -> bool:
