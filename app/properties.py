@@ -1,5 +1,5 @@
-"""The Design tab: the title, the chosen joint's place and whether it is fixed,
-and the driver's speed. Each change is one undoable edit."""
+"""The Design tab: the title, the chosen joint's name, place and whether it is fixed,
+the chosen link's name, and the driver's speed. Each change is one undoable edit."""
 
 from __future__ import annotations
 
@@ -8,7 +8,7 @@ from dataclasses import replace
 
 from PySide6.QtWidgets import QCheckBox, QComboBox, QDoubleSpinBox, QFormLayout, QLabel, QLineEdit, QWidget
 
-from kinematics import move_point
+from kinematics import KinematicsError, move_point, rename_link, rename_point
 
 from . import building
 from .building import BuildError
@@ -22,6 +22,26 @@ def _spin(low: float, high: float, decimals: int) -> QDoubleSpinBox:
     return spin
 
 
+def _refill(combo: QComboBox, names: list):
+    """List ``names`` in ``combo``, keeping the chosen one; a name renamed in place stays chosen."""
+    listed = [combo.itemText(i) for i in range(combo.count())]
+    if listed == names:  # not on every drag frame
+        return
+    chosen, index = combo.currentText(), combo.currentIndex()
+    combo.clear()
+    combo.addItems(names)
+    if chosen in names:
+        combo.setCurrentText(chosen)
+    elif len(listed) == len(names) and index >= 0:
+        combo.setCurrentIndex(index)  # a rename keeps its place in the file's order
+
+
+def _show_text(field: QLineEdit, text: str):
+    """Show ``text`` unless the user is typing in ``field`` (a driver turning refreshes the tab)."""
+    if not field.isModified():
+        field.setText(text)
+
+
 class PropertiesPanel(QWidget):
     """Reads the Document on :meth:`refresh`; writes it through ``document.edit``."""
 
@@ -30,8 +50,12 @@ class PropertiesPanel(QWidget):
         self.document, self.say = document, say
         self.title = QLineEdit()
         self.point = QComboBox()
+        self.point_name = QLineEdit()
         self.x, self.y = _spin(-1e6, 1e6, 3), _spin(-1e6, 1e6, 3)
         self.fixed = QCheckBox("fixed to the frame")
+        self.link = QComboBox()
+        self.link_name = QLineEdit()
+        self.link_points = QLabel()
         self.driver = QLabel()
         self.speed = _spin(-1e5, 1e5, 3)
         self.speed_unit = QComboBox()
@@ -41,15 +65,22 @@ class PropertiesPanel(QWidget):
         form = QFormLayout(self)
         form.addRow("title", self.title)
         form.addRow("joint", self.point)
+        form.addRow("joint name", self.point_name)
         form.addRow("x", self.x)
         form.addRow("y", self.y)
         form.addRow("", self.fixed)
+        form.addRow("link", self.link)
+        form.addRow("link name", self.link_name)
+        form.addRow("", self.link_points)
         form.addRow("driver", self.driver)
         form.addRow("speed", self.speed)
         form.addRow("speed unit", self.speed_unit)
         form.addRow("angular acceleration", self.alpha)
         self.title.editingFinished.connect(self.apply_title)
         self.point.currentTextChanged.connect(self.show_point)
+        self.point_name.editingFinished.connect(self.apply_point_name)
+        self.link.currentTextChanged.connect(self.show_link)
+        self.link_name.editingFinished.connect(self.apply_link_name)
         self.x.valueChanged.connect(self.apply_place)
         self.y.valueChanged.connect(self.apply_place)
         self.fixed.toggled.connect(self.apply_fixed)
@@ -61,7 +92,8 @@ class PropertiesPanel(QWidget):
     @contextmanager
     def _quiet(self):
         """Fill the fields without their change signals writing the values back as edits."""
-        widgets = (self.title, self.point, self.x, self.y, self.fixed, self.speed, self.speed_unit, self.alpha)
+        widgets = (self.title, self.point, self.point_name, self.x, self.y, self.fixed, self.link, self.link_name,
+                   self.speed, self.speed_unit, self.alpha)
         for widget in widgets:
             widget.blockSignals(True)
         try:
@@ -77,18 +109,14 @@ class PropertiesPanel(QWidget):
 
     def _fill(self):
         mech = self.document.mechanism
-        self.title.setText(mech.title)
-        names = list(mech.points)
-        if [self.point.itemText(i) for i in range(self.point.count())] != names:  # not on every drag frame
-            chosen = self.point.currentText()
-            self.point.clear()
-            self.point.addItems(names)
-            if chosen in mech.points:
-                self.point.setCurrentText(chosen)
+        _show_text(self.title, mech.title)
+        _refill(self.point, list(mech.points))
+        _refill(self.link, list(mech.links))
         suffix = f" {mech.length_unit}"
         self.x.setSuffix(suffix)
         self.y.setSuffix(suffix)
         self._fill_point(self.point.currentText())
+        self._fill_link(self.link.currentText())
         driver = mech.driver
         self.driver.setText(f"{driver.link} about {driver.pivot}" if driver else "none yet (Driver tool)")
         for widget in (self.speed, self.speed_unit, self.alpha):
@@ -101,8 +129,9 @@ class PropertiesPanel(QWidget):
     def _fill_point(self, name: str):
         mech = self.document.mechanism
         present = name in mech.points
-        for widget in (self.x, self.y, self.fixed):
+        for widget in (self.point_name, self.x, self.y, self.fixed):
             widget.setEnabled(present)
+        _show_text(self.point_name, name if present else "")
         if present:
             self.x.setValue(float(mech.points[name][0]))
             self.y.setValue(float(mech.points[name][1]))
@@ -113,14 +142,50 @@ class PropertiesPanel(QWidget):
         with self._quiet():
             if self.point.currentText() != name:
                 self.point.setCurrentText(name)
+            self.point_name.setModified(False)  # a name typed for another joint is not this one's
             self._fill_point(name)
+
+    def _fill_link(self, name: str):
+        points = self.document.mechanism.links.get(name)
+        self.link_name.setEnabled(points is not None)
+        _show_text(self.link_name, name if points is not None else "")
+        self.link_points.setText(f"joins {', '.join(points)}" if points else "no links yet (Link tool)")
+
+    def show_link(self, name: str):
+        """Show link ``name`` (chosen in the list)."""
+        with self._quiet():
+            self.link_name.setModified(False)
+            self._fill_link(name)
 
     def _edit(self, mechanism, text):
         self.document.edit(mechanism, text, check=False)
 
     def apply_title(self):
+        self.title.setModified(False)
         if self.title.text() != self.document.mechanism.title:
             self._edit(replace(self.document.mechanism, title=self.title.text()), "rename the design")
+
+    def apply_point_name(self):
+        self._apply_name(self.point_name, self.point.currentText(), "joint", rename_point)
+
+    def apply_link_name(self):
+        self._apply_name(self.link_name, self.link.currentText(), "link", rename_link)
+
+    def _apply_name(self, field: QLineEdit, old: str, kind: str, rename):
+        """Rename ``kind`` ``old`` to the text of ``field``; a name the core refuses is said and not kept."""
+        new = field.text().strip()
+        field.setModified(False)
+        if not old or new == old:
+            field.setText(old)
+            return
+        try:
+            renamed = rename(self.document.mechanism, old, new)
+        except KinematicsError as error:
+            field.setText(old)
+            self.say(str(error))
+            return
+        self.say("")
+        self._edit(renamed, f"rename {kind} {old} to {new}")
 
     def apply_place(self, *_):
         name, mech = self.point.currentText(), self.document.mechanism

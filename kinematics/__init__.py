@@ -11,6 +11,7 @@ from .errors import CannotAssemble, FileFormatError, KinematicsError, MechanismF
 from .fileformat import dumps, load_mechanism
 from .mobility import Finding, diagnose
 from .model import Driver, Mechanism, Slide, move_point
+from .naming import rename_link, rename_point
 from .solve import Solution, solve_pose
 from .steps import Component, Construction, Polygon, Role, Step
 from .sweep import Sweep, sweep, verify_sweep
@@ -50,6 +51,6 @@ def construct(solution: Solution, **options) -> Construction:
 __all__ = [
     "CAUTION", "CannotAssemble", "Component", "Construction", "Driver", "FileFormatError", "Finding", "KinematicsError",
     "Mechanism", "MechanismFindings", "ParallelLines", "Polygon", "Role", "Slide", "Solution", "Step",
-    "Sweep", "construct", "diagnose", "dumps", "load_mechanism", "move_point", "solve", "sweep",
-    "verify_sweep",
+    "Sweep", "construct", "diagnose", "dumps", "load_mechanism", "move_point", "rename_link",
+    "rename_point", "solve", "sweep", "verify_sweep",
 ]
