@@ -2,7 +2,7 @@
 
 Profile "ci" (the default) is derandomised so every run tries the same cases; "full" (set
 KINEPOLY_FULL=1) is randomised, and the property tests multiply their case counts by ten
-(tests/kinematics/common.py: CASE_FACTOR)."""
+(tests/__init__.py: CASE_FACTOR)."""
 
 import os
 

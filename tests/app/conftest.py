@@ -6,8 +6,7 @@ from PySide6.QtWidgets import QApplication
 
 from app import files, recovery
 from app.window import MainWindow
-
-from .designs import FOUR_BAR, load
+from tests.designs import CLAW_FEED, load
 
 
 @pytest.fixture(autouse=True)
@@ -21,7 +20,7 @@ def private_settings(tmp_path, monkeypatch):
 @pytest.fixture
 def make_window(qtbot, monkeypatch):
     """A factory of shown windows; closing them never asks about unsaved changes unless a test says so."""
-    def make(design=FOUR_BAR, path=None):
+    def make(design=CLAW_FEED, path=None):
         window = MainWindow(load(design), path)
         qtbot.addWidget(window)
         window.show()

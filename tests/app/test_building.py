@@ -10,8 +10,7 @@ from PySide6.QtTest import QTest
 import kinematics
 from app import building
 from app.building import BuildError
-
-from .designs import FOUR_BAR, SLIDER_CRANK, load
+from tests.designs import CARTON_PUSHER, CLAW_FEED, load
 
 
 def click_at(window, x_mm, y_mm):
@@ -26,7 +25,7 @@ def click_joint(window, name):
 
 
 def test_a_four_bar_built_by_clicks_solves_and_saves(make_window, tmp_path):
-    window = make_window(FOUR_BAR)
+    window = make_window(CLAW_FEED)
     window.new_design()
     window.snapping.setChecked(True)  # a 10 mm grid on an empty design: the clicks land on round numbers
     window.use_tool("pivot")
@@ -67,7 +66,7 @@ def test_a_four_bar_built_by_clicks_solves_and_saves(make_window, tmp_path):
 
 
 def test_a_link_tool_click_on_empty_space_adds_a_joint(make_window):
-    window = make_window(FOUR_BAR)
+    window = make_window(CLAW_FEED)
     window.use_tool("link")
     click_joint(window, "P")
     click_at(window, 60.0, 200.0)
@@ -77,7 +76,7 @@ def test_a_link_tool_click_on_empty_space_adds_a_joint(make_window):
 
 
 def test_a_slide_and_a_deletion_by_clicks(make_window):
-    window = make_window(SLIDER_CRANK)
+    window = make_window(CARTON_PUSHER)
     doc = window.document
     window.use_tool("delete")
     click_joint(window, "D")
@@ -92,7 +91,7 @@ def test_a_slide_and_a_deletion_by_clicks(make_window):
 
 
 def test_the_design_tab_edits_place_fixing_title_and_speed(make_window):
-    window = make_window(FOUR_BAR)
+    window = make_window(CLAW_FEED)
     doc, panel = window.document, window.properties
     panel.show_point("P")
     panel.x.setValue(75.0)
@@ -114,7 +113,7 @@ def test_the_design_tab_edits_place_fixing_title_and_speed(make_window):
 
 
 def test_building_edits_refuse_what_makes_no_sense():
-    mech = load(FOUR_BAR)
+    mech = load(CLAW_FEED)
     with pytest.raises(BuildError, match="fixed points only"):
         building.join(mech, ["O2", "O4"])
     with pytest.raises(BuildError, match="at least two"):
@@ -130,7 +129,7 @@ def test_building_edits_refuse_what_makes_no_sense():
 
 
 def test_a_new_slide_sets_its_joint_onto_the_line_and_a_deleted_pivot_drops_the_driver():
-    bare = building.delete_point(load(SLIDER_CRANK), "F")
+    bare = building.delete_point(load(CARTON_PUSHER), "F")
     bare = kinematics.move_point(bare, "D", (150.0, -10.0))  # free of its slide now: off the old line
     assert not bare.slides
     again, name = building.add_slide(building.add_point(bare, (260.0, -15.0), fixed=True)[0], "D", "E", "O1")
@@ -143,7 +142,7 @@ def test_a_new_slide_sets_its_joint_onto_the_line_and_a_deleted_pivot_drops_the_
 
 
 def test_snapping_draws_the_grid_and_lands_drags_on_it(make_window):
-    window = make_window(FOUR_BAR)
+    window = make_window(CLAW_FEED)
     view = window.drawings.space_view
 
     def grid_pixels():
@@ -167,7 +166,7 @@ def test_random_building_never_fails(make_window):
     """Any tool clicked anywhere, on any joint, in any order: messages, never an exception."""
     import random
 
-    window = make_window(FOUR_BAR)
+    window = make_window(CLAW_FEED)
     window.new_design()
     chance = random.Random(4242)
     tools = ["pivot", "joint", "link", "slide", "driver", "delete", "select"]

@@ -6,12 +6,11 @@ from PySide6.QtTest import QTest
 
 from app.document import Analysis
 from app.status import status_text
-
-from .designs import FOUR_BAR, TRIPLE_ROCKER
+from tests.designs import CLAW_FEED, TRIPLE_ROCKER
 
 
 def test_a_typed_angle_and_the_slider_turn_the_driver(make_window):
-    window = make_window(FOUR_BAR)
+    window = make_window(CLAW_FEED)
     window.angle.spin.setValue(123.0)
     assert window.document.solution.driver_angle_deg == pytest.approx(123.0)
     window.angle.slider.setValue(2705)
@@ -21,7 +20,7 @@ def test_a_typed_angle_and_the_slider_turn_the_driver(make_window):
 
 
 def test_play_turns_the_driver_until_paused(make_window, qtbot):
-    window = make_window(FOUR_BAR)
+    window = make_window(CLAW_FEED)
     start = window.document.solution.driver_angle_deg
     QTest.mouseClick(window.angle.play, Qt.LeftButton)
     assert window.angle.timer.isActive()
@@ -44,7 +43,7 @@ def test_an_angle_that_cannot_be_assembled_keeps_the_pose_and_says_so(make_windo
 
 
 def test_the_status_line_lists_every_warning_and_the_cross_check(make_window):
-    window = make_window(FOUR_BAR)
+    window = make_window(CLAW_FEED)
     construction = window.document.construction
     text = status_text(Analysis(solution=construction.solution, construction=construction), "note first")
     assert text.startswith("note first")
@@ -71,7 +70,7 @@ def test_play_rocks_a_driver_that_cannot_turn_fully_between_its_dead_points(make
 
 
 def test_the_cycle_tab_plots_the_document_sweep_and_turns_the_driver(make_window):
-    window = make_window(FOUR_BAR)
+    window = make_window(CLAW_FEED)
     assert window.cycle is None, "made on first use only"
     window.turn_driver(120.0)
     tabs = window.side_tabs

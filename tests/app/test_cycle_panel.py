@@ -3,7 +3,6 @@ peaks, the fine sweep worker, coupler paths, and a look at the screen."""
 
 import doctest
 import math
-from pathlib import Path
 
 import numpy as np
 import pytest
@@ -17,10 +16,9 @@ import kinematics
 from app.cycle_panel import NO_CYCLE, PALETTE, CyclePanel
 from app.cycle_series import Quantity, coupler_paths_mm, readable
 from kinematics.peaks import peaks
+from tests.designs import CARTON_PUSHER, CLAW_FEED, SAMPLES, SWING_LEVER, TRIPLE_ROCKER, load
 
-from .designs import FOUR_BAR, SLIDER_CRANK, SLOTTED_LEVER, TRIPLE_ROCKER, load
-
-SIX_BAR = Path(__file__).resolve().parents[2] / "samples" / "stacker-transfer-stephenson.json"
+SIX_BAR = SAMPLES / "stacker-transfer-stephenson.json"
 SPEED_P = Quantity("velocity", "magnitude", "P")
 ACCELERATION_P = Quantity("acceleration", "magnitude", "P")
 
@@ -46,7 +44,7 @@ def curve_data(panel, quantity):
 
 
 def test_the_plotted_speed_is_the_sweeps_own_array(panel):
-    result = kinematics.sweep(load(FOUR_BAR), 360)
+    result = kinematics.sweep(load(CLAW_FEED), 360)
     panel.set_units("m", "rad/s")
     panel.set_sweep(result)
     panel.choose([SPEED_P])
@@ -59,7 +57,7 @@ def test_the_plotted_speed_is_the_sweeps_own_array(panel):
 
 
 def test_units_convert_the_same_arrays(panel):
-    result = kinematics.sweep(load(FOUR_BAR), 360)
+    result = kinematics.sweep(load(CLAW_FEED), 360)
     omega = Quantity("angular velocity", "rate", "rocker")
     panel.set_sweep(result)
     panel.choose([SPEED_P, omega])
@@ -75,7 +73,7 @@ def test_units_convert_the_same_arrays(panel):
 
 
 def test_a_real_click_on_the_plot_picks_that_angle(panel, qtbot):
-    panel.set_sweep(kinematics.sweep(load(FOUR_BAR), 360))
+    panel.set_sweep(kinematics.sweep(load(CLAW_FEED), 360))
     box = panel.plots["velocity"].getViewBox()
     (low, high), (bottom, top) = box.viewRange()
     scene_point = box.mapViewToScene(QPointF(123.0, 0.5 * (bottom + top)))
@@ -87,7 +85,7 @@ def test_a_real_click_on_the_plot_picks_that_angle(panel, qtbot):
 
 
 def test_set_angle_moves_the_cursor_on_every_row(panel):
-    panel.set_sweep(kinematics.sweep(load(FOUR_BAR), 360))
+    panel.set_sweep(kinematics.sweep(load(CLAW_FEED), 360))
     panel.choose([SPEED_P, ACCELERATION_P])
     assert len(panel.cursors) == 2
     panel.set_angle(200.0)
@@ -99,7 +97,7 @@ def test_set_angle_moves_the_cursor_on_every_row(panel):
 
 
 def test_ticking_another_quantity_in_the_list_changes_the_curves(panel):
-    result = kinematics.sweep(load(FOUR_BAR), 360)
+    result = kinematics.sweep(load(CLAW_FEED), 360)
     panel.set_sweep(result)
     assert set(panel.curves) == {SPEED_P, ACCELERATION_P}  # the coupler point first
     alpha = Quantity("angular acceleration", "rate", "coupler")
@@ -113,7 +111,7 @@ def test_ticking_another_quantity_in_the_list_changes_the_curves(panel):
 
 
 def test_components_and_sliding_rates_are_offered_and_plotted(panel):
-    result = kinematics.sweep(load(SLOTTED_LEVER), 360)
+    result = kinematics.sweep(load(SWING_LEVER), 360)
     panel.set_units("m", "rad/s")
     panel.set_sweep(result)
     vy = Quantity("velocity", "y", "A")
@@ -126,7 +124,7 @@ def test_components_and_sliding_rates_are_offered_and_plotted(panel):
 
 
 def test_none_clears_the_plot_with_a_plain_message(panel):
-    panel.set_sweep(kinematics.sweep(load(FOUR_BAR), 360))
+    panel.set_sweep(kinematics.sweep(load(CLAW_FEED), 360))
     panel.set_sweep(None)
     assert panel.curves == {} and panel.plots == {} and panel.choices.count() == 0
     assert panel.message.text == NO_CYCLE
@@ -136,11 +134,11 @@ def test_none_clears_the_plot_with_a_plain_message(panel):
 
 
 def test_time_axis_only_at_constant_speed(panel):
-    accelerating = kinematics.sweep(load(FOUR_BAR), 360)
+    accelerating = kinematics.sweep(load(CLAW_FEED), 360)
     assert accelerating.time_s is None
     panel.set_sweep(accelerating)
     assert not panel.x_choice.model().item(1).isEnabled()
-    steady = kinematics.sweep(load(SLIDER_CRANK), 360)
+    steady = kinematics.sweep(load(CARTON_PUSHER), 360)
     panel.set_sweep(steady)
     assert panel.x_choice.model().item(1).isEnabled()
     panel.x_choice.setCurrentIndex(1)
@@ -193,7 +191,7 @@ def test_a_two_step_rocking_sweep_still_has_peaks(panel):
 
 
 def test_a_clockwise_driver_counts_time_the_way_it_turns(panel):
-    design = {**SLIDER_CRANK, "driver": {**SLIDER_CRANK["driver"], "speed": {"value": -300, "unit": "rpm"}}}
+    design = {**CARTON_PUSHER, "driver": {**CARTON_PUSHER["driver"], "speed": {"value": -300, "unit": "rpm"}}}
     result = kinematics.sweep(load(design), 360)
     assert result.driver_angle_deg[1] < result.driver_angle_deg[0]
     panel.set_sweep(result)
@@ -226,7 +224,7 @@ def test_a_new_sweep_updates_the_existing_curves_in_place(panel):
 
 
 def test_the_fine_sweep_reaches_100_percent_and_equals_the_cores_sweep(panel, qtbot):
-    mech = load(FOUR_BAR)
+    mech = load(CLAW_FEED)
     coarse = kinematics.sweep(mech, 360)
     panel.set_sweep(coarse)
     job = panel.start_fine_sweep(36_000)
@@ -250,7 +248,7 @@ def test_the_fine_sweep_reaches_100_percent_and_equals_the_cores_sweep(panel, qt
 
 
 def test_cancel_stops_waiting_and_keeps_the_plot(panel, qtbot):
-    coarse = kinematics.sweep(load(FOUR_BAR), 360)
+    coarse = kinematics.sweep(load(CLAW_FEED), 360)
     panel.set_sweep(coarse)
     job = panel.start_fine_sweep(100_000)
     QTest.mouseClick(panel.cancel, Qt.LeftButton)
@@ -262,7 +260,7 @@ def test_cancel_stops_waiting_and_keeps_the_plot(panel, qtbot):
 
 
 def test_a_fine_sweep_the_core_refuses_says_why(panel, qtbot):
-    panel.set_sweep(kinematics.sweep(load(FOUR_BAR), 360))
+    panel.set_sweep(kinematics.sweep(load(CLAW_FEED), 360))
     job = panel.start_fine_sweep(1)
     with qtbot.waitSignal(job.finished, timeout=10_000):
         pass
@@ -273,7 +271,7 @@ def test_a_fine_sweep_the_core_refuses_says_why(panel, qtbot):
 
 
 def test_an_edited_design_drops_the_fine_sweep_still_running(panel, qtbot):
-    mech = load(FOUR_BAR)
+    mech = load(CLAW_FEED)
     panel.set_sweep(kinematics.sweep(mech, 360))
     job = panel.start_fine_sweep(36_000)
     edited = kinematics.sweep(kinematics.move_point(mech, "P", (72.0, 141.0)), 360)
@@ -285,7 +283,7 @@ def test_an_edited_design_drops_the_fine_sweep_still_running(panel, qtbot):
 
 
 def test_coupler_paths_are_the_points_on_one_moving_link_in_mm():
-    mech = load(FOUR_BAR)
+    mech = load(CLAW_FEED)
     result = kinematics.sweep(mech, 36)
     paths = coupler_paths_mm(result, mech)
     assert list(paths) == ["P"] and paths["P"].shape == (36, 2)

@@ -2,12 +2,11 @@
 
 from app.document import DRAG_COMMAND_ID, Document, EditCommand
 from kinematics import move_point
-
-from .designs import FOUR_BAR, UNFINISHED, load
+from tests.designs import CLAW_FEED, UNFINISHED, load
 
 
 def test_set_mechanism_recomputes_and_emits_changed_once(qtbot):
-    doc = Document(load(FOUR_BAR))
+    doc = Document(load(CLAW_FEED))
     moved = move_point(doc.mechanism, "B", (141.0, 110.0))
     with qtbot.waitSignal(doc.changed, timeout=1000):
         doc.set_mechanism(moved)
@@ -20,7 +19,7 @@ def test_set_mechanism_recomputes_and_emits_changed_once(qtbot):
 
 
 def test_edits_undo_and_redo_as_mechanism_values(qtbot):
-    doc = Document(load(FOUR_BAR))
+    doc = Document(load(CLAW_FEED))
     start = doc.mechanism
     after = move_point(start, "P", (75.0, 140.0))
     assert doc.edit(after, "move P") == ""
@@ -32,7 +31,7 @@ def test_edits_undo_and_redo_as_mechanism_values(qtbot):
 
 
 def test_moves_of_one_drag_merge_and_two_drags_do_not(qtbot):
-    doc = Document(load(FOUR_BAR))
+    doc = Document(load(CLAW_FEED))
     start = doc.mechanism
     for x in (71.0, 72.0, 73.0):
         doc.edit(move_point(doc.mechanism, "P", (x, 140.0)), "move P", drag=1)
@@ -47,7 +46,7 @@ def test_moves_of_one_drag_merge_and_two_drags_do_not(qtbot):
 
 
 def test_an_edit_that_cannot_be_analysed_is_refused_with_its_reason(qtbot):
-    doc = Document(load(FOUR_BAR))
+    doc = Document(load(CLAW_FEED))
     start = doc.mechanism
     # B onto A: the coupler's first two points coincide, which the core refuses.
     reason = doc.edit(move_point(start, "B", (30.0, 40.0)), "move B")
@@ -56,7 +55,7 @@ def test_an_edit_that_cannot_be_analysed_is_refused_with_its_reason(qtbot):
 
 
 def test_turning_the_driver_is_not_an_edit(qtbot):
-    doc = Document(load(FOUR_BAR))
+    doc = Document(load(CLAW_FEED))
     assert doc.set_angle(100.0) == ""
     assert doc.solution.driver_angle_deg == 100.0 and doc.undo_stack.count() == 0
 

@@ -8,7 +8,7 @@ import pytest
 from PySide6.QtCore import QPointF, Qt
 from PySide6.QtTest import QTest
 
-from .designs import FOUR_BAR, SLIDER_CRANK, SLOTTED_LEVER
+from tests.designs import CARTON_PUSHER, CLAW_FEED, SWING_LEVER
 
 
 def joint_scene_pos(window, name) -> QPointF:
@@ -33,7 +33,7 @@ def drag(window, name, offsets_mm):
 
 
 def test_dragging_a_joint_moves_it_and_undo_returns(make_window):
-    window = make_window(FOUR_BAR)
+    window = make_window(CLAW_FEED)
     doc = window.document
     before = dict(doc.mechanism.points)
     view = drag(window, "B", [(3.0, 1.0), (6.0, 3.0), (10.0, 5.0)])
@@ -51,14 +51,14 @@ def test_dragging_a_joint_moves_it_and_undo_returns(make_window):
 
 
 def test_two_drags_are_two_undo_steps(make_window):
-    window = make_window(FOUR_BAR)
+    window = make_window(CLAW_FEED)
     drag(window, "B", [(5.0, 0.0)])
     drag(window, "P", [(0.0, 5.0)])
     assert window.document.undo_stack.count() == 2
 
 
 def test_dragging_the_crank_turns_the_driver_without_an_edit(make_window):
-    window = make_window(FOUR_BAR)
+    window = make_window(CLAW_FEED)
     doc = window.document
     points = dict(doc.mechanism.points)
     # A sits at 50 mm from O2 at 53.13°; take it round to 90° in a few moves.
@@ -74,7 +74,7 @@ def test_dragging_the_crank_turns_the_driver_without_an_edit(make_window):
 
 
 def test_a_drag_out_of_reach_keeps_the_last_valid_design_and_says_so(make_window):
-    window = make_window(FOUR_BAR)
+    window = make_window(CLAW_FEED)
     doc = window.document
     window.turn_driver(200.0)
     assert doc.solution.driver_angle_deg == 200.0
@@ -90,7 +90,7 @@ def test_a_drag_out_of_reach_keeps_the_last_valid_design_and_says_so(make_window
 
 
 def test_a_moving_joint_is_edited_in_the_reference_pose(make_window):
-    window = make_window(FOUR_BAR)
+    window = make_window(CLAW_FEED)
     window.turn_driver(120.0)
     drag(window, "B", [(4.0, 0.0)])
     assert window.document.angle_deg is None
@@ -98,7 +98,7 @@ def test_a_moving_joint_is_edited_in_the_reference_pose(make_window):
 
 
 def test_a_sliding_joint_stays_on_its_guide(make_window):
-    window = make_window(SLIDER_CRANK)
+    window = make_window(CARTON_PUSHER)
     doc = window.document
     drag(window, "D", [(10.0, 7.0)])
     x, y = doc.mechanism.points["D"]
@@ -108,7 +108,7 @@ def test_a_sliding_joint_stays_on_its_guide(make_window):
 
 
 def test_moving_a_guide_end_carries_the_block_onto_the_new_line(make_window):
-    window = make_window(SLIDER_CRANK)
+    window = make_window(CARTON_PUSHER)
     doc = window.document
     drag(window, "F", [(0.0, 10.0)])
     e, f, d = (doc.mechanism.points[p] for p in ("E", "F", "D"))
@@ -120,7 +120,7 @@ def test_moving_a_guide_end_carries_the_block_onto_the_new_line(make_window):
 RANDOM_DRAGS = 2000 if os.environ.get("KINEPOLY_FULL") == "1" else 200
 
 
-@pytest.mark.parametrize("design", [FOUR_BAR, SLIDER_CRANK, SLOTTED_LEVER], ids=["four-bar", "slider", "slot"])
+@pytest.mark.parametrize("design", [CLAW_FEED, CARTON_PUSHER, SWING_LEVER], ids=["four-bar", "slider", "slot"])
 def test_random_drags_never_fail(make_window, design):
     window = make_window(design)
     doc = window.document

@@ -8,7 +8,7 @@ import pytest
 from PySide6.QtCore import QRectF, Qt
 from shapely.geometry import Point
 
-from .designs import FOUR_BAR, SLIDER_CRANK, SLOTTED_LEVER
+from tests.designs import CARTON_PUSHER, CLAW_FEED, SAMPLES, SWING_LEVER, UNFINISHED
 
 
 def cell(window, row_name, column):
@@ -19,7 +19,7 @@ def cell(window, row_name, column):
 
 @pytest.mark.parametrize("length_unit, metres", [("mm", 1e-3), ("m", 1.0), ("in", 0.0254)])
 def test_point_rows_show_the_solution_in_the_chosen_unit(make_window, length_unit, metres):
-    window = make_window(FOUR_BAR)
+    window = make_window(CLAW_FEED)
     window.turn_driver(140.0)
     window.length_units.setCurrentText(length_unit)
     solution = window.document.solution
@@ -37,7 +37,7 @@ def test_point_rows_show_the_solution_in_the_chosen_unit(make_window, length_uni
 
 
 def test_link_rows_show_omega_in_rpm_or_rad_s_with_the_sense_in_words(make_window):
-    window = make_window(FOUR_BAR)
+    window = make_window(CLAW_FEED)
     solution = window.document.solution
     omega = solution.angular_velocity["rocker"]
     assert cell(window, "link rocker", 1)[0] == pytest.approx(abs(omega))
@@ -52,7 +52,7 @@ def test_link_rows_show_omega_in_rpm_or_rad_s_with_the_sense_in_words(make_windo
 
 
 def test_slide_rows_show_the_sliding_rates(make_window):
-    window = make_window(SLIDER_CRANK)
+    window = make_window(CARTON_PUSHER)
     solution = window.document.solution
     row = "slide guide (D on ground)"
     assert cell(window, row, 1)[0] == pytest.approx(solution.sliding_velocity["guide"] * 1e3)
@@ -60,7 +60,7 @@ def test_slide_rows_show_the_sliding_rates(make_window):
     assert cell(window, row, 2)[1] == "+ = E→F"
 
 
-@pytest.mark.parametrize("design", [FOUR_BAR, SLIDER_CRANK, SLOTTED_LEVER], ids=["four-bar", "slider", "slot"])
+@pytest.mark.parametrize("design", [CLAW_FEED, CARTON_PUSHER, SWING_LEVER], ids=["four-bar", "slider", "slot"])
 def test_polygon_items_sit_at_the_construction_images_over_the_scale(make_window, design):
     window = make_window(design)
     window.turn_driver(75.0)
@@ -83,7 +83,7 @@ def test_polygon_items_sit_at_the_construction_images_over_the_scale(make_window
 
 
 def test_joints_sit_at_the_solved_positions(make_window):
-    window = make_window(FOUR_BAR)
+    window = make_window(CLAW_FEED)
     window.turn_driver(250.0)
     solution = window.document.solution
     for name, joint in window.drawings.space_scene.joints.items():
@@ -92,7 +92,7 @@ def test_joints_sit_at_the_solved_positions(make_window):
 
 
 def test_items_are_moved_in_place_while_the_step_structure_holds(make_window):
-    window = make_window(FOUR_BAR)
+    window = make_window(CLAW_FEED)
     scene = window.drawings.velocity_scene
     before = {key: id(items) for key, items in scene.step_items.items()}
     lines = [item.line for item in scene.step_items.values() if item.line is not None]
@@ -103,7 +103,7 @@ def test_items_are_moved_in_place_while_the_step_structure_holds(make_window):
 
 
 def test_the_legend_is_painted_in_each_pen_used(make_window):
-    window = make_window(FOUR_BAR)
+    window = make_window(CLAW_FEED)
     view = window.drawings.velocity_view
     image = view.viewport().grab().toImage()
     pens = view.scene().used_pens()
@@ -118,17 +118,15 @@ def test_the_legend_is_painted_in_each_pen_used(make_window):
 
 
 def test_an_unfinished_design_draws_its_space_diagram_and_says_what_is_missing(make_window):
-    from .designs import UNFINISHED
-
     window = make_window(UNFINISHED)
-    assert set(window.drawings.space_scene.joints) == set(FOUR_BAR["points"])
+    assert set(window.drawings.space_scene.joints) == set(CLAW_FEED["points"])
     assert not window.drawings.velocity_scene.step_items
     assert "no driver" in window.status.text()
     assert window.table.results.rowCount() == 0
 
 
 def test_coupler_paths_follow_the_cycle_sweep(make_window):
-    window = make_window(FOUR_BAR)
+    window = make_window(CLAW_FEED)
     sweep = window.document.sweep
     path = window.drawings.space_scene.paths["P"].path()
     track = sweep.positions[:, sweep.point_names.index("P")] * 1e3
@@ -139,9 +137,7 @@ def test_coupler_paths_follow_the_cycle_sweep(make_window):
 
 
 def test_no_two_visible_polygon_labels_overlap(make_window):
-    from .designs import SLOTTED_LEVER
-
-    for design in (FOUR_BAR, SLIDER_CRANK, SLOTTED_LEVER):
+    for design in (CLAW_FEED, CARTON_PUSHER, SWING_LEVER):
         window = make_window(design)
         for angle in (20.0, 90.0, 200.0):
             window.turn_driver(angle)
@@ -160,7 +156,7 @@ def test_no_two_visible_polygon_labels_overlap(make_window):
 
 
 def test_solver_rounding_reads_as_zero_not_as_a_sense(make_window):
-    window = make_window(SLIDER_CRANK)  # the crank turns at constant speed: α = 0 exactly in theory
+    window = make_window(CARTON_PUSHER)  # the crank turns at constant speed: α = 0 exactly in theory
     for angle in (30.0, 250.0, 333.0):
         window.turn_driver(angle)
         raw = window.document.solution.angular_acceleration["crank"]
@@ -171,9 +167,8 @@ def test_solver_rounding_reads_as_zero_not_as_a_sense(make_window):
 
 
 def test_joint_labels_stand_clear_of_each_other_and_of_the_joints(make_window):
-    crowded = {**FOUR_BAR, "points": {**FOUR_BAR["points"], "P": [146, 113]}}  # P 7 mm from B
-    samples = Path(__file__).resolve().parents[2] / "samples"
-    for design in (crowded, samples / "tile-trimmer-quick-return.json", samples / "baler-tamper-watt.json"):
+    crowded = {**CLAW_FEED, "points": {**CLAW_FEED["points"], "P": [146, 113]}}  # P 7 mm from B
+    for design in (crowded, SAMPLES / "tile-trimmer-quick-return.json", SAMPLES / "baler-tamper-watt.json"):
         window = make_window(crowded)
         if isinstance(design, Path):
             assert window.open_path(design)

@@ -7,12 +7,11 @@ from PySide6.QtPrintSupport import QPrinter
 
 import app.exports
 import kinematics
-
-from .designs import FOUR_BAR, UNFINISHED
+from tests.designs import CLAW_FEED, UNFINISHED
 
 
 def test_export_pdf_writes_the_shown_pose_with_the_caution(make_window, tmp_path):
-    window = make_window(FOUR_BAR)
+    window = make_window(CLAW_FEED)
     window.turn_driver(140.0)
     target = tmp_path / "sheet.pdf"
     assert window.export_pdf(target)
@@ -24,7 +23,7 @@ def test_export_pdf_writes_the_shown_pose_with_the_caution(make_window, tmp_path
 
 
 def test_export_dxf_writes_a_drawing_ezdxf_reads_back(make_window, tmp_path):
-    window = make_window(FOUR_BAR)
+    window = make_window(CLAW_FEED)
     target = tmp_path / "drawing.dxf"
     assert window.export_dxf(target)
     doc, auditor = ezdxf.recover.readfile(target)  # ezdxf's recovering reader, as PITFALLS.md advises
@@ -40,7 +39,7 @@ def test_nothing_to_print_for_an_unfinished_design(make_window, tmp_path):
 
 
 def test_print_hands_the_sheet_to_the_chosen_printer(make_window, tmp_path, monkeypatch):
-    window = make_window(FOUR_BAR)
+    window = make_window(CLAW_FEED)
     target = tmp_path / "printed.pdf"
 
     class ChosenPrinter:

@@ -12,8 +12,7 @@ from PySide6.QtWidgets import QApplication, QMessageBox
 import kinematics
 from app import files
 from app.window import MainWindow, open_window
-
-from .designs import FOUR_BAR, SLIDER_CRANK, load
+from tests.designs import CARTON_PUSHER, CLAW_FEED, load
 
 REAL_ASK_TO_SAVE = MainWindow.ask_to_save  # the fixture replaces it; these tests want the real prompt
 
@@ -31,7 +30,7 @@ def warnings_shown(monkeypatch):
 
 
 def test_save_writes_the_core_text_atomically(make_window, tmp_path):
-    window = make_window(FOUR_BAR)
+    window = make_window(CLAW_FEED)
     target = tmp_path / "claw.json"
     target.write_text("old", encoding="utf-8")
     mode = 0o640
@@ -48,7 +47,7 @@ def test_save_writes_the_core_text_atomically(make_window, tmp_path):
 
 def test_a_failed_save_leaves_the_old_file_whole_and_no_temporary(make_window, tmp_path, monkeypatch,
                                                                   warnings_shown):
-    window = make_window(FOUR_BAR)
+    window = make_window(CLAW_FEED)
     target = tmp_path / "claw.json"
     target.write_text("the old contents", encoding="utf-8")
 
@@ -63,7 +62,7 @@ def test_a_failed_save_leaves_the_old_file_whole_and_no_temporary(make_window, t
 
 
 def test_a_bad_file_shows_its_message_and_keeps_the_design(make_window, tmp_path, warnings_shown):
-    window = make_window(FOUR_BAR)
+    window = make_window(CLAW_FEED)
     before = window.document.mechanism
     bad = tmp_path / "bad.json"
     bad.write_text('{"kinepoly": 1, "points": {"A": [0, 0]', encoding="utf-8")
@@ -76,8 +75,8 @@ def test_a_bad_file_shows_its_message_and_keeps_the_design(make_window, tmp_path
 
 
 def test_open_replaces_the_design_and_remembers_the_file(make_window, tmp_path):
-    window = make_window(FOUR_BAR)
-    path = write(tmp_path / "pusher.json", SLIDER_CRANK)
+    window = make_window(CLAW_FEED)
+    path = write(tmp_path / "pusher.json", CARTON_PUSHER)
     window.document.edit(kinematics.move_point(window.document.mechanism, "P", (71.0, 140.0)), "move P")
     assert window.open_path(path)
     assert set(window.document.mechanism.slides) == {"guide"}
@@ -88,8 +87,8 @@ def test_open_replaces_the_design_and_remembers_the_file(make_window, tmp_path):
 
 
 def test_a_dropped_file_is_opened(make_window, tmp_path):
-    window = make_window(FOUR_BAR)
-    path = write(tmp_path / "dropped.json", SLIDER_CRANK)
+    window = make_window(CLAW_FEED)
+    path = write(tmp_path / "dropped.json", CARTON_PUSHER)
     data = QMimeData()
     data.setUrls([QUrl.fromLocalFile(str(path))])
     enter = QDragEnterEvent(QPoint(50, 50), Qt.CopyAction, data, Qt.LeftButton, Qt.NoModifier)
@@ -101,7 +100,7 @@ def test_a_dropped_file_is_opened(make_window, tmp_path):
 
 
 def test_unsaved_changes_are_asked_about(make_window, monkeypatch):
-    window = make_window(FOUR_BAR)
+    window = make_window(CLAW_FEED)
     monkeypatch.setattr(MainWindow, "ask_to_save", REAL_ASK_TO_SAVE)
     window.document.edit(kinematics.move_point(window.document.mechanism, "P", (71.0, 140.0)), "move P")
     assert "*" in window.windowTitle()
@@ -115,13 +114,13 @@ def test_unsaved_changes_are_asked_about(make_window, monkeypatch):
     window.new_design()
     assert not window.document.mechanism.points
     assert "no driver" in window.status.text()
-    window.document.edit(load(FOUR_BAR), "paste")
+    window.document.edit(load(CLAW_FEED), "paste")
     window.close()
     assert not window.isVisible()
 
 
 def test_the_about_box_carries_the_safety_caution(make_window, monkeypatch):
-    window = make_window(FOUR_BAR)
+    window = make_window(CLAW_FEED)
     shown = []
     monkeypatch.setattr(QMessageBox, "about", lambda parent, title, text: shown.append(text))
     window.about()
@@ -130,7 +129,7 @@ def test_the_about_box_carries_the_safety_caution(make_window, monkeypatch):
 
 def test_kinepoly_file_opens_it(qtbot, tmp_path, monkeypatch):
     monkeypatch.setattr(MainWindow, "ask_to_save", lambda self: True)
-    path = write(tmp_path / "claw.json", FOUR_BAR)
+    path = write(tmp_path / "claw.json", CLAW_FEED)
     window = open_window([str(path)])
     qtbot.addWidget(window)
     assert window.isVisible() and window.document.path == str(path)
@@ -142,7 +141,7 @@ def test_the_kinepoly_command_runs_the_window_on_a_file(qapp, tmp_path):
 
     from app.main import main as kinepoly
 
-    path = write(tmp_path / "claw.json", FOUR_BAR)
+    path = write(tmp_path / "claw.json", CLAW_FEED)
     opened = []
 
     def look_and_quit():

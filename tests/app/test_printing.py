@@ -4,7 +4,6 @@ and we check lengths on paper against the mechanism file's own numbers."""
 import json
 import math
 import re
-from pathlib import Path
 
 import pdfplumber
 import pytest
@@ -12,10 +11,9 @@ from PySide6.QtPrintSupport import QPrinter
 
 import kinematics
 from app.printing import main, print_construction
-from tests.drawing.designs import BOTTLE_PUSHER, GATE_LIFTER, LIMITED_ROCKER, SWING_LEVER, construction
+from tests.designs import BOTTLE_PUSHER, GATE_LIFTER, SAMPLE_FILES, SWING_LEVER, TRIPLE_ROCKER, construction
 
 MM_PER_PT = 25.4 / 72.0  # PDF user space is in points of 1/72 inch
-SAMPLES = Path(__file__).resolve().parents[2] / "samples"
 RATIO = re.compile(r"Space diagram (\d+(?:\.\d+)?):(\d+(?:\.\d+)?)")
 PER_MM = re.compile(r"(Velocity|Acceleration) polygon 1 mm = ([\d.]+) m/s")
 
@@ -166,7 +164,7 @@ def test_command_reports_a_bad_file_by_place(qapp, tmp_path, capsys):
 
 
 def test_command_reports_a_pose_that_cannot_assemble(qapp, tmp_path, capsys):
-    code = main([str(_design_file(tmp_path, LIMITED_ROCKER)), "--angle", "180", "-o", str(tmp_path / "x.pdf")])
+    code = main([str(_design_file(tmp_path, TRIPLE_ROCKER)), "--angle", "180", "-o", str(tmp_path / "x.pdf")])
     assert code == 3
     assert "180" in capsys.readouterr().err
     assert not (tmp_path / "x.pdf").exists()
@@ -201,7 +199,7 @@ def test_lettering_is_iso_3098_capital_height(sheet_pdf):
         assert word["fontname"].split("+")[-1] == "DejaVuSans"
 
 
-@pytest.mark.parametrize("sample", sorted(SAMPLES.glob("*.json")), ids=lambda p: p.stem)
+@pytest.mark.parametrize("sample", SAMPLE_FILES, ids=lambda p: p.stem)
 def test_every_sample_prints(qapp, sample, tmp_path):
     assert main([str(sample), "-o", str(tmp_path / "s.pdf")]) == 0
     page = pdfplumber.open(tmp_path / "s.pdf").pages[0]

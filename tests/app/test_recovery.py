@@ -10,8 +10,7 @@ from PySide6.QtWidgets import QMessageBox
 import kinematics
 from app import recovery
 from app.recovery import EDITS_PER_COPY, Autosave, left_behind, offer_recovery
-
-from .designs import FOUR_BAR, load
+from tests.designs import CLAW_FEED, load
 
 
 @pytest.fixture
@@ -64,7 +63,7 @@ def test_a_clean_exit_leaves_no_copy(make_window, folder):
 
 def test_after_a_crash_the_next_start_offers_the_copy(make_window, folder, monkeypatch):
     # A process that wrote a copy and died without cleaning up.
-    mech = kinematics.move_point(load(FOUR_BAR), "B", (123.25, 99.5))
+    mech = kinematics.move_point(load(CLAW_FEED), "B", (123.25, 99.5))
     dead = subprocess.run([sys.executable, "-c", "import os; print(os.getpid())"], capture_output=True, text=True)
     folder.mkdir(parents=True)
     copy = folder / f"recovery-{int(dead.stdout)}-1.json"
@@ -83,9 +82,9 @@ def test_after_a_crash_the_next_start_offers_the_copy(make_window, folder, monke
 def test_a_declined_copy_is_removed_and_a_live_ones_is_left(make_window, folder, monkeypatch):
     folder.mkdir(parents=True)
     live = folder / f"recovery-{os.getppid()}-1.json"
-    kinematics.storage.write_recovery(load(FOUR_BAR), live)
+    kinematics.storage.write_recovery(load(CLAW_FEED), live)
     dead = folder / "recovery-999999999-1.json"
-    kinematics.storage.write_recovery(load(FOUR_BAR), dead)
+    kinematics.storage.write_recovery(load(CLAW_FEED), dead)
     monkeypatch.setattr(QMessageBox, "question", lambda *args: QMessageBox.No)
     assert not offer_recovery(make_window())
     assert not dead.exists() and live.exists()

@@ -7,10 +7,7 @@ from pathlib import Path
 import pytest
 
 from app.main import main as kinepoly
-
-from .designs import FOUR_BAR, SLOTTED_LEVER, TRIPLE_ROCKER, UNFINISHED
-
-SAMPLES = sorted((Path(__file__).resolve().parents[2] / "samples").glob("*.json"))
+from tests.designs import CLAW_FEED, SAMPLE_FILES, SWING_LEVER, TRIPLE_ROCKER, UNFINISHED
 
 
 def png_size(path):
@@ -23,7 +20,7 @@ def png_size(path):
 
 def test_render_writes_a_png_of_the_asked_size(qapp, tmp_path):
     design = tmp_path / "claw.json"
-    design.write_text(json.dumps(FOUR_BAR), encoding="utf-8")
+    design.write_text(json.dumps(CLAW_FEED), encoding="utf-8")
     out = tmp_path / "view.png"
     assert kinepoly(["render", str(design), "--angle", "210", "-o", str(out), "--size", "900x560"]) == 0
     assert png_size(out) == (900, 560)
@@ -31,7 +28,7 @@ def test_render_writes_a_png_of_the_asked_size(qapp, tmp_path):
     assert png_size(out) == (1600, 1000)
 
 
-@pytest.mark.parametrize("sample", SAMPLES, ids=[p.stem for p in SAMPLES])
+@pytest.mark.parametrize("sample", SAMPLE_FILES, ids=[p.stem for p in SAMPLE_FILES])
 def test_every_sample_renders(qapp, tmp_path, sample):
     out = tmp_path / f"{sample.stem}.png"
     assert kinepoly(["render", str(sample), "-o", str(out), "--size", "800x500"]) == 0
@@ -43,7 +40,7 @@ def test_a_bad_file_or_angle_writes_nothing_and_says_why(qapp, tmp_path, capsys)
     assert kinepoly(["render", str(tmp_path / "missing.json"), "-o", str(out)]) == 2
     assert "missing.json" in capsys.readouterr().err
     design = tmp_path / "lever.json"
-    design.write_text(json.dumps(SLOTTED_LEVER), encoding="utf-8")
+    design.write_text(json.dumps(SWING_LEVER), encoding="utf-8")
     # 1: the output could not be written
     assert kinepoly(["render", str(design), "-o", str(tmp_path / "no" / "view.png")]) == 1
     assert "is not an existing folder" in capsys.readouterr().err

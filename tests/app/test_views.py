@@ -5,7 +5,7 @@ from PySide6.QtGui import QWheelEvent
 from PySide6.QtTest import QTest
 from PySide6.QtWidgets import QApplication
 
-from .designs import FOUR_BAR
+from tests.designs import CLAW_FEED
 
 
 def wheel(view, steps: int):
@@ -16,7 +16,7 @@ def wheel(view, steps: int):
 
 
 def test_the_wheel_zooms_and_fit_restores(make_window):
-    window = make_window(FOUR_BAR)
+    window = make_window(CLAW_FEED)
     view = window.drawings.velocity_view
     fitted = view.transform().m11()
     wheel(view, 2)
@@ -29,7 +29,7 @@ def test_the_wheel_zooms_and_fit_restores(make_window):
 
 
 def test_a_resized_view_refits_its_drawing(make_window):
-    window = make_window(FOUR_BAR)
+    window = make_window(CLAW_FEED)
     view = window.drawings.acceleration_view
     before = view.transform().m11()
     window.resize(1000, 700)
@@ -40,7 +40,7 @@ def test_a_resized_view_refits_its_drawing(make_window):
 
 
 def test_dragging_empty_space_pans(make_window):
-    window = make_window(FOUR_BAR)
+    window = make_window(CLAW_FEED)
     view = window.drawings.space_view
     empty = QPoint(8, view.viewport().height() - 8)
     assert view.joint_at(empty) is None
@@ -54,7 +54,7 @@ def test_dragging_empty_space_pans(make_window):
 
 
 def test_hovering_a_joint_marks_its_images_and_its_table_row(make_window):
-    window = make_window(FOUR_BAR)
+    window = make_window(CLAW_FEED)
     view = window.drawings.space_view
     at = view.mapFromScene(window.drawings.space_scene.joints["B"].dot.pos())
     QTest.mouseMove(view.viewport(), at + QPoint(30, 30))
@@ -75,7 +75,7 @@ def test_hovering_a_joint_marks_its_images_and_its_table_row(make_window):
 
 
 def test_selecting_a_step_emphasises_its_geometry_and_links(make_window):
-    window = make_window(FOUR_BAR)
+    window = make_window(CLAW_FEED)
     construction = window.document.construction
     step = next(s for s in construction.velocity.steps if s.links == ("rocker",) and s.role.value == "result")
     row = [*construction.velocity.steps, *construction.acceleration.steps].index(step)
@@ -93,7 +93,7 @@ def test_selecting_a_step_emphasises_its_geometry_and_links(make_window):
 
 
 def test_clicking_a_polygon_line_shows_its_step(make_window):
-    window = make_window(FOUR_BAR)
+    window = make_window(CLAW_FEED)
     construction = window.document.construction
     step = next(s for s in construction.acceleration.steps if s.role.value == "result")
     view, scene = window.drawings.acceleration_view, window.drawings.acceleration_scene
@@ -106,7 +106,7 @@ def test_clicking_a_polygon_line_shows_its_step(make_window):
 
 
 def test_choosing_a_table_row_rings_the_point_images(make_window):
-    window = make_window(FOUR_BAR)
+    window = make_window(CLAW_FEED)
     row = window.table.results.rows["P"]
     index = window.table.model().index(row, 1)
     QTest.mouseClick(window.table.viewport(), Qt.LeftButton, Qt.NoModifier, window.table.visualRect(index).center())

@@ -7,7 +7,6 @@ import os
 import re
 import shutil
 import subprocess
-from pathlib import Path
 
 import ezdxf
 import pdfplumber
@@ -18,11 +17,17 @@ import kinematics
 from kinematics import style
 from kinematics.dxf import main, write_dxf
 from kinematics.storage import StorageError, replace_atomically
-
-from .designs import BOTTLE_PUSHER, DESIGNS, GATE_LIFTER, LIMITED_ROCKER, SWING_LEVER, construction
+from tests.designs import (
+    BOTTLE_PUSHER,
+    GATE_LIFTER,
+    SAMPLE_FILES,
+    SHEET_DESIGNS,
+    SWING_LEVER,
+    TRIPLE_ROCKER,
+    construction,
+)
 
 MM_PER_PT = 25.4 / 72.0
-SAMPLES = Path(__file__).resolve().parents[2] / "samples"
 
 
 def _read(path):
@@ -32,9 +37,9 @@ def _read(path):
     return doc
 
 
-@pytest.fixture(params=sorted(DESIGNS))
+@pytest.fixture(params=sorted(SHEET_DESIGNS))
 def exported(request, tmp_path):
-    c = construction(DESIGNS[request.param], 35.0)
+    c = construction(SHEET_DESIGNS[request.param], 35.0)
     sheet = write_dxf(c, tmp_path / "drawing.dxf", file_name="design.json", date="2026-05-06")
     return c, sheet, _read(tmp_path / "drawing.dxf")
 
@@ -122,7 +127,7 @@ def test_command_exit_codes_and_messages(tmp_path, capsys):
     assert main([str(bad), "-o", str(tmp_path / "a.dxf")]) == 2
     assert "bad.json" in capsys.readouterr().err
     limited = tmp_path / "limited.json"
-    limited.write_text(json.dumps(LIMITED_ROCKER), encoding="utf-8")
+    limited.write_text(json.dumps(TRIPLE_ROCKER), encoding="utf-8")
     assert main([str(limited), "--angle", "180", "-o", str(tmp_path / "a.dxf")]) == 3
     assert "cannot assemble" in capsys.readouterr().err
     assert not (tmp_path / "a.dxf").exists()
@@ -215,7 +220,7 @@ def test_a_design_in_metres_exports_in_millimetres_with_readable_text(tmp_path):
     assert min(t.dxf.height for t in msp.query("TEXT")) > 2.5
 
 
-@pytest.mark.parametrize("sample", sorted(SAMPLES.glob("*.json")), ids=lambda p: p.stem)
+@pytest.mark.parametrize("sample", SAMPLE_FILES, ids=lambda p: p.stem)
 def test_every_sample_exports_a_clean_dxf(sample, tmp_path):
     c = kinematics.construct(kinematics.solve(kinematics.load_mechanism(sample)))
     write_dxf(c, tmp_path / "s.dxf", file_name=sample.name)

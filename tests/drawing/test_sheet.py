@@ -5,7 +5,6 @@ import math
 import subprocess
 import sys
 from fractions import Fraction
-from pathlib import Path
 
 import pytest
 
@@ -16,11 +15,16 @@ from kinematics.drawing.layout import MARGIN, MARGIN_FILING
 from kinematics.drawing.scaling import iso5455_ratio, polygon_scale, ratio_text
 from kinematics.drawing.space import outline
 from kinematics.steps import Role
-
-from .designs import BOTTLE_PUSHER, DESIGNS, GATE_LIFTER, SWING_LEVER, TRIAD_PRESS, construction
-
-SAMPLES_DIR = Path(__file__).resolve().parents[2] / "samples"
-SAMPLES = sorted(SAMPLES_DIR.glob("*.json"))
+from tests.designs import (
+    BOTTLE_PUSHER,
+    GATE_LIFTER,
+    SAMPLE_FILES,
+    SAMPLES,
+    SHEET_DESIGNS,
+    SWING_LEVER,
+    TRIAD_PRESS,
+    construction,
+)
 
 # ISO 5455 recommended scales (enlargement, full size, reduction), the series
 # extended by powers of ten as the standard allows.
@@ -54,9 +58,9 @@ def test_outline_of_a_plate_goes_round_it_and_a_bar_runs_along():
     assert outline("ABC", {"A": (0, 0), "B": (2, 2), "C": (1, 1)}) == (("A", "C", "B"), False)
 
 
-@pytest.mark.parametrize("name", sorted(DESIGNS))
+@pytest.mark.parametrize("name", sorted(SHEET_DESIGNS))
 def test_space_diagram_links_run_joint_centre_to_joint_centre_at_sheet_scale(name):
-    c = construction(DESIGNS[name])
+    c = construction(SHEET_DESIGNS[name])
     sheet = draw_sheet(c, file_name="x.json", date="2026-01-01")
     view = sheet.views["space"]
     ratio = Fraction(view.scale_text.split(":")[0]) / Fraction(view.scale_text.split(":")[1])
@@ -80,9 +84,9 @@ def test_a_link_measures_true_length_times_the_scale():
     assert math.dist(crank.start, crank.end) == pytest.approx(40.0 * view.mm_per_unit / 1000.0, abs=1e-9)
 
 
-@pytest.mark.parametrize("name", sorted(DESIGNS))
+@pytest.mark.parametrize("name", sorted(SHEET_DESIGNS))
 def test_every_polygon_step_is_drawn_from_its_geometry(name):
-    c = construction(DESIGNS[name])
+    c = construction(SHEET_DESIGNS[name])
     sheet = draw_sheet(c)
     for kind in ("velocity", "acceleration"):
         polygon, view = getattr(c, kind), sheet.views[kind]
@@ -100,9 +104,9 @@ def test_every_polygon_step_is_drawn_from_its_geometry(name):
 
 @pytest.mark.parametrize("paper", ["A4", "A3"])
 @pytest.mark.parametrize("landscape", [False, True])
-@pytest.mark.parametrize("source", sorted(DESIGNS) + [p.name for p in SAMPLES])
+@pytest.mark.parametrize("source", sorted(SHEET_DESIGNS) + [p.name for p in SAMPLE_FILES])
 def test_everything_stays_inside_the_frame(source, paper, landscape):
-    mechanism = kinematics.load_mechanism(DESIGNS[source] if source in DESIGNS else SAMPLES_DIR / source)
+    mechanism = kinematics.load_mechanism(SHEET_DESIGNS[source] if source in SHEET_DESIGNS else SAMPLES / source)
     sheet = draw_sheet(kinematics.construct(kinematics.solve(mechanism)), paper=paper, landscape=landscape,
                        file_name=source)
     width, height = PAPER[paper][::-1] if landscape else PAPER[paper]

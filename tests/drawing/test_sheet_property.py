@@ -8,23 +8,9 @@ from hypothesis import strategies as st
 
 import kinematics
 from kinematics.drawing import draw_model, draw_sheet
+from tests.designs import four_bar
 
 from .test_sheet import MARGIN, MARGIN_FILING, _extent
-
-
-def _crank_rocker(crank, coupler, rocker, frame, theta_deg, rpm):
-    """A four-bar with B on the open side, built by the two-circle intersection."""
-    t = math.radians(theta_deg)
-    ax, ay = crank * math.cos(t), crank * math.sin(t)
-    dx, dy = frame - ax, -ay
-    dist = math.hypot(dx, dy)
-    beta = math.acos((coupler ** 2 + dist ** 2 - rocker ** 2) / (2 * coupler * dist))
-    phi = math.atan2(dy, dx) + beta
-    b = [ax + coupler * math.cos(phi), ay + coupler * math.sin(phi)]
-    return {"kinepoly": 1, "length_unit": "mm", "title": "random crank-rocker",
-            "points": {"O2": [0, 0], "A": [ax, ay], "B": b, "O4": [frame, 0]}, "ground": ["O2", "O4"],
-            "links": {"crank": ["O2", "A"], "coupler": ["A", "B"], "rocker": ["O4", "B"]},
-            "driver": {"link": "crank", "pivot": "O2", "speed": {"value": rpm, "unit": "rpm"}}}
 
 
 @st.composite
@@ -38,7 +24,8 @@ def crank_rockers(draw):
     rocker = draw(st.floats(low, high))
     longest = max(coupler, frame, rocker)
     assume(crank + longest < coupler + frame + rocker - longest)
-    return _crank_rocker(crank, coupler, rocker, frame, draw(st.floats(0, 359)), draw(st.floats(10, 3000)))
+    return {**four_bar(crank, coupler, rocker, frame, draw(st.floats(0, 359)), rpm=draw(st.floats(10, 3000))),
+            "title": "random crank-rocker"}
 
 
 @settings(max_examples=30)

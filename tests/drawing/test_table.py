@@ -7,8 +7,7 @@ import math
 import pytest
 
 from kinematics.drawing.table import link_rows, point_rows, results_csv
-
-from .designs import BOTTLE_PUSHER, GATE_LIFTER, construction
+from tests.designs import BOTTLE_PUSHER, GATE_LIFTER, construction
 
 
 def _rows(solution):

@@ -6,7 +6,7 @@ import sys
 
 import pytest
 
-from tests.kinematics.common import SAMPLES, four_bar
+from tests.designs import SAMPLES, four_bar
 
 QUICK = str(SAMPLES / "tile-trimmer-quick-return.json")
 

@@ -9,9 +9,8 @@ from hypothesis import strategies as st
 
 import kinematics
 from kinematics import Component, Role, groups
-from tests.kinematics.common import CASE_FACTOR, SAMPLES, block_on_rotating_guide, four_bar, slider_crank, slotted_lever
-
-SAMPLE_FILES = sorted(SAMPLES.glob("*.json"))
+from tests import CASE_FACTOR
+from tests.designs import SAMPLE_FILES, TRIAD_PRESS, block_on_rotating_guide, four_bar, slider_crank, slotted_lever
 
 
 @pytest.mark.parametrize("path", SAMPLE_FILES, ids=lambda p: p.name)
@@ -134,20 +133,8 @@ def test_random_blocks_on_rotating_guides(theta, rpm, alpha, share):
     _crosscheck_ok(_assemblable(lambda: block_on_rotating_guide(theta, rpm=rpm, alpha=alpha, share=share)))
 
 
-def triad_linkage():
-    """A crank driving a three-link group (ternary link B-C-D held by rockers O4-C and O6-D):
-    no dyad fits, so the construction must say so and take that group from the solver."""
-    return {"kinepoly": 1, "length_unit": "mm",
-            "points": {"O2": [0, 0], "A": [30, 30], "B": [110, 90], "C": [170, 120], "D": [150, 40],
-                       "O4": [230, 160], "O6": [200, -30]},
-            "ground": ["O2", "O4", "O6"],
-            "links": {"crank": ["O2", "A"], "rod": ["A", "B"], "plate": ["B", "C", "D"],
-                      "upper": ["O4", "C"], "lower": ["O6", "D"]},
-            "driver": {"link": "crank", "pivot": "O2", "speed": {"value": 100, "unit": "rpm"}}}
-
-
 def test_a_group_that_is_no_dyad_is_marked_and_taken_from_the_solver():
-    mech = kinematics.load_mechanism(triad_linkage())
+    mech = kinematics.load_mechanism(TRIAD_PRESS)
     assert kinematics.diagnose(mech) == []
     solution = kinematics.solve(mech, 40.0)
     construction = kinematics.construct(solution)

@@ -11,9 +11,7 @@ import pytest
 
 import kinematics
 from kinematics.fileformat import SCHEMA_PATH
-from tests.kinematics.common import SAMPLES, four_bar, slider_crank
-
-SAMPLE_FILES = sorted(SAMPLES.glob("*.json"))
+from tests.designs import SAMPLE_FILES, SAMPLES, four_bar, slider_crank
 
 
 def refusal(doc) -> str:

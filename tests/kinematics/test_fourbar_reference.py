@@ -3,7 +3,7 @@
 Reference: Freudenstein's equation for θ4 and the vector-loop closed forms for ω and α,
 as given in R. L. Norton, *Design of Machinery*, 5th ed., McGraw-Hill, 2012, §4.5
 (position), §6.7 (velocity) and §7.3 (acceleration)  # from memory (section numbers)
-Those relations take the frame on the x axis from O2 to O4, as tests.kinematics.common.four_bar does.
+Those relations take the frame on the x axis from O2 to O4, as tests.designs.four_bar does.
 """
 
 import math
@@ -11,7 +11,7 @@ import math
 import pytest
 
 import kinematics
-from tests.kinematics.common import four_bar
+from tests.designs import four_bar
 
 
 def norton_four_bar(a, b, c, d, theta2, omega2, alpha2, open_branch=True):

@@ -13,9 +13,9 @@ from hypothesis import given, settings
 from hypothesis import strategies as st
 
 import kinematics
-from tests.kinematics.common import SAMPLES
+from tests.designs import SAMPLE_FILES
 
-DOCUMENTS = [json.loads(p.read_text()) for p in sorted(SAMPLES.glob("*.json"))]
+DOCUMENTS = [json.loads(p.read_text()) for p in SAMPLE_FILES]
 CASES = 5000 if os.environ.get("KINEPOLY_FULL") else 1000
 GUARD_SECONDS = 20  # a generous guard against hangs, not a timing test
 

@@ -9,7 +9,7 @@ import pytest
 import kinematics
 from kinematics.checks import loop_checks
 from kinematics.sweep import sweep, verify_sweep
-from tests.kinematics.common import SAMPLES, driver
+from tests.designs import SAMPLES, driver
 
 PARALLELOGRAM = {"kinepoly": 1, "points": {"O2": [0, 0], "A": [0, 40], "B": [100, 40], "O4": [100, 0]},
                  "ground": ["O2", "O4"], "links": {"crank": ["O2", "A"], "coupler": ["A", "B"], "rocker": ["O4", "B"]},

@@ -11,7 +11,7 @@ import numpy as np
 import pytest
 
 import kinematics
-from tests.kinematics.common import slider_crank
+from tests.designs import slider_crank
 
 
 def test_dead_centre_acceleration():

@@ -13,7 +13,7 @@ import pytest
 
 import kinematics
 from kinematics.storage import StorageError, read_recovery, save_mechanism, write_recovery
-from tests.kinematics.common import SAMPLES
+from tests.designs import SAMPLES
 
 KILLS = 200 if os.environ.get("KINEPOLY_FULL") else 20
 

@@ -10,9 +10,8 @@ from hypothesis import strategies as st
 import kinematics
 from kinematics.checks import grashof_class, output_motion
 from kinematics.sweep import sweep, sweep_csv, verify_sweep
-from tests.kinematics.common import CASE_FACTOR, SAMPLES, four_bar, slider_crank
-
-SAMPLE_FILES = sorted(SAMPLES.glob("*.json"))
+from tests import CASE_FACTOR
+from tests.designs import SAMPLE_FILES, SAMPLES, four_bar, slider_crank
 
 
 @pytest.mark.parametrize("path", SAMPLE_FILES, ids=lambda p: p.name)

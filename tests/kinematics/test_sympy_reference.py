@@ -8,7 +8,7 @@ import pytest
 import sympy as sp
 
 import kinematics
-from tests.kinematics.common import four_bar, slotted_lever
+from tests.designs import four_bar, slotted_lever
 
 
 def _check_against_sympy(mech, angle_deg, point_expressions, theta, t, omega, alpha):
