@@ -16,6 +16,7 @@ class AngleControl(QWidget):
     """Asks for driver angles (degrees CCW from +x) through ``angle_requested``."""
 
     angle_requested = Signal(float)
+    playing_changed = Signal(bool)
 
     def __init__(self, parent=None):
         super().__init__(parent)
@@ -44,6 +45,7 @@ class AngleControl(QWidget):
         self.spin.valueChanged.connect(self.angle_requested.emit)
         self.slider.valueChanged.connect(lambda v: self.angle_requested.emit(v / SLIDER_STEPS_PER_DEGREE))
         self.play.toggled.connect(self._play)
+        self.play.toggled.connect(self.playing_changed)
         self.timer.timeout.connect(self.advance)
 
     def show_angle(self, angle_deg: float | None):

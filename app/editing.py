@@ -60,6 +60,8 @@ class JointDrag:
         x = self.start_xy[0] + (at_mm[0] - self.start_mm[0]) / self.mm_per_unit
         y = self.start_xy[1] + (at_mm[1] - self.start_mm[1]) / self.mm_per_unit
         x, y = snap((x, y), self.grid_mm / self.mm_per_unit)
+        if (x, y) == tuple(self.document.mechanism.points[self.name]):
+            return ""  # still on the same grid node: nothing to edit, solve or draw
         after = keep_slides_on_guides(move_point(self.document.mechanism, self.name, (x, y)))
         unit = self.document.mechanism.length_unit
         problem = self.document.edit(after, f"move {self.name}", drag=self.serial)

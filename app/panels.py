@@ -4,6 +4,7 @@ acceleration polygon; shared by the window and ``kinepoly render``."""
 from __future__ import annotations
 
 from PySide6.QtCore import QRectF, Qt
+from PySide6.QtGui import QPainter
 from PySide6.QtWidgets import QSplitter
 
 from .polygon_scene import PolygonScene
@@ -49,6 +50,13 @@ class DrawingsPanel(QSplitter):
             scene.show(polygon, plates)
             view.show_rect(scene.content_rect)
             scene.declutter(self._mm_per_pixel(view))
+
+    def set_draft(self, on: bool):
+        """Draw without antialiasing while the pose follows the mouse (nearly half the cost of a
+        repaint); the finished pose is drawn smooth again."""
+        for view in (self.space_view, self.velocity_view, self.acceleration_view):
+            if bool(view.renderHints() & QPainter.Antialiasing) == on:
+                view.setRenderHint(QPainter.Antialiasing, not on)
 
     def show_paths(self):
         """Redraw the coupler paths alone (the document's sweep caught up with a drag)."""

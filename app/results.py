@@ -23,10 +23,9 @@ from .display_units import LENGTH_SYSTEMS, angular_speed, direction_deg, sense
 NEGLIGIBLE = 1e-9
 
 
-def _clean(value, scale: float):
-    """``value`` (a number or a vector) with parts below NEGLIGIBLE × ``scale`` set to 0."""
-    cleaned = np.where(np.abs(value) < NEGLIGIBLE * scale, 0.0, value)
-    return cleaned if cleaned.ndim else float(cleaned)
+def _clean(value: float, scale: float) -> float:
+    """``value`` set to 0 when it is below NEGLIGIBLE × ``scale``."""
+    return 0.0 if abs(value) < NEGLIGIBLE * scale else value
 
 
 def _number(value: float) -> str:
@@ -55,6 +54,7 @@ class ResultsModel(QStandardItemModel):
         self.layout_key = ()
         self.rows: dict[str, int] = {}
         self.scale = {}  # the pose's largest |v|, |a|, |ω|, |α|: see _scales
+        self._v, self._a = {}, {}  # point name -> (x, y) velocity, acceleration of the pose shown
         self._headers()
 
     def _headers(self):
@@ -78,6 +78,9 @@ class ResultsModel(QStandardItemModel):
                     + [("slide", n) for n in mech.slides])
         if solution is not None:
             self._scales(solution)
+            # Plain floats, read once: numpy scalars one at a time cost more than the formatting.
+            self._v = dict(zip(solution.point_names, solution.velocities.tolist(), strict=True))
+            self._a = dict(zip(solution.point_names, solution.accelerations.tolist(), strict=True))
         cells = [getattr(self, f"_{kind}_cells")(name, solution) for kind, name in rows]
         if tuple(rows) != self.layout_key:
             self.setRowCount(0)
@@ -98,7 +101,7 @@ class ResultsModel(QStandardItemModel):
             return
         self.blockSignals(True)
         for r, row in enumerate(cells):
-            for column, (text, value) in enumerate(row):
+            for column, (text, value) in enumerate(row[1:], start=1):  # column 0 names the row: unchanged
                 item = self.item(r, column)
                 item.setText(text)
                 item.setData(value, Qt.UserRole)
@@ -117,24 +120,24 @@ class ResultsModel(QStandardItemModel):
                                   + [self.scale["omega"] ** 2], default=0.0)
 
     def _point_cells(self, name, solution):
-        v = _clean(solution.velocity(name), self.scale["v"])
-        a = _clean(solution.acceleration(name), self.scale["a"])
+        v = [_clean(c, self.scale["v"]) for c in self._v[name]]
+        a = [_clean(c, self.scale["a"]) for c in self._a[name]]
         speed = self.length.velocity(math.hypot(*v))
         accel = self.length.acceleration(math.hypot(*a))
         return [(f"point {name}", None), (_number(speed), speed), (_angle(direction_deg(*v)), direction_deg(*v)),
                 (_number(accel), accel), (_angle(direction_deg(*a)), direction_deg(*a))]
 
     def _link_cells(self, name, solution):
-        omega = float(_clean(solution.angular_velocity[name], self.scale["omega"]))
-        alpha = float(_clean(solution.angular_acceleration[name], self.scale["alpha"]))
+        omega = _clean(float(solution.angular_velocity[name]), self.scale["omega"])
+        alpha = _clean(float(solution.angular_acceleration[name]), self.scale["alpha"])
         shown = angular_speed(abs(omega), self.speed_unit)
         return [(f"link {name}", None), (f"ω {_number(shown)}", shown), (sense(omega), None),
                 (f"α {_number(abs(alpha))}", abs(alpha)), (sense(alpha, zero="none"), None)]
 
     def _slide_cells(self, name, solution):
         slide = solution.mechanism.slides[name]
-        velocity = self.length.velocity(float(_clean(solution.sliding_velocity[name], self.scale["v"])))
-        accel = self.length.acceleration(float(_clean(solution.sliding_acceleration[name], self.scale["a"])))
+        velocity = self.length.velocity(_clean(float(solution.sliding_velocity[name]), self.scale["v"]))
+        accel = self.length.acceleration(_clean(float(solution.sliding_acceleration[name]), self.scale["a"]))
         towards = (f"+ = {slide.line[0]}→{slide.line[1]}", None)
         return [(f"slide {name} ({slide.point} on {slide.guide})", None), (f"sliding {_number(velocity)}", velocity),
                 towards, (f"sliding {_number(accel)}", accel), towards]

@@ -14,6 +14,8 @@ from .drawing_kit import DASHES, label_font
 ZOOM_PER_WHEEL_STEP = 1.15
 # Panning needs room beyond the drawing; the scene rect is the drawing grown by this factor.
 PAN_ROOM = 4.0
+REFIT_BELOW = 0.6  # a fitted drawing is fitted again once it fills less than this of its view
+FIT_ROOM = 0.04  # room left round a fitted drawing, as a fraction of its size
 GRID_MIN_PIXELS = 6.0
 PICK_PIXELS = 4
 LEGEND_TOP = 38.0
@@ -43,17 +45,29 @@ class DrawingView(QGraphicsView):
         self.fit_rect = QRectF(-100, -100, 200, 200)
 
     def show_rect(self, rect: QRectF):
-        """The area to fit; refits at once unless the user has zoomed or panned."""
+        """The area to fit; refits unless the user has zoomed or panned, or the drawing is still
+        in view and fills at least REFIT_BELOW of it (a drawing that rescaled on every frame of a
+        drag would be hard to follow, and each refit repaints the whole view once more)."""
         self.fit_rect = QRectF(rect)
-        grown = rect.adjusted(-PAN_ROOM * rect.width(), -PAN_ROOM * rect.height(),
-                              PAN_ROOM * rect.width(), PAN_ROOM * rect.height())
-        self.setSceneRect(grown)
+        visible = self.mapToScene(self.viewport().rect()).boundingRect()
+        if self.auto_fit and visible.contains(rect) and max(rect.width() / max(visible.width(), 1e-12),
+                                                              rect.height() / max(visible.height(), 1e-12)) \
+                >= REFIT_BELOW:
+            return
+        if not self.sceneRect().contains(rect) or self.auto_fit:
+            self.setSceneRect(rect.adjusted(-PAN_ROOM * rect.width(), -PAN_ROOM * rect.height(),
+                                            PAN_ROOM * rect.width(), PAN_ROOM * rect.height()))
         if self.auto_fit:
-            self.fitInView(self.fit_rect, Qt.KeepAspectRatio)
+            self._fit()
+
+    def _fit(self):
+        # A little room all round, so a drawing that grows a little during a drag is not refitted at once.
+        room = FIT_ROOM * max(self.fit_rect.width(), self.fit_rect.height())
+        self.fitInView(self.fit_rect.adjusted(-room, -room, room, room), Qt.KeepAspectRatio)
 
     def fit_to_window(self):
         self.auto_fit = True
-        self.fitInView(self.fit_rect, Qt.KeepAspectRatio)
+        self._fit()
         self.rescaled.emit()
 
     def zoom(self, factor: float):
@@ -75,7 +89,7 @@ class DrawingView(QGraphicsView):
     def resizeEvent(self, event):
         super().resizeEvent(event)
         if self.auto_fit:
-            self.fitInView(self.fit_rect, Qt.KeepAspectRatio)
+            self._fit()
             self.rescaled.emit()
 
 

@@ -99,6 +99,7 @@ class MainWindow(SheetOutputs, QMainWindow):
         self.document.swept.connect(self._show_sweep)
         self.document.undo_stack.cleanChanged.connect(self._update_title)
         self.angle.angle_requested.connect(self.turn_driver)
+        self.angle.playing_changed.connect(lambda _playing: self._settle())
         self.length_units.currentTextChanged.connect(self._units_changed)
         self.speed_units.currentTextChanged.connect(self._units_changed)
         self.steps.step_selected.connect(self.drawings.select_step)
@@ -195,6 +196,7 @@ class MainWindow(SheetOutputs, QMainWindow):
     # showing ------------------------------------------------------------
     def refresh(self):
         doc = self.document
+        self.drawings.set_draft(self.live)
         self.drawings.refresh()
         self.table.show_solution(doc.solution)
         self.properties.refresh()
@@ -308,8 +310,15 @@ class MainWindow(SheetOutputs, QMainWindow):
 
     def end_drag(self):
         self.drag = None
+        self._settle()
+
+    def _settle(self):
+        """The pose stopped following the mouse or the play button: bring everything held back up to it."""
+        if self.live:
+            return
         self.document.catch_up_sweep()
         self._show_readouts.flush()
+        self.drawings.set_draft(False)
 
     # files ----------------------------------------------------------------
     def ask_to_save(self) -> bool:
