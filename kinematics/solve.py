@@ -250,6 +250,15 @@ class _Way:
         if len(self.spans) == 1 and np.linalg.cond(driven.jacobian(driven.full(self.poses[0]), theta_ref)) > 1e12:
             self._step_off(driven, theta_ref, direction)
         i = bisect.bisect_right(self.spans, span) - 1
+        above = i + 1 if i + 1 < len(self.spans) else None
+        if above is not None and self.spans[above] - span < span - self.spans[i] \
+                and self.passed[above] == self.passed[i]:
+            # Nearer a pose already reached further on, with no change point between: turning back
+            # from it stays on the same branch (a dragged crank goes back and forth by small turns).
+            tracked = _track(driven, self.poses[above], theta_ref + direction * self.spans[above],
+                             self.spans[above] - span, -direction, size)
+            if tracked is not None and not tracked[1]:
+                return tracked[0], self.passed[i]
         tracked = _track(driven, self.poses[i], theta_ref + direction * self.spans[i], span - self.spans[i],
                          direction, size)
         if tracked is None:
