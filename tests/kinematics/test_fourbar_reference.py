@@ -84,3 +84,18 @@ def test_swing_angle_equals_law_of_cosines():
     swing = rocker_angle(b + a) - rocker_angle(b - a)
     # 7200 steps: the sampled extreme is within (0.05°)² · |θ4''|/2 of the true one.
     assert motion["travel"] == pytest.approx(swing, abs=1e-3)
+
+
+def test_a_crank_turned_back_and_forth_stays_on_the_closed_form_branch():
+    """A crank dragged to and fro in small turns (as in the window) goes back from poses it has
+    reached; every pose must still be Norton's open circuit (closed form above)."""
+    a, b, c, d, start, rpm = 40.0, 120.0, 100.0, 140.0, 30.0, 120.0
+    mech = kinematics.load_mechanism(four_bar(a, b, c, d, start, rpm=rpm))
+    omega2 = rpm * 2 * math.pi / 60
+    angles = [start + 3.0 * i for i in range(40)] + [start + 120.0 - 1.5 * i for i in range(160)]
+    for angle in angles:
+        solution = kinematics.solve(mech, angle)
+        theta3, theta4, omega3, omega4, *_ = norton_four_bar(a, b, c, d, math.radians(angle), omega2, 0.0)
+        assert math.radians(solution.link_angle_deg["rocker"]) == pytest.approx(
+            math.atan2(math.sin(theta4), math.cos(theta4)), abs=1e-10), angle
+        assert solution.angular_velocity["rocker"] == pytest.approx(omega4, rel=1e-9), angle
