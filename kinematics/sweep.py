@@ -27,6 +27,7 @@ MAX_STEPS = 1_000_000
 PROBE_STEPS = 3600
 # ... and located to this fraction of a degree.
 DEAD_POINT_RESOLUTION_DEG = 1e-9
+EDGE_BATCH = 64  # angles placed together while closing in on a dead point
 # A swept range stops this far short of a dead point, where velocities grow without bound.
 DEAD_POINT_MARGIN_DEG = 1e-6
 
@@ -89,13 +90,14 @@ def _assemblable(mech, decomposition, angles_rad):
 
 
 def _edge(mech, decomposition, good, bad):
-    """Bisect (vectorised over nothing: two scalars) between an assemblable and a failing angle."""
+    """The dead point between an assemblable angle and a failing one, to DEAD_POINT_RESOLUTION_DEG:
+    EDGE_BATCH angles between them are placed at once, and the interval shrinks to the first step
+    that fails (from a probe's 0.1° to 1e-9° in five batches instead of twenty-seven halvings)."""
     while abs(bad - good) > math.radians(DEAD_POINT_RESOLUTION_DEG):
-        middle = 0.5 * (good + bad)
-        if _assemblable(mech, decomposition, np.array([middle]))[0]:
-            good = middle
-        else:
-            bad = middle
+        trial = np.linspace(good, bad, EDGE_BATCH + 2)
+        ok = _assemblable(mech, decomposition, trial[1:-1])
+        first_bad = int(np.argmin(ok)) + 1 if not ok.all() else EDGE_BATCH + 1
+        good, bad = float(trial[first_bad - 1]), float(trial[first_bad])
     return good
 
 
