@@ -53,6 +53,7 @@ class ResultsModel(QStandardItemModel):
         self.solution = None
         self.layout_key = ()
         self.rows: dict[str, int] = {}
+        self.shown = []  # the (text, value) cells on show, row by row
         self.scale = {}  # the pose's largest |v|, |a|, |ω|, |α|: see _scales
         self._v, self._a = {}, {}  # point name -> (x, y) velocity, acceleration of the pose shown
         self._headers()
@@ -94,19 +95,25 @@ class ResultsModel(QStandardItemModel):
                     items.append(item)
                 self.appendRow(items)
             self.layout_key = tuple(rows)
+            self.shown = cells
             self.rows = {name: i for i, (kind, name) in enumerate(rows) if kind == "point"}
             self.layout_reset.emit()
             return
-        if not cells:
-            return
+        # Only the cells whose words change are written and announced, so only they are repainted
+        # (a fixed pivot's row and the names stay as they are through a whole drag).
+        changed = [(r, column) for r, (row, before) in enumerate(zip(cells, self.shown, strict=True))
+                   for column, (cell, old) in enumerate(zip(row, before, strict=True)) if cell != old]
+        self.shown = cells
         self.blockSignals(True)
-        for r, row in enumerate(cells):
-            for column, (text, value) in enumerate(row[1:], start=1):  # column 0 names the row: unchanged
-                item = self.item(r, column)
-                item.setText(text)
-                item.setData(value, Qt.UserRole)
+        for r, column in changed:
+            text, value = cells[r][column]
+            item = self.item(r, column)
+            item.setText(text)
+            item.setData(value, Qt.UserRole)
         self.blockSignals(False)
-        self.dataChanged.emit(self.index(0, 0), self.index(len(cells) - 1, 4))
+        for r, column in changed:
+            index = self.index(r, column)
+            self.dataChanged.emit(index, index)
 
     def _scales(self, solution):
         """The largest speed, acceleration, ω and α of the pose: what "negligible" is measured against."""

@@ -40,7 +40,9 @@ class DrawingView(QGraphicsView):
         self.setHorizontalScrollBarPolicy(Qt.ScrollBarAlwaysOff)
         self.setVerticalScrollBarPolicy(Qt.ScrollBarAlwaysOff)
         self.setBackgroundBrush(QColor("#fbfbf8"))
-        self.viewport().setAutoFillBackground(False)  # the background brush covers it all: fill once, not twice
+        # The background brush covers every pixel: no fill before it, and nothing behind to paint.
+        self.viewport().setAutoFillBackground(False)
+        self.viewport().setAttribute(Qt.WA_OpaquePaintEvent)
         self.auto_fit = True
         self.fit_rect = QRectF(-100, -100, 200, 200)
 

@@ -204,7 +204,8 @@ class MainWindow(SheetOutputs, QMainWindow):
         self.drawings.set_draft(self.live)
         self.drawings.refresh()
         self.table.show_solution(doc.solution)
-        self.properties.refresh()
+        if self.properties.isVisible() or not self.live:  # a hidden Design tab catches up when the drag ends
+            self.properties.refresh()
         if self.cycle is not None:
             self._update_cycle()
         self.drawings.space_view.grid_mm = self.grid_mm()
@@ -323,6 +324,7 @@ class MainWindow(SheetOutputs, QMainWindow):
             return
         self.document.catch_up_sweep()
         self._show_readouts.flush()
+        self.properties.refresh()
         self.drawings.set_draft(False)
 
     # files ----------------------------------------------------------------
