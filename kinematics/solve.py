@@ -258,6 +258,7 @@ class _Way:
             tracked = _track(driven, self.poses[above], theta_ref + direction * self.spans[above],
                              self.spans[above] - span, -direction, size)
             if tracked is not None and not tracked[1]:
+                self._keep(i + 1, span, tracked[0], self.passed[i])
                 return tracked[0], self.passed[i]
         tracked = _track(driven, self.poses[i], theta_ref + direction * self.spans[i], span - self.spans[i],
                          direction, size)
@@ -265,11 +266,15 @@ class _Way:
             self.blocked = span
             return None
         q, passed = tracked[0], tracked[1] or self.passed[i]
-        if span > self.spans[i] and len(self.spans) < self.MAX_KEPT:
-            self.spans.insert(i + 1, span)
-            self.poses.insert(i + 1, q)
-            self.passed.insert(i + 1, passed)
+        if span > self.spans[i]:
+            self._keep(i + 1, span, q, passed)
         return q, passed
+
+    def _keep(self, at: int, span: float, q, passed: bool):
+        if len(self.spans) < self.MAX_KEPT:
+            self.spans.insert(at, span)
+            self.poses.insert(at, q)
+            self.passed.insert(at, passed)
 
 
 def solve_pose(mechanism: Mechanism, angle_deg=None, system: ConstraintSystem | None = None) -> Solution:
