@@ -28,7 +28,7 @@ import kinematics  # noqa: E402
 from kinematics.constraints import build_system  # noqa: E402
 from kinematics.solve import _Driven  # noqa: E402
 from kinematics.sweep import sweep, verify_sweep  # noqa: E402
-from tests.kinematics.common import four_bar  # noqa: E402
+from tests.designs import four_bar  # noqa: E402
 
 
 def best_of(function, repeats=15):

@@ -22,7 +22,7 @@ from .units import METRES_PER_LENGTH_UNIT, RAD_S2_PER_ACCELERATION_UNIT, RAD_S_P
 FORMAT_VERSION = 1
 MAX_FILE_BYTES = 10 * 1024 * 1024
 MAX_NESTING = 8
-NAME_PATTERN = re.compile(r"^[A-Za-z][A-Za-z0-9_]*$")
+NAME_PATTERN = re.compile(r"[A-Za-z][A-Za-z0-9_]*")  # the whole name: use fullmatch
 SCHEMA_PATH = Path(__file__).with_name("schema") / "mechanism-1.schema.json"
 TOP_LEVEL_KEYS = (
     "kinepoly", "title", "notes", "length_unit", "points", "ground", "links",
@@ -117,7 +117,7 @@ def _expect(condition, message, location):
 
 
 def _check_name(name, location, seen_folded: dict):
-    _expect(isinstance(name, str) and NAME_PATTERN.match(name),
+    _expect(isinstance(name, str) and NAME_PATTERN.fullmatch(name),
             f'"{name}" is not a valid name (a letter, then letters, digits or _)', location)
     _expect(name.lower() != GROUND, '"ground" is reserved', location)
     folded = name.lower()

@@ -28,7 +28,7 @@ def _check_new_name(mechanism: Mechanism, kind: str, old: str, new) -> None:
         raise KinematicsError(f"{kind} {old} needs a name in text, not {type(new).__name__}", where)
     if not new:
         raise KinematicsError(f"{kind} {old} needs a name: the new name is empty", where)
-    if not NAME_PATTERN.fullmatch(new):  # match() would let a trailing newline through
+    if not NAME_PATTERN.fullmatch(new):
         raise KinematicsError(f'{kind} {old} cannot be called "{new}": a name is a letter, then letters, '
                               "digits or _", where)
     if new.lower() == GROUND:

@@ -2,15 +2,15 @@
 the undo history follow, and a name the core refuses is said and not kept."""
 
 import json
-from pathlib import Path
 
 from PySide6.QtCore import Qt
 from PySide6.QtGui import QAction, QKeySequence
 
 import kinematics
+from tests.designs import SAMPLES
 
 # A four-bar with a coupler point: joints O2 A B O4 P, links crank coupler rocker.
-FOUR_BAR = json.loads((Path(__file__).resolve().parents[2] / "samples" / "label-swing-arm.json").read_text())
+FOUR_BAR = json.loads((SAMPLES / "label-swing-arm.json").read_text())
 
 
 def type_name(qtbot, field, text):

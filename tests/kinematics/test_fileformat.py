@@ -48,6 +48,8 @@ MESSAGES = [
                                       "(a newer Kinepoly wrote it)"),
     (lambda d: d["points"].update(a=[1, 2]), 'points.a: name "a" clashes with "A" (names must differ ignoring case)'),
     (lambda d: d["points"].update(ground=[1, 2]), 'points.ground: "ground" is reserved'),
+    (lambda d: d["points"].update({"C\n": [1, 2]}),
+     'points.C\n: "C\n" is not a valid name (a letter, then letters, digits or _)'),
     (lambda d: d["points"].update(B=[1, float("nan")]), "points.B: a point is [x, y] with two finite numbers"),
     (lambda d: d.pop("links"), 'links: missing "links"'),
     (lambda d: d.update(colour="red"), 'colour: unknown key "colour" (own additions start with "x-")'),

@@ -2,16 +2,13 @@
 renamed design saves, loads and solves exactly as the original (renaming is a pure relabelling)."""
 
 import json
-from pathlib import Path
 
 import numpy as np
 import pytest
 
 import kinematics
 from kinematics import KinematicsError, rename_link, rename_point
-
-SAMPLES = Path(__file__).resolve().parents[2] / "samples"
-SAMPLE_FILES = sorted(SAMPLES.glob("*.json"))
+from tests.designs import SAMPLE_FILES, SAMPLES
 
 
 def sample(name):
