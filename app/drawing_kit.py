@@ -198,16 +198,23 @@ def declutter(labels, mm_per_pixel: float, obstacles=()):
     placed = []
     for label, anchor, preferred, *gap in labels:
         gap = gap[0] if gap else Label.GAP_PIXELS
-        boxes = {d: _footprint(label, anchor, d, gap, mm_per_pixel) for d in [preferred, *_COMPASS]}
-        free = [d for d, box in boxes.items() if not any(overlap(box, other) for other in placed)]
-        chosen = next((d for d in free if not any(overlap(boxes[d], other) for other in obstacles)),
-                      free[0] if free else preferred)
-        label.place(anchor, *chosen, gap=gap)
-        placed.append(boxes[chosen])
+        at = (anchor.x(), anchor.y(), label.size[0] * mm_per_pixel, label.size[1] * mm_per_pixel)
+        fallback = chosen = None
+        for direction in (preferred, *_COMPASS):  # tried in order, until one is free of everything
+            box = _footprint(label, at, direction, gap, mm_per_pixel)
+            if any(overlap(box, other) for other in placed):
+                continue
+            fallback = fallback or (direction, box)
+            if not any(overlap(box, other) for other in obstacles):
+                chosen = (direction, box)
+                break
+        direction, box = chosen or fallback or (preferred, _footprint(label, at, preferred, gap, mm_per_pixel))
+        label.place(anchor, *direction, gap=gap)
+        placed.append(box)
 
 
-def _footprint(label: Label, anchor: QPointF, direction: tuple, gap: float, mm_per_pixel: float) -> tuple:
-    """The scene box ``label`` would cover, placed at ``anchor`` towards ``direction``."""
+def _footprint(label: Label, at: tuple, direction: tuple, gap: float, mm_per_pixel: float) -> tuple:
+    """The scene box ``label`` would cover placed towards ``direction``; ``at`` is its anchor's scene
+    position and its size in scene units (x, y, width, height)."""
     dx, dy = label.offset(*direction, gap=gap)
-    return (anchor.x() + dx * mm_per_pixel, anchor.y() + dy * mm_per_pixel,
-            label.size[0] * mm_per_pixel, label.size[1] * mm_per_pixel)
+    return (at[0] + dx * mm_per_pixel, at[1] + dy * mm_per_pixel, at[2], at[3])
