@@ -47,6 +47,7 @@ class Autosave(QObject):
         self.folder = Path(folder) if folder is not None else recovery_folder()
         self.path = self.folder / f"{PREFIX}{os.getpid()}-{id(self):x}.json"
         self.edits = 0
+        self._index = document.undo_stack.index()
         self.timer = QTimer(self)
         self.timer.setInterval(AUTOSAVE_MS)
         self.timer.timeout.connect(self.write_if_unsaved)
@@ -54,7 +55,11 @@ class Autosave(QObject):
         document.undo_stack.indexChanged.connect(self._edited)
         document.undo_stack.cleanChanged.connect(self._clean_changed)
 
-    def _edited(self, _index: int):
+    def _edited(self, index: int):
+        # A drag is one edit however many frames it merges: the stack says so by keeping its index.
+        if index == self._index:
+            return
+        self._index = index
         self.edits += 1
         if self.edits % EDITS_PER_COPY == 0:
             self.write_if_unsaved()

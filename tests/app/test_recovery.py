@@ -36,6 +36,16 @@ def test_every_twentieth_edit_writes_a_copy_that_round_trips(make_window, folder
     assert restored == window.document.mechanism and saved_at
 
 
+def test_a_long_drag_is_one_edit_and_writes_no_copy_while_it_lasts(make_window, folder):
+    window = make_window()
+    for i in range(3 * EDITS_PER_COPY):  # the frames of one drag merge into one undo step
+        mech = window.document.mechanism
+        x, y = mech.points["B"]
+        window.document.edit(kinematics.move_point(mech, "B", (x + 0.01, y)), "move B", drag=7)
+    assert window.document.undo_stack.count() == 1
+    assert window.autosave.edits == 1 and not window.autosave.path.exists()
+
+
 def test_the_timer_writes_while_unsaved_and_saving_removes_it(make_window, folder, tmp_path):
     window = make_window()
     assert window.autosave.timer.interval() == 60_000 and window.autosave.timer.isActive()
