@@ -7,6 +7,7 @@ nothing else recomputes kinematics.
 
 from __future__ import annotations
 
+import weakref
 from dataclasses import dataclass
 
 from PySide6.QtCore import QObject, Signal
@@ -17,8 +18,6 @@ from kinematics import KinematicsError, Mechanism
 
 from .throttle import Throttle
 
-# Every drag of one joint shares this command id so that its moves merge.
-DRAG_COMMAND_ID = 4101
 SWEEP_STEPS = 180  # 2° apart: smooth paths at drawing size, about 2 ms for a six-bar
 
 
@@ -59,32 +58,28 @@ def analyse(mechanism: Mechanism, angle_deg: float | None) -> Analysis:
 class EditCommand(QUndoCommand):
     """One edit of the design, kept as the Mechanism before and after.
 
-    Commands carrying the same ``drag`` serial merge, so one drag is one undo step.
+    A drag is one command whose ``after`` follows the mouse (see :meth:`Document.edit`): no command
+    is made and merged per frame (Qt deletes a merged command behind Python's back, and its
+    wrapper, holding both designs, is never freed).
     """
 
     def __init__(self, document: Document, before: Mechanism, after: Mechanism, text: str, drag: int | None = None,
                  analysis: Analysis | None = None):
         super().__init__(text)
-        self.document, self.before, self.after, self.drag = document, before, after, drag
+        # Weakly: Qt owns the command, and a command holding its Document strongly makes a cycle the
+        # garbage collector would break in an order that leaves Qt objects half deleted.
+        self._document = weakref.ref(document)
+        self.before, self.after, self.drag = before, after, drag
         # The analysis already made of ``after``, spent by the first redo so a drag frame solves once.
         self._fresh = analysis
 
-    def id(self) -> int:
-        return DRAG_COMMAND_ID if self.drag is not None else -1
-
-    def mergeWith(self, other) -> bool:
-        if not isinstance(other, EditCommand) or other.drag != self.drag:
-            return False
-        self.after = other.after
-        return True
-
     def redo(self):
         fresh, self._fresh = self._fresh, None
-        # A drag's own frame (fresh, not a later redo) may leave the cycle sweep for a moment.
-        self.document.set_mechanism(self.after, fresh, live=fresh is not None and self.drag is not None)
+        # A drag's own first frame (fresh, not a later redo) may leave the cycle sweep for a moment.
+        self._document().set_mechanism(self.after, fresh, live=fresh is not None and self.drag is not None)
 
     def undo(self):
-        self.document.set_mechanism(self.before)
+        self._document().set_mechanism(self.before)
 
 
 class Document(QObject):
@@ -187,5 +182,13 @@ class Document(QObject):
         analysis = analyse(after, self.angle_deg)
         if check and analysis.solution is None and self.solution is not None:
             return analysis.problem
-        self.undo_stack.push(EditCommand(self, self.mechanism, after, text, drag, analysis))
+        stack = self.undo_stack
+        # Read from the stack, never kept: Qt deletes the commands it drops, behind Python's back.
+        last = stack.command(stack.index() - 1) if drag is not None and stack.index() == stack.count() > 0 else None
+        if isinstance(last, EditCommand) and last.drag == drag:
+            # The same drag goes on, its command still the last one done: it follows the mouse.
+            last.after = after
+            self.set_mechanism(after, analysis, live=True)
+            return ""
+        stack.push(EditCommand(self, self.mechanism, after, text, drag, analysis))
         return ""

@@ -7,6 +7,8 @@ ten times a second and catch up as soon as the drag stops.
 
 from __future__ import annotations
 
+import weakref
+
 from PySide6.QtCore import QObject, QTimer, Signal
 
 # Ten times a second: the eye follows the paths and the list, and a frame is spared their cost.
@@ -22,7 +24,9 @@ class Throttle(QObject):
 
     def __init__(self, job, interval_ms: int = LIVE_INTERVAL_MS, parent=None):
         super().__init__(parent)
-        self.job = job
+        # A bound method is held weakly: its object is usually this throttle's parent, and a strong
+        # reference would tie the two in a cycle that the garbage collector, not Qt, takes apart.
+        self._job = weakref.WeakMethod(job) if hasattr(job, "__self__") else (lambda: job)
         self.held = False
         self.timer = QTimer(self, singleShot=True, interval=interval_ms)
         self.timer.timeout.connect(self._interval_over)
@@ -36,7 +40,7 @@ class Throttle(QObject):
             self.timer.start()
         else:
             self.timer.stop()
-        self.job()
+        self._run()
 
     def _interval_over(self):
         if self.held:
@@ -51,5 +55,10 @@ class Throttle(QObject):
 
     def _run_held(self):
         self.held = False
-        self.job()
+        self._run()
         self.ran_late.emit()
+
+    def _run(self):
+        job = self._job()
+        if job is not None:  # a job whose object is gone has nothing left to do
+            job()

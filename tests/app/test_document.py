@@ -1,7 +1,9 @@
-"""The Document: one ``changed`` per recompute, edits as undoable commands, drags merged."""
+"""The Document: one ``changed`` per recompute, edits as undoable commands, one command a drag."""
 
-from app.document import DRAG_COMMAND_ID, Document, EditCommand
-from kinematics import move_point
+import gc
+
+from app.document import Document, EditCommand
+from kinematics import Mechanism, move_point
 from tests.designs import CLAW_FEED, UNFINISHED, load
 
 
@@ -30,19 +32,35 @@ def test_edits_undo_and_redo_as_mechanism_values(qtbot):
     assert doc.mechanism is after
 
 
-def test_moves_of_one_drag_merge_and_two_drags_do_not(qtbot):
+def test_the_moves_of_one_drag_are_one_command_and_two_drags_two(qtbot):
     doc = Document(load(CLAW_FEED))
     start = doc.mechanism
     for x in (71.0, 72.0, 73.0):
         doc.edit(move_point(doc.mechanism, "P", (x, 140.0)), "move P", drag=1)
     assert doc.undo_stack.count() == 1
     command = doc.undo_stack.command(0)
-    assert isinstance(command, EditCommand) and command.id() == DRAG_COMMAND_ID
+    assert isinstance(command, EditCommand)
     assert command.before is start and command.after.points["P"] == (73.0, 140.0)
     doc.edit(move_point(doc.mechanism, "P", (74.0, 140.0)), "move P", drag=2)
     assert doc.undo_stack.count() == 2
-    plain = EditCommand(doc, start, start, "plain")
-    assert plain.id() == -1 and not plain.mergeWith(command)
+    doc.undo_stack.undo()
+    doc.undo_stack.undo()
+    assert doc.mechanism is start
+    doc.edit(move_point(doc.mechanism, "P", (75.0, 140.0)), "move P", drag=2)  # undone: a new command
+    assert doc.undo_stack.count() == 1 and doc.undo_stack.command(0).after.points["P"] == (75.0, 140.0)
+
+
+def test_a_long_drag_keeps_no_design_of_its_frames_alive(qtbot):
+    """Every frame's design is dropped once the next one replaces it (a drag of many minutes must
+    not grow the memory): only the last one is added to what was alive, and the one the cycle sweep
+    was last made of while the drag holds it back."""
+    doc = Document(load(CLAW_FEED))
+    gc.collect()
+    alive = sum(type(o) is Mechanism for o in gc.get_objects())
+    for i in range(200):
+        doc.edit(move_point(doc.mechanism, "P", (70.0 + 0.01 * i, 140.0)), "move P", drag=9)
+    gc.collect()
+    assert sum(type(o) is Mechanism for o in gc.get_objects()) <= alive + 2
 
 
 def test_an_edit_that_cannot_be_analysed_is_refused_with_its_reason(qtbot):

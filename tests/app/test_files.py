@@ -136,20 +136,20 @@ def test_kinepoly_file_opens_it(qtbot, tmp_path, monkeypatch):
     assert window.document.solution is not None
 
 
-def test_the_kinepoly_command_runs_the_window_on_a_file(qapp, tmp_path):
-    from PySide6.QtCore import QTimer
-
+def test_the_kinepoly_command_runs_the_window_on_a_file(qapp, tmp_path, monkeypatch):
     from app.main import main as kinepoly
 
     path = write(tmp_path / "claw.json", CLAW_FEED)
     opened = []
 
-    def look_and_quit():
+    def event_loop(_app):
+        # Stands in for Qt's own loop, which once quit leaves no timer firing for the tests after.
+        QApplication.processEvents()
         opened.extend(w for w in QApplication.topLevelWidgets() if isinstance(w, MainWindow) and w.isVisible())
         for window in opened:
             window.close()
-        qapp.quit()
+        return 0
 
-    QTimer.singleShot(200, look_and_quit)
+    monkeypatch.setattr(QApplication, "exec", event_loop)
     assert kinepoly([str(path)]) == 0
     assert any(w.document.path == str(path) and w.document.solution is not None for w in opened)
