@@ -1,13 +1,13 @@
 """Real mouse drags on the space diagram: design edits, driver turns, refusals, random drags."""
 
 import math
-import os
 import random
 
 import pytest
 from PySide6.QtCore import QPointF, Qt
 from PySide6.QtTest import QTest
 
+from tests import CASE_FACTOR
 from tests.designs import CARTON_PUSHER, CLAW_FEED, SWING_LEVER
 
 
@@ -117,7 +117,7 @@ def test_moving_a_guide_end_carries_the_block_onto_the_new_line(make_window):
     assert doc.solution is not None
 
 
-RANDOM_DRAGS = 2000 if os.environ.get("KINEPOLY_FULL") == "1" else 200
+RANDOM_DRAGS = 200 * CASE_FACTOR  # 2,000 with KINEPOLY_FULL=1
 
 
 @pytest.mark.parametrize("design", [CLAW_FEED, CARTON_PUSHER, SWING_LEVER], ids=["four-bar", "slider", "slot"])
