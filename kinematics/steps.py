@@ -128,7 +128,8 @@ class PolygonBuilder:
     kind: str
     unit: str
     ground: frozenset = frozenset()
-    steps: list = field(default_factory=list)  # dicts of Step fields, with "ends" for "geometry"
+    steps: list = field(default_factory=list)  # dicts of Step fields but the geometry
+    ends: list = field(default_factory=list)  # each step's ends (complex), for its geometry
     marks: dict = field(default_factory=dict)
     lines: list = field(default_factory=list)  # (index in steps, through, direction, meet)
 
@@ -143,8 +144,8 @@ class PolygonBuilder:
     def add(self, role, component, label, ends, equation, text, **extra):
         """A step located by ``ends``: (z,) a point, (z0, z1) a line or a vector from z0 to z1."""
         self.steps.append(dict(id=f"{self.kind[0]}{len(self.steps) + 1}", polygon=self.kind, role=role,
-                               component=component, label=label, ends=tuple(complex(z) for z in ends),
-                               equation=equation, text=text, **extra))
+                               component=component, label=label, equation=equation, text=text, **extra))
+        self.ends.append(tuple(complex(z) for z in ends))
 
     def vector(self, component, start, end, label, equation, text, role=Role.KNOWN, **extra):
         self.add(role, component, label, (start, end), equation, text, **extra)
@@ -185,7 +186,7 @@ class PolygonBuilder:
             ends = [through] + [complex(m) for m in meet]
             u = direction / abs(direction)
             along = [((e - through) * u.conjugate()).real for e in ends]
-            self.steps[index]["ends"] = (through + (min(along) - margin) * u, through + (max(along) + margin) * u)
+            self.ends[index] = (through + (min(along) - margin) * u, through + (max(along) + margin) * u)
         width = 2.0 * max(max(abs(x) for x, _ in everything), max(abs(y) for _, y in everything))
         chosen = scale if scale else preferred_scale(max(width, extent), box_mm)
         return Polygon(kind=self.kind, unit=self.unit, pole_label="o" + self.prime, scale_per_mm=chosen,
@@ -194,12 +195,12 @@ class PolygonBuilder:
     def _made_steps(self) -> tuple:
         # Geometry made in two batches (points, segments): one at a time costs ten times as much.
         located = {1: [], 2: []}
-        for index, record in enumerate(self.steps):
-            located[len(record["ends"])].append(index)
+        for index, ends in enumerate(self.ends):
+            located[len(ends)].append(index)
         geometry = {}
         for count, make in ((1, shapely.points), (2, shapely.linestrings)):
             if located[count]:
-                xy = np.array([[as_xy(z) for z in self.steps[i]["ends"]] for i in located[count]], dtype=float)
+                xy = np.array([[as_xy(z) for z in self.ends[i]] for i in located[count]], dtype=float)
                 geometry.update(zip(located[count], make(xy[:, 0] if count == 1 else xy), strict=True))
-        return tuple(Step(**{k: v for k, v in record.items() if k != "ends"}, geometry=geometry[i])
+        return tuple(Step(**record, geometry=geometry[i])
                      for i, record in enumerate(self.steps))
