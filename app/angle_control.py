@@ -33,6 +33,7 @@ class AngleControl(QWidget):
         self.play.setIcon(icon("play"))
         self.play.setToolTip("Play / pause the driver turning")
         self.rocking = None  # (low, high) dead points of a driver that cannot turn fully
+        self.angle_deg = 0.0  # the pose's angle, [0, 360)
         self.direction = 1.0
         self.timer = QTimer(self)
         self.timer.setInterval(ANIMATION_INTERVAL_MS)
@@ -48,10 +49,17 @@ class AngleControl(QWidget):
         self.play.toggled.connect(self.playing_changed)
         self.timer.timeout.connect(self.advance)
 
+    def follow(self, angle_deg: float | None):
+        """The angle of the pose on screen, for play to turn on from (shown by :meth:`show_angle`,
+        which a drag calls less often)."""
+        if angle_deg is not None:
+            self.angle_deg = angle_deg % 360.0
+
     def show_angle(self, angle_deg: float | None):
         """Show the pose's angle without asking for it again."""
         if angle_deg is None:
             return
+        self.follow(angle_deg)
         angle = angle_deg % 360.0
         for widget, value in ((self.spin, round(angle, self.spin.decimals())),
                               (self.slider, round(angle * SLIDER_STEPS_PER_DEGREE))):
@@ -74,11 +82,11 @@ class AngleControl(QWidget):
     def advance(self):
         """One animation frame: the driver turns on by a fixed step, or rocks between its dead points."""
         if self.rocking is None:
-            self.angle_requested.emit((self.spin.value() + ANIMATION_STEP_DEG) % 360.0)
+            self.angle_requested.emit((self.angle_deg + ANIMATION_STEP_DEG) % 360.0)
             return
         low, high = self.rocking
         # The shown angle unwrapped into the range, so a range across 0° rocks the right way.
-        angle = low + (self.spin.value() - low) % 360.0
+        angle = low + (self.angle_deg - low) % 360.0
         step = self.direction * ANIMATION_STEP_DEG
         if not low <= angle + step <= high:
             self.direction = -self.direction

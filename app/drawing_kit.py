@@ -96,6 +96,7 @@ class Label:
         self.anchor.setFlag(QGraphicsItem.ItemIgnoresTransformations)
         self.anchor.setZValue(z)
         self.text = QGraphicsSimpleTextItem(text, self.anchor)
+        self.shown = text  # the text set, read back without asking Qt
         self.text.setFont(label_font(pixels, bold))
         self.text.setBrush(QBrush(QColor(colour)))
         # Kept as a pixmap until the text changes: laying out the text anew at every paint of a
@@ -123,7 +124,8 @@ class Label:
         self.text.setPos(*self.offset(dx, dy, gap, flush_left))
 
     def set_text(self, text: str):
-        if self.text.text() != text:
+        if self.shown != text:
+            self.shown = text
             self.text.setText(text)
             self._measure()
 

@@ -199,7 +199,7 @@ class PolygonScene(QGraphicsScene):
                 continue
             tip = items.label_at[0]
             # A mark and the intersection that found it carry the same label at one place: show it once.
-            key = (items.label.text.text(), round(tip.x() / mm_per_pixel), round(tip.y() / mm_per_pixel))
+            key = (items.label.shown, round(tip.x() / mm_per_pixel), round(tip.y() / mm_per_pixel))
             items.label.anchor.setVisible(key not in seen)
             if key not in seen:
                 seen.add(key)

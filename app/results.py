@@ -111,9 +111,9 @@ class ResultsModel(QStandardItemModel):
             item.setText(text)
             item.setData(value, Qt.UserRole)
         self.blockSignals(False)
-        for r, column in changed:
-            index = self.index(r, column)
-            self.dataChanged.emit(index, index)
+        for r in sorted({r for r, _ in changed}):  # a row's changed cells in one announcement
+            columns = [column for row, column in changed if row == r]
+            self.dataChanged.emit(self.index(r, min(columns)), self.index(r, max(columns)))
 
     def _scales(self, solution):
         """The largest speed, acceleration, ω and α of the pose: what "negligible" is measured against."""

@@ -209,7 +209,7 @@ class MainWindow(SheetOutputs, QMainWindow):
         if self.cycle is not None:
             self._update_cycle()
         self.drawings.space_view.grid_mm = self.grid_mm()
-        self.angle.show_angle(doc.shown_angle_deg)
+        self.angle.follow(doc.shown_angle_deg)
         self.angle.setEnabled(doc.solution is not None)
         self.angle.set_range(doc.sweep)
         self._show_readouts(live=self.live)
@@ -266,8 +266,10 @@ class MainWindow(SheetOutputs, QMainWindow):
         return self.drag is not None or self.angle.playing
 
     def _readouts(self):
-        """The step list and the status line: read, not watched, so a drag rewrites them at most ten
-        times a second (their text is costly to lay out), and the last frame's always."""
+        """The step list, the status line and the driver angle's number and slider: read, not
+        watched, so a drag rewrites them at most ten times a second (text is costly to lay out),
+        and the last frame's always."""
+        self.angle.show_angle(self.document.shown_angle_deg)
         self.steps.show_construction(self.document.construction)
         text = status_text(self.document.analysis, self.note)
         self.status.setText(text)

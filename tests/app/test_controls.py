@@ -30,6 +30,20 @@ def test_play_turns_the_driver_until_paused(make_window, qtbot):
     paused = window.document.solution.driver_angle_deg
     qtbot.wait(100)
     assert window.document.solution.driver_angle_deg == paused
+    assert window.angle.spin.value() == pytest.approx(paused % 360.0, abs=0.05), "shown when play stops"
+
+
+def test_each_frame_of_play_turns_on_from_the_last_pose_even_while_the_number_lags(make_window):
+    from app.angle_control import ANIMATION_STEP_DEG
+
+    window = make_window(CLAW_FEED)
+    start = window.document.solution.driver_angle_deg
+    QTest.mouseClick(window.angle.play, Qt.LeftButton)
+    window.angle.timer.stop()  # frames by hand, faster than the shown number follows
+    for _ in range(5):
+        window.angle.advance()
+    assert window.document.solution.driver_angle_deg == pytest.approx((start + 5 * ANIMATION_STEP_DEG) % 360.0)
+    QTest.mouseClick(window.angle.play, Qt.LeftButton)
 
 
 def test_an_angle_that_cannot_be_assembled_keeps_the_pose_and_says_so(make_window):

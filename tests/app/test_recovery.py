@@ -38,7 +38,7 @@ def test_every_twentieth_edit_writes_a_copy_that_round_trips(make_window, folder
 
 def test_a_long_drag_is_one_edit_and_writes_no_copy_while_it_lasts(make_window, folder):
     window = make_window()
-    for i in range(3 * EDITS_PER_COPY):  # the frames of one drag merge into one undo step
+    for _ in range(3 * EDITS_PER_COPY):  # the frames of one drag are one undo step
         mech = window.document.mechanism
         x, y = mech.points["B"]
         window.document.edit(kinematics.move_point(mech, "B", (x + 0.01, y)), "move B", drag=7)
