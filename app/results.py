@@ -101,19 +101,21 @@ class ResultsModel(QStandardItemModel):
             return
         # Only the cells whose words change are written and announced, so only they are repainted
         # (a fixed pivot's row and the names stay as they are through a whole drag).
-        changed = [(r, column) for r, (row, before) in enumerate(zip(cells, self.shown, strict=True))
-                   for column, (cell, old) in enumerate(zip(row, before, strict=True)) if cell != old]
-        self.shown = cells
+        spans = []  # (row, first changed column, last), each row announced once
         self.blockSignals(True)
-        for r, column in changed:
-            text, value = cells[r][column]
-            item = self.item(r, column)
-            item.setText(text)
-            item.setData(value, Qt.UserRole)
+        for r, (row, before) in enumerate(zip(cells, self.shown, strict=True)):
+            columns = [column for column, (cell, old) in enumerate(zip(row, before, strict=True)) if cell != old]
+            for column in columns:
+                text, value = row[column]
+                item = self.item(r, column)
+                item.setText(text)
+                item.setData(value, Qt.UserRole)
+            if columns:
+                spans.append((r, columns[0], columns[-1]))
         self.blockSignals(False)
-        for r in sorted({r for r, _ in changed}):  # a row's changed cells in one announcement
-            columns = [column for row, column in changed if row == r]
-            self.dataChanged.emit(self.index(r, min(columns)), self.index(r, max(columns)))
+        self.shown = cells
+        for r, first, last in spans:
+            self.dataChanged.emit(self.index(r, first), self.index(r, last))
 
     def _scales(self, solution):
         """The largest speed, acceleration, ω and α of the pose: what "negligible" is measured against."""
