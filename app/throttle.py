@@ -1,8 +1,9 @@
 """Holding back slow, secondary work while the user drags.
 
 A drag asks for a new frame many times a second; the drawings and the table
-follow every frame, while the cycle sweep and the step list follow at most
-ten times a second and catch up as soon as the drag stops.
+follow every frame, while the cycle sweep, the step list, the status line and
+the driver angle's number follow at most ten times a second and catch up as
+soon as the drag stops.
 """
 
 from __future__ import annotations
