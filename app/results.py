@@ -1,5 +1,7 @@
 """The results table: every point's velocity and acceleration, every link's
-ω and α, every slide's sliding rates, in the units the user picked.
+ω and α, every slide's sliding rates, and the radial, tangential and Coriolis
+components of each relative acceleration (as the acceleration polygon lays
+them), in the units the user picked.
 
 A table model refreshed with one ``dataChanged`` per pose (per-cell widget
 items cost several milliseconds a frame). Each numeric cell also answers
@@ -14,6 +16,8 @@ import numpy as np
 from PySide6.QtCore import Qt, Signal
 from PySide6.QtGui import QStandardItem, QStandardItemModel
 from PySide6.QtWidgets import QAbstractItemView, QHeaderView, QTableView
+
+from kinematics import acceleration_components
 
 from .display_units import LENGTH_SYSTEMS, angular_speed, direction_deg, sense
 
@@ -37,7 +41,7 @@ def _angle(value: float | None) -> str:
 
 
 class ResultsModel(QStandardItemModel):
-    """Rows: points, then links, then slides; each row five (text, value) cells.
+    """Rows: points, links, slides, then acceleration components; each row five (text, value) cells.
 
     The cells live in Qt's own item model so painting never calls back into
     Python; a new pose is written with signals blocked and announced with a
@@ -50,33 +54,38 @@ class ResultsModel(QStandardItemModel):
         super().__init__(0, 5, parent)
         self.length = LENGTH_SYSTEMS["mm"]
         self.speed_unit = "rad/s"
-        self.solution = None
+        self.solution = self.construction = None
         self.layout_key = ()
         self.rows: dict[str, int] = {}
         self.shown = []  # the (text, value) cells on show, row by row
         self.scale = {}  # the pose's largest |v|, |a|, |ω|, |α|: see _scales
         self._v, self._a = {}, {}  # point name -> (x, y) velocity, acceleration of the pose shown
+        self._components = {}  # (point, about, component) -> kinematics.RelativeComponent of the pose shown
         self._headers()
 
     def _headers(self):
-        self.setHorizontalHeaderLabels(["", f"velocity ({self.length.velocity_unit}) / ω ({self.speed_unit})",
-                                        "direction", f"acceleration ({self.length.acceleration_unit}) / α (rad/s²)",
+        # Two lines a heading, so the columns are as narrow as their numbers.
+        self.setHorizontalHeaderLabels(["", f"velocity ({self.length.velocity_unit})\nω ({self.speed_unit})",
+                                        "direction", f"acceleration ({self.length.acceleration_unit})\nα (rad/s²)",
                                         "direction"])
 
     def set_units(self, length_unit: str, speed_unit: str):
         self.length, self.speed_unit = LENGTH_SYSTEMS[length_unit], speed_unit
         self._headers()
-        self.show_solution(self.solution)
+        self.show_pose(self.solution, self.construction)
 
-    def show_solution(self, solution):
-        """Fill the rows from ``solution`` (None empties the table)."""
-        self.solution = solution
+    def show_pose(self, solution, construction=None):
+        """Fill the rows from ``solution`` and the components from its ``construction`` (None empties
+        the table; no construction, no component rows)."""
+        self.solution, self.construction = solution, construction
+        self._components = {(c.point, c.about, c.component): c for c in acceleration_components(construction)} \
+            if solution is not None and construction is not None else {}
         if solution is None:
             rows = []
         else:
             mech = solution.mechanism
             rows = ([("point", p) for p in mech.points] + [("link", n) for n in mech.links]
-                    + [("slide", n) for n in mech.slides])
+                    + [("slide", n) for n in mech.slides] + [("component", key) for key in self._components])
         if solution is not None:
             self._scales(solution)
             # Plain floats, read once: numpy scalars one at a time cost more than the formatting.
@@ -151,6 +160,13 @@ class ResultsModel(QStandardItemModel):
         return [(f"slide {name} ({slide.point} on {slide.guide})", None), (f"sliding {_number(velocity)}", velocity),
                 towards, (f"sliding {_number(accel)}", accel), towards]
 
+    def _component_cells(self, key, solution):
+        part = self._components[key]
+        a = [_clean(c, self.scale["a"]) for c in part.vector]
+        accel = self.length.acceleration(math.hypot(*a))
+        return [(part.title, None), ("", None), ("", None),
+                (_number(accel), accel), (_angle(direction_deg(*a)), direction_deg(*a))]
+
 
 class ResultsTable(QTableView):
     """The view of a :class:`ResultsModel`; choosing a point's row emits ``point_chosen(name)``."""
@@ -172,8 +188,8 @@ class ResultsTable(QTableView):
         self.results.layout_reset.connect(self.resizeColumnsToContents)
         self.results.headerDataChanged.connect(self.resizeColumnsToContents)
 
-    def show_solution(self, solution):
-        self.results.show_solution(solution)
+    def show_pose(self, solution, construction=None):
+        self.results.show_pose(solution, construction)
 
     def set_units(self, length_unit: str, speed_unit: str):
         self.results.set_units(length_unit, speed_unit)

@@ -79,7 +79,7 @@ class MainWindow(SheetOutputs, QMainWindow):
         lower = QSplitter(Qt.Horizontal)
         lower.addWidget(self.table)
         lower.addWidget(side)
-        lower.setSizes([720, 880])
+        lower.setSizes([800, 800])
         splitter = QSplitter(Qt.Vertical)
         splitter.addWidget(self.drawings)
         splitter.addWidget(lower)
@@ -203,7 +203,7 @@ class MainWindow(SheetOutputs, QMainWindow):
         doc = self.document
         self.drawings.set_draft(self.live)
         self.drawings.refresh()
-        self.table.show_solution(doc.solution)
+        self.table.show_pose(doc.solution, doc.construction)
         if self.properties.isVisible() or not self.live:  # a hidden Design tab catches up when the drag ends
             self.properties.refresh()
         if self.cycle is not None:

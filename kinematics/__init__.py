@@ -6,6 +6,7 @@ Never imports Qt.
 
 import math
 
+from .components import RelativeComponent, acceleration_components
 from .construct import construct as _construct
 from .errors import CannotAssemble, FileFormatError, KinematicsError, MechanismFindings, ParallelLines
 from .fileformat import dumps, load_mechanism
@@ -50,7 +51,7 @@ def construct(solution: Solution, **options) -> Construction:
 
 __all__ = [
     "CAUTION", "CannotAssemble", "Component", "Construction", "Driver", "FileFormatError", "Finding", "KinematicsError",
-    "Mechanism", "MechanismFindings", "ParallelLines", "Polygon", "Role", "Slide", "Solution", "Step",
-    "Sweep", "construct", "diagnose", "dumps", "load_mechanism", "move_point", "rename_link",
-    "rename_point", "solve", "sweep", "verify_sweep",
+    "Mechanism", "MechanismFindings", "ParallelLines", "Polygon", "RelativeComponent", "Role", "Slide", "Solution",
+    "Step", "Sweep", "acceleration_components", "construct", "diagnose", "dumps", "load_mechanism", "move_point",
+    "rename_link", "rename_point", "solve", "sweep", "verify_sweep",
 ]

@@ -12,7 +12,7 @@ import io
 import json
 import sys
 
-from . import CAUTION, construct, diagnose, load_mechanism, solve
+from . import CAUTION, acceleration_components, construct, diagnose, load_mechanism, solve
 from .drawing.output import run_reporting
 from .report_text import construction_text, peaks_text, solution_table, turn
 from .storage import write_atomically
@@ -48,6 +48,10 @@ def construction_json(construction) -> dict:
     return {"kinepoly_construction": 1, "driver_angle_deg": construction.solution.driver_angle_deg,
             "velocity": _polygon_json(construction.velocity),
             "acceleration": _polygon_json(construction.acceleration),
+            "acceleration_components": [
+                {"point": c.point, "about": c.about, "component": c.component.value, "link": c.link,
+                 "carried": c.carried, "vector": list(c.vector), "step": c.step}
+                for c in acceleration_components(construction)],
             "crosscheck": {"max_relative_difference": construction.max_relative_difference,
                            "where": construction.where},
             "warnings": list(construction.warnings)}

@@ -39,11 +39,11 @@ def _driver_steps(frame: Frame, mech, vb: PolygonBuilder, ab: PolygonBuilder):
         ab.vector(Component.RADIAL, 0.0, radial_end, "" if alpha else ab.label(q),
                   f"a_{q}{pivot}^r = ω²·r_{q}{pivot}",
                   f"radial component of {q} about {pivot}: ω²·r = {figure(abs(radial_end))} m/s², "
-                  f"directed from {q} to {pivot}", points=(q,), links=(link,))
+                  f"directed from {q} to {pivot}", points=(q,), links=(link,), about=pivot)
         if alpha:
             ab.vector(Component.TANGENTIAL, radial_end, frame.acc[q], ab.label(q), f"a_{q}{pivot}^t = α_{link} × r",
                       f"tangential component of {q} about {pivot}: r·α = {figure(abs(alpha * r))} m/s², "
-                      f"perpendicular to {pivot}{q}", points=(q,), links=(link,))
+                      f"perpendicular to {pivot}{q}", points=(q,), links=(link,), about=pivot)
 
 
 def _laid_step(builder: PolygonBuilder, laid: Laid, frame: Frame, group: Group):
@@ -58,7 +58,7 @@ def _laid_step(builder: PolygonBuilder, laid: Laid, frame: Frame, group: Group):
         return builder.vector(
             Component.RADIAL, laid.start, laid.end, "", equation,
             f"radial component of {who} relative to {laid.about}: v²/r = {figure(magnitude)} m/s², "
-            f"directed from {laid.point} to {laid.about}", points=(laid.point,), links=(link,))
+            f"directed from {laid.point} to {laid.about}", points=(laid.point,), links=(link,), about=laid.about)
     magnitude = abs(laid.end - laid.start)
     slide = frame.mech.slides[group.slide]
     guide = slide.guide
@@ -67,7 +67,8 @@ def _laid_step(builder: PolygonBuilder, laid: Laid, frame: Frame, group: Group):
     return builder.vector(
         Component.CORIOLIS, laid.start, laid.end, "", f"a_c = 2·ω_{guide} × v_{laid.point}/{guide}",
         f"Coriolis component of {laid.point} sliding on {guide}: 2·ω·v = {figure(magnitude)} m/s², "
-        f"the sliding velocity turned 90° the way {guide} turns", points=(laid.point,), links=(guide,))
+        f"the sliding velocity turned 90° the way {guide} turns", points=(laid.point,), links=(guide,),
+        about=guide)
 
 
 def _image_steps(builder: PolygonBuilder, frame: Frame, link: str, placed: set, field_name: str):
@@ -170,7 +171,7 @@ def _acceleration_group(ab: PolygonBuilder, frame: Frame, group: Group, placed: 
             ab.vector(Component.TANGENTIAL, item.end, frame.acc[b], "", f"a_{b}{pin}^t = α_{link} × r_{pin}{b}",
                       f"tangential component of {b} relative to {pin}: r·α = {figure(abs(frame.acc[b] - item.end))} "
                       f"m/s², so α_{link} = {figure(float(frame.alpha[link]))} rad/s²", role=Role.RESULT,
-                      points=(b,), links=(link,))
+                      points=(b,), links=(link,), about=pin)
         placed.add(b)
         for link in group.links:
             _image_steps(ab, frame, link, placed, "acc")
@@ -200,7 +201,7 @@ def _acceleration_group(ab: PolygonBuilder, frame: Frame, group: Group, placed: 
         ab.vector(Component.TANGENTIAL, radial_laid.end, frame.acc[d], "", f"a_{d}{a}^t",
                   f"tangential component of {d} relative to {a}: {figure(abs(frame.acc[d] - radial_laid.end))} m/s², "
                   f"so α_{link} = {figure(float(frame.alpha[link]))} rad/s²", role=Role.RESULT, points=(d,),
-                  links=(link,))
+                  links=(link,), about=a)
         ab.vector(Component.SLIDING, coriolis_laid.end, frame.acc[d], "", "a_slide ∥ guide",
                   f"sliding acceleration of {d}: {figure(float(frame.sliding_acceleration[slide.name]))} m/s² from "
                   f"{slide.line[0]} towards {slide.line[1]}", role=Role.RESULT, points=(d,))
@@ -220,7 +221,7 @@ def _acceleration_group(ab: PolygonBuilder, frame: Frame, group: Group, placed: 
     ab.intersection(meet, label, f"acceleration image of the point of {link} under {d}", group, points=(d,))
     ab.vector(Component.TANGENTIAL, radial_laid.end, meet.point, "", f"a_{d}/{link}^t = α_{link} × r_{c}{d}",
               f"tangential component: {figure(abs(meet.point - radial_laid.end))} m/s², so α_{link} = "
-              f"{figure(float(frame.alpha[link]))} rad/s²", role=Role.RESULT, points=(d,), links=(link,))
+              f"{figure(float(frame.alpha[link]))} rad/s²", role=Role.RESULT, points=(d,), links=(link,), about=c)
     ab.vector(Component.SLIDING, meet.point, coriolis_laid.end, "", "a_slide ∥ slot",
               f"sliding acceleration of {d} in the slot of {link}: "
               f"{figure(float(frame.sliding_acceleration[slide.name]))} m/s² from {slide.line[0]} towards "

@@ -4,6 +4,7 @@ from __future__ import annotations
 
 import math
 
+from .components import acceleration_components
 from .solve import Solution
 from .steps import Construction
 
@@ -58,6 +59,12 @@ def construction_text(construction: Construction) -> str:
         for step in polygon.steps:
             flag = "  [FLAGGED]" if step.flagged else ""
             lines.append(f"  {step.id:>4}  {step.text}{flag}")
+        lines.append("")
+    components = acceleration_components(construction)
+    if components:
+        lines.append(f"{'acceleration components':<40}{'|a| [m/s²]':>12}{'dir [°]':>9}")
+        for c in components:
+            lines.append(f"  {c.title:<38}{c.magnitude:>12.4f}{direction_deg(*c.vector):>9.1f}")
         lines.append("")
     lines.append(f"cross-check against the numeric solver: largest relative difference "
                  f"{construction.max_relative_difference:.2e} at {construction.where}")

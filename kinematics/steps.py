@@ -49,7 +49,9 @@ class Step:
 
     ``geometry`` is a shapely Point (a located point) or LineString (a line
     or a vector; a vector runs from its start to its end, which takes the
-    arrowhead). ``points`` and ``links`` name what the step concerns.
+    arrowhead). ``points`` and ``links`` name what the step concerns; a radial, tangential or
+    Coriolis vector names in ``about`` the point its point's motion is taken relative to (for a
+    Coriolis component, the link that carries the slide).
     """
 
     id: str
@@ -62,6 +64,7 @@ class Step:
     text: str
     points: tuple = ()
     links: tuple = ()
+    about: str = ""
     condition: float | None = None
     angle_between_deg: float | None = None
     flagged: bool = False

@@ -8,6 +8,8 @@ import pytest
 from PySide6.QtCore import QRectF, Qt
 from shapely.geometry import Point
 
+import kinematics
+from kinematics import Component
 from tests.designs import CARTON_PUSHER, CLAW_FEED, SAMPLES, SWING_LEVER, UNFINISHED
 
 
@@ -58,6 +60,25 @@ def test_slide_rows_show_the_sliding_rates(make_window):
     assert cell(window, row, 1)[0] == pytest.approx(solution.sliding_velocity["guide"] * 1e3)
     assert cell(window, row, 3)[0] == pytest.approx(solution.sliding_acceleration["guide"] * 1e3)
     assert cell(window, row, 2)[1] == "+ = E→F"
+
+
+@pytest.mark.parametrize("length_unit, metres", [("mm", 1e-3), ("in", 0.0254)])
+def test_component_rows_show_the_polygons_radial_tangential_and_coriolis_vectors(make_window, length_unit, metres):
+    window = make_window(SWING_LEVER)
+    window.turn_driver(65.0)
+    window.length_units.setCurrentText(length_unit)
+    components = kinematics.acceleration_components(window.document.construction)
+    kinds = {c.component for c in components}
+    assert {Component.RADIAL, Component.TANGENTIAL, Component.CORIOLIS} <= kinds
+    for c in components:
+        name = c.title
+        # 1 in = 0.0254 m exactly (international yard and pound agreement, 1959).
+        assert cell(window, name, 3)[0] == pytest.approx(c.magnitude / metres, rel=1e-12)
+        if c.magnitude > 1e-9:
+            assert cell(window, name, 4)[0] == pytest.approx(math.degrees(math.atan2(c.vector[1], c.vector[0])) % 360.0)
+    coriolis = next(c for c in components if c.component is Component.CORIOLIS)
+    assert coriolis.title == f"Coriolis {coriolis.what}"
+    assert cell(window, coriolis.title, 3)[1] == f"{coriolis.magnitude / metres:.5g}"
 
 
 @pytest.mark.parametrize("design", [CLAW_FEED, CARTON_PUSHER, SWING_LEVER], ids=["four-bar", "slider", "slot"])

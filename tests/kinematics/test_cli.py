@@ -37,6 +37,12 @@ def test_readable_table_and_construction_words():
     data = json.loads(run("construct", QUICK, "--json").stdout)
     assert data["kinepoly_construction"] == 1 and data["crosscheck"]["max_relative_difference"] < 1e-9
     assert data["velocity"]["steps"][0]["geometry"].startswith("POINT")
+    # The components in SI, each the vector of the step that draws it.
+    steps = {s["id"]: s for s in data["acceleration"]["steps"]}
+    coriolis = next(c for c in data["acceleration_components"] if c["component"] == "coriolis")
+    assert (coriolis["point"], coriolis["about"]) == ("A", "lever")
+    assert steps[coriolis["step"]]["component"] == "coriolis"
+    assert "Coriolis component" in words.stdout and "Coriolis A sliding on lever" in words.stdout
 
 
 def test_check_reports_the_trade_figures():

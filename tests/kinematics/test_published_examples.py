@@ -342,6 +342,10 @@ def test_geneva_coriolis_component_matches_published(geneva):
     assert coriolis.is_vector
     # Beer & Johnston SP 15.20: a_c = 2 ω_S v_P/S with the published 4.08 rad/s and 477 mm/s.
     assert relative_difference(coriolis.geometry.length, 2 * 4.08 * 0.477) < PRINTED_3SF
+    # The same vector in the table of components: P sliding on disk S.
+    (listed,) = [c for c in kinematics.acceleration_components(construction) if c.component is Component.CORIOLIS]
+    assert (listed.what, listed.link, listed.step) == ("P sliding on disk_S", "disk_S", coriolis.id)
+    assert relative_difference(listed.magnitude, 2 * 4.08 * 0.477) < PRINTED_3SF
     # Its sense: the relative velocity turned 90° the way disk S turns (clockwise here), and
     # perpendicular to the slot. The relative velocity is the pin's minus that of the point of S under it.
     pin = solution.position("P")
