@@ -26,7 +26,7 @@ class AngleControl(QWidget):
         self.spin.setDecimals(1)
         self.spin.setSuffix(" °")
         self.spin.setKeyboardTracking(False)
-        self.slider = QSlider(Qt.Horizontal)
+        self.slider = QSlider(Qt.Orientation.Horizontal)
         self.slider.setRange(0, 360 * SLIDER_STEPS_PER_DEGREE)
         self.play = QToolButton()
         self.play.setCheckable(True)

@@ -106,14 +106,14 @@ class CyclePanel(QWidget):
         self.choices.setToolTip("Tick the quantities to plot")
         self.x_choice = QComboBox()
         self.x_choice.addItems(["driver angle (°)", "time (s)"])
-        self.x_choice.setItemData(1, "offered at constant driver speed only", Qt.ToolTipRole)
+        self.x_choice.setItemData(1, "offered at constant driver speed only", Qt.ItemDataRole.ToolTipRole)
         self.graphics = pg.GraphicsLayoutWidget()
         self.graphics.setBackground("w")
         self.note = QLabel()
         self.note.setWordWrap(True)
         self.peaks = QLabel()
-        self.peaks.setTextFormat(Qt.RichText)
-        self.peaks.setTextInteractionFlags(Qt.TextSelectableByMouse)
+        self.peaks.setTextFormat(Qt.TextFormat.RichText)
+        self.peaks.setTextInteractionFlags(Qt.TextInteractionFlag.TextSelectableByMouse)
         self.peaks.setWordWrap(True)
         self.fine_steps = QComboBox()
         self.fine_steps.addItems([series.steps_text(n) for n in FINE_STEPS])
@@ -180,7 +180,8 @@ class CyclePanel(QWidget):
     def _read_choices(self):
         # ``chosen``: the ticked quantities in list order, read once per change, not per frame.
         items = (self.choices.item(i) for i in range(self.choices.count()))
-        self.chosen = [item.data(Qt.UserRole) for item in items if item.checkState() == Qt.Checked]
+        self.chosen = [item.data(Qt.ItemDataRole.UserRole) for item in items
+                       if item.checkState() == Qt.CheckState.Checked]
 
     def choose(self, quantities):
         """Tick exactly ``quantities`` (those the design offers)."""
@@ -188,7 +189,8 @@ class CyclePanel(QWidget):
         self.choices.blockSignals(True)
         for i in range(self.choices.count()):
             item = self.choices.item(i)
-            item.setCheckState(Qt.Checked if item.data(Qt.UserRole) in wanted else Qt.Unchecked)
+            chosen = item.data(Qt.ItemDataRole.UserRole) in wanted
+            item.setCheckState(Qt.CheckState.Checked if chosen else Qt.CheckState.Unchecked)
         self.choices.blockSignals(False)
         self._read_choices()
         self._rebuild()
@@ -224,9 +226,9 @@ class CyclePanel(QWidget):
         self.choices.clear()
         for quantity in offered:
             item = QListWidgetItem(quantity.label)
-            item.setData(Qt.UserRole, quantity)
+            item.setData(Qt.ItemDataRole.UserRole, quantity)
             item.setToolTip(quantity.description)
-            item.setCheckState(Qt.Checked if quantity in ticked else Qt.Unchecked)
+            item.setCheckState(Qt.CheckState.Checked if quantity in ticked else Qt.CheckState.Unchecked)
             self.choices.addItem(item)
         self.choices.blockSignals(False)
         self.offered = offered
@@ -252,7 +254,7 @@ class CyclePanel(QWidget):
             plot.getViewBox().disableAutoRange()
             self._add_grid(plot)
             plot.addItem(pg.InfiniteLine(0.0, angle=0, pen=pg.mkPen(ZERO_COLOUR)), ignoreBounds=True)
-            cursor = pg.InfiniteLine(angle=90, pen=pg.mkPen(CURSOR_COLOUR, width=1.5, style=Qt.DashLine))
+            cursor = pg.InfiniteLine(angle=90, pen=pg.mkPen(CURSOR_COLOUR, width=1.5, style=Qt.PenStyle.DashLine))
             plot.addItem(cursor, ignoreBounds=True)
             self.cursors.append(cursor)
             for side in ("left", "bottom"):
@@ -340,7 +342,7 @@ class CyclePanel(QWidget):
                 cursor.setValue(self.axis.x_of_angle(self.angle_deg))
 
     def _clicked(self, event):
-        if event.button() != Qt.LeftButton or self.axis is None:
+        if event.button() != Qt.MouseButton.LeftButton or self.axis is None:
             return
         for plot in self.plots.values():
             box = plot.getViewBox()

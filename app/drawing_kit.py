@@ -16,7 +16,8 @@ from kinematics.style import Pen
 # Screen pixels per drawing millimetre of line weight at 96 dpi; pens are cosmetic so
 # a line keeps its weight at any zoom (a 0.5 mm pen draws about 2 px wide).
 PIXELS_PER_WEIGHT_MM = 96.0 / 25.4
-DASHES = {"solid": Qt.SolidLine, "dashed": Qt.DashLine, "dotted": Qt.DotLine, "dashdot": Qt.DashDotLine}
+DASHES = {"solid": Qt.PenStyle.SolidLine, "dashed": Qt.PenStyle.DashLine, "dotted": Qt.PenStyle.DotLine,
+          "dashdot": Qt.PenStyle.DashDotLine}
 # Arrowheads on polygons, in drawing mm: ISO 128-22 style, length about three times the width.
 ARROW_LENGTH_MM = 3.5
 ARROW_WIDTH_MM = 1.2
@@ -34,7 +35,7 @@ def qpen(pen: Pen, scale: float = 1.0) -> QPen:
     result.setCosmetic(True)
     result.setWidthF(max(1.0, pen.weight_mm * PIXELS_PER_WEIGHT_MM * scale))
     result.setStyle(DASHES[pen.dash])
-    result.setCapStyle(Qt.FlatCap)
+    result.setCapStyle(Qt.PenCapStyle.FlatCap)
     return result
 
 
@@ -93,7 +94,7 @@ class Label:
         from PySide6.QtWidgets import QGraphicsItem, QGraphicsPathItem, QGraphicsSimpleTextItem
 
         self.anchor = QGraphicsPathItem()
-        self.anchor.setFlag(QGraphicsItem.ItemIgnoresTransformations)
+        self.anchor.setFlag(QGraphicsItem.GraphicsItemFlag.ItemIgnoresTransformations)
         self.anchor.setZValue(z)
         self.text = QGraphicsSimpleTextItem(text, self.anchor)
         self.shown = text  # the text set, read back without asking Qt
@@ -101,7 +102,7 @@ class Label:
         self.text.setBrush(QBrush(QColor(colour)))
         # Kept as a pixmap until the text changes: laying out the text anew at every paint of a
         # drag costs more than all the lines of a polygon.
-        self.text.setCacheMode(QGraphicsItem.DeviceCoordinateCache)
+        self.text.setCacheMode(QGraphicsItem.CacheMode.DeviceCoordinateCache)
         self._measure()
         scene.addItem(self.anchor)
 

@@ -7,7 +7,7 @@ from __future__ import annotations
 from pathlib import Path
 
 from PySide6.QtPrintSupport import QPrintDialog, QPrinter
-from PySide6.QtWidgets import QFileDialog
+from PySide6.QtWidgets import QDialog, QFileDialog
 
 from kinematics import KinematicsError
 
@@ -67,8 +67,8 @@ class SheetOutputs:
             return
         from .printing import print_construction
 
-        printer = QPrinter(QPrinter.HighResolution)
-        if QPrintDialog(printer, self).exec() == QPrintDialog.Accepted:
+        printer = QPrinter(QPrinter.PrinterMode.HighResolution)
+        if QPrintDialog(printer, self).exec() == QDialog.DialogCode.Accepted:
             try:
                 print_construction(construction, printer, file_name=self._file_name())
             except (KinematicsError, OSError) as error:

@@ -18,7 +18,7 @@ class DrawingsPanel(QSplitter):
     """Draws a Document: call :meth:`refresh` after each ``changed``."""
 
     def __init__(self, document, parent=None):
-        super().__init__(Qt.Horizontal, parent)
+        super().__init__(Qt.Orientation.Horizontal, parent)
         self.document = document
         self.space_scene = SpaceScene()
         self.velocity_scene = PolygonScene("velocity")
@@ -55,8 +55,8 @@ class DrawingsPanel(QSplitter):
         """Draw without antialiasing while the pose follows the mouse (nearly half the cost of a
         repaint); the finished pose is drawn smooth again."""
         for view in (self.space_view, self.velocity_view, self.acceleration_view):
-            if bool(view.renderHints() & QPainter.Antialiasing) == on:
-                view.setRenderHint(QPainter.Antialiasing, not on)
+            if bool(view.renderHints() & QPainter.RenderHint.Antialiasing) == on:
+                view.setRenderHint(QPainter.RenderHint.Antialiasing, not on)
 
     def show_paths(self):
         """Redraw the coupler paths alone (the document's sweep caught up with a drag)."""

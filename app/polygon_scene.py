@@ -50,7 +50,7 @@ class _StepItems:
         self.head_box = None  # the arrowhead's scene box (left, top, width, height), kept clear of labels
         if isinstance(step.geometry, Point):
             self.dot = QGraphicsEllipseItem(-DOT_PIXELS, -DOT_PIXELS, 2 * DOT_PIXELS, 2 * DOT_PIXELS)
-            self.dot.setFlag(QGraphicsItem.ItemIgnoresTransformations)
+            self.dot.setFlag(QGraphicsItem.GraphicsItemFlag.ItemIgnoresTransformations)
             self.dot.setZValue(5)
             scene.addItem(self.dot)
         else:
@@ -76,7 +76,7 @@ class _StepItems:
         if self.line is not None:
             self.line.setPen(pen)
         if self.head is not None:
-            self.head.setPen(QPen(Qt.NoPen))  # filled only: an outline is stroked at many times the cost
+            self.head.setPen(QPen(Qt.PenStyle.NoPen))  # filled only: an outline is stroked at many times the cost
             self.head.setBrush(brush(self.pen))
         if self.dot is not None:
             self.dot.setPen(qpen(self.pen, 0.7))
@@ -108,7 +108,7 @@ class PolygonScene(QGraphicsScene):
     def __init__(self, kind: str, parent=None):
         super().__init__(parent)
         # Every item moves with each pose: a spatial index would be rebuilt each frame for nothing.
-        self.setItemIndexMethod(QGraphicsScene.NoIndex)
+        self.setItemIndexMethod(QGraphicsScene.ItemIndexMethod.NoIndex)
         self.kind = kind
         self.polygon = None
         self.structure = None
@@ -118,7 +118,7 @@ class PolygonScene(QGraphicsScene):
         self.selected_step = None
         self.scale_bar = ScaleBar(self, ANNOTATION)
         self._ring = QGraphicsEllipseItem(-9, -9, 18, 18)
-        self._ring.setFlag(QGraphicsItem.ItemIgnoresTransformations)
+        self._ring.setFlag(QGraphicsItem.GraphicsItemFlag.ItemIgnoresTransformations)
         self._ring.setPen(QPen(QColor(HOVER_COLOUR), 3))
         self._ring.setZValue(20)
         self._ring.setVisible(False)

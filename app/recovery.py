@@ -25,7 +25,7 @@ PREFIX = "recovery-"
 
 def recovery_folder() -> Path:
     """Where recovery copies live: ``<AppDataLocation>/recovery``."""
-    return Path(QStandardPaths.writableLocation(QStandardPaths.AppDataLocation)) / "recovery"
+    return Path(QStandardPaths.writableLocation(QStandardPaths.StandardLocation.AppDataLocation)) / "recovery"
 
 
 def _alive(pid: int) -> bool:
@@ -115,7 +115,7 @@ def offer_recovery(window, folder: Path | None = None) -> bool:
             window, "Restore unsaved work?",
             f"Kinepoly stopped before “{title}”{origin} was saved.\nA recovery copy from {saved_at} is kept.\n\n"
             "Restore it? (No deletes the copy.)")
-        if answer == QMessageBox.Yes:
+        if answer == QMessageBox.StandardButton.Yes:
             window.restore(mechanism, source or None)
             window.autosave.write_if_unsaved()
             path.unlink(missing_ok=True)

@@ -37,13 +37,13 @@ def render_image(document, size: tuple[int, int]):
 
     width, height = size
     panel = DrawingsPanel(document)
-    panel.setAttribute(Qt.WA_DontShowOnScreen)
+    panel.setAttribute(Qt.WidgetAttribute.WA_DontShowOnScreen)
     panel.resize(width, height - FOOTER_PIXELS)
     panel.setSizes([int(width * 0.4), int(width * 0.3), width - 2 * int(width * 0.3)])
     panel.show()
     panel.refresh()
     panel.fit_all()
-    image = QImage(width, height, QImage.Format_ARGB32)
+    image = QImage(width, height, QImage.Format.Format_ARGB32)
     image.fill(QColor("white"))
     painter = QPainter(image)
     painter.drawPixmap(0, 0, panel.grab())
@@ -51,7 +51,7 @@ def render_image(document, size: tuple[int, int]):
     painter.setPen(QColor("#1d2b3a"))
     title = document.mechanism.title or (Path(document.path).name if document.path else "")
     painter.drawText(QRect(8, height - FOOTER_PIXELS + 2, width - 16, FOOTER_PIXELS - 4),
-                     Qt.AlignLeft | Qt.AlignVCenter | Qt.TextWordWrap,
+                     Qt.AlignmentFlag.AlignLeft | Qt.AlignmentFlag.AlignVCenter | Qt.TextFlag.TextWordWrap,
                      f"{title} — {status_text(document.analysis)}")
     painter.end()
     panel.close()
@@ -64,7 +64,7 @@ def png_bytes(image) -> bytes:
 
     data = QByteArray()
     buffer = QBuffer(data)
-    buffer.open(QIODevice.WriteOnly)
+    buffer.open(QIODevice.OpenModeFlag.WriteOnly)
     if not image.save(buffer, "PNG"):
         raise OSError("the image could not be encoded as PNG")
     buffer.close()

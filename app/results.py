@@ -5,7 +5,7 @@ them), in the units the user picked.
 
 A table model refreshed with one ``dataChanged`` per pose (per-cell widget
 items cost several milliseconds a frame). Each numeric cell also answers
-``Qt.UserRole`` with the number shown, so tests compare values, not text.
+``Qt.ItemDataRole.UserRole`` with the number shown, so tests compare values, not text.
 """
 
 from __future__ import annotations
@@ -98,8 +98,9 @@ class ResultsModel(QStandardItemModel):
                 items = []
                 for column, (text, value) in enumerate(row):
                     item = QStandardItem(text)
-                    item.setData(value, Qt.UserRole)
-                    item.setTextAlignment(Qt.AlignRight | Qt.AlignVCenter if column else Qt.AlignLeft | Qt.AlignVCenter)
+                    item.setData(value, Qt.ItemDataRole.UserRole)
+                    item.setTextAlignment((Qt.AlignmentFlag.AlignRight if column else Qt.AlignmentFlag.AlignLeft)
+                                          | Qt.AlignmentFlag.AlignVCenter)
                     item.setEditable(False)
                     items.append(item)
                 self.appendRow(items)
@@ -118,7 +119,7 @@ class ResultsModel(QStandardItemModel):
                 text, value = row[column]
                 item = self.item(r, column)
                 item.setText(text)
-                item.setData(value, Qt.UserRole)
+                item.setData(value, Qt.ItemDataRole.UserRole)
             if columns:
                 spans.append((r, columns[0], columns[-1]))
         self.blockSignals(False)
@@ -178,12 +179,12 @@ class ResultsTable(QTableView):
         self.results = ResultsModel(self)
         self.setModel(self.results)
         self.selectionModel().currentRowChanged.connect(self._row_changed)
-        self.setEditTriggers(QAbstractItemView.NoEditTriggers)
-        self.setSelectionBehavior(QAbstractItemView.SelectRows)
-        self.setSelectionMode(QAbstractItemView.SingleSelection)
+        self.setEditTriggers(QAbstractItemView.EditTrigger.NoEditTriggers)
+        self.setSelectionBehavior(QAbstractItemView.SelectionBehavior.SelectRows)
+        self.setSelectionMode(QAbstractItemView.SelectionMode.SingleSelection)
         self.verticalHeader().setVisible(False)
         # Sized to the contents when the rows change, not on every frame (that reads every cell).
-        self.horizontalHeader().setSectionResizeMode(QHeaderView.Interactive)
+        self.horizontalHeader().setSectionResizeMode(QHeaderView.ResizeMode.Interactive)
         self.setAlternatingRowColors(True)
         self.results.layout_reset.connect(self.resizeColumnsToContents)
         self.results.headerDataChanged.connect(self.resizeColumnsToContents)

@@ -50,7 +50,7 @@ def point_kind(mechanism, name: str) -> str:
 def _drawn_to_scale(item) -> bool:
     """False for items (and children of items) that keep their screen size: their bounds are pixels."""
     while item is not None:
-        if item.flags() & QGraphicsItem.ItemIgnoresTransformations:
+        if item.flags() & QGraphicsItem.GraphicsItemFlag.ItemIgnoresTransformations:
             return False
         item = item.parentItem()
     return True
@@ -104,12 +104,12 @@ class _Joint:
         if kind == "pivot":
             self.sign = QGraphicsPathItem(hatch_path(9.0))
             self.sign.setPen(qpen(SPACE_GROUND))
-            self.sign.setFlag(QGraphicsItem.ItemIgnoresTransformations)
+            self.sign.setFlag(QGraphicsItem.GraphicsItemFlag.ItemIgnoresTransformations)
             self.sign.setZValue(3)
             scene.addItem(self.sign)
         radius = JOINT_PIXELS * {"coupler": 0.8, "guide": 0.6}.get(kind, 1.0)
         self.dot = QGraphicsEllipseItem(-radius, -radius, 2 * radius, 2 * radius)
-        self.dot.setFlag(QGraphicsItem.ItemIgnoresTransformations)
+        self.dot.setFlag(QGraphicsItem.GraphicsItemFlag.ItemIgnoresTransformations)
         self.dot.setZValue(6)
         self.filled = QColor(SPACE_LINK.colour) if kind in ("coupler", "guide") else QColor("white")
         self.dot.setData(0, ("point", name))
@@ -136,7 +136,7 @@ class _Slide:
         self.guide.setPen(qpen(SPACE_GROUND, 1.2))
         self.guide.setZValue(0.5)
         self.block = QGraphicsRectItem(-11, -7, 22, 14)
-        self.block.setFlag(QGraphicsItem.ItemIgnoresTransformations)
+        self.block.setFlag(QGraphicsItem.GraphicsItemFlag.ItemIgnoresTransformations)
         self.block.setPen(qpen(SPACE_LINK))
         self.block.setBrush(QColor(BAR_COLOUR))
         self.block.setZValue(4)
@@ -162,7 +162,7 @@ class SpaceScene(QGraphicsScene):
     def __init__(self, parent=None):
         super().__init__(parent)
         # Every item moves with each pose: a spatial index would be rebuilt each frame for nothing.
-        self.setItemIndexMethod(QGraphicsScene.NoIndex)
+        self.setItemIndexMethod(QGraphicsScene.ItemIndexMethod.NoIndex)
         self.topology = None
         self.links: dict[str, _Link] = {}
         self.joints: dict[str, _Joint] = {}

@@ -24,7 +24,7 @@ class StepsPanel(QListWidget):
         # wrapped rows of differing heights would be laid out anew each time. The whole sentence is
         # the row's tooltip.
         self.setUniformItemSizes(True)
-        self.setTextElideMode(Qt.ElideRight)
+        self.setTextElideMode(Qt.TextElideMode.ElideRight)
         self.currentItemChanged.connect(self._current_changed)
 
     def show_construction(self, construction):
@@ -35,7 +35,7 @@ class StepsPanel(QListWidget):
             self.clear()
             for step in steps:
                 item = QListWidgetItem()
-                item.setData(Qt.UserRole, step.id)
+                item.setData(Qt.ItemDataRole.UserRole, step.id)
                 self.addItem(item)
             self.blockSignals(False)
             self.structure = structure
@@ -49,10 +49,10 @@ class StepsPanel(QListWidget):
     def select_step(self, step_id: str):
         """Make step ``step_id`` current (as if clicked in the list) and bring it into sight."""
         for row in range(self.count()):
-            if self.item(row).data(Qt.UserRole) == step_id:
+            if self.item(row).data(Qt.ItemDataRole.UserRole) == step_id:
                 self.setCurrentRow(row)
                 self.scrollToItem(self.item(row))
                 return
 
     def _current_changed(self, current, _previous):
-        self.step_selected.emit(current.data(Qt.UserRole) if current is not None else "")
+        self.step_selected.emit(current.data(Qt.ItemDataRole.UserRole) if current is not None else "")

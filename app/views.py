@@ -34,15 +34,15 @@ class DrawingView(QGraphicsView):
     def __init__(self, scene, parent=None):
         super().__init__(scene, parent)
         scene.setParent(self)  # the view does not own its scene; keep it alive as long as the view
-        self.setRenderHints(QPainter.Antialiasing | QPainter.TextAntialiasing)
-        self.setDragMode(QGraphicsView.ScrollHandDrag)
-        self.setTransformationAnchor(QGraphicsView.AnchorUnderMouse)
-        self.setHorizontalScrollBarPolicy(Qt.ScrollBarAlwaysOff)
-        self.setVerticalScrollBarPolicy(Qt.ScrollBarAlwaysOff)
+        self.setRenderHints(QPainter.RenderHint.Antialiasing | QPainter.RenderHint.TextAntialiasing)
+        self.setDragMode(QGraphicsView.DragMode.ScrollHandDrag)
+        self.setTransformationAnchor(QGraphicsView.ViewportAnchor.AnchorUnderMouse)
+        self.setHorizontalScrollBarPolicy(Qt.ScrollBarPolicy.ScrollBarAlwaysOff)
+        self.setVerticalScrollBarPolicy(Qt.ScrollBarPolicy.ScrollBarAlwaysOff)
         self.setBackgroundBrush(QColor("#fbfbf8"))
         # The background brush covers every pixel: no fill before it, and nothing behind to paint.
         self.viewport().setAutoFillBackground(False)
-        self.viewport().setAttribute(Qt.WA_OpaquePaintEvent)
+        self.viewport().setAttribute(Qt.WidgetAttribute.WA_OpaquePaintEvent)
         self.auto_fit = True
         self.fit_rect = QRectF(-100, -100, 200, 200)
 
@@ -65,7 +65,7 @@ class DrawingView(QGraphicsView):
     def _fit(self):
         # A little room all round, so a drawing that grows a little during a drag is not refitted at once.
         room = FIT_ROOM * max(self.fit_rect.width(), self.fit_rect.height())
-        self.fitInView(self.fit_rect.adjusted(-room, -room, room, room), Qt.KeepAspectRatio)
+        self.fitInView(self.fit_rect.adjusted(-room, -room, room, room), Qt.AspectRatioMode.KeepAspectRatio)
 
     def fit_to_window(self):
         self.auto_fit = True
@@ -84,7 +84,7 @@ class DrawingView(QGraphicsView):
         event.accept()
 
     def mouseMoveEvent(self, event):
-        if event.buttons() & Qt.LeftButton:
+        if event.buttons() & Qt.MouseButton.LeftButton:
             self.auto_fit = False  # the user pans: stop refitting under them
         super().mouseMoveEvent(event)
 
@@ -106,7 +106,7 @@ class PolygonView(DrawingView):
         self.title = title
         self._legend_key = self._legend_pixmap = None
         # The legend is drawn in view pixels over the scene: any change repaints the whole view.
-        self.setViewportUpdateMode(QGraphicsView.FullViewportUpdate)
+        self.setViewportUpdateMode(QGraphicsView.ViewportUpdateMode.FullViewportUpdate)
 
     def step_at(self, pos) -> str | None:
         """The step drawn within a few pixels of ``pos`` (lines are thin: aim need not be exact)."""
@@ -117,7 +117,7 @@ class PolygonView(DrawingView):
         return None
 
     def mousePressEvent(self, event):
-        step = self.step_at(event.position().toPoint()) if event.button() == Qt.LeftButton else None
+        step = self.step_at(event.position().toPoint()) if event.button() == Qt.MouseButton.LeftButton else None
         if step is None:
             super().mousePressEvent(event)
             return
@@ -147,9 +147,9 @@ class PolygonView(DrawingView):
         if self._legend_key != (pens, ratio):
             pixmap = QPixmap(int(LEGEND_WIDTH * ratio), int((LEGEND_TOP + LEGEND_LINE * len(pens)) * ratio))
             pixmap.setDevicePixelRatio(ratio)
-            pixmap.fill(Qt.transparent)
+            pixmap.fill(Qt.GlobalColor.transparent)
             painter = QPainter(pixmap)
-            painter.setRenderHint(QPainter.TextAntialiasing)  # crisp swatches: no antialiasing for them
+            painter.setRenderHint(QPainter.RenderHint.TextAntialiasing)  # crisp swatches: no antialiasing for them
             painter.setFont(label_font(13, bold=True))
             painter.setPen(QColor("#1d2b3a"))
             painter.drawText(QPointF(10, 20), self.title)
@@ -198,7 +198,7 @@ class SpaceView(DrawingView):
         pen = QPen(QColor("#e3e6ea"))
         pen.setCosmetic(True)
         painter.save()
-        painter.setRenderHint(QPainter.Antialiasing, False)  # crisp one-pixel grid lines
+        painter.setRenderHint(QPainter.RenderHint.Antialiasing, False)  # crisp one-pixel grid lines
         painter.setPen(pen)
         x = math.floor(rect.left() / step) * step
         while x <= rect.right():
@@ -211,9 +211,9 @@ class SpaceView(DrawingView):
         painter.restore()
 
     def keyPressEvent(self, event):
-        if self.building and event.key() in (Qt.Key_Return, Qt.Key_Enter):
+        if self.building and event.key() in (Qt.Key.Key_Return, Qt.Key.Key_Enter):
             self.finished.emit()
-        elif self.building and event.key() == Qt.Key_Escape:
+        elif self.building and event.key() == Qt.Key.Key_Escape:
             self.cancelled.emit()
         else:
             super().keyPressEvent(event)
@@ -230,13 +230,13 @@ class SpaceView(DrawingView):
         return (at.x(), -at.y())
 
     def mousePressEvent(self, event):
-        if self.building and event.button() == Qt.LeftButton:
+        if self.building and event.button() == Qt.MouseButton.LeftButton:
             pos = event.position().toPoint()
             self.setFocus()
             self.picked.emit(self.joint_at(pos), self._machine_mm(pos))
             event.accept()
             return
-        name = self.joint_at(event.position().toPoint()) if event.button() == Qt.LeftButton else None
+        name = self.joint_at(event.position().toPoint()) if event.button() == Qt.MouseButton.LeftButton else None
         if name is None:
             super().mousePressEvent(event)
             return
@@ -253,12 +253,12 @@ class SpaceView(DrawingView):
         name = self.joint_at(pos) if not event.buttons() else None
         if name != self._hover:
             self._hover = name
-            self.viewport().setCursor(Qt.PointingHandCursor if name else Qt.OpenHandCursor)
+            self.viewport().setCursor(Qt.CursorShape.PointingHandCursor if name else Qt.CursorShape.OpenHandCursor)
             self.hovered.emit(name)
         super().mouseMoveEvent(event)
 
     def mouseReleaseEvent(self, event):
-        if self.dragging is not None and event.button() == Qt.LeftButton:
+        if self.dragging is not None and event.button() == Qt.MouseButton.LeftButton:
             self.dragged.emit(self._machine_mm(event.position().toPoint()))
             self.dragging = None
             self.drag_finished.emit()

@@ -56,7 +56,7 @@ class MainWindow(SheetOutputs, QMainWindow):
         # The window's words are Latin letters, digits and simple signs: laid out without text
         # shaping, the table and lists repaint in two thirds of the time on every drag frame.
         font = self.font()
-        font.setStyleStrategy(QFont.PreferNoShaping)
+        font.setStyleStrategy(QFont.StyleStrategy.PreferNoShaping)
         self.setFont(font)
         self.document = Document(mechanism or empty(), path, self)
         self.autosave = Autosave(self.document, parent=self)
@@ -76,11 +76,11 @@ class MainWindow(SheetOutputs, QMainWindow):
         side.addTab(QWidget(), CYCLE_TAB)
         side.currentChanged.connect(self._open_cycle_tab)
         self.side_tabs = side
-        lower = QSplitter(Qt.Horizontal)
+        lower = QSplitter(Qt.Orientation.Horizontal)
         lower.addWidget(self.table)
         lower.addWidget(side)
         lower.setSizes([800, 800])
-        splitter = QSplitter(Qt.Vertical)
+        splitter = QSplitter(Qt.Orientation.Vertical)
         splitter.addWidget(self.drawings)
         splitter.addWidget(lower)
         splitter.setSizes([620, 300])
@@ -89,7 +89,7 @@ class MainWindow(SheetOutputs, QMainWindow):
         # One line only: a status bar that grew with its text would resize the views under a drag.
         self.status.setWordWrap(False)
         self.status.setMinimumWidth(1)
-        self.status.setTextInteractionFlags(Qt.TextSelectableByMouse)
+        self.status.setTextInteractionFlags(Qt.TextInteractionFlag.TextSelectableByMouse)
         self.statusBar().addWidget(self.status, 1)
         self.angle = AngleControl()
         self.length_units = QComboBox()
@@ -146,7 +146,7 @@ class MainWindow(SheetOutputs, QMainWindow):
             tools.addAction(action)
             self.tool_actions[tool] = action
         self.tool_actions["select"].setChecked(True)
-        self.addToolBar(Qt.LeftToolBarArea, tools)
+        self.addToolBar(Qt.ToolBarArea.LeftToolBarArea, tools)
 
     def _action(self, menu, text, slot, shortcut=None, icon_name=None):
         action = QAction(text, self)
@@ -160,27 +160,27 @@ class MainWindow(SheetOutputs, QMainWindow):
 
     def _build_menus(self):
         files = self.menuBar().addMenu("&File")
-        self._action(files, "&New", self.new_design, QKeySequence.New)
-        self._action(files, "&Open…", self.open_dialog, QKeySequence.Open)
+        self._action(files, "&New", self.new_design, QKeySequence.StandardKey.New)
+        self._action(files, "&Open…", self.open_dialog, QKeySequence.StandardKey.Open)
         self.recent_menu = files.addMenu("Open &recent")
-        self._action(files, "&Save", self.save, QKeySequence.Save)
-        self._action(files, "Save &as…", self.save_as, QKeySequence.SaveAs)
+        self._action(files, "&Save", self.save, QKeySequence.StandardKey.Save)
+        self._action(files, "Save &as…", self.save_as, QKeySequence.StandardKey.SaveAs)
         files.addSeparator()
-        self._action(files, "&Print…", self.print_dialog, QKeySequence.Print)
+        self._action(files, "&Print…", self.print_dialog, QKeySequence.StandardKey.Print)
         self._action(files, "Export sheet as P&DF…", lambda: self._export("PDF sheet (*.pdf)", self.export_pdf))
         self._action(files, "Export drawing as D&XF…", lambda: self._export("DXF drawing (*.dxf)", self.export_dxf))
         files.addSeparator()
-        self._action(files, "&Quit", self.close, QKeySequence.Quit)
+        self._action(files, "&Quit", self.close, QKeySequence.StandardKey.Quit)
         edit = self.menuBar().addMenu("&Edit")
         stack = self.document.undo_stack
         undo, redo = stack.createUndoAction(self, "&Undo"), stack.createRedoAction(self, "&Redo")
-        undo.setShortcut(QKeySequence.Undo)
-        redo.setShortcut(QKeySequence.Redo)
+        undo.setShortcut(QKeySequence.StandardKey.Undo)
+        redo.setShortcut(QKeySequence.StandardKey.Redo)
         edit.addActions([undo, redo])
         view = self.menuBar().addMenu("&View")
         space = self.drawings.space_view
-        self._action(view, "Zoom &in", lambda: space.zoom(1.25), QKeySequence.ZoomIn)
-        self._action(view, "Zoom &out", lambda: space.zoom(0.8), QKeySequence.ZoomOut)
+        self._action(view, "Zoom &in", lambda: space.zoom(1.25), QKeySequence.StandardKey.ZoomIn)
+        self._action(view, "Zoom &out", lambda: space.zoom(0.8), QKeySequence.StandardKey.ZoomOut)
         fit = self._action(view, "&Fit to window", self.drawings.fit_all, QKeySequence("Ctrl+0"), "fit")
         self.driver_bar.addAction(fit)
         self.snapping = QAction("&Snap to grid", self)
@@ -334,12 +334,12 @@ class MainWindow(SheetOutputs, QMainWindow):
         """True when it is fine to drop the current design (saved, discarded, or unchanged)."""
         if self.document.undo_stack.isClean():
             return True
+        button = QMessageBox.StandardButton
         answer = QMessageBox.question(self, "Unsaved changes", "The design has changes that are not saved. "
-                                      "Save them first?", QMessageBox.Save | QMessageBox.Discard |
-                                      QMessageBox.Cancel, QMessageBox.Save)
-        if answer == QMessageBox.Save:
+                                      "Save them first?", button.Save | button.Discard | button.Cancel, button.Save)
+        if answer == button.Save:
             return self.save()
-        return answer == QMessageBox.Discard
+        return answer == button.Discard
 
     def new_design(self):
         if self.ask_to_save():

@@ -35,6 +35,7 @@ from app.window import MainWindow  # noqa: E402
 
 ROOT = Path(__file__).resolve().parent.parent
 DEFAULT_FILE = ROOT / "samples" / "stacker-transfer-stephenson.json"
+LEFT, NONE = Qt.MouseButton.LeftButton, Qt.KeyboardModifier.NoModifier
 PHASES = {"core": [], "sweep": [], "window update": [], "event loop (updates, one repaint)": []}  # ms per call
 
 
@@ -64,7 +65,7 @@ class PaintCounter(QObject):
         self.count = 0
 
     def eventFilter(self, watched, event):
-        if event.type() == QEvent.Paint:
+        if event.type() == QEvent.Type.Paint:
             self.count += 1
         return False
 
@@ -80,7 +81,7 @@ def timed_drag(window, name, frames, radius_mm, counter):
     qt = QApplication.instance()
     view = window.drawings.space_view
     start = window.drawings.space_scene.joints[name].dot.pos()
-    QTest.mousePress(view.viewport(), Qt.LeftButton, Qt.NoModifier, view.mapFromScene(start))
+    QTest.mousePress(view.viewport(), LEFT, NONE, view.mapFromScene(start))
     qt.processEvents()
     for values in PHASES.values():
         values.clear()
@@ -96,7 +97,7 @@ def timed_drag(window, name, frames, radius_mm, counter):
         PHASES["event loop (updates, one repaint)"].append(1e3 * (ended - handled))
         times.append(1e3 * (ended - began))
         refused += "cannot" in window.note
-    QTest.mouseRelease(view.viewport(), Qt.LeftButton, Qt.NoModifier, view.mapFromScene(start))
+    QTest.mouseRelease(view.viewport(), LEFT, NONE, view.mapFromScene(start))
     qt.processEvents()
     return times, counter.count / frames, refused / frames
 
@@ -117,7 +118,7 @@ def drag_for(window, name, seconds, radius_mm):
     qt = QApplication.instance()
     view = window.drawings.space_view
     start = window.drawings.space_scene.joints[name].dot.pos()
-    QTest.mousePress(view.viewport(), Qt.LeftButton, Qt.NoModifier, view.mapFromScene(start))
+    QTest.mousePress(view.viewport(), LEFT, NONE, view.mapFromScene(start))
     ends, i = time.perf_counter() + seconds, 0
     while time.perf_counter() < ends:
         angle = 2.0 * math.pi * i / 120
@@ -125,7 +126,7 @@ def drag_for(window, name, seconds, radius_mm):
             start + QPointF(radius_mm * (1 - math.cos(angle)), radius_mm * math.sin(angle))))
         qt.processEvents()
         i += 1
-    QTest.mouseRelease(view.viewport(), Qt.LeftButton, Qt.NoModifier, view.mapFromScene(start))
+    QTest.mouseRelease(view.viewport(), LEFT, NONE, view.mapFromScene(start))
     qt.processEvents()
 
 
