@@ -113,6 +113,7 @@ class PolygonScene(QGraphicsScene):
         self.polygon = None
         self.structure = None
         self.step_items: dict[str, _StepItems] = {}
+        self._pens = []  # the style pens of the step items, in first-use order
         self.figures: dict[str, QGraphicsPolygonItem] = {}
         self.content_rect = QRectF(-60, -60, 120, 120)
         self.selected_step = None
@@ -135,11 +136,7 @@ class PolygonScene(QGraphicsScene):
 
     def used_pens(self) -> list:
         """The style pens in use, in first-use order, for the legend."""
-        pens = []
-        for items in self.step_items.values():
-            if items.pen not in pens:
-                pens.append(items.pen)
-        return pens
+        return list(self._pens)
 
     def show(self, polygon, plates: dict | None = None):
         """Draw ``polygon`` (or clear the drawing for None).
@@ -154,6 +151,7 @@ class PolygonScene(QGraphicsScene):
             for item in [i for items in self.step_items.values() for i in items.items()] + list(self.figures.values()):
                 self.removeItem(item)
             self.step_items = {} if polygon is None else {s.id: _StepItems(self, s) for s in polygon.steps}
+            self._pens = list(dict.fromkeys(items.pen for items in self.step_items.values()))
             self.figures = {} if polygon is None else {name: self._figure(name) for name in plates}
             self.structure = structure
             self.selected_step = None

@@ -80,14 +80,14 @@ class ConstraintSystem:
     def selectors(self):
         """(m, 2, 2n) arrays: which coordinate each row's first and second difference moves."""
         m, n = len(self.kind), len(self.names)
-        first, second = np.zeros((m, 2, 2 * n)), np.zeros((m, 2, 2 * n))
-        for i in range(m):
-            for k in (0, 1):
-                first[i, k, 2 * self.a[i] + k] += 1.0
-                first[i, k, 2 * self.b[i] + k] -= 1.0
-                second[i, k, 2 * self.c[i] + k] += 1.0
-                second[i, k, 2 * self.d[i] + k] -= 1.0
-        return first, second
+        rows, k = np.arange(m)[:, None], np.arange(2)[None, :]
+        selected = []
+        for plus, minus in ((self.a, self.b), (self.c, self.d)):
+            chosen = np.zeros((m, 2, 2 * n))
+            np.add.at(chosen, (rows, k, 2 * plus[:, None] + k), 1.0)  # add.at: plus and minus may be one point
+            np.add.at(chosen, (rows, k, 2 * minus[:, None] + k), -1.0)
+            selected.append(chosen)
+        return tuple(selected)
 
     def quadratic_term(self, xdot: np.ndarray) -> np.ndarray:
         """Second time derivative of the values at zero acceleration: 2·(u̇ ∘ v̇)."""
@@ -119,10 +119,11 @@ def build_system(mechanism: Mechanism) -> ConstraintSystem:
     for slide in mechanism.slides.values():
         e, f = index[slide.line[0]], index[slide.line[1]]
         rows.append((CROSS, f, e, index[slide.point], e, slide.name))
+    table = np.array([r[:5] for r in rows], dtype=int).reshape(-1, 5)
     # Rows that touch no moving point hold by themselves.
-    rows = [r for r in rows if free[list(r[1:5])].any()]
-    kind = np.array([r[0] for r in rows], dtype=int)
-    a, b, c, d = (np.array([r[i] for r in rows], dtype=int) for i in range(1, 5))
+    moving = free[table[:, 1:]].any(axis=1)
+    rows, table = [r for r, keep in zip(rows, moving.tolist(), strict=True) if keep], table[moving]
+    kind, a, b, c, d = table.T
     u, v = x0[a] - x0[b], x0[c] - x0[d]
     dot = np.einsum("ij,ij->i", u, v) if rows else np.zeros(0)
     cross = (u[:, 0] * v[:, 1] - u[:, 1] * v[:, 0]) if rows else np.zeros(0)

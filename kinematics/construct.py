@@ -251,14 +251,15 @@ def _numeric_group(vb: PolygonBuilder, ab: PolygonBuilder, frame: Frame, group: 
 
 def _crosscheck(solution: Solution, velocity_images: dict, acceleration_images: dict):
     worst, where = 0.0, ""
+    row = {name: i for i, name in enumerate(solution.point_names)}
     for kind, images, values in (("velocity", velocity_images, solution.velocities),
                                  ("acceleration", acceleration_images, solution.accelerations)):
         reference = max((abs(z) for z in images.values()), default=0.0)
         if reference == 0.0:
             continue
+        solver = values.tolist()
         for name, z in images.items():
-            solver = values[solution.point_names.index(name)]
-            difference = abs(complex(z) - complex(*solver)) / reference
+            difference = abs(complex(z) - complex(*solver[row[name]])) / reference
             if difference > worst or not where:
                 worst, where = difference, f"{name} ({kind})"
     return worst, where

@@ -10,6 +10,7 @@ from __future__ import annotations
 import math
 from collections.abc import Mapping
 from dataclasses import dataclass, field, replace
+from functools import cached_property
 from types import MappingProxyType
 
 from .errors import KinematicsError
@@ -109,14 +110,21 @@ class Mechanism:
 
     def bodies_of(self, point: str) -> list[str]:
         """Bodies (``"ground"`` first, then links in file order) that hold ``point``."""
-        bodies = [GROUND] if point in self.ground else []
-        bodies += [name for name, pts in self.links.items() if point in pts]
+        return list(self._bodies.get(point, ()))
+
+    @cached_property
+    def _bodies(self) -> dict:
+        # Worked out once (the mechanism is immutable): diagnose, decompose and drawing each ask per point.
+        bodies = {p: [GROUND] for p in self.ground}
+        for name, pts in self.links.items():
+            for p in dict.fromkeys(pts):
+                bodies.setdefault(p, []).append(name)
         return bodies
 
     def body_points(self, body: str) -> tuple:
         return self.ground if body == GROUND else self.links[body]
 
-    @property
+    @cached_property
     def size(self) -> float:
         """Diagonal of the bounding box of all points, in ``length_unit``."""
         if not self.points:
