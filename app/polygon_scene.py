@@ -8,8 +8,6 @@ m/s²) sits at c / scale_per_mm.
 
 from __future__ import annotations
 
-import numpy as np
-import shapely
 from PySide6.QtCore import QLineF, QPointF, QRectF, Qt
 from PySide6.QtGui import QBrush, QColor, QPen, QPolygonF
 from PySide6.QtWidgets import (
@@ -19,7 +17,6 @@ from PySide6.QtWidgets import (
     QGraphicsPolygonItem,
     QGraphicsScene,
 )
-from shapely.geometry import Point
 
 from kinematics import Role
 from kinematics.style import ANNOTATION, IMAGE, pen_for
@@ -48,7 +45,7 @@ class _StepItems:
         self.pen = pen_for(step)
         self.line = self.head = self.dot = self.label = None
         self.head_box = None  # the arrowhead's scene box (left, top, width, height), kept clear of labels
-        if isinstance(step.geometry, Point):
+        if len(step.coords) == 1:
             self.dot = QGraphicsEllipseItem(-DOT_PIXELS, -DOT_PIXELS, 2 * DOT_PIXELS, 2 * DOT_PIXELS)
             self.dot.setFlag(QGraphicsItem.GraphicsItemFlag.ItemIgnoresTransformations)
             self.dot.setZValue(5)
@@ -145,7 +142,7 @@ class PolygonScene(QGraphicsScene):
         the image figure of each is outlined through the images of its points.
         """
         plates = plates or {}
-        structure = None if polygon is None else (tuple((s.id, s.role, type(s.geometry), bool(s.label))
+        structure = None if polygon is None else (tuple((s.id, s.role, len(s.coords), bool(s.label))
                                                         for s in polygon.steps), tuple(plates.items()))
         if structure != self.structure:
             for item in [i for items in self.step_items.values() for i in items.items()] + list(self.figures.values()):
@@ -161,24 +158,20 @@ class PolygonScene(QGraphicsScene):
             self._ring.setVisible(False)
             return
         scale = polygon.scale_per_mm
-        # Every step's coordinates in one call (one at a time through shapely costs several times more).
-        geometry = [step.geometry for step in polygon.steps]
-        xy = shapely.get_coordinates(geometry) * np.array([1.0 / scale, -1.0 / scale])  # scene mm, y down
-        counts = shapely.get_num_coordinates(geometry).tolist()
-        points = [QPointF(x, y) for x, y in xy.tolist()]
-        first = 0
-        for step, count in zip(polygon.steps, counts, strict=True):
-            self.step_items[step.id].update(step, points[first:first + count])
-            first += count
+        xs, ys = [0.0], [0.0]  # scene mm of every end, and the pole
+        for step in polygon.steps:
+            ends = [(x / scale, -y / scale) for x, y in step.coords]  # y down
+            xs += [x for x, _ in ends]
+            ys += [y for _, y in ends]
+            self.step_items[step.id].update(step, [QPointF(x, y) for x, y in ends])
         for name, figure in self.figures.items():
             figure.setPolygon(QPolygonF([scene_xy(*(c / scale for c in polygon.images[p])) for p in plates[name]]))
-        self._place_scale_bar(polygon, xy)
+        self._place_scale_bar(polygon, (min(xs), min(ys)), (max(xs), max(ys)))
 
-    def _place_scale_bar(self, polygon, xy):
-        """Put the scale bar under the drawing, whose points are ``xy`` (scene mm), and fit around both."""
+    def _place_scale_bar(self, polygon, low, high):
+        """Put the scale bar under the drawing, which spans ``low`` to ``high`` (scene mm), and fit around both."""
         scale = polygon.scale_per_mm
-        with_pole = np.vstack([xy, [0.0, 0.0]])
-        (low_x, low_y), (high_x, high_y) = with_pole.min(axis=0).tolist(), with_pole.max(axis=0).tolist()
+        (low_x, low_y), (high_x, high_y) = low, high
         margin = 8.0
         left, bottom = low_x, high_y + margin
         self.content_rect = QRectF(low_x - margin, low_y - margin, max(high_x - low_x, SCALE_BAR_MM) + 2 * margin,

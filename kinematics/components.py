@@ -63,7 +63,7 @@ def acceleration_components(construction: Construction) -> tuple:
     for step in construction.acceleration.steps:
         if step.component not in KINDS or not step.is_vector:
             continue
-        (x0, y0), (x1, y1) = step.geometry.coords
+        (x0, y0), (x1, y1) = step.coords
         point, link = step.points[0], step.links[0]
         found.append(RelativeComponent(
             point=point, about=step.about, component=step.component, link=link, vector=(x1 - x0, y1 - y0),

@@ -11,10 +11,10 @@ from __future__ import annotations
 import math
 from dataclasses import dataclass, field
 from enum import Enum
+from functools import cached_property
 
 import numpy as np
-import shapely
-from shapely.geometry import LineString
+from shapely.geometry import LineString, Point
 
 from .decompose import Decomposition, Group
 from .errors import ParallelLines
@@ -47,9 +47,10 @@ class Component(Enum):
 class Step:
     """One drawn step of a polygon.
 
-    ``geometry`` is a shapely Point (a located point) or LineString (a line
-    or a vector; a vector runs from its start to its end, which takes the
-    arrowhead). ``points`` and ``links`` name what the step concerns; a radial, tangential or
+    ``coords`` locates it in polygon units: ((x, y),) a point, ((x0, y0), (x1, y1)) a line or a
+    vector (from its start to its end, which takes the arrowhead); ``geometry`` is the same as a
+    shapely Point or LineString, made when first asked for (a drag frame draws from ``coords``
+    alone). ``points`` and ``links`` name what the step concerns; a radial, tangential or
     Coriolis vector names in ``about`` the point its point's motion is taken relative to (for a
     Coriolis component, the link that carries the slide).
     """
@@ -59,7 +60,7 @@ class Step:
     role: Role
     component: Component | None
     label: str
-    geometry: object
+    coords: tuple
     equation: str
     text: str
     points: tuple = ()
@@ -70,9 +71,13 @@ class Step:
     flagged: bool = False
     numeric: bool = False
 
+    @cached_property
+    def geometry(self):
+        return Point(self.coords[0]) if len(self.coords) == 1 else LineString(self.coords)
+
     @property
     def is_vector(self) -> bool:
-        return self.role in (Role.KNOWN, Role.RESULT) and isinstance(self.geometry, LineString)
+        return self.role in (Role.KNOWN, Role.RESULT) and len(self.coords) == 2
 
 
 @dataclass(frozen=True)
@@ -125,14 +130,14 @@ class PolygonBuilder:
     """Collects the steps of one polygon as the construction proceeds.
 
     Each step is held as its fields and its ends (one complex number for a located point, two
-    for a line or vector) until :meth:`finish` makes all the geometry in one go.
+    for a line or vector) until :meth:`finish` fits the construction lines to the polygon.
     """
 
     kind: str
     unit: str
     ground: frozenset = frozenset()
-    steps: list = field(default_factory=list)  # dicts of Step fields but the geometry
-    ends: list = field(default_factory=list)  # each step's ends (complex), for its geometry
+    steps: list = field(default_factory=list)  # dicts of Step fields but the coordinates
+    ends: list = field(default_factory=list)  # each step's ends (complex), for its coordinates
     marks: dict = field(default_factory=dict)
     lines: list = field(default_factory=list)  # (index in steps, through, direction, meet)
 
@@ -196,14 +201,5 @@ class PolygonBuilder:
                        images=images, marks=dict(self.marks), steps=self._made_steps())
 
     def _made_steps(self) -> tuple:
-        # Geometry made in two batches (points, segments): one at a time costs ten times as much.
-        located = {1: [], 2: []}
-        for index, ends in enumerate(self.ends):
-            located[len(ends)].append(index)
-        geometry = {}
-        for count, make in ((1, shapely.points), (2, shapely.linestrings)):
-            if located[count]:
-                xy = np.array([[as_xy(z) for z in self.ends[i]] for i in located[count]], dtype=float)
-                geometry.update(zip(located[count], make(xy[:, 0] if count == 1 else xy), strict=True))
-        return tuple(Step(**record, geometry=geometry[i])
-                     for i, record in enumerate(self.steps))
+        return tuple(Step(**record, coords=tuple((z.real, z.imag) for z in ends))
+                     for record, ends in zip(self.steps, self.ends, strict=True))
