@@ -202,13 +202,19 @@ def declutter(labels, mm_per_pixel: float, obstacles=()):
     for label, anchor, preferred, *gap in labels:
         gap = gap[0] if gap else Label.GAP_PIXELS
         at = (anchor.x(), anchor.y(), label.size[0] * mm_per_pixel, label.size[1] * mm_per_pixel)
+        # Only boxes that could touch one of this label's footprints matter (a few, of many); every
+        # footprint lies within gap + 1.25 × its larger side of the anchor (see Label.offset).
+        reach = 1.5 * max(at[2], at[3]) + 2.0 * gap * mm_per_pixel
+        near = (at[0] - reach, at[1] - reach, 2.0 * reach, 2.0 * reach)
+        near_placed = [other for other in placed if overlap(near, other)]
+        near_obstacles = [other for other in obstacles if overlap(near, other)]
         fallback = chosen = None
         for direction in (preferred, *_COMPASS):  # tried in order, until one is free of everything
             box = _footprint(label, at, direction, gap, mm_per_pixel)
-            if any(overlap(box, other) for other in placed):
+            if any(overlap(box, other) for other in near_placed):
                 continue
             fallback = fallback or (direction, box)
-            if not any(overlap(box, other) for other in obstacles):
+            if not any(overlap(box, other) for other in near_obstacles):
                 chosen = (direction, box)
                 break
         direction, box = chosen or fallback or (preferred, _footprint(label, at, preferred, gap, mm_per_pixel))

@@ -110,8 +110,9 @@ class ResultsModel(QStandardItemModel):
             self.layout_reset.emit()
             return
         # Only the cells whose words change are written and announced, so only they are repainted
-        # (a fixed pivot's row and the names stay as they are through a whole drag).
-        spans = []  # (row, first changed column, last), each row announced once
+        # (a fixed pivot's row and the names stay as they are through a whole drag). Neighbouring
+        # rows changed in the same columns are announced as one block (each announcement costs).
+        spans = []  # (first row, last row, first changed column, last)
         self.blockSignals(True)
         for r, (row, before) in enumerate(zip(cells, self.shown, strict=True)):
             columns = [column for column, (cell, old) in enumerate(zip(row, before, strict=True)) if cell != old]
@@ -120,12 +121,16 @@ class ResultsModel(QStandardItemModel):
                 item = self.item(r, column)
                 item.setText(text)
                 item.setData(value, Qt.ItemDataRole.UserRole)
-            if columns:
-                spans.append((r, columns[0], columns[-1]))
+            if not columns:
+                continue
+            if spans and spans[-1][1] == r - 1 and spans[-1][2:] == (columns[0], columns[-1]):
+                spans[-1] = (spans[-1][0], r, columns[0], columns[-1])
+            else:
+                spans.append((r, r, columns[0], columns[-1]))
         self.blockSignals(False)
         self.shown = cells
-        for r, first, last in spans:
-            self.dataChanged.emit(self.index(r, first), self.index(r, last))
+        for top, bottom, first, last in spans:
+            self.dataChanged.emit(self.index(top, first), self.index(bottom, last))
 
     def _scales(self, solution):
         """The largest speed, acceleration, ω and α of the pose: what "negligible" is measured against."""

@@ -176,8 +176,9 @@ class SpaceScene(QGraphicsScene):
     def show(self, mechanism, solution, sweep=None):
         """Draw ``mechanism`` in the pose of ``solution`` (its reference pose when None), with the
         paths of its coupler points over the cycle ``sweep`` (a :class:`kinematics.Sweep` or None)."""
+        # Each point's kind follows from these too.
         topology = (tuple(mechanism.points), tuple(mechanism.links.items()), mechanism.ground,
-                    tuple(mechanism.slides.values()), tuple(point_kind(mechanism, p) for p in mechanism.points))
+                    tuple(mechanism.slides.values()))
         if topology != self.topology:
             self.clear()
             self.links = {n: _Link(self, n, pts) for n, pts in mechanism.links.items()}
@@ -254,26 +255,29 @@ class SpaceScene(QGraphicsScene):
         label that would sit along one of its links is turned square to it.
         """
         at = self.positions_mm
-        side, units = QPointF(), []
+        x, y = at[name].x(), at[name].y()
+        side_x = side_y = 0.0
+        units = []  # unit vectors from the joint along each link meeting there (plain floats: QPointF sums cost more)
         for body in mechanism.bodies_of(name):
             for other in mechanism.body_points(body) if body != "ground" else ():
-                step = at[other] - at[name]
-                length = math.hypot(step.x(), step.y())
+                dx, dy = at[other].x() - x, at[other].y() - y
+                length = math.hypot(dx, dy)
                 if other != name and length > 0:
-                    units.append(step / length)
-                    side -= step / length
+                    units.append((dx / length, dy / length))
+                    side_x, side_y = side_x - dx / length, side_y - dy / length
         if name in mechanism.ground:
-            return QPointF(-1.0 if side.x() <= 0 else 1.0, -0.25)
-        if math.hypot(side.x(), side.y()) < 1e-6:
-            side = at[name] - self.centre()
-        length = math.hypot(side.x(), side.y())
+            return QPointF(-1.0 if side_x <= 0 else 1.0, -0.25)
+        if math.hypot(side_x, side_y) < 1e-6:
+            centre = self.centre()
+            side_x, side_y = x - centre.x(), y - centre.y()
+        length = math.hypot(side_x, side_y)
         if length < 1e-9:
             return QPointF(1.0, -1.0)
-        side /= length
-        for u in units:
-            if abs(side.x() * u.y() - side.y() * u.x()) < 0.3:
-                return QPointF(abs(u.y()), -u.x() if u.y() >= 0 else u.x())
-        return side
+        side_x, side_y = side_x / length, side_y / length
+        for ux, uy in units:
+            if abs(side_x * uy - side_y * ux) < 0.3:
+                return QPointF(abs(uy), -ux if uy >= 0 else ux)
+        return QPointF(side_x, side_y)
 
     def declutter(self, mm_per_pixel: float):
         """Place the joint labels clear of each other, the joints and the blocks (needs the view's

@@ -16,7 +16,7 @@ of the graphical construction.
 from __future__ import annotations
 
 from dataclasses import dataclass
-from functools import cached_property
+from functools import cached_property, lru_cache
 
 import numpy as np
 
@@ -79,20 +79,29 @@ class ConstraintSystem:
     @cached_property
     def selectors(self):
         """(m, 2, 2n) arrays: which coordinate each row's first and second difference moves."""
-        m, n = len(self.kind), len(self.names)
-        rows, k = np.arange(m)[:, None], np.arange(2)[None, :]
-        selected = []
-        for plus, minus in ((self.a, self.b), (self.c, self.d)):
-            chosen = np.zeros((m, 2, 2 * n))
-            np.add.at(chosen, (rows, k, 2 * plus[:, None] + k), 1.0)  # add.at: plus and minus may be one point
-            np.add.at(chosen, (rows, k, 2 * minus[:, None] + k), -1.0)
-            selected.append(chosen)
-        return tuple(selected)
+        return _selectors(len(self.names), tuple(self.a.tolist()), tuple(self.b.tolist()), tuple(self.c.tolist()),
+                          tuple(self.d.tolist()))
 
     def quadratic_term(self, xdot: np.ndarray) -> np.ndarray:
         """Second time derivative of the values at zero acceleration: 2·(u̇ ∘ v̇)."""
         return 2.0 * _product(self.kind, xdot[..., self.a, :] - xdot[..., self.b, :],
                               xdot[..., self.c, :] - xdot[..., self.d, :]) * self.weight
+
+
+@lru_cache(maxsize=64)
+def _selectors(n: int, a: tuple, b: tuple, c: tuple, d: tuple):
+    """The selectors of rows a, b, c, d over n points: they follow from the topology alone, so a
+    drag, which makes a new mechanism each frame, builds them once (the arrays are read-only)."""
+    m = len(a)
+    rows, k = np.arange(m)[:, None], np.arange(2)[None, :]
+    selected = []
+    for plus, minus in ((a, b), (c, d)):
+        chosen = np.zeros((m, 2, 2 * n))
+        np.add.at(chosen, (rows, k, 2 * np.array(plus, dtype=int).reshape(-1, 1) + k), 1.0)  # one point twice adds up
+        np.add.at(chosen, (rows, k, 2 * np.array(minus, dtype=int).reshape(-1, 1) + k), -1.0)
+        chosen.flags.writeable = False
+        selected.append(chosen)
+    return tuple(selected)
 
 
 def _product(kind, u, v):

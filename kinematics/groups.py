@@ -11,6 +11,7 @@ intermediate records returned here into drawn steps.
 
 from __future__ import annotations
 
+import math
 from dataclasses import dataclass, field
 
 import numpy as np
@@ -58,6 +59,9 @@ class Intersection:
     @property
     def condition(self):
         """Condition figure of the 2×2 solve with unit directions: √((1+|cos|)/(1−|cos|))."""
+        if np.ndim(self.sine) == 0:  # one pose (the drawn construction): plain floats are many times faster
+            c = math.sqrt(min(max(1.0 - float(self.sine) ** 2, 0.0), 1.0))
+            return math.sqrt((1.0 + c) / (1.0 - c)) if c < 1.0 else math.inf
         c = np.sqrt(np.clip(1.0 - self.sine ** 2, 0.0, 1.0))
         with np.errstate(divide="ignore"):
             return np.sqrt((1.0 + c) / np.maximum(1.0 - c, 0.0))
