@@ -113,40 +113,49 @@ def _product(kind, u, v):
 def build_system(mechanism: Mechanism) -> ConstraintSystem:
     """The constraint rows of the links and slides of ``mechanism``."""
     names = tuple(mechanism.points)
+    free, (kind, a, b, c, d), owner = _rows(names, tuple(mechanism.links.items()), tuple(mechanism.slides.values()),
+                                            mechanism.ground)
+    k_m = mechanism.metres_per_unit
+    x0 = np.array([mechanism.points[n] for n in names], dtype=float).reshape(-1, 2) * k_m
+    u, v = x0[a] - x0[b], x0[c] - x0[d]
+    dot = u[:, 0] * v[:, 0] + u[:, 1] * v[:, 1]
+    cross = u[:, 0] * v[:, 1] - u[:, 1] * v[:, 0]
+    k = np.where(kind == DOT, dot, cross)
+    # Scale each row to units of length so that the Jacobian's columns compare.
+    weight = 1.0 / np.maximum(np.hypot(u[:, 0], u[:, 1]), 1e-300)
+    pivot = point = -1
+    if mechanism.driver is not None:
+        pivot = names.index(mechanism.driver.pivot)
+        point = names.index(next(p for p in mechanism.links[mechanism.driver.link] if p != mechanism.driver.pivot))
+    return ConstraintSystem(names=names, x0=x0, free=free, kind=kind, a=a, b=b, c=c, d=d, k=k,
+                            weight=weight, owner=owner, driver_pivot=pivot, driver_point=point)
+
+
+@lru_cache(maxsize=64)
+def _rows(names: tuple, links: tuple, slides: tuple, ground: tuple):
+    """(free, (kind, a, b, c, d), owner) of a topology: which points move, and each constraint row's
+    kind, point indices and owning link or slide. They follow from the names alone, so a drag, which
+    makes a new mechanism each frame, works them out once (the arrays are read-only)."""
     index = {name: i for i, name in enumerate(names)}
-    x0 = np.array([mechanism.position_m(n) for n in names], dtype=float).reshape(-1, 2)
-    ground = set(mechanism.ground)
     free = np.array([n not in ground for n in names], dtype=bool)
     rows = []  # (kind, a, b, c, d, owner)
-    for link, pts in mechanism.links.items():
+    for link, pts in links:
         p1, p2 = index[pts[0]], index[pts[1]]
         rows.append((DOT, p2, p1, p2, p1, link))
         for p in pts[2:]:
             j = index[p]
             rows.append((DOT, p2, p1, j, p1, link))
             rows.append((CROSS, p2, p1, j, p1, link))
-    for slide in mechanism.slides.values():
+    for slide in slides:
         e, f = index[slide.line[0]], index[slide.line[1]]
         rows.append((CROSS, f, e, index[slide.point], e, slide.name))
     table = np.array([r[:5] for r in rows], dtype=int).reshape(-1, 5)
     # Rows that touch no moving point hold by themselves.
     moving = free[table[:, 1:]].any(axis=1)
-    rows, table = [r for r, keep in zip(rows, moving.tolist(), strict=True) if keep], table[moving]
-    kind, a, b, c, d = table.T
-    u, v = x0[a] - x0[b], x0[c] - x0[d]
-    dot = np.einsum("ij,ij->i", u, v) if rows else np.zeros(0)
-    cross = (u[:, 0] * v[:, 1] - u[:, 1] * v[:, 0]) if rows else np.zeros(0)
-    k = np.where(kind == DOT, dot, cross)
-    # Scale each row to units of length so that the Jacobian's columns compare.
-    scale = np.maximum(np.hypot(u[:, 0], u[:, 1]), 1e-300) if rows else np.zeros(0)
-    weight = 1.0 / scale
-    pivot = point = -1
-    if mechanism.driver is not None:
-        pivot = index[mechanism.driver.pivot]
-        point = index[next(p for p in mechanism.links[mechanism.driver.link] if p != mechanism.driver.pivot)]
-    return ConstraintSystem(names=names, x0=x0, free=free, kind=kind, a=a, b=b, c=c, d=d, k=k,
-                            weight=weight, owner=tuple(r[5] for r in rows),
-                            driver_pivot=pivot, driver_point=point)
+    table = np.ascontiguousarray(table[moving].T)
+    for array in (free, table):
+        array.flags.writeable = False
+    return free, tuple(table), tuple(r[5] for r, keep in zip(rows, moving.tolist(), strict=True) if keep)
 
 
 def constraint_system(mechanism: Mechanism) -> ConstraintSystem:
