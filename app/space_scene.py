@@ -211,6 +211,9 @@ class SpaceScene(QGraphicsScene):
         item = QGraphicsPathItem()
         item.setPen(qpen(SPACE_PATH, 1.6))
         item.setZValue(0.2)
+        # A path of a whole cycle stays put while the driver turns: drawn once into a pixmap, not
+        # stroked again at every repaint of the links moving over it.
+        item.setCacheMode(QGraphicsItem.CacheMode.DeviceCoordinateCache)
         self.addItem(item)
         return item
 

@@ -184,6 +184,8 @@ class SpaceView(DrawingView):
 
     def __init__(self, scene, parent=None):
         super().__init__(scene, parent)
+        # One rectangle round all that moved: a region of many small ones is slower to paint through.
+        self.setViewportUpdateMode(QGraphicsView.ViewportUpdateMode.BoundingRectViewportUpdate)
         self.setMouseTracking(True)
         self.dragging = None
         self._hover = None
