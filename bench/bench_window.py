@@ -146,7 +146,7 @@ def main(argv=None) -> int:
     parser = argparse.ArgumentParser(description=__doc__.split("\n\n")[0])
     parser.add_argument("file", nargs="?", default=str(DEFAULT_FILE))
     parser.add_argument("--frames", type=int, default=240)
-    parser.add_argument("--rounds", type=int, default=3)
+    parser.add_argument("--rounds", type=int, default=5)
     parser.add_argument("--memory-minutes", type=float, default=2.0,
                         help="minutes of dragging for the memory figures (0: skip)")
     options = parser.parse_args(argv)
