@@ -40,6 +40,7 @@ def _polygon_json(polygon) -> dict:
             "marks": {k: list(v) for k, v in polygon.marks.items()},
             "steps": [{"id": s.id, "role": s.role.value, "component": s.component.value if s.component else None,
                        "label": s.label, "equation": s.equation, "text": s.text, "geometry": s.geometry.wkt,
+                       "about": s.about,
                        "condition": s.condition, "flagged": s.flagged, "numeric": s.numeric}
                       for s in polygon.steps]}
 

@@ -46,7 +46,6 @@ class RelativeComponent:
         whose = f"{self.link}'s point at {self.point}" if self.carried else self.point
         return f"{whose} rel. {self.about}"
 
-
     @property
     def title(self) -> str:
         """A table row's title: "radial B rel. A (coupler)", "Coriolis D sliding on arm"."""

@@ -60,7 +60,10 @@ class Intersection:
     def condition(self):
         """Condition figure of the 2×2 solve with unit directions: √((1+|cos|)/(1−|cos|))."""
         if np.ndim(self.sine) == 0:  # one pose (the drawn construction): plain floats are many times faster
-            c = math.sqrt(min(max(1.0 - float(self.sine) ** 2, 0.0), 1.0))
+            s = float(self.sine)
+            if math.isnan(s):
+                return math.nan
+            c = math.sqrt(min(max(1.0 - s * s, 0.0), 1.0))  # s * s, as numpy squares: the same last digit
             return math.sqrt((1.0 + c) / (1.0 - c)) if c < 1.0 else math.inf
         c = np.sqrt(np.clip(1.0 - self.sine ** 2, 0.0, 1.0))
         with np.errstate(divide="ignore"):

@@ -63,8 +63,12 @@ def construction_text(construction: Construction) -> str:
     components = acceleration_components(construction)
     if components:
         lines.append(f"{'acceleration components':<40}{'|a| [m/s²]':>12}{'dir [°]':>9}")
+        # A component at the solver's rounding (1e-9 of the pose's largest acceleration) has no direction.
+        largest = max((math.hypot(*a) for a in construction.solution.accelerations.tolist()), default=0.0)
         for c in components:
-            lines.append(f"  {c.title:<38}{c.magnitude:>12.4f}{direction_deg(*c.vector):>9.1f}")
+            zero = c.magnitude <= 1e-9 * largest
+            lines.append(f"  {c.title:<38}{0.0 if zero else c.magnitude:>12.4f}"
+                         f"{'—' if zero else format(direction_deg(*c.vector), '.1f'):>9}")
         lines.append("")
     lines.append(f"cross-check against the numeric solver: largest relative difference "
                  f"{construction.max_relative_difference:.2e} at {construction.where}")

@@ -62,7 +62,7 @@ def test_slide_rows_show_the_sliding_rates(make_window):
     assert cell(window, row, 2)[1] == "+ = E→F"
 
 
-@pytest.mark.parametrize("length_unit, metres", [("mm", 1e-3), ("in", 0.0254)])
+@pytest.mark.parametrize("length_unit, metres", [("mm", 1e-3), ("m", 1.0), ("in", 0.0254)])
 def test_component_rows_show_the_polygons_radial_tangential_and_coriolis_vectors(make_window, length_unit, metres):
     window = make_window(SWING_LEVER)
     window.turn_driver(65.0)

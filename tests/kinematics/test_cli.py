@@ -41,7 +41,7 @@ def test_readable_table_and_construction_words():
     steps = {s["id"]: s for s in data["acceleration"]["steps"]}
     coriolis = next(c for c in data["acceleration_components"] if c["component"] == "coriolis")
     assert (coriolis["point"], coriolis["about"]) == ("A", "lever")
-    assert steps[coriolis["step"]]["component"] == "coriolis"
+    assert (steps[coriolis["step"]]["component"], steps[coriolis["step"]]["about"]) == ("coriolis", "lever")
     assert "Coriolis component" in words.stdout and "Coriolis A sliding on lever" in words.stdout
 
 
