@@ -9,7 +9,7 @@ the DXF writer draw from these; :mod:`kinematics.construct` builds them.
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass, field
+from dataclasses import dataclass, field, replace
 from enum import Enum
 from functools import cached_property
 
@@ -129,15 +129,14 @@ def direction_deg(z) -> float:
 class PolygonBuilder:
     """Collects the steps of one polygon as the construction proceeds.
 
-    Each step is held as its fields and its ends (one complex number for a located point, two
-    for a line or vector) until :meth:`finish` fits the construction lines to the polygon.
+    A construction line is made as a point and given its length by :meth:`finish`, which fits
+    it to the finished polygon.
     """
 
     kind: str
     unit: str
     ground: frozenset = frozenset()
-    steps: list = field(default_factory=list)  # dicts of Step fields but the coordinates
-    ends: list = field(default_factory=list)  # each step's ends (complex), for its coordinates
+    steps: list = field(default_factory=list)  # the Steps so far
     marks: dict = field(default_factory=dict)
     lines: list = field(default_factory=list)  # (index in steps, through, direction, meet)
 
@@ -151,9 +150,10 @@ class PolygonBuilder:
 
     def add(self, role, component, label, ends, equation, text, **extra):
         """A step located by ``ends``: (z,) a point, (z0, z1) a line or a vector from z0 to z1."""
-        self.steps.append(dict(id=f"{self.kind[0]}{len(self.steps) + 1}", polygon=self.kind, role=role,
-                               component=component, label=label, equation=equation, text=text, **extra))
-        self.ends.append(tuple(complex(z) for z in ends))
+        coords = tuple((float(z.real), float(z.imag)) for z in ends)
+        self.steps.append(Step(id=f"{self.kind[0]}{len(self.steps) + 1}", polygon=self.kind, role=role,
+                               component=component, label=label, coords=coords, equation=equation, text=text,
+                               **extra))
 
     def vector(self, component, start, end, label, equation, text, role=Role.KNOWN, **extra):
         self.add(role, component, label, (start, end), equation, text, **extra)
@@ -194,12 +194,9 @@ class PolygonBuilder:
             ends = [through] + [complex(m) for m in meet]
             u = direction / abs(direction)
             along = [((e - through) * u.conjugate()).real for e in ends]
-            self.ends[index] = (through + (min(along) - margin) * u, through + (max(along) + margin) * u)
+            first, last = through + (min(along) - margin) * u, through + (max(along) + margin) * u
+            self.steps[index] = replace(self.steps[index], coords=((first.real, first.imag), (last.real, last.imag)))
         width = 2.0 * max(max(abs(x) for x, _ in everything), max(abs(y) for _, y in everything))
         chosen = scale if scale else preferred_scale(max(width, extent), box_mm)
         return Polygon(kind=self.kind, unit=self.unit, pole_label="o" + self.prime, scale_per_mm=chosen,
-                       images=images, marks=dict(self.marks), steps=self._made_steps())
-
-    def _made_steps(self) -> tuple:
-        return tuple(Step(**record, coords=tuple((z.real, z.imag) for z in ends))
-                     for record, ends in zip(self.steps, self.ends, strict=True))
+                       images=images, marks=dict(self.marks), steps=tuple(self.steps))
