@@ -52,9 +52,9 @@ def label_font(pixels: int = LABEL_PIXELS, bold: bool = False) -> QFont:
     return font
 
 
-def arrowhead(start: QPointF, end: QPointF) -> QPolygonF:
-    """The filled arrowhead at ``end`` of a vector from ``start`` (scene mm); empty for a null vector."""
-    dx, dy = end.x() - start.x(), end.y() - start.y()
+def arrowhead(start: tuple, end: tuple) -> QPolygonF:
+    """The filled arrowhead at ``end`` of a vector from ``start`` (scene mm, (x, y)); empty for a null vector."""
+    dx, dy = end[0] - start[0], end[1] - start[1]
     length = math.hypot(dx, dy)
     if length < 1e-9:
         return QPolygonF()
@@ -62,9 +62,9 @@ def arrowhead(start: QPointF, end: QPointF) -> QPolygonF:
     head = min(ARROW_LENGTH_MM, 0.5 * length)
     ux, uy = dx / length, dy / length
     half = 0.5 * ARROW_WIDTH_MM * head / ARROW_LENGTH_MM
-    base = QPointF(end.x() - ux * head, end.y() - uy * head)
-    return QPolygonF([end, QPointF(base.x() - uy * half, base.y() + ux * half),
-                      QPointF(base.x() + uy * half, base.y() - ux * half)])
+    base_x, base_y = end[0] - ux * head, end[1] - uy * head
+    return QPolygonF([QPointF(*end), QPointF(base_x - uy * half, base_y + ux * half),
+                      QPointF(base_x + uy * half, base_y - ux * half)])
 
 
 def hatch_path(size: float) -> QPainterPath:
@@ -147,16 +147,23 @@ class ScaleBar:
             line.setZValue(9)
             scene.addItem(line)
         self.label = Label(scene, "", pen.colour, pixels=12)
+        self._placed = None  # the last place() arguments
+        self._visible = None
 
     def items(self):
         return [*self.lines, self.label.anchor]
 
     def set_visible(self, on: bool):
-        for item in self.items():
-            item.setVisible(on)
+        if on != self._visible:
+            self._visible = on
+            for item in self.items():
+                item.setVisible(on)
 
     def place(self, left: QPointF, length: float, tick: float, text: str):
         x, y = left.x(), left.y()
+        if (x, y, length, tick, text) == self._placed:
+            return  # as it is (a driver turn leaves the space diagram's bar where it was)
+        self._placed = (x, y, length, tick, text)
         self.lines[0].setLine(x, y, x + length, y)
         for line, at in zip(self.lines[1:], (0.0, 0.5 * length, length), strict=True):
             line.setLine(x + at, y - tick, x + at, y + tick)

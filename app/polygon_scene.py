@@ -8,7 +8,7 @@ m/s²) sits at c / scale_per_mm.
 
 from __future__ import annotations
 
-from PySide6.QtCore import QLineF, QPointF, QRectF, Qt
+from PySide6.QtCore import QPointF, QRectF, Qt
 from PySide6.QtGui import QBrush, QColor, QPen, QPolygonF
 from PySide6.QtWidgets import (
     QGraphicsEllipseItem,
@@ -79,24 +79,25 @@ class _StepItems:
             self.dot.setPen(qpen(self.pen, 0.7))
             self.dot.setBrush(brush(self.pen) if not on else QBrush(QColor(HOVER_COLOUR)))
 
-    def update(self, step, coords: list):
-        """Move the items to ``step``, whose geometry is at ``coords`` (scene QPointFs)."""
+    def update(self, step, ends: list):
+        """Move the items to ``step``, whose ends are ``ends`` (scene mm, (x, y) tuples)."""
+        tip = ends[-1]
         if self.dot is not None:
-            self.dot.setPos(coords[0])
-            tip, away = coords[0], coords[0]
+            self.dot.setPos(*tip)
+            away = tip
         else:
-            self.line.setLine(QLineF(coords[0], coords[-1]))
+            (x0, y0), (x1, y1) = ends
+            self.line.setLine(x0, y0, x1, y1)
             if self.head is not None:
-                head = arrowhead(coords[0], coords[-1])
+                head = arrowhead(ends[0], tip)
                 self.head.setPolygon(head)
                 box = head.boundingRect()
                 self.head_box = (box.x(), box.y(), box.width(), box.height())
-            tip, away = coords[-1], coords[-1] - coords[0]
+            away = (x1 - x0, y1 - y0)
         if self.label is not None:
             # Placed by the scene's declutter, which knows the zoom.
             self.label.set_text(step.label)
-            dx, dy = (away.x(), away.y()) if (away.x() or away.y()) else (-1.0, -1.0)
-            self.label_at = (tip, (dx, dy))
+            self.label_at = (QPointF(*tip), away if away[0] or away[1] else (-1.0, -1.0))
 
 
 class PolygonScene(QGraphicsScene):
@@ -163,7 +164,7 @@ class PolygonScene(QGraphicsScene):
             ends = [(x / scale, -y / scale) for x, y in step.coords]  # y down
             xs += [x for x, _ in ends]
             ys += [y for _, y in ends]
-            self.step_items[step.id].update(step, [QPointF(x, y) for x, y in ends])
+            self.step_items[step.id].update(step, ends)
         for name, figure in self.figures.items():
             figure.setPolygon(QPolygonF([scene_xy(*(c / scale for c in polygon.images[p])) for p in plates[name]]))
         self._place_scale_bar(polygon, (min(xs), min(ys)), (max(xs), max(ys)))
