@@ -82,7 +82,28 @@ def decompose(mech: Mechanism) -> Decomposition:
     return remembered(mech, "decomposition", lambda: _decompose(mech))
 
 
+# Topology -> the groups without their branch signs. A drag makes a new mechanism each frame with
+# the same links: the order is found once, the branches read off each pose.
+_ORDERS: dict = {}
+_ORDERS_KEPT = 64
+
+
 def _decompose(mech: Mechanism) -> Decomposition:
+    key = (tuple(mech.links.items()), tuple(mech.slides.values()), mech.ground, mech.driver.link)
+    order = _ORDERS.get(key)
+    if order is None:
+        if len(_ORDERS) >= _ORDERS_KEPT:
+            _ORDERS.clear()
+        order = _ORDERS[key] = _order(mech)
+    groups = tuple(Group(form=form, links=links, roles=dict(roles), slide=slide,
+                         sign=_branch_sign(mech, form, dict(roles), mech.slides[slide] if slide else None)
+                         if form != "numeric" else 1.0)
+                   for form, links, roles, slide in order)
+    return Decomposition(driver_link=mech.driver.link, groups=groups)
+
+
+def _order(mech: Mechanism) -> tuple:
+    """(form, links, roles as pairs, slide name or None) of each group, in the order they are solved."""
     driver = mech.driver.link
     known_bodies = {GROUND, driver}
     known_points = set(mech.ground) | set(mech.links[driver])
@@ -100,9 +121,7 @@ def _decompose(mech: Mechanism) -> Decomposition:
         return on_guide, slots
 
     def settle(form, links, roles, slide=None):
-        groups.append(Group(form=form, links=tuple(links), roles=roles,
-                            slide=slide.name if slide else None,
-                            sign=_branch_sign(mech, form, roles, slide) if form != "numeric" else 1.0))
+        groups.append((form, tuple(links), tuple(roles.items()), slide.name if slide else None))
         for link in links:
             unknown.remove(link)
             known_bodies.add(link)
@@ -140,4 +159,4 @@ def _decompose(mech: Mechanism) -> Decomposition:
                     break
         if not found:
             settle("numeric", list(unknown), {})
-    return Decomposition(driver_link=driver, groups=tuple(groups))
+    return tuple(groups)

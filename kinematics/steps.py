@@ -9,7 +9,7 @@ the DXF writer draw from these; :mod:`kinematics.construct` builds them.
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass, field, replace
+from dataclasses import dataclass, field
 from enum import Enum
 from functools import cached_property
 
@@ -129,16 +129,15 @@ def direction_deg(z) -> float:
 class PolygonBuilder:
     """Collects the steps of one polygon as the construction proceeds.
 
-    A construction line is made as a point and given its length by :meth:`finish`, which fits
-    it to the finished polygon.
+    A construction line's Step is made by :meth:`finish`, which fits the line to the finished polygon.
     """
 
     kind: str
     unit: str
     ground: frozenset = frozenset()
-    steps: list = field(default_factory=list)  # the Steps so far
+    steps: list = field(default_factory=list)  # the Steps so far (None where a construction line will go)
     marks: dict = field(default_factory=dict)
-    lines: list = field(default_factory=list)  # (index in steps, through, direction, meet)
+    lines: list = field(default_factory=list)  # (index in steps, its Step's fields, through, direction, meet)
 
     @property
     def prime(self):
@@ -149,11 +148,13 @@ class PolygonBuilder:
         return ("o" if point in self.ground else point.lower()) + self.prime
 
     def add(self, role, component, label, ends, equation, text, **extra):
-        """A step located by ``ends``: (z,) a point, (z0, z1) a line or a vector from z0 to z1."""
+        """A step located by ``ends``: (z,) a point, (z0, z1) a vector from z0 to z1."""
         coords = tuple((float(z.real), float(z.imag)) for z in ends)
-        self.steps.append(Step(id=f"{self.kind[0]}{len(self.steps) + 1}", polygon=self.kind, role=role,
-                               component=component, label=label, coords=coords, equation=equation, text=text,
-                               **extra))
+        self.steps.append(Step(**self._fields(role, component, label, equation, text), coords=coords, **extra))
+
+    def _fields(self, role, component, label, equation, text) -> dict:
+        return dict(id=f"{self.kind[0]}{len(self.steps) + 1}", polygon=self.kind, role=role, component=component,
+                    label=label, equation=equation, text=text)
 
     def vector(self, component, start, end, label, equation, text, role=Role.KNOWN, **extra):
         self.add(role, component, label, (start, end), equation, text, **extra)
@@ -165,9 +166,10 @@ class PolygonBuilder:
         return label
 
     def direction(self, component, through, direction, equation, text, **extra):
-        self.lines.append((len(self.steps), complex(through), complex(direction)))
         # The segment is fitted to the finished polygon in finish().
-        self.add(Role.DIRECTION, component, "", (through, through), equation, text, **extra)
+        fields = {**self._fields(Role.DIRECTION, component, "", equation, text), **extra}
+        self.lines.append((len(self.steps), fields, complex(through), complex(direction)))
+        self.steps.append(None)
 
     def intersection(self, meet, label, what, group: Group, **extra):
         point = complex(meet.point)
@@ -190,12 +192,12 @@ class PolygonBuilder:
         everything = list(images.values()) + list(self.marks.values()) + [(0.0, 0.0)]
         extent = max(math.hypot(*xy) for xy in everything)
         margin = 0.12 * max(extent, 1e-12)
-        for index, through, direction, *meet in self.lines:
+        for index, fields, through, direction, *meet in self.lines:
             ends = [through] + [complex(m) for m in meet]
             u = direction / abs(direction)
             along = [((e - through) * u.conjugate()).real for e in ends]
             first, last = through + (min(along) - margin) * u, through + (max(along) + margin) * u
-            self.steps[index] = replace(self.steps[index], coords=((first.real, first.imag), (last.real, last.imag)))
+            self.steps[index] = Step(**fields, coords=((first.real, first.imag), (last.real, last.imag)))
         width = 2.0 * max(max(abs(x) for x, _ in everything), max(abs(y) for _, y in everything))
         chosen = scale if scale else preferred_scale(max(width, extent), box_mm)
         return Polygon(kind=self.kind, unit=self.unit, pole_label="o" + self.prime, scale_per_mm=chosen,
