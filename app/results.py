@@ -12,7 +12,6 @@ from __future__ import annotations
 
 import math
 
-import numpy as np
 from PySide6.QtCore import Qt, Signal
 from PySide6.QtGui import QStandardItem, QStandardItemModel
 from PySide6.QtWidgets import QAbstractItemView, QHeaderView, QTableView
@@ -87,10 +86,10 @@ class ResultsModel(QStandardItemModel):
             rows = ([("point", p) for p in mech.points] + [("link", n) for n in mech.links]
                     + [("slide", n) for n in mech.slides] + [("component", key) for key in self._components])
         if solution is not None:
-            self._scales(solution)
             # Plain floats, read once: numpy scalars one at a time cost more than the formatting.
             self._v = dict(zip(solution.point_names, solution.velocities.tolist(), strict=True))
             self._a = dict(zip(solution.point_names, solution.accelerations.tolist(), strict=True))
+            self._scales(solution)
         cells = [getattr(self, f"_{kind}_cells")(name, solution) for kind, name in rows]
         if tuple(rows) != self.layout_key:
             self.setRowCount(0)
@@ -135,21 +134,25 @@ class ResultsModel(QStandardItemModel):
     def _scales(self, solution):
         """The largest speed, acceleration, ω and α of the pose: what "negligible" is measured against."""
         self.scale = {
-            "v": float(np.max(np.hypot(*solution.velocities.T), initial=0.0)),
-            "a": float(np.max(np.hypot(*solution.accelerations.T), initial=0.0)),
+            "v": max((math.hypot(*v) for v in self._v.values()), default=0.0),
+            "a": max((math.hypot(*a) for a in self._a.values()), default=0.0),
             "omega": max((abs(w) for w in solution.angular_velocity.values()), default=0.0),
         }
         # α is compared with ω² too: at constant speed every α may be solver noise alone.
         self.scale["alpha"] = max([abs(x) for x in solution.angular_acceleration.values()]
                                   + [self.scale["omega"] ** 2], default=0.0)
 
+    def _vector_cells(self, xy, kind: str) -> tuple:
+        """The size and direction cells of a velocity ("v") or acceleration ("a") vector (x, y) in SI."""
+        limit = NEGLIGIBLE * self.scale[kind]
+        x, y = (0.0 if abs(c) < limit else c for c in xy)
+        size = (self.length.velocity if kind == "v" else self.length.acceleration)(math.hypot(x, y))
+        direction = direction_deg(x, y)
+        return (_number(size), size), (_angle(direction), direction)
+
     def _point_cells(self, name, solution):
-        v = [_clean(c, self.scale["v"]) for c in self._v[name]]
-        a = [_clean(c, self.scale["a"]) for c in self._a[name]]
-        speed = self.length.velocity(math.hypot(*v))
-        accel = self.length.acceleration(math.hypot(*a))
-        return [(f"point {name}", None), (_number(speed), speed), (_angle(direction_deg(*v)), direction_deg(*v)),
-                (_number(accel), accel), (_angle(direction_deg(*a)), direction_deg(*a))]
+        return [(f"point {name}", None), *self._vector_cells(self._v[name], "v"),
+                *self._vector_cells(self._a[name], "a")]
 
     def _link_cells(self, name, solution):
         omega = _clean(float(solution.angular_velocity[name]), self.scale["omega"])
@@ -168,10 +171,7 @@ class ResultsModel(QStandardItemModel):
 
     def _component_cells(self, key, solution):
         part = self._components[key]
-        a = [_clean(c, self.scale["a"]) for c in part.vector]
-        accel = self.length.acceleration(math.hypot(*a))
-        return [(part.title, None), ("", None), ("", None),
-                (_number(accel), accel), (_angle(direction_deg(*a)), direction_deg(*a))]
+        return [(part.title, None), ("", None), ("", None), *self._vector_cells(part.vector, "a")]
 
 
 class ResultsTable(QTableView):
