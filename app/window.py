@@ -310,6 +310,7 @@ class MainWindow(SheetOutputs, QMainWindow):
     def begin_drag(self, name: str, at_mm: tuple):
         self.angle.stop()
         self.drag = JointDrag(self.document, name, at_mm, self.grid_mm())
+        self.properties.show_point(name)  # a joint pressed in the space diagram is the one the Design tab shows
         self.say(self.drag.message)
 
     def continue_drag(self, at_mm: tuple):

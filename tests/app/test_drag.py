@@ -8,7 +8,7 @@ from PySide6.QtCore import QPointF, Qt
 from PySide6.QtTest import QTest
 
 from tests import CASE_FACTOR
-from tests.designs import CARTON_PUSHER, CLAW_FEED, SWING_LEVER
+from tests.designs import CARTON_PUSHER, CLAW_FEED, SWING_LEVER, load
 
 
 def joint_scene_pos(window, name) -> QPointF:
@@ -138,3 +138,18 @@ def test_random_drags_never_fail(make_window, design):
     while doc.undo_stack.canUndo():
         doc.undo_stack.undo()
     assert dict(doc.mechanism.points) == start
+
+
+def test_a_joint_clicked_in_the_space_diagram_is_the_one_the_design_tab_shows(make_window):
+    window = make_window(CLAW_FEED)
+    view = window.drawings.space_view
+    at = view.mapFromScene(joint_scene_pos(window, "P"))
+    QTest.mouseClick(view.viewport(), Qt.LeftButton, Qt.NoModifier, at)
+    panel = window.properties
+    assert panel.point.currentText() == "P"
+    x, y = window.document.mechanism.points["P"]
+    assert (panel.x.value(), panel.y.value()) == (pytest.approx(x), pytest.approx(y))
+    assert window.document.mechanism.points == load(CLAW_FEED).points  # a click edits nothing
+    drag(window, "B", [(4.0, 2.0)])
+    assert panel.point.currentText() == "B"
+    assert panel.x.value() == pytest.approx(window.document.mechanism.points["B"][0], abs=1e-3)
