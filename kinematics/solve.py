@@ -141,17 +141,20 @@ def newton_tolerance(system: ConstraintSystem) -> float:
 
 def _newton(driven: _Driven, q, theta, tolerance):
     """Newton-Raphson from q (..., k); None where any pose of the batch fails to converge."""
+    x = driven.full(q)
+    residual = driven.residual(x, theta)
     for _ in range(NEWTON_ITERATIONS):
-        x = driven.full(q)
         try:
-            step = np.linalg.solve(driven.jacobian(x, theta), -driven.residual(x, theta)[..., None])[..., 0]
+            step = np.linalg.solve(driven.jacobian(x, theta), -residual[..., None])[..., 0]
         except np.linalg.LinAlgError:
             return None
         q = q + step
-        residual = np.max(np.abs(driven.residual(driven.full(q), theta)))
-        if not np.isfinite(residual):
+        x = driven.full(q)
+        residual = driven.residual(x, theta)  # checked here, and the next step's right-hand side
+        worst = np.max(np.abs(residual))
+        if not np.isfinite(worst):
             return None
-        if residual < tolerance:
+        if worst < tolerance:
             return q
     return None
 
