@@ -19,6 +19,7 @@ forms of each group live in :mod:`kinematics.groups`.
 from __future__ import annotations
 
 from dataclasses import dataclass
+from functools import lru_cache
 
 from .memo import remembered
 from .model import GROUND, Mechanism
@@ -82,19 +83,8 @@ def decompose(mech: Mechanism) -> Decomposition:
     return remembered(mech, "decomposition", lambda: _decompose(mech))
 
 
-# Topology -> the groups without their branch signs. A drag makes a new mechanism each frame with
-# the same links: the order is found once, the branches read off each pose.
-_ORDERS: dict = {}
-_ORDERS_KEPT = 64
-
-
 def _decompose(mech: Mechanism) -> Decomposition:
-    key = (tuple(mech.links.items()), tuple(mech.slides.values()), mech.ground, mech.driver.link)
-    order = _ORDERS.get(key)
-    if order is None:
-        if len(_ORDERS) >= _ORDERS_KEPT:
-            _ORDERS.clear()
-        order = _ORDERS[key] = _order(mech)
+    order = _order(tuple(mech.links.items()), tuple(mech.slides.values()), mech.ground, mech.driver.link)
     groups = tuple(Group(form=form, links=links, roles=dict(roles), slide=slide,
                          sign=_branch_sign(mech, form, dict(roles), mech.slides[slide] if slide else None)
                          if form != "numeric" else 1.0)
@@ -102,22 +92,26 @@ def _decompose(mech: Mechanism) -> Decomposition:
     return Decomposition(driver_link=mech.driver.link, groups=groups)
 
 
-def _order(mech: Mechanism) -> tuple:
-    """(form, links, roles as pairs, slide name or None) of each group, in the order they are solved."""
-    driver = mech.driver.link
+@lru_cache(maxsize=64)
+def _order(link_items: tuple, slides: tuple, ground: tuple, driver: str) -> tuple:
+    """(form, links, roles as pairs, slide name or None) of each group, in the order they are solved.
+
+    It follows from the topology alone, so a drag, which makes a new mechanism each frame with the
+    same links, finds it once; the branch signs are read off each mechanism's pose."""
+    points_of = dict(link_items)  # link -> its points
     known_bodies = {GROUND, driver}
-    known_points = set(mech.ground) | set(mech.links[driver])
-    unknown = [name for name in mech.links if name != driver]
+    known_points = set(ground) | set(points_of[driver])
+    unknown = [name for name in points_of if name != driver]
     groups = []
 
     def known_pins(link):
-        return [p for p in mech.links[link] if p in known_points]
+        return [p for p in points_of[link] if p in known_points]
 
     def pending(link):
         """Slides that tie ``link`` to what is known: (point-on-known-guide, slot-over-known)."""
-        on_guide = [s for s in mech.slides.values()
-                    if s.point in mech.links[link] and s.point not in known_points and s.guide in known_bodies]
-        slots = [s for s in mech.slides.values() if s.guide == link and s.point in known_points]
+        on_guide = [s for s in slides
+                    if s.point in points_of[link] and s.point not in known_points and s.guide in known_bodies]
+        slots = [s for s in slides if s.guide == link and s.point in known_points]
         return on_guide, slots
 
     def settle(form, links, roles, slide=None):
@@ -125,7 +119,7 @@ def _order(mech: Mechanism) -> tuple:
         for link in links:
             unknown.remove(link)
             known_bodies.add(link)
-            known_points.update(mech.links[link])
+            known_points.update(points_of[link])
 
     while unknown:
         found = False
@@ -147,13 +141,13 @@ def _order(mech: Mechanism) -> tuple:
                 break
             for second in unknown[i + 1:]:
                 pins1, pins2 = known_pins(first), known_pins(second)
-                shared = [p for p in mech.links[first] if p in mech.links[second]]
-                joined = set(mech.links[first]) | set(mech.links[second])
+                shared = [p for p in points_of[first] if p in points_of[second]]
+                joined = set(points_of[first]) | set(points_of[second])
                 if (len(pins1) == 1 and len(pins2) == 1 and pins1 != pins2 and len(shared) == 1
                         and shared[0] not in known_points
                         and not any(pending(x)[0] or pending(x)[1] for x in (first, second))
                         and not any(s.guide in (first, second) and s.point in joined
-                                    for s in mech.slides.values())):
+                                    for s in slides)):
                     settle("RRR", [first, second], {"A": pins1[0], "B": shared[0], "C": pins2[0]})
                     found = True
                     break
