@@ -212,11 +212,9 @@ def declutter(labels, mm_per_pixel: float, obstacles=()):
         # Only boxes that could touch one of this label's footprints matter (a few, of many); every
         # footprint lies within gap + 1.25 × its larger side of the anchor (see Label.offset).
         reach = 1.5 * max(at[2], at[3]) + 2.0 * gap * mm_per_pixel
-        left, top, right, bottom = at[0] - reach, at[1] - reach, at[0] + reach, at[1] + reach
-        # overlap() written out: this test runs for every label against every box, each frame of a drag.
-        near_placed = [o for o in placed if left < o[0] + o[2] and o[0] < right and top < o[1] + o[3] and o[1] < bottom]
-        near_obstacles = [o for o in obstacles
-                          if left < o[0] + o[2] and o[0] < right and top < o[1] + o[3] and o[1] < bottom]
+        near = (at[0] - reach, at[1] - reach, 2.0 * reach, 2.0 * reach)
+        near_placed = [other for other in placed if overlap(near, other)]
+        near_obstacles = [other for other in obstacles if overlap(near, other)]
         fallback = chosen = None
         for direction in (preferred, *_COMPASS):  # tried in order, until one is free of everything
             box = _footprint(label, at, direction, gap, mm_per_pixel)

@@ -17,13 +17,9 @@ from PySide6.QtGui import QStandardItem, QStandardItemModel
 from PySide6.QtWidgets import QAbstractItemView, QHeaderView, QTableView
 
 from kinematics import acceleration_components
+from kinematics.report_text import NEGLIGIBLE
 
 from .display_units import LENGTH_SYSTEMS, angular_speed, direction_deg, sense
-
-# Below this fraction of the pose's largest value of its kind a number is the solver's rounding
-# (its residuals are near 1e-13 relative), far below anything a drawing or a bearing cares
-# about: it is shown as 0, so a crank at constant speed reads α 0, not 1.8e-13 CW.
-NEGLIGIBLE = 1e-9
 
 
 def _clean(value: float, scale: float) -> float:
@@ -144,8 +140,7 @@ class ResultsModel(QStandardItemModel):
 
     def _vector_cells(self, xy, kind: str) -> tuple:
         """The size and direction cells of a velocity ("v") or acceleration ("a") vector (x, y) in SI."""
-        limit = NEGLIGIBLE * self.scale[kind]
-        x, y = (0.0 if abs(c) < limit else c for c in xy)
+        x, y = (_clean(c, self.scale[kind]) for c in xy)
         size = (self.length.velocity if kind == "v" else self.length.acceleration)(math.hypot(x, y))
         direction = direction_deg(x, y)
         return (_number(size), size), (_angle(direction), direction)

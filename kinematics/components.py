@@ -2,7 +2,7 @@
 
 Every radial, tangential and Coriolis vector the construction lays or finds is
 one :class:`RelativeComponent`: whose acceleration it is part of, relative to
-what, on which link, and the vector itself (m/s², from the step's geometry).
+what, on which link, and the vector itself (m/s², from the step's coordinates).
 Nothing is recomputed here, so a table of them shows the polygon's own values.
 """
 

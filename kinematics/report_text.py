@@ -8,6 +8,11 @@ from .components import acceleration_components
 from .solve import Solution
 from .steps import Construction
 
+# Below this fraction of the pose's largest value of its kind a number is the solver's rounding
+# (its residuals are near 1e-13 relative), far below anything a drawing or a bearing cares
+# about: it is shown as 0, so a crank at constant speed reads α 0, not 1.8e-13 CW.
+NEGLIGIBLE = 1e-9
+
 
 def sense(value: float) -> str:
     """CCW, CW, or 'at rest' for an angular rate (CCW positive)."""
@@ -63,10 +68,10 @@ def construction_text(construction: Construction) -> str:
     components = acceleration_components(construction)
     if components:
         lines.append(f"{'acceleration components':<40}{'|a| [m/s²]':>12}{'dir [°]':>9}")
-        # A component at the solver's rounding (1e-9 of the pose's largest acceleration) has no direction.
+        # A component at the solver's rounding (see NEGLIGIBLE) has no direction.
         largest = max((math.hypot(*a) for a in construction.solution.accelerations.tolist()), default=0.0)
         for c in components:
-            zero = c.magnitude <= 1e-9 * largest
+            zero = c.magnitude <= NEGLIGIBLE * largest
             lines.append(f"  {c.title:<38}{0.0 if zero else c.magnitude:>12.4f}"
                          f"{'—' if zero else format(direction_deg(*c.vector), '.1f'):>9}")
         lines.append("")
