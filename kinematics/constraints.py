@@ -32,7 +32,8 @@ class ConstraintSystem:
 
     ``names`` orders the points; ``x0`` is the reference pose (n, 2);
     ``free`` marks the points that move; rows a, b, c, d index points;
-    ``owner`` says, per row, which link or slide it comes from.
+    ``owner`` says, per row, which link or slide it comes from; ``selectors`` are the (m, 2, 2n)
+    arrays saying which coordinate each row's first and second difference moves.
     """
 
     names: tuple
@@ -46,6 +47,7 @@ class ConstraintSystem:
     k: np.ndarray
     weight: np.ndarray
     owner: tuple
+    selectors: tuple
     driver_pivot: int
     driver_point: int
 
@@ -76,32 +78,10 @@ class ConstraintSystem:
         w = self.weight[:, None]
         return (is_dot * w, ~is_dot * w * np.array([1.0, -1.0]), ~is_dot * w * np.array([-1.0, 1.0]))
 
-    @cached_property
-    def selectors(self):
-        """(m, 2, 2n) arrays: which coordinate each row's first and second difference moves."""
-        return _selectors(len(self.names), tuple(self.a.tolist()), tuple(self.b.tolist()), tuple(self.c.tolist()),
-                          tuple(self.d.tolist()))
-
     def quadratic_term(self, xdot: np.ndarray) -> np.ndarray:
         """Second time derivative of the values at zero acceleration: 2·(u̇ ∘ v̇)."""
         return 2.0 * _product(self.kind, xdot[..., self.a, :] - xdot[..., self.b, :],
                               xdot[..., self.c, :] - xdot[..., self.d, :]) * self.weight
-
-
-@lru_cache(maxsize=64)
-def _selectors(n: int, a: tuple, b: tuple, c: tuple, d: tuple):
-    """The selectors of rows a, b, c, d over n points: they follow from the topology alone, so a
-    drag, which makes a new mechanism each frame, builds them once (the arrays are read-only)."""
-    m = len(a)
-    rows, k = np.arange(m)[:, None], np.arange(2)[None, :]
-    selected = []
-    for plus, minus in ((a, b), (c, d)):
-        chosen = np.zeros((m, 2, 2 * n))
-        np.add.at(chosen, (rows, k, 2 * np.array(plus, dtype=int).reshape(-1, 1) + k), 1.0)  # one point twice adds up
-        np.add.at(chosen, (rows, k, 2 * np.array(minus, dtype=int).reshape(-1, 1) + k), -1.0)
-        chosen.flags.writeable = False
-        selected.append(chosen)
-    return tuple(selected)
 
 
 def _product(kind, u, v):
@@ -113,8 +93,8 @@ def _product(kind, u, v):
 def build_system(mechanism: Mechanism) -> ConstraintSystem:
     """The constraint rows of the links and slides of ``mechanism``."""
     names = tuple(mechanism.points)
-    free, (kind, a, b, c, d), owner = _rows(names, tuple(mechanism.links.items()), tuple(mechanism.slides.values()),
-                                            mechanism.ground)
+    free, (kind, a, b, c, d), owner, selectors = _rows(names, tuple(mechanism.links.items()),
+                                                       tuple(mechanism.slides.values()), mechanism.ground)
     k_m = mechanism.metres_per_unit
     x0 = np.array([mechanism.points[n] for n in names], dtype=float).reshape(-1, 2) * k_m
     u, v = x0[a] - x0[b], x0[c] - x0[d]
@@ -128,14 +108,15 @@ def build_system(mechanism: Mechanism) -> ConstraintSystem:
         pivot = names.index(mechanism.driver.pivot)
         point = names.index(next(p for p in mechanism.links[mechanism.driver.link] if p != mechanism.driver.pivot))
     return ConstraintSystem(names=names, x0=x0, free=free, kind=kind, a=a, b=b, c=c, d=d, k=k,
-                            weight=weight, owner=owner, driver_pivot=pivot, driver_point=point)
+                            weight=weight, owner=owner, selectors=selectors, driver_pivot=pivot, driver_point=point)
 
 
 @lru_cache(maxsize=64)
 def _rows(names: tuple, links: tuple, slides: tuple, ground: tuple):
-    """(free, (kind, a, b, c, d), owner) of a topology: which points move, and each constraint row's
-    kind, point indices and owning link or slide. They follow from the names alone, so a drag, which
-    makes a new mechanism each frame, works them out once (the arrays are read-only)."""
+    """(free, (kind, a, b, c, d), owner, selectors) of a topology: which points move, each constraint
+    row's kind, point indices and owning link or slide, and the rows' selectors. They follow from the
+    names alone, so a drag, which makes a new mechanism each frame, works them out once (the arrays
+    are read-only)."""
     index = {name: i for i, name in enumerate(names)}
     free = np.array([n not in ground for n in names], dtype=bool)
     rows = []  # (kind, a, b, c, d, owner)
@@ -153,9 +134,18 @@ def _rows(names: tuple, links: tuple, slides: tuple, ground: tuple):
     # Rows that touch no moving point hold by themselves.
     moving = free[table[:, 1:]].any(axis=1)
     table = np.ascontiguousarray(table[moving].T)
-    for array in (free, table):
+    m = table.shape[1]
+    row, k = np.arange(m)[:, None], np.arange(2)[None, :]
+    selectors = []
+    for plus, minus in ((table[1], table[2]), (table[3], table[4])):
+        chosen = np.zeros((m, 2, 2 * len(names)))
+        np.add.at(chosen, (row, k, 2 * plus[:, None] + k), 1.0)  # add.at: plus and minus may be one point
+        np.add.at(chosen, (row, k, 2 * minus[:, None] + k), -1.0)
+        selectors.append(chosen)
+    for array in (free, table, *selectors):
         array.flags.writeable = False
-    return free, tuple(table), tuple(r[5] for r, keep in zip(rows, moving.tolist(), strict=True) if keep)
+    return (free, tuple(table), tuple(r[5] for r, keep in zip(rows, moving.tolist(), strict=True) if keep),
+            tuple(selectors))
 
 
 def constraint_system(mechanism: Mechanism) -> ConstraintSystem:
