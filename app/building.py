@@ -16,7 +16,7 @@ import string
 from dataclasses import replace
 
 from kinematics import Driver, Mechanism, Slide, move_point
-from kinematics.model import GROUND
+from kinematics.model.mechanism import GROUND
 
 DEFAULT_SPEED_RPM = 60.0
 

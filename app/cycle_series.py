@@ -14,7 +14,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from kinematics.model import GROUND
+from kinematics.model.mechanism import GROUND
 
 from .display_units import LENGTH_SYSTEMS, angular_speed
 

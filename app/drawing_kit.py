@@ -1,4 +1,4 @@
-"""Qt renderings of the shared visual language in :mod:`kinematics.style`.
+"""Qt renderings of the shared visual language in :mod:`kinematics.drawing.style`.
 
 Scene units are millimetres of drawing with y pointing down (Qt's way), so
 every model coordinate goes through :func:`scene_xy`, which turns y up.
@@ -11,7 +11,7 @@ import math
 from PySide6.QtCore import QPointF, Qt
 from PySide6.QtGui import QBrush, QColor, QFont, QPainterPath, QPen, QPolygonF
 
-from kinematics.style import Pen
+from kinematics.drawing.style import Pen
 
 # Screen pixels per drawing millimetre of line weight at 96 dpi; pens are cosmetic so
 # a line keeps its weight at any zoom (a 0.5 mm pen draws about 2 px wide).

@@ -51,7 +51,7 @@ class SheetOutputs:
         construction = self._ready_construction()
         if construction is None:
             return False
-        from kinematics.dxf import write_dxf  # ezdxf takes half a second to import: only when asked
+        from kinematics.drawing.dxf import write_dxf  # ezdxf takes half a second to import: only when asked
 
         try:
             write_dxf(construction, str(path), file_name=self._file_name())

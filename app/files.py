@@ -1,4 +1,4 @@
-"""The recent-files list (saving itself is :func:`kinematics.storage.save_mechanism`)."""
+"""The recent-files list (saving itself is :func:`kinematics.files.storage.save_mechanism`)."""
 
 from __future__ import annotations
 

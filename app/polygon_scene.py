@@ -19,7 +19,7 @@ from PySide6.QtWidgets import (
 )
 
 from kinematics import Role
-from kinematics.style import ANNOTATION, IMAGE, pen_for
+from kinematics.drawing.style import ANNOTATION, IMAGE, pen_for
 
 from .drawing_kit import Label, ScaleBar, arrowhead, brush, declutter, qpen, scene_xy, square
 

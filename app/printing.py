@@ -32,7 +32,7 @@ from PySide6.QtGui import (
 from kinematics.drawing import PAPER, Arrow, Circle, Hatch, Line, Note, Polyline, Text, draw_sheet
 from kinematics.drawing.output import construction_from_file, run_reporting
 from kinematics.drawing.sheet import DASHES
-from kinematics.storage import StorageError, replace_atomically
+from kinematics.files.storage import StorageError, replace_atomically
 
 FONT_FAMILY = "DejaVu Sans"  # Debian fonts-dejavu-core: has ω α ° ² ′ and subscripts
 PDF_RESOLUTION_DPI = 1200

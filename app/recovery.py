@@ -16,7 +16,7 @@ from PySide6.QtCore import QObject, QStandardPaths, QTimer
 from PySide6.QtWidgets import QMessageBox
 
 from kinematics import KinematicsError
-from kinematics.storage import read_recovery, write_recovery
+from kinematics.files.storage import read_recovery, write_recovery
 
 AUTOSAVE_MS = 60_000
 EDITS_PER_COPY = 20

@@ -83,7 +83,7 @@ def main(argv) -> int:
     from PySide6.QtWidgets import QApplication
 
     import kinematics
-    from kinematics.storage import write_atomically
+    from kinematics.files.storage import write_atomically
 
     from .document import Document
 

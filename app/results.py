@@ -17,7 +17,7 @@ from PySide6.QtGui import QStandardItem, QStandardItemModel
 from PySide6.QtWidgets import QAbstractItemView, QHeaderView, QTableView
 
 from kinematics import acceleration_components
-from kinematics.report_text import NEGLIGIBLE
+from kinematics.reports.text import NEGLIGIBLE
 
 from .display_units import LENGTH_SYSTEMS, angular_speed, direction_deg, sense
 

@@ -22,7 +22,7 @@ from PySide6.QtWidgets import (
     QGraphicsScene,
 )
 
-from kinematics.style import ANNOTATION, SPACE_GROUND, SPACE_LINK, SPACE_PATH
+from kinematics.drawing.style import ANNOTATION, SPACE_GROUND, SPACE_LINK, SPACE_PATH
 
 from .drawing_kit import Label, ScaleBar, declutter, hatch_path, preferred_length, qpen, scene_xy, square
 

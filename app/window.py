@@ -23,7 +23,7 @@ from PySide6.QtWidgets import (
 
 import kinematics
 from kinematics import KinematicsError, Mechanism
-from kinematics.storage import save_mechanism
+from kinematics.files.storage import save_mechanism
 
 from .angle_control import AngleControl
 from .build_tools import HINTS, Builder

@@ -25,9 +25,9 @@ ROOT = Path(__file__).resolve().parents[1]
 sys.path.insert(0, str(ROOT))
 
 import kinematics  # noqa: E402
-from kinematics.constraints import build_system  # noqa: E402
-from kinematics.solve import _Driven  # noqa: E402
-from kinematics.sweep import sweep, verify_sweep  # noqa: E402
+from kinematics.cycle.sweep import sweep, verify_sweep  # noqa: E402
+from kinematics.solver.constraints import build_system  # noqa: E402
+from kinematics.solver.solve import _Driven  # noqa: E402
 from tests.designs import four_bar  # noqa: E402
 
 

@@ -6,16 +6,16 @@ Never imports Qt.
 
 import math
 
-from .components import RelativeComponent, acceleration_components
-from .construct import construct as _construct
+from .construction.components import RelativeComponent, acceleration_components
+from .construction.construct import construct as _construct
+from .construction.steps import Component, Construction, Polygon, Role, Step
+from .cycle.sweep import Sweep, sweep, verify_sweep
 from .errors import CannotAssemble, FileFormatError, KinematicsError, MechanismFindings, ParallelLines
-from .fileformat import dumps, load_mechanism
-from .mobility import Finding, diagnose
-from .model import Driver, Mechanism, Slide, move_point
-from .naming import rename_link, rename_point
-from .solve import Solution, solve_pose
-from .steps import Component, Construction, Polygon, Role, Step
-from .sweep import Sweep, sweep, verify_sweep
+from .files.fileformat import dumps, load_mechanism
+from .model.mechanism import Driver, Mechanism, Slide, move_point
+from .model.naming import rename_link, rename_point
+from .solver.mobility import Finding, diagnose
+from .solver.solve import Solution, solve_pose
 
 CAUTION = (
     "Caution: rigid-body kinematics only (no deflection, clearance, dynamics or strength). Results must be "
@@ -34,7 +34,7 @@ def solve(mechanism: Mechanism, angle_deg: float | None = None) -> Solution:
     Raises MechanismFindings if the mechanism cannot be analysed, and
     CannotAssemble if no pose exists at that angle.
     """
-    from .mobility import require_ready
+    from .solver.mobility import require_ready
 
     if angle_deg is not None and not (isinstance(angle_deg, (int, float)) and math.isfinite(angle_deg)
                                       and abs(angle_deg) <= MAX_ANGLE_DEG):
@@ -45,7 +45,7 @@ def solve(mechanism: Mechanism, angle_deg: float | None = None) -> Solution:
 
 
 def construct(solution: Solution, **options) -> Construction:
-    """The velocity and acceleration polygons of a solved pose (see :mod:`kinematics.construct`)."""
+    """The velocity and acceleration polygons of a solved pose (see :mod:`kinematics.construction.construct`)."""
     return _construct(solution, **options)
 
 

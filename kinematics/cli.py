@@ -14,8 +14,8 @@ import sys
 
 from . import CAUTION, acceleration_components, construct, diagnose, load_mechanism, solve
 from .drawing.output import run_reporting
-from .report_text import construction_text, peaks_text, solution_table, turn
-from .storage import write_atomically
+from .files.storage import write_atomically
+from .reports.text import construction_text, peaks_text, solution_table, turn
 
 
 def _solution_json(solution) -> dict:
@@ -66,13 +66,13 @@ def _emit(text: str, output):
 
 
 def _check(args) -> int:
-    from .checks import report
+    from .cycle.checks import report
 
     mech = load_mechanism(args.file)
     for warning in mech.warnings:
         print(f"warning: {warning}")
     findings = diagnose(mech)
-    from .mobility import gruebler_count, jacobian_mobility
+    from .solver.mobility import gruebler_count, jacobian_mobility
 
     mobility, _ = jacobian_mobility(mech)
     print(f"mobility: {mobility} from the rank of the constraint Jacobian "
@@ -81,7 +81,7 @@ def _check(args) -> int:
         for finding in findings:
             print(f"error: {finding}", file=sys.stderr)
         return 2
-    from .decompose import decompose
+    from .groups.decompose import decompose
 
     print("construction order: driver " + mech.driver.link + ", then " +
           ", ".join(g.name for g in decompose(mech).groups))
@@ -138,8 +138,8 @@ def _construct(args) -> int:
 
 
 def _sweep(args) -> int:
-    from .peaks import peaks
-    from .sweep import sweep, sweep_csv
+    from .cycle.peaks import peaks
+    from .cycle.sweep import sweep, sweep_csv
 
     result = sweep(load_mechanism(args.file), args.steps)
     if args.json:
@@ -185,7 +185,7 @@ COMMANDS = {"check": _check, "solve": _solve, "construct": _construct, "sweep": 
 def main(argv=None) -> int:
     argv = list(sys.argv[1:] if argv is None else argv)
     if argv and argv[0] == "export":
-        from .dxf import main as export_main
+        from .drawing.dxf import main as export_main
 
         return export_main(argv[1:])
     args = _parser().parse_args(argv)

@@ -7,9 +7,9 @@ import math
 import textwrap
 
 from .. import CAUTION
-from ..style import ANNOTATION
 from .scaling import bar_value, plain
 from .sheet import FRAME, Hatch, Line, Polyline, Recorder, Text
+from .style import ANNOTATION
 from .symbols import Symbols
 
 # Advance of one character over the capital height: measured with Qt 6.11 for

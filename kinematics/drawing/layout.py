@@ -8,7 +8,6 @@ import datetime
 import math
 from dataclasses import dataclass
 
-from ..style import ANNOTATION
 from .annotate import (
     caution_lines,
     description,
@@ -25,6 +24,7 @@ from .results import results_band, results_height
 from .scaling import bar_value, iso5455_ratio, plain, polygon_scale, ratio_text
 from .sheet import FRAME, Note, Recorder, Sheet, View
 from .space import draw_space, positions
+from .style import ANNOTATION
 from .symbols import Symbols
 
 # ISO 216 A series, portrait width × height in mm.

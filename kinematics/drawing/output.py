@@ -1,13 +1,13 @@
 """What every exporter shares: turn a mechanism file into a construction, and
 refusals into exit codes with messages that name the place. Files are written
-whole or not at all by :mod:`kinematics.storage`."""
+whole or not at all by :mod:`kinematics.files.storage`."""
 
 from __future__ import annotations
 
 import sys
 
 from ..errors import CannotAssemble, KinematicsError, MechanismFindings, ParallelLines
-from ..storage import StorageError
+from ..files.storage import StorageError
 
 
 def construction_from_file(path, angle_deg=None):

@@ -10,11 +10,11 @@ import math
 
 import numpy as np
 
-from ..steps import Role
-from ..style import IMAGE, pen_for
+from ..construction.steps import Role
 from . import symbols
 from .sheet import Arrow, Circle, Line, Polyline, Recorder, View
 from .space import outline, positions
+from .style import IMAGE, pen_for
 from .symbols import Symbols
 
 _LAYER_ORDER = {Role.DIRECTION: 0, Role.KNOWN: 1, Role.RESULT: 1, Role.INTERSECTION: 2, Role.IMAGE: 2}

@@ -2,7 +2,7 @@
 
 Coordinates are millimetres on the sheet, x to the right and y up, origin at
 the lower-left corner of the sheet (or of the model, for a DXF drawing). Each
-primitive carries the pen (:mod:`kinematics.style`) that gives its role, the
+primitive carries the pen (:mod:`kinematics.drawing.style`) that gives its role, the
 view it belongs to and the id of the construction step it draws ("" when it
 draws no step), so a backend can put it on a layer and a window can lead a
 click back to the step; ``part`` names the point or link a space-diagram
@@ -14,7 +14,7 @@ from __future__ import annotations
 
 from dataclasses import dataclass, field
 
-from ..style import ANNOTATION, Pen
+from .style import ANNOTATION, Pen
 
 # Dash patterns of ISO 128 line types in multiples of the line width: dashed
 # (type 02: 12 dash, 3 gap), dotted (type 07 as dots 0.5, gap 3), long

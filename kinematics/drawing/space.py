@@ -9,10 +9,10 @@ import math
 
 import numpy as np
 
-from ..model import GROUND
-from ..style import ANNOTATION, SPACE_GROUND, SPACE_LINK
+from ..model.mechanism import GROUND
 from . import symbols
 from .sheet import Line, Polyline, Recorder, Text, View
+from .style import ANNOTATION, SPACE_GROUND, SPACE_LINK
 from .symbols import Symbols
 
 # Points this close to one line (relative to the link's size) make a straight bar, not a plate.

@@ -15,7 +15,7 @@ import app.cycle_series
 import kinematics
 from app.cycle_panel import NO_CYCLE, PALETTE, CyclePanel
 from app.cycle_series import Quantity, coupler_paths_mm, readable
-from kinematics.peaks import peaks
+from kinematics.cycle.peaks import peaks
 from tests.designs import CARTON_PUSHER, CLAW_FEED, SAMPLES, SWING_LEVER, TRIPLE_ROCKER, load
 
 SIX_BAR = SAMPLES / "stacker-transfer-stephenson.json"

@@ -32,7 +32,7 @@ def test_every_twentieth_edit_writes_a_copy_that_round_trips(make_window, folder
     assert not window.autosave.path.exists()
     nudge(window, dx=0.01)
     assert window.autosave.path.exists()
-    restored, saved_at, source = kinematics.storage.read_recovery(window.autosave.path)
+    restored, saved_at, source = kinematics.files.storage.read_recovery(window.autosave.path)
     assert restored == window.document.mechanism and saved_at
 
 
@@ -77,7 +77,7 @@ def test_after_a_crash_the_next_start_offers_the_copy(make_window, folder, monke
     dead = subprocess.run([sys.executable, "-c", "import os; print(os.getpid())"], capture_output=True, text=True)
     folder.mkdir(parents=True)
     copy = folder / f"recovery-{int(dead.stdout)}-1.json"
-    kinematics.storage.write_recovery(mech, copy, source="/designs/pusher.json")
+    kinematics.files.storage.write_recovery(mech, copy, source="/designs/pusher.json")
     assert left_behind() == [copy]
     asked = []
     monkeypatch.setattr(QMessageBox, "question", lambda *args: asked.append(args[2]) or QMessageBox.Yes)
@@ -92,9 +92,9 @@ def test_after_a_crash_the_next_start_offers_the_copy(make_window, folder, monke
 def test_a_declined_copy_is_removed_and_a_live_ones_is_left(make_window, folder, monkeypatch):
     folder.mkdir(parents=True)
     live = folder / f"recovery-{os.getppid()}-1.json"
-    kinematics.storage.write_recovery(load(CLAW_FEED), live)
+    kinematics.files.storage.write_recovery(load(CLAW_FEED), live)
     dead = folder / "recovery-999999999-1.json"
-    kinematics.storage.write_recovery(load(CLAW_FEED), dead)
+    kinematics.files.storage.write_recovery(load(CLAW_FEED), dead)
     monkeypatch.setattr(QMessageBox, "question", lambda *args: QMessageBox.No)
     assert not offer_recovery(make_window())
     assert not dead.exists() and live.exists()

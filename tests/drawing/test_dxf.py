@@ -14,9 +14,9 @@ import pytest
 from ezdxf import recover
 
 import kinematics
-from kinematics import style
-from kinematics.dxf import main, write_dxf
-from kinematics.storage import StorageError, replace_atomically
+from kinematics.drawing import style
+from kinematics.drawing.dxf import main, write_dxf
+from kinematics.files.storage import StorageError, replace_atomically
 from tests.designs import (
     BOTTLE_PUSHER,
     GATE_LIFTER,

@@ -8,7 +8,8 @@ from hypothesis import given, settings
 from hypothesis import strategies as st
 
 import kinematics
-from kinematics import Component, Role, groups
+from kinematics import Component, Role
+from kinematics.groups import forms as groups
 from tests import CASE_FACTOR
 from tests.designs import SAMPLE_FILES, TRIAD_PRESS, block_on_rotating_guide, four_bar, slider_crank, slotted_lever
 

@@ -10,7 +10,7 @@ import jsonschema
 import pytest
 
 import kinematics
-from kinematics.fileformat import SCHEMA_PATH
+from kinematics.files.fileformat import SCHEMA_PATH
 from tests.designs import SAMPLE_FILES, SAMPLES, four_bar, slider_crank
 
 
@@ -140,7 +140,7 @@ def test_cannot_assemble_names_the_angle():
 
 
 def test_core_never_imports_qt():
-    code = "import sys, kinematics, kinematics.cli, kinematics.sweep, kinematics.checks; " \
+    code = "import sys, kinematics, kinematics.cli, kinematics.cycle.sweep, kinematics.cycle.checks; " \
            "print(any(m.startswith(('PySide6', 'app')) for m in sys.modules))"
     out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, check=True)
     assert out.stdout.strip() == "False"
@@ -148,7 +148,7 @@ def test_core_never_imports_qt():
 
 def test_dead_point_and_toggle_are_told_apart():
     rocker = kinematics.load_mechanism(four_bar(100, 60, 90, 120, 60))
-    from kinematics.sweep import driver_range
+    from kinematics.cycle.sweep import driver_range
 
     _, (low, high) = driver_range(rocker)
     near_dead = kinematics.solve(rocker, high - 0.01)

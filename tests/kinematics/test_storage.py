@@ -12,7 +12,7 @@ import time
 import pytest
 
 import kinematics
-from kinematics.storage import StorageError, read_recovery, save_mechanism, write_recovery
+from kinematics.files.storage import StorageError, read_recovery, save_mechanism, write_recovery
 from tests.designs import SAMPLES
 
 KILLS = 200 if os.environ.get("KINEPOLY_FULL") else 20
@@ -89,7 +89,7 @@ def test_recovery_copy_round_trips_exactly(tmp_path):
 
 SAVER = """
 import sys, json, kinematics
-from kinematics.storage import save_mechanism
+from kinematics.files.storage import save_mechanism
 target = sys.argv[1]
 designs = [kinematics.load_mechanism(json.load(open(p))) for p in sys.argv[2:4]]
 print("ready", flush=True)

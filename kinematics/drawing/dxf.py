@@ -1,7 +1,7 @@
 """DXF export: the model drawing (space diagram at true size in millimetres,
 both polygons beside it at round scales) replayed into an ezdxf document.
 
-One layer per pen of :mod:`kinematics.style`, with the pen's true colour,
+One layer per pen of :mod:`kinematics.drawing.style`, with the pen's true colour,
 ISO 128 weight and line type; entities take everything BYLAYER so a CAD user
 can restyle a role at once. Units are millimetres ($INSUNITS 4, metric
 $MEASUREMENT); the Standard dimension style is given millimetre settings
@@ -17,10 +17,10 @@ import ezdxf
 from ezdxf import bbox
 from ezdxf.enums import TextEntityAlignment
 
-from .drawing import Arrow, Circle, Hatch, Line, Note, Polyline, Text, draw_model
-from .drawing.output import construction_from_file, run_reporting
-from .drawing.sheet import DASHES
-from .storage import replace_atomically
+from ..files.storage import replace_atomically
+from . import Arrow, Circle, Hatch, Line, Note, Polyline, Text, draw_model
+from .output import construction_from_file, run_reporting
+from .sheet import DASHES
 
 DXF_VERSION = "R2013"  # UTF-8 text (ω, α, ², ′) and true colour on layers
 INSUNITS_MILLIMETRES = 4
@@ -149,7 +149,7 @@ def write_dxf(construction, path, file_name: str = "", date: str | None = None):
     at the scales their scale bars state. The file is written beside the
     target and moved into place, so a failure leaves no partial file.
     Returns the Sheet written. Raises
-    :class:`kinematics.storage.StorageError` when it cannot be written.
+    :class:`kinematics.files.storage.StorageError` when it cannot be written.
     """
     sheet = draw_model(construction, file_name=file_name, date=date)
     doc = new_document()

@@ -4,7 +4,7 @@
 included, and refuses everything else with a :class:`FileFormatError` whose
 ``location`` names the place (``links.coupler[2]``, ``file.json line 4`` ...).
 The format is described in ``docs/file-format.md`` and by the JSON Schema
-``kinematics/schema/mechanism-1.schema.json``.
+``kinematics/files/schema/mechanism-1.schema.json``.
 """
 
 from __future__ import annotations
@@ -15,9 +15,9 @@ import os
 import re
 from pathlib import Path
 
-from .errors import FileFormatError
-from .model import GROUND, Driver, Mechanism, Slide
-from .units import METRES_PER_LENGTH_UNIT, RAD_S2_PER_ACCELERATION_UNIT, RAD_S_PER_SPEED_UNIT
+from ..errors import FileFormatError
+from ..model.mechanism import GROUND, Driver, Mechanism, Slide
+from ..model.units import METRES_PER_LENGTH_UNIT, RAD_S2_PER_ACCELERATION_UNIT, RAD_S_PER_SPEED_UNIT
 
 FORMAT_VERSION = 1
 MAX_FILE_BYTES = 10 * 1024 * 1024

@@ -2,7 +2,7 @@
 
 import math
 
-from .errors import FileFormatError
+from ..errors import FileFormatError
 
 METRES_PER_LENGTH_UNIT = {"mm": 1e-3, "m": 1.0, "in": 0.0254}
 RAD_S_PER_SPEED_UNIT = {"rad/s": 1.0, "rpm": 2.0 * math.pi / 60.0}

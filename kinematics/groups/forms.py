@@ -5,7 +5,7 @@ works on numpy arrays of any shape (one pose, or a whole cycle at once).
 
 Velocity and acceleration of a group are the intersection of two lines on
 the polygon, each through a known point with a known direction: this is the
-graphical construction itself, and :mod:`kinematics.construct` turns the
+graphical construction itself, and :mod:`kinematics.construction.construct` turns the
 intermediate records returned here into drawn steps.
 """
 
@@ -16,9 +16,9 @@ from dataclasses import dataclass, field
 
 import numpy as np
 
+from ..errors import CannotAssemble
+from ..model.mechanism import GROUND, Mechanism
 from .decompose import Group
-from .errors import CannotAssemble
-from .model import GROUND, Mechanism
 
 
 def cross(a, b):

@@ -4,9 +4,9 @@ from __future__ import annotations
 
 import math
 
-from .components import acceleration_components
-from .solve import Solution
-from .steps import Construction
+from ..construction.components import acceleration_components
+from ..construction.steps import Construction
+from ..solver.solve import Solution
 
 # Below this fraction of the pose's largest value of its kind a number is the solver's rounding
 # (its residuals are near 1e-13 relative), far below anything a drawing or a bearing cares
@@ -83,7 +83,7 @@ def construction_text(construction: Construction) -> str:
 
 
 def peaks_text(table: dict) -> str:
-    """The peaks table of :func:`kinematics.peaks.peaks`, for people."""
+    """The peaks table of :func:`kinematics.cycle.peaks.peaks`, for people."""
     lines = [f"{'point':<8}{'max |v| [m/s]':>15}{'at [°]':>9}{'max |a| [m/s²]':>16}{'at [°]':>9}"]
     for name, p in table["points"].items():
         lines.append(f"{name:<8}{p['max_speed']:>15.4f}{turn(p['at_deg'], 1):>9.1f}{p['max_acceleration']:>16.4f}"

@@ -16,9 +16,9 @@ from __future__ import annotations
 
 from dataclasses import replace
 
-from .errors import KinematicsError
-from .fileformat import NAME_PATTERN
-from .model import GROUND, Mechanism
+from ..errors import KinematicsError
+from ..files.fileformat import NAME_PATTERN
+from .mechanism import GROUND, Mechanism
 
 
 def _check_new_name(mechanism: Mechanism, kind: str, old: str, new) -> None:

@@ -20,8 +20,8 @@ from functools import cached_property, lru_cache
 
 import numpy as np
 
-from .memo import remembered
-from .model import Mechanism
+from ..model.mechanism import Mechanism
+from ..model.memo import remembered
 
 DOT, CROSS = 0, 1
 

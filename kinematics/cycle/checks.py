@@ -9,9 +9,9 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from .decompose import decompose
-from .errors import KinematicsError
-from .model import GROUND, Mechanism
+from ..errors import KinematicsError
+from ..groups.decompose import decompose
+from ..model.mechanism import GROUND, Mechanism
 from .sweep import Sweep, sweep
 
 

@@ -3,7 +3,7 @@
 A :class:`Construction` holds both polygons of one pose; each :class:`Polygon`
 holds its images, its intermediate marks and its :class:`Step` records, each
 with a role and a component in the trade's words. The window, the printer and
-the DXF writer draw from these; :mod:`kinematics.construct` builds them.
+the DXF writer draw from these; :mod:`kinematics.construction.construct` builds them.
 """
 
 from __future__ import annotations
@@ -16,10 +16,10 @@ from functools import cached_property
 import numpy as np
 from shapely.geometry import LineString, Point
 
-from .decompose import Decomposition, Group
-from .errors import ParallelLines
+from ..errors import ParallelLines
+from ..groups.decompose import Decomposition, Group
+from ..solver.solve import Solution
 from .scales import preferred_scale
-from .solve import Solution
 
 # An intersection whose condition figure exceeds this is flagged on its step.
 FLAG_CONDITION = 1e3

@@ -13,7 +13,7 @@ from dataclasses import dataclass, field, replace
 from functools import cached_property
 from types import MappingProxyType
 
-from .errors import KinematicsError
+from ..errors import KinematicsError
 from .units import RAD_S2_PER_ACCELERATION_UNIT, RAD_S_PER_SPEED_UNIT, metres_per
 
 GROUND = "ground"

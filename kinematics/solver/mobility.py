@@ -7,10 +7,10 @@ from dataclasses import dataclass
 
 import numpy as np
 
+from ..errors import MechanismFindings
+from ..model.mechanism import GROUND, Mechanism
+from ..model.memo import remembered
 from .constraints import constraint_system
-from .errors import MechanismFindings
-from .memo import remembered
-from .model import GROUND, Mechanism
 
 
 @dataclass(frozen=True)

@@ -13,13 +13,13 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from .constraints import constraint_system, reference_driver_angle
-from .decompose import decompose
-from .errors import CannotAssemble, KinematicsError, ParallelLines
-from .groups import Frame, acceleration, drive, position, velocity
-from .mobility import require_ready
-from .model import Mechanism
-from .solve import _Driven, _newton, _track, newton_tolerance
+from ..errors import CannotAssemble, KinematicsError, ParallelLines
+from ..groups.decompose import decompose
+from ..groups.forms import Frame, acceleration, drive, position, velocity
+from ..model.mechanism import Mechanism
+from ..solver.constraints import constraint_system, reference_driver_angle
+from ..solver.mobility import require_ready
+from ..solver.solve import _Driven, _newton, _track, newton_tolerance
 
 # About 100 bytes a pose per point: a million poses of a six-bar take about 1 GB.
 MAX_STEPS = 1_000_000

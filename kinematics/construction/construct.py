@@ -3,7 +3,7 @@
 From a solved pose (the space diagram), each polygon is built the way a
 draftsman builds it: lay the known vectors, draw the lines whose direction is
 known, intersect; images of further points by similarity. The arithmetic is
-that of :mod:`kinematics.groups`; here it becomes ordered, labelled
+that of :mod:`kinematics.groups.forms`; here it becomes ordered, labelled
 :class:`Step` records with shapely geometry in polygon units (m/s or m/s²,
 pole at the origin), which the window, the printer and the DXF writer draw.
 The numeric solver's values are used only for the cross-check.
@@ -15,11 +15,11 @@ import math
 
 import numpy as np
 
-from .decompose import Group, decompose
-from .errors import KinematicsError
-from .groups import Frame, Laid, acceleration, drive, velocity
-from .model import GROUND
-from .solve import Solution
+from ..errors import KinematicsError
+from ..groups.decompose import Group, decompose
+from ..groups.forms import Frame, Laid, acceleration, drive, velocity
+from ..model.mechanism import GROUND
+from ..solver.solve import Solution
 from .steps import Component, Construction, PolygonBuilder, Role, direction_deg, figure
 
 

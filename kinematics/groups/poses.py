@@ -7,8 +7,8 @@ from __future__ import annotations
 
 import math
 
+from ..model.mechanism import GROUND, Mechanism
 from .decompose import Decomposition
-from .model import GROUND, Mechanism
 
 # Within this angle of being in line, a pose is called near a dead point or a toggle.
 IN_LINE_DEG = 3.0

@@ -16,12 +16,12 @@ from dataclasses import dataclass
 
 import numpy as np
 
+from ..errors import CannotAssemble
+from ..groups.decompose import decompose
+from ..groups.poses import pose_warnings
+from ..model.mechanism import Mechanism
+from ..model.memo import remembered
 from .constraints import ConstraintSystem, constraint_system, reference_driver_angle
-from .decompose import decompose
-from .errors import CannotAssemble
-from .memo import remembered
-from .model import Mechanism
-from .poses import pose_warnings
 
 MAX_STEP_RAD = math.radians(10.0)
 MIN_STEP_RAD = 1e-9

@@ -13,7 +13,7 @@ single link):
   its motion comes from the numeric solver.
 
 This module only reads the structure and the reference pose; the closed
-forms of each group live in :mod:`kinematics.groups`.
+forms of each group live in :mod:`kinematics.groups.forms`.
 """
 
 from __future__ import annotations
@@ -21,8 +21,8 @@ from __future__ import annotations
 from dataclasses import dataclass
 from functools import lru_cache
 
-from .memo import remembered
-from .model import GROUND, Mechanism
+from ..model.mechanism import GROUND, Mechanism
+from ..model.memo import remembered
 
 
 @dataclass(frozen=True)

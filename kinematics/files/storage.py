@@ -17,9 +17,9 @@ import tempfile
 from collections.abc import Callable
 from pathlib import Path
 
-from .errors import KinematicsError
+from ..errors import KinematicsError
+from ..model.mechanism import Mechanism
 from .fileformat import document_from_mechanism, dumps, mechanism_from_document, read_document
-from .model import Mechanism
 
 RECOVERY_KEY = "x-kinepoly-recovery"
 
