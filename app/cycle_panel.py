@@ -27,7 +27,7 @@ from PySide6.QtWidgets import (
 
 import kinematics
 from kinematics import KinematicsError
-from kinematics.cycle.sweep import SweepCancelled
+from kinematics.errors import SweepCancelled
 
 from . import cycle_series as series
 

@@ -32,7 +32,8 @@ from PySide6.QtGui import (
 from kinematics.drawing import PAPER, Arrow, Circle, Hatch, Line, Note, Polyline, Text, draw_sheet
 from kinematics.drawing.output import construction_from_file, run_reporting
 from kinematics.drawing.sheet import DASHES
-from kinematics.files.storage import StorageError, replace_atomically
+from kinematics.errors import StorageError
+from kinematics.files.storage import replace_atomically
 
 FONT_FAMILY = "DejaVu Sans"  # Debian fonts-dejavu-core: has ω α ° ² ′ and subscripts
 PDF_RESOLUTION_DPI = 1200

@@ -10,18 +10,21 @@ from .construction.components import RelativeComponent, acceleration_components
 from .construction.construct import construct as _construct
 from .construction.steps import Component, Construction, Polygon, Role, Step
 from .cycle.sweep import Sweep, sweep, verify_sweep
-from .errors import CannotAssemble, FileFormatError, KinematicsError, MechanismFindings, ParallelLines
+from .edits.naming import rename_link, rename_point
+from .errors import (
+    CannotAssemble,
+    FileFormatError,
+    KinematicsError,
+    MechanismFindings,
+    ParallelLines,
+    StorageError,
+    SweepCancelled,
+)
 from .files.fileformat import dumps, load_mechanism
 from .model.mechanism import Driver, Mechanism, Slide, move_point
-from .model.naming import rename_link, rename_point
+from .reports.caution import CAUTION
 from .solver.mobility import Finding, diagnose
 from .solver.solve import Solution, solve_pose
-
-CAUTION = (
-    "Caution: rigid-body kinematics only (no deflection, clearance, dynamics or strength). Results must be "
-    "checked by a competent engineer; guarding and machine design follow local codes and licensed practice."
-)
-
 
 # Beyond this the angle's fraction of a turn is lost to rounding.
 MAX_ANGLE_DEG = 1e6
@@ -50,8 +53,9 @@ def construct(solution: Solution, **options) -> Construction:
 
 
 __all__ = [
-    "CAUTION", "CannotAssemble", "Component", "Construction", "Driver", "FileFormatError", "Finding", "KinematicsError",
-    "Mechanism", "MechanismFindings", "ParallelLines", "Polygon", "RelativeComponent", "Role", "Slide", "Solution",
-    "Step", "Sweep", "acceleration_components", "construct", "diagnose", "dumps", "load_mechanism", "move_point",
-    "rename_link", "rename_point", "solve", "sweep", "verify_sweep",
+    "CAUTION", "CannotAssemble", "Component", "Construction", "Driver", "FileFormatError", "Finding",
+    "KinematicsError", "Mechanism", "MechanismFindings", "ParallelLines", "Polygon", "RelativeComponent", "Role",
+    "Slide", "Solution", "Step", "StorageError", "Sweep", "SweepCancelled", "acceleration_components", "construct",
+    "diagnose", "dumps", "load_mechanism", "move_point", "rename_link", "rename_point", "solve", "sweep",
+    "verify_sweep",
 ]

@@ -36,3 +36,11 @@ class CannotAssemble(KinematicsError):
 
 class ParallelLines(KinematicsError):
     """Two construction lines that should intersect are parallel."""
+
+
+class StorageError(KinematicsError):
+    """A file that could not be written; nothing at the target was changed."""
+
+
+class SweepCancelled(KinematicsError):
+    """The ``progress`` callback of :func:`kinematics.sweep` asked to stop."""

@@ -13,7 +13,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from ..errors import CannotAssemble, KinematicsError, ParallelLines
+from ..errors import CannotAssemble, KinematicsError, ParallelLines, SweepCancelled
 from ..groups.decompose import decompose
 from ..groups.forms import Frame, acceleration, drive, position, velocity
 from ..model.mechanism import Mechanism
@@ -166,10 +166,6 @@ def change_points(mech: Mechanism, decomposition, angles_deg: np.ndarray, probe:
             if _nearness_at(mech, decomposition, name, 0.5 * (low + high)) >= 1.0 - CHANGE_POINT_TOUCH:
                 found.append((name, 0.5 * (low + high)))
     return found
-
-
-class SweepCancelled(KinematicsError):
-    """The ``progress`` callback of :func:`sweep` asked to stop."""
 
 
 # A sweep with a progress callback reports after every chunk of this many poses.

@@ -6,7 +6,7 @@ from __future__ import annotations
 import math
 import textwrap
 
-from .. import CAUTION
+from ..reports.caution import CAUTION
 from .scaling import bar_value, plain
 from .sheet import FRAME, Hatch, Line, Polyline, Recorder, Text
 from .style import ANNOTATION

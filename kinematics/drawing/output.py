@@ -6,8 +6,7 @@ from __future__ import annotations
 
 import sys
 
-from ..errors import CannotAssemble, KinematicsError, MechanismFindings, ParallelLines
-from ..files.storage import StorageError
+from ..errors import CannotAssemble, KinematicsError, MechanismFindings, ParallelLines, StorageError
 
 
 def construction_from_file(path, angle_deg=None):

@@ -17,15 +17,11 @@ import tempfile
 from collections.abc import Callable
 from pathlib import Path
 
-from ..errors import KinematicsError
+from ..errors import StorageError
 from ..model.mechanism import Mechanism
 from .fileformat import document_from_mechanism, dumps, mechanism_from_document, read_document
 
 RECOVERY_KEY = "x-kinepoly-recovery"
-
-
-class StorageError(KinematicsError):
-    """A file that could not be written; nothing at the target was changed."""
 
 
 def _umask() -> int:

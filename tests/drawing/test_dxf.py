@@ -16,7 +16,8 @@ from ezdxf import recover
 import kinematics
 from kinematics.drawing import style
 from kinematics.drawing.dxf import main, write_dxf
-from kinematics.files.storage import StorageError, replace_atomically
+from kinematics.errors import StorageError
+from kinematics.files.storage import replace_atomically
 from tests.designs import (
     BOTTLE_PUSHER,
     GATE_LIFTER,

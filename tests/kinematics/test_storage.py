@@ -12,7 +12,8 @@ import time
 import pytest
 
 import kinematics
-from kinematics.files.storage import StorageError, read_recovery, save_mechanism, write_recovery
+from kinematics.errors import StorageError
+from kinematics.files.storage import read_recovery, save_mechanism, write_recovery
 from tests.designs import SAMPLES
 
 KILLS = 200 if os.environ.get("KINEPOLY_FULL") else 20

@@ -142,7 +142,8 @@ def test_solve_does_not_depend_on_what_was_solved_before():
 
 
 def test_a_sweep_by_chunks_reports_progress_equals_the_whole_and_can_be_cancelled():
-    from kinematics.cycle.sweep import PROGRESS_CHUNK, SweepCancelled
+    from kinematics.cycle.sweep import PROGRESS_CHUNK
+    from kinematics.errors import SweepCancelled
 
     mech = kinematics.load_mechanism(SAMPLES / "stacker-transfer-stephenson.json")
     steps = 2 * PROGRESS_CHUNK + 500

@@ -18,7 +18,7 @@ from dataclasses import replace
 
 from ..errors import KinematicsError
 from ..files.fileformat import NAME_PATTERN
-from .mechanism import GROUND, Mechanism
+from ..model.mechanism import GROUND, Mechanism
 
 
 def _check_new_name(mechanism: Mechanism, kind: str, old: str, new) -> None:
