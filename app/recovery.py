@@ -132,7 +132,8 @@ def offer_recovery(window, folder: Path | None = None) -> bool:
         origin = f" (from {source})" if source else ""
         answer = QMessageBox.question(
             window, "Restore unsaved work?",
-            f"Kinepoly stopped before “{title}”{origin} was saved.\nA recovery copy from {when_in_words(saved_at)} is kept.\n\n"
+            f"Kinepoly stopped before “{title}”{origin} was saved.\n"
+            f"A recovery copy from {when_in_words(saved_at)} is kept.\n\n"
             "Restore it? (No deletes the copy.)")
         if answer == QMessageBox.StandardButton.Yes:
             window.restore(mechanism, source or None)
