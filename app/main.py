@@ -5,13 +5,14 @@ from __future__ import annotations
 
 import sys
 
-CORE_COMMANDS = ("check", "solve", "construct", "sweep", "export")
+CORE_COMMANDS = ("check", "solve", "construct", "centres", "sweep", "export")
 
 
 USAGE = """usage: kinepoly [FILE]                 open the drafting window (on FILE)
        kinepoly check FILE              mobility, Grashof, transmission angle, limit positions
        kinepoly solve FILE [--angle DEG] [--json | --csv]
        kinepoly construct FILE [--angle DEG] [--json]
+       kinepoly centres FILE [--angle DEG] [--json]
        kinepoly sweep FILE [--steps N] [-o cycle.csv] [--peaks] [--json]
        kinepoly render FILE [--angle DEG] -o view.png [--size 1600x1000]
        kinepoly print FILE [--angle DEG] [--paper A3] [--landscape] -o sheet.pdf

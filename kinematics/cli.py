@@ -1,4 +1,4 @@
-"""``kinepoly check | solve | construct | sweep | export`` — the analysis commands (no Qt).
+"""``kinepoly check | solve | construct | centres | sweep | export`` — the analysis commands (no Qt).
 
 Exit codes: 0 ok; 1 the output could not be written; 2 a bad file or a
 mechanism with findings (message on stderr names the place); 3 the linkage
@@ -137,6 +137,15 @@ def _construct(args) -> int:
     return 0
 
 
+def _centres(args) -> int:
+    from .centres import centres
+    from .centres.text import centres_json, centres_table
+
+    result = centres(solve(load_mechanism(args.file), args.angle))
+    _emit(json.dumps(centres_json(result), indent=1) if args.json else centres_table(result), args.output)
+    return 0
+
+
 def _sweep(args) -> int:
     from .cycle.peaks import peaks
     from .cycle.sweep import sweep, sweep_csv
@@ -170,6 +179,11 @@ def _parser():
         p.add_argument("-o", "--output", help="write to this file instead of the screen")
         if name == "solve":
             p.add_argument("--csv", action="store_true", help="the results table as CSV (SI units)")
+    ce = sub.add_parser("centres", help="instantaneous centres by Kennedy's theorem and their velocity check")
+    ce.add_argument("file")
+    ce.add_argument("--angle", type=float, default=None, help="driver angle in degrees (default: the file's pose)")
+    ce.add_argument("--json", action="store_true", help="machine-readable output in SI units")
+    ce.add_argument("-o", "--output", help="write to this file instead of the screen")
     sw = sub.add_parser("sweep", help="one driver turn: CSV of every pose, or the peaks table")
     sw.add_argument("file")
     sw.add_argument("--steps", type=int, default=360)
@@ -179,7 +193,7 @@ def _parser():
     return parser
 
 
-COMMANDS = {"check": _check, "solve": _solve, "construct": _construct, "sweep": _sweep}
+COMMANDS = {"check": _check, "solve": _solve, "construct": _construct, "sweep": _sweep, "centres": _centres}
 
 
 def main(argv=None) -> int:
