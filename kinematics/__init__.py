@@ -21,6 +21,7 @@ from .errors import (
     SweepCancelled,
 )
 from .files.fileformat import dumps, load_mechanism
+from .instantaneous.centres import centres
 from .model.mechanism import Driver, Mechanism, Slide, move_point
 from .reports.caution import CAUTION
 from .solver.mobility import Finding, diagnose
@@ -55,7 +56,7 @@ def construct(solution: Solution, **options) -> Construction:
 __all__ = [
     "CAUTION", "CannotAssemble", "Component", "Construction", "Driver", "FileFormatError", "Finding",
     "KinematicsError", "Mechanism", "MechanismFindings", "ParallelLines", "Polygon", "RelativeComponent", "Role",
-    "Slide", "Solution", "Step", "StorageError", "Sweep", "SweepCancelled", "acceleration_components", "construct",
-    "diagnose", "dumps", "load_mechanism", "move_point", "rename_link", "rename_point", "solve", "sweep",
-    "verify_sweep",
+    "Slide", "Solution", "Step", "StorageError", "Sweep", "SweepCancelled", "acceleration_components", "centres",
+    "construct", "diagnose", "dumps", "load_mechanism", "move_point", "rename_link", "rename_point", "solve",
+    "sweep", "verify_sweep",
 ]

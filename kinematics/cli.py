@@ -138,8 +138,8 @@ def _construct(args) -> int:
 
 
 def _centres(args) -> int:
-    from .centres import centres
-    from .centres.text import centres_json, centres_table
+    from . import centres
+    from .instantaneous.text import centres_json, centres_table
 
     result = centres(solve(load_mechanism(args.file), args.angle))
     _emit(json.dumps(centres_json(result), indent=1) if args.json else centres_table(result), args.output)

@@ -1,7 +1,7 @@
 """The output against the driver over the cycle, and the coupler's centrodes, from a sweep.
 
 Vectorised over the sweep's arrays. The velocity ratio and mechanical advantage are those of
-:mod:`kinematics.centres.advantage` at one pose; the output's rate is the one the check report
+:mod:`kinematics.instantaneous.advantage` at one pose; the output's rate is the one the check report
 uses (an output point's rate along its fixed slide, or along its path's principal direction).
 
 The centrodes are the paths of a link's instantaneous centre relative to the frame (the fixed

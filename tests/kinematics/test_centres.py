@@ -8,7 +8,8 @@ import numpy as np
 import pytest
 
 import kinematics
-from kinematics.centres import advantage, centres
+from kinematics import centres
+from kinematics.instantaneous.advantage import advantage
 from kinematics.model.mechanism import GROUND
 from tests.designs import (
     SAMPLE_FILES,

@@ -8,7 +8,7 @@ from hypothesis import given, settings
 from hypothesis import strategies as st
 
 import kinematics
-from kinematics.centres import centres
+from kinematics import centres
 from tests import CASE_FACTOR
 from tests.designs import (
     SAMPLE_FILES,

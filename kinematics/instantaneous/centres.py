@@ -1,10 +1,5 @@
-"""Instantaneous centres by Kennedy's theorem: every centre of a pose, the velocities they give
-(a third formulation beside the polygon and the solver), and the mechanical advantage.
+"""Every instantaneous centre of a pose and the velocities they give: the entry point of the layer."""
 
-See :mod:`kinematics.centres.kennedy` for the bodies and the order the centres are found in,
-:mod:`kinematics.centres.velocities` for the velocities, :mod:`kinematics.centres.advantage`
-for the output against the driver.
-"""
 
 from __future__ import annotations
 
@@ -13,9 +8,7 @@ from types import MappingProxyType
 from ..construction.construct import construct
 from ..errors import KinematicsError
 from ..solver.solve import Solution
-from .advantage import Advantage, advantage
-from .kennedy import Centre, Centres, body_names, describe, find_centres, pair_name
-from .lines import Place
+from .kennedy import Centres, find_centres
 from .velocities import crosscheck, motions, point_ratios
 
 
@@ -48,4 +41,4 @@ def centres(solution: Solution, construction=None) -> Centres:
                    max_relative_difference=worst, where=where, warnings=tuple(warnings))
 
 
-__all__ = ["Advantage", "Centre", "Centres", "Place", "advantage", "body_names", "centres", "describe", "pair_name"]
+__all__ = ["centres"]
