@@ -137,7 +137,7 @@ def _in_words(err, root: dict) -> tuple[str, str]:
 def _section_words(err, section: str, where: str) -> tuple[str, str]:
     """(message, location) of a refusal that only the place it is at can put in words."""
     rule, value, definition = err.rule, err.value, err.definition or {}
-    kind = definition.get("type")
+    json_type = definition.get("type")
     if not where:
         return "a mechanism file holds one JSON object", where
     if section in ("title", "notes"):
@@ -147,7 +147,7 @@ def _section_words(err, section: str, where: str) -> tuple[str, str]:
     if section == "points":
         if where == "points":
             return "points must be an object of name: [x, y]", where
-        point = where.rsplit("[", 1)[0] if kind == "number" else where
+        point = where.rsplit("[", 1)[0] if json_type == "number" else where
         if rule in ("minimum", "maximum"):
             return f"a coordinate is beyond ±{definition['maximum']:g} length units", point
         return "a point is [x, y] with two finite numbers", point
@@ -164,7 +164,7 @@ def _section_words(err, section: str, where: str) -> tuple[str, str]:
             return "slides must be an object of name: {point, guide, line}", where
         if rule == "anyOf":
             return f'unknown guide {_shown(value)} (use "ground" or a link name)', where
-        if kind == "array":
+        if json_type == "array":
             return "line is [E, F], two point names", where
         return 'a slide is {"point": ..., "guide": ..., "line": [E, F]}', where
     if section == "driver":
@@ -174,7 +174,7 @@ def _section_words(err, section: str, where: str) -> tuple[str, str]:
             return f"driver kind {_shown(value)} is not supported by this version (rotary only)", where
         if rule == "enum":
             return f"unknown unit {_shown(value)} (use {_choices(definition['enum'])})", where
-        if kind == "number":
+        if json_type == "number":
             if rule in ("minimum", "maximum"):
                 return f"value is beyond ±{definition['maximum']:g}", where
             return "value must be a finite number", where
