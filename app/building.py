@@ -16,7 +16,7 @@ import string
 from dataclasses import replace
 
 from kinematics import Driver, Mechanism, Slide, move_point
-from kinematics.model.mechanism import GROUND
+from kinematics.model.mechanism import GROUND, slide_offset
 
 DEFAULT_SPEED_RPM = 60.0
 
@@ -151,16 +151,9 @@ def delete_point(mech: Mechanism, name: str) -> Mechanism:
 def keep_slides_on_guides(mechanism: Mechanism) -> Mechanism:
     """Each sliding point set back onto its slide line (as the file format requires of a reference pose)."""
     for slide in mechanism.slides.values():
-        (ex, ey), (fx, fy) = (mechanism.points[p] for p in slide.line)
-        dx, dy = fx - ex, fy - ey
-        length2 = dx * dx + dy * dy
-        if length2 == 0.0:
-            continue
-        px, py = mechanism.points[slide.point]
-        t = ((px - ex) * dx + (py - ey) * dy) / length2
-        on_line = (ex + t * dx, ey + t * dy)
-        if math.hypot(px - on_line[0], py - on_line[1]) > 1e-12 * math.sqrt(length2):
-            mechanism = move_point(mechanism, slide.point, on_line)
+        off, foot = slide_offset(mechanism, slide)
+        if off:
+            mechanism = move_point(mechanism, slide.point, foot)
     return mechanism
 
 

@@ -16,7 +16,21 @@ class KinematicsError(Exception):
 
 
 class FileFormatError(KinematicsError):
-    """A mechanism file that is not well-formed."""
+    """A mechanism file that is not well-formed. ``kind`` names the rule it breaks:
+
+    - ``"text"``: not JSON text, or (a document given as Python objects) not JSON data;
+    - ``"version"``: the ``kinepoly`` format version is missing, not a whole number, or newer;
+    - ``"structure"``: the JSON Schema of the format (keys, types, names, limits);
+    - ``"reference"``: what no schema can say of names: one that must exist does not, two
+      differ only in case, a driver pivot off ground, a slide line not fixed in its guide;
+    - ``"geometry"``: the reference pose: coincident points, a slide point off its line.
+    """
+
+    KINDS = ("text", "version", "structure", "reference", "geometry")
+
+    def __init__(self, message: str, location: str = "", kind: str = "structure"):
+        self.kind = kind
+        super().__init__(message, location)
 
 
 class MechanismFindings(KinematicsError):

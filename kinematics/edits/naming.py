@@ -17,8 +17,8 @@ from __future__ import annotations
 from dataclasses import replace
 
 from ..errors import KinematicsError
-from ..files.fileformat import NAME_PATTERN
-from ..model.mechanism import GROUND, Mechanism
+from ..files.fileschema import NAME_PATTERN, RESERVED_NAME
+from ..model.mechanism import Mechanism
 
 
 def _check_new_name(mechanism: Mechanism, kind: str, old: str, new) -> None:
@@ -31,7 +31,7 @@ def _check_new_name(mechanism: Mechanism, kind: str, old: str, new) -> None:
     if not NAME_PATTERN.fullmatch(new):
         raise KinematicsError(f'{kind} {old} cannot be called "{new}": a name is a letter, then letters, '
                               "digits or _", where)
-    if new.lower() == GROUND:
+    if RESERVED_NAME.search(new):
         raise KinematicsError(f'{kind} {old} cannot be called "{new}": "ground" names the frame', where)
     taken = ([("point", n) for n in mechanism.points] + [("link", n) for n in mechanism.links]
              + [("slide", n) for n in mechanism.slides])

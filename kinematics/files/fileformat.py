@@ -3,8 +3,10 @@
 ``load_mechanism`` accepts every well-formed file, unfinished designs
 included, and refuses everything else with a :class:`FileFormatError` whose
 ``location`` names the place (``links.coupler[2]``, ``file.json line 4`` ...).
-The format is described in ``docs/file-format.md`` and by the JSON Schema
-``kinematics/files/schema/mechanism-1.schema.json``.
+The format is described in ``docs/file-format.md``; its structure is the JSON
+Schema of the file's version (:mod:`kinematics.files.fileschema`), and what a schema
+cannot say is checked here: names that exist and differ ignoring case, a driver
+pivot on ground, the reference pose (points on their slide lines ...).
 """
 
 from __future__ import annotations
@@ -12,24 +14,16 @@ from __future__ import annotations
 import json
 import math
 import os
-import re
+from collections import deque
+from dataclasses import replace
 from pathlib import Path
 
 from ..errors import FileFormatError
-from ..model.mechanism import GROUND, Driver, Mechanism, Slide
-from ..model.units import METRES_PER_LENGTH_UNIT, RAD_S2_PER_ACCELERATION_UNIT, RAD_S_PER_SPEED_UNIT
+from ..model.mechanism import GROUND, Driver, Mechanism, Slide, slide_offset
+from ..model.units import METRES_PER_LENGTH_UNIT
+from .fileschema import FORMAT_VERSION, check_structure, format_version
 
-FORMAT_VERSION = 1
 MAX_FILE_BYTES = 10 * 1024 * 1024
-MAX_NESTING = 8
-NAME_PATTERN = re.compile(r"[A-Za-z][A-Za-z0-9_]*")  # the whole name: use fullmatch
-SCHEMA_PATH = Path(__file__).with_name("schema") / "mechanism-1.schema.json"
-TOP_LEVEL_KEYS = (
-    "kinepoly", "title", "notes", "length_unit", "points", "ground", "links",
-    "slides", "driver", "output", "analysis_angles_deg",
-)
-# A point this close to its slide line (relative to the mechanism's size) is on it.
-ON_LINE_RELATIVE = 1e-9
 # Farther than this from its line (in mm) a slide point is refused, nearer it is moved.
 SNAP_LIMIT_MM = 0.05
 
@@ -57,15 +51,16 @@ def parse_text(text: str, where: str) -> dict:
         data = json.loads(text, object_pairs_hook=_pairs_without_repeats,
                           parse_constant=_refuse_constant)
     except _Duplicate as dup:
-        raise FileFormatError(f'the key "{dup.args[0]}" appears twice in one object', where) from None
+        raise FileFormatError(f'the key "{dup.args[0]}" appears twice in one object', where, "text") from None
     except json.JSONDecodeError as err:
-        raise FileFormatError(f"not valid JSON: {err.msg}", f"{where} line {err.lineno} column {err.colno}") from None
+        raise FileFormatError(f"not valid JSON: {err.msg}", f"{where} line {err.lineno} column {err.colno}",
+                              "text") from None
     except ValueError as err:
-        raise FileFormatError(str(err), where) from None
+        raise FileFormatError(str(err), where, "text") from None
     except RecursionError:
-        raise FileFormatError("nested too deeply", where) from None
+        raise FileFormatError("nested too deeply", where, "text") from None
     if not isinstance(data, dict):
-        raise FileFormatError("a mechanism file holds one JSON object", where)
+        raise FileFormatError("a mechanism file holds one JSON object", where, "text")
     return data
 
 
@@ -76,239 +71,162 @@ def read_document(path) -> dict:
     try:
         size = path.stat().st_size
         if size > MAX_FILE_BYTES:
-            raise FileFormatError(f"the file is {size / 1e6:.1f} MB; mechanism files are at most 10 MB", where)
+            raise FileFormatError(f"the file is {size / 1e6:.1f} MB; mechanism files are at most 10 MB", where,
+                                  "text")
         raw = path.read_bytes()
     except OSError as err:
-        raise FileFormatError(f"cannot read the file: {err.strerror or err}", where) from None
+        raise FileFormatError(f"cannot read the file: {err.strerror or err}", where, "text") from None
     try:
         text = raw.decode("utf-8")
     except UnicodeDecodeError as err:
-        raise FileFormatError(f"not UTF-8 text (byte {err.start})", where) from None
+        raise FileFormatError(f"not UTF-8 text (byte {err.start})", where, "text") from None
     return parse_text(text.removeprefix("\ufeff"), where)
 
 
-def _depth(value, level=0):
-    if level > MAX_NESTING:
-        return level
-    if isinstance(value, dict):
-        return max([_depth(v, level + 1) for v in value.values()], default=level + 1)
-    if isinstance(value, list):
-        return max([_depth(v, level + 1) for v in value], default=level + 1)
-    return level
+_JSON_SPELLING = {"nan": "NaN", "inf": "Infinity", "-inf": "-Infinity"}
 
 
-# Coordinates and rates beyond these magnitudes are no machine (and would overflow on squaring).
-MAX_COORDINATE = 1e9
-MAX_RATE = 1e9
+def check_json_data(doc) -> None:
+    """Refuse a document given as Python objects unless it holds only what JSON text can (text
+    keys; objects, arrays, text, finite numbers, true, false, null), naming the first place that
+    does not. A schema speaks of JSON values only, so this comes before it (``kind="text"``)."""
+    queue, seen = deque([(doc, "")]), set()
+    while queue:
+        value, where = queue.popleft()
+        if isinstance(value, (dict, list)):
+            if id(value) in seen:
+                continue  # shared, or a loop: looked at once; the schema's nesting limit refuses a loop
+            seen.add(id(value))
+            for key, item in (value.items() if isinstance(value, dict) else enumerate(value)):
+                if isinstance(value, dict) and not isinstance(key, str):
+                    raise FileFormatError(f"the key {key!r} is not text", where, "text")
+                queue.append((item, f"{where}[{key}]" if isinstance(value, list) else
+                              f"{where}.{key}" if where else key))
+        elif isinstance(value, float) and not math.isfinite(value):
+            raise FileFormatError(f"{_JSON_SPELLING[repr(value)]} is not a number this format accepts", where, "text")
+        elif value is not None and not isinstance(value, (str, int, float)):
+            raise FileFormatError(f"a Python {type(value).__name__} is not JSON data", where, "text")
 
 
-def _is_number(value, limit: float = math.inf) -> bool:
-    if not isinstance(value, (int, float)) or isinstance(value, bool):
-        return False
-    try:
-        return math.isfinite(float(value)) and abs(float(value)) <= limit
-    except OverflowError:
-        return False
+def _refuse(message: str, location: str, kind: str = "reference"):
+    raise FileFormatError(message, location, kind)
 
 
-def _expect(condition, message, location):
-    if not condition:
-        raise FileFormatError(message, location)
+def _check_names_differ(doc):
+    """Points, links and slides share one set of names that differ ignoring case (image labels are
+    lower-case point names)."""
+    seen = {}
+    for section in ("points", "links", "slides"):
+        for name in doc.get(section, {}):
+            folded = name.lower()
+            if folded in seen:
+                _refuse(f'name "{name}" clashes with "{seen[folded]}" (names must differ ignoring case)',
+                        f"{section}.{name}")
+            seen[folded] = name
 
 
-def _check_name(name, location, seen_folded: dict):
-    _expect(isinstance(name, str) and NAME_PATTERN.fullmatch(name),
-            f'"{name}" is not a valid name (a letter, then letters, digits or _)', location)
-    _expect(name.lower() != GROUND, '"ground" is reserved', location)
-    folded = name.lower()
-    if folded in seen_folded:
-        raise FileFormatError(f'name "{name}" clashes with "{seen_folded[folded]}" '
-                              "(names must differ ignoring case)", location)
-    seen_folded[folded] = name
+def _check_point_names(names, points, where):
+    for i, name in enumerate(names):
+        if name not in points:
+            _refuse(f'unknown point "{name}"', f"{where}[{i}]")
 
 
-def _read_points(doc, names):
-    points = doc["points"]
-    _expect(isinstance(points, dict), "points must be an object of name: [x, y]", "points")
-    for name, xy in points.items():
-        _check_name(name, f"points.{name}", names)
-        _expect(isinstance(xy, list) and len(xy) == 2 and all(_is_number(c) for c in xy),
-                "a point is [x, y] with two finite numbers", f"points.{name}")
-        _expect(all(_is_number(c, MAX_COORDINATE) for c in xy),
-                f"a coordinate is beyond ±{MAX_COORDINATE:g} length units", f"points.{name}")
-    return points
+def _check_links(links, points):
+    for name, members in links.items():
+        _check_point_names(members, points, f"links.{name}")
+        first, second = members[:2]
+        if points[first] == points[second]:
+            _refuse(f"the first two points {first} and {second} coincide; they fix the link's angle",
+                    f"links.{name}", "geometry")
 
 
-def _read_ground(doc, points):
-    ground = doc.get("ground", [])
-    _expect(isinstance(ground, list), "ground must be a list of point names", "ground")
-    for i, name in enumerate(ground):
-        _expect(isinstance(name, str) and name in points, f'unknown point "{name}"', f"ground[{i}]")
-        _expect(ground.index(name) == i, f'point "{name}" is listed twice', f"ground[{i}]")
-    return ground
-
-
-def _read_links(doc, points, names):
-    links = doc["links"]
-    _expect(isinstance(links, dict), "links must be an object of name: [point names]", "links")
-    for name, pts in links.items():
-        where = f"links.{name}"
-        _check_name(name, where, names)
-        _expect(isinstance(pts, list), "a link is a list of point names", where)
-        for i, p in enumerate(pts):
-            _expect(isinstance(p, str) and p in points, f'unknown point "{p}"', f"{where}[{i}]")
-            _expect(pts.index(p) == i, f'point "{p}" is listed twice', f"{where}[{i}]")
-        distinct = {tuple(points[p]) for p in pts}
-        _expect(len(distinct) >= 2, "a link needs at least two points", where)
-        _expect(tuple(points[pts[0]]) != tuple(points[pts[1]]),
-                f"the first two points {pts[0]} and {pts[1]} coincide; they fix the link's angle", where)
-    return links
-
-
-def _read_slides(doc, points, ground, links, names):
-    slides = doc.get("slides", {})
-    _expect(isinstance(slides, dict), "slides must be an object of name: {point, guide, line}", "slides")
+def _read_slides(doc, points, ground, links):
     result = {}
-    for name, spec in slides.items():
+    for name, spec in doc.get("slides", {}).items():
         where = f"slides.{name}"
-        _check_name(name, where, names)
-        _expect(isinstance(spec, dict), "a slide is {\"point\": ..., \"guide\": ..., \"line\": [E, F]}", where)
-        for key in spec:
-            _expect(key in ("point", "guide", "line"), f'unknown key "{key}"', f"{where}.{key}")
-        for key in ("point", "guide", "line"):
-            _expect(key in spec, f'missing "{key}"', where)
-        point, guide, line = spec["point"], spec["guide"], spec["line"]
-        _expect(isinstance(point, str) and point in points, f'unknown point "{point}"', f"{where}.point")
-        _expect(isinstance(guide, str) and (guide == GROUND or guide in links),
-                f'unknown guide "{guide}" (use "ground" or a link name)', f"{where}.guide")
-        _expect(isinstance(line, list) and len(line) == 2, "line is [E, F], two point names", f"{where}.line")
+        point, guide, (e, f) = spec["point"], spec["guide"], spec["line"]
+        if point not in points:
+            _refuse(f'unknown point "{point}"', f"{where}.point")
+        if guide != GROUND and guide not in links:
+            _refuse(f'unknown guide "{guide}" (use "ground" or a link name)', f"{where}.guide")
         guide_points = ground if guide == GROUND else links[guide]
-        for i, p in enumerate(line):
-            _expect(isinstance(p, str) and p in points, f'unknown point "{p}"', f"{where}.line[{i}]")
-            _expect(p in guide_points, f'point {p} is not fixed in the guide {guide}', f"{where}.line[{i}]")
-        _expect(point not in guide_points, f"point {point} belongs to the guide {guide} itself", f"{where}.point")
-        e, f = line
-        _expect(tuple(points[e]) != tuple(points[f]), f"guide line {e}-{f} has zero length", where)
+        _check_point_names(spec["line"], points, f"{where}.line")
+        for i, p in enumerate(spec["line"]):
+            if p not in guide_points:
+                _refuse(f"point {p} is not fixed in the guide {guide}", f"{where}.line[{i}]")
+        if point in guide_points:
+            _refuse(f"point {point} belongs to the guide {guide} itself", f"{where}.point")
+        if points[e] == points[f]:
+            _refuse(f"guide line {e}-{f} has zero length", where, "geometry")
         result[name] = Slide(name=name, point=point, guide=guide, line=(e, f))
     return result
 
 
-def _quantity(spec, units, where, default_unit):
-    _expect(isinstance(spec, dict) and "value" in spec, '{"value": number, "unit": ...} expected', where)
-    for key in spec:
-        _expect(key in ("value", "unit"), f'unknown key "{key}"', f"{where}.{key}")
-    _expect(_is_number(spec["value"]), "value must be a finite number", f"{where}.value")
-    _expect(_is_number(spec["value"], MAX_RATE), f"value is beyond ±{MAX_RATE:g}", f"{where}.value")
-    unit = spec.get("unit", default_unit)
-    _expect(isinstance(unit, str) and unit in units, f'unknown unit "{unit}" (use {" or ".join(units)})',
-            f"{where}.unit")
-    return spec["value"], unit
-
-
-def _read_driver(doc, ground, links):
-    spec = doc.get("driver")
+def _read_driver(spec, ground, links):
     if spec is None:
         return None
-    _expect(isinstance(spec, dict), "driver must be an object", "driver")
-    kind = spec.get("kind", "rotary")
-    _expect(kind == "rotary", f'driver kind "{kind}" is not supported by this version (rotary only)', "driver.kind")
-    for key in spec:
-        _expect(key in ("kind", "link", "pivot", "speed", "angular_acceleration"), f'unknown key "{key}"',
-                f"driver.{key}")
-    for key in ("link", "pivot", "speed"):
-        _expect(key in spec, f'missing "{key}"', "driver")
     link, pivot = spec["link"], spec["pivot"]
-    _expect(isinstance(link, str) and link in links, f'unknown link "{link}"', "driver.link")
-    _expect(isinstance(pivot, str) and pivot in links[link], f'"{pivot}" is not a point of link {link}', "driver.pivot")
-    _expect(pivot in ground, f"the driver pivot {pivot} must be a ground point", "driver.pivot")
-    speed, speed_unit = _quantity(spec["speed"], tuple(RAD_S_PER_SPEED_UNIT), "driver.speed", "rpm")
-    accel, accel_unit = _quantity(spec.get("angular_acceleration", {"value": 0, "unit": "rad/s^2"}),
-                                  tuple(RAD_S2_PER_ACCELERATION_UNIT),
-                                  "driver.angular_acceleration", "rad/s^2")
-    return Driver(link=link, pivot=pivot, speed_value=speed, speed_unit=speed_unit,
-                  angular_acceleration_value=accel, angular_acceleration_unit=accel_unit)
+    if link not in links:
+        _refuse(f'unknown link "{link}"', "driver.link")
+    if pivot not in links[link]:
+        _refuse(f'"{pivot}" is not a point of link {link}', "driver.pivot")
+    if pivot not in ground:
+        _refuse(f"the driver pivot {pivot} must be a ground point", "driver.pivot")
+    speed = spec["speed"]
+    accel = spec.get("angular_acceleration", {})
+    return Driver(link=link, pivot=pivot, speed_value=speed["value"], speed_unit=speed.get("unit", "rpm"),
+                  angular_acceleration_value=accel.get("value", 0),
+                  angular_acceleration_unit=accel.get("unit", "rad/s^2"))
 
 
-def _read_output(doc, points, links):
-    spec = doc.get("output")
+def _read_output(spec, points, links):
     if spec is None:
         return None
-    _expect(isinstance(spec, dict) and len(spec) == 1 and next(iter(spec)) in ("link", "point"),
-            'output is {"link": name} or {"point": name}', "output")
-    kind, name = next(iter(spec.items()))
-    known = links if kind == "link" else points
-    _expect(isinstance(name, str) and name in known, f'unknown {kind} "{name}"', f"output.{kind}")
+    ((kind, name),) = spec.items()
+    if name not in (links if kind == "link" else points):
+        _refuse(f'unknown {kind} "{name}"', f"output.{kind}")
     return {kind: name}
 
 
-def _snap_slide_points(points, slides, length_unit, size):
-    """Move slide points that lie a hair off their lines onto them; refuse the rest."""
+def _snap_slide_points(mechanism: Mechanism) -> Mechanism:
+    """Move slide points that lie a hair off their lines onto them, saying so; refuse the rest."""
     warnings = []
-    mm_per_unit = METRES_PER_LENGTH_UNIT[length_unit] * 1000.0
-    for slide in slides.values():
-        (ex, ey), (fx, fy) = points[slide.line[0]], points[slide.line[1]]
-        dx, dy = fx - ex, fy - ey
-        length = math.hypot(dx, dy)
-        px, py = points[slide.point]
-        off = ((px - ex) * dy - (py - ey) * dx) / length
-        if abs(off) <= ON_LINE_RELATIVE * max(size, length):
+    mm_per_unit = METRES_PER_LENGTH_UNIT[mechanism.length_unit] * 1000.0
+    for slide in mechanism.slides.values():
+        off, foot = slide_offset(mechanism, slide)
+        if not off:
             continue
         off_mm = abs(off) * mm_per_unit
         where = f"slides.{slide.name}"
+        line = f"{slide.line[0]}-{slide.line[1]}"
         if off_mm > SNAP_LIMIT_MM:
-            raise FileFormatError(
-                f"point {slide.point} is {off_mm:.3g} mm off the line {slide.line[0]}-{slide.line[1]} "
-                "in the reference pose",
-                where)
-        points[slide.point] = [px - off * dy / length, py + off * dx / length]
-        warnings.append(f"{where}: point {slide.point} was {off_mm:.3g} mm off the line "
-                        f"{slide.line[0]}-{slide.line[1]} and was moved onto it")
-    return warnings
+            _refuse(f"point {slide.point} is {off_mm:.3g} mm off the line {line} in the reference pose", where,
+                    "geometry")
+        mechanism = replace(mechanism, points={**mechanism.points, slide.point: foot})
+        warnings.append(f"{where}: point {slide.point} was {off_mm:.3g} mm off the line {line} and was moved onto it")
+    return replace(mechanism, warnings=tuple(warnings))
 
 
 def mechanism_from_document(doc: dict, where: str = "") -> Mechanism:
     """Check a parsed document and build the Mechanism (see module doc)."""
-    _expect(isinstance(doc, dict), "a mechanism file holds one JSON object", where)
-    _expect(_depth(doc) <= MAX_NESTING, f"nested deeper than the format allows ({MAX_NESTING} levels)", where)
-    _expect("kinepoly" in doc, 'missing "kinepoly": this is not a Kinepoly mechanism file', "kinepoly")
-    version = doc["kinepoly"]
-    _expect(isinstance(version, int) and not isinstance(version, bool) and version >= 1,
-            "kinepoly must be the format version, a whole number", "kinepoly")
-    _expect(version <= FORMAT_VERSION,
-            f"this file is format version {version}; this Kinepoly reads version {FORMAT_VERSION} "
-            "(a newer Kinepoly wrote it)", "kinepoly")
-    extensions = {}
-    for key in doc:
-        if key.startswith("x-"):
-            extensions[key] = doc[key]
-        else:
-            _expect(key in TOP_LEVEL_KEYS, f'unknown key "{key}" (own additions start with "x-")', key)
-    for key in ("points", "links"):
-        _expect(key in doc, f'missing "{key}"', key)
-    for key in ("title", "notes"):
-        _expect(isinstance(doc.get(key, ""), str), f"{key} must be text", key)
-    length_unit = doc.get("length_unit", "mm")
-    _expect(isinstance(length_unit, str) and length_unit in METRES_PER_LENGTH_UNIT,
-            f'unknown length unit "{length_unit}" (use mm, m or in)',
-            "length_unit")
-    names: dict = {}
-    points = {k: list(v) for k, v in _read_points(doc, names).items()}
-    ground = _read_ground(doc, points)
-    links = _read_links(doc, points, names)
-    slides = _read_slides(doc, points, ground, links, names)
-    driver = _read_driver(doc, ground, links)
-    output = _read_output(doc, points, links)
-    angles = doc.get("analysis_angles_deg", [])
-    _expect(isinstance(angles, list) and all(_is_number(a) for a in angles),
-            "analysis_angles_deg is a list of finite numbers", "analysis_angles_deg")
-    size = Mechanism(points=points, links={}).size
-    warnings = _snap_slide_points(points, slides, length_unit, size)
-    return Mechanism(
-        points={k: tuple(v) for k, v in points.items()}, ground=tuple(ground),
-        links={k: tuple(v) for k, v in links.items()}, slides=slides, driver=driver, output=output,
-        analysis_angles_deg=tuple(angles), title=doc.get("title", ""), notes=doc.get("notes", ""),
-        length_unit=length_unit, extensions=extensions, warnings=tuple(warnings),
+    if not isinstance(doc, dict):
+        _refuse("a mechanism file holds one JSON object", where, "structure")
+    check_structure(doc, format_version(doc))
+    _check_names_differ(doc)
+    points = {k: tuple(v) for k, v in doc["points"].items()}
+    ground = doc.get("ground", [])
+    _check_point_names(ground, points, "ground")
+    links = doc["links"]
+    _check_links(links, points)
+    mechanism = Mechanism(
+        points=points, ground=ground, links=links, slides=_read_slides(doc, points, ground, links),
+        driver=_read_driver(doc.get("driver"), ground, links),
+        output=_read_output(doc.get("output"), points, links),
+        analysis_angles_deg=doc.get("analysis_angles_deg", ()), title=doc.get("title", ""),
+        notes=doc.get("notes", ""), length_unit=doc.get("length_unit", "mm"),
+        extensions={k: v for k, v in doc.items() if k.startswith("x-")},
     )
+    return _snap_slide_points(mechanism)
 
 
 def load_mechanism(source) -> Mechanism:
@@ -317,18 +235,21 @@ def load_mechanism(source) -> Mechanism:
     Raises
     ------
     FileFormatError
-        for anything not well-formed, with ``location`` naming the place.
+        for anything not well-formed, with ``location`` naming the place and ``kind``
+        the rule it breaks.
     """
     if isinstance(source, dict):
+        check_json_data(source)
         return mechanism_from_document(source, "document")
     if not isinstance(source, (str, os.PathLike)):
-        raise FileFormatError(f"give a file path or a parsed mechanism document, not {type(source).__name__}")
+        raise FileFormatError(f"give a file path or a parsed mechanism document, not {type(source).__name__}",
+                              kind="text")
     doc = read_document(source)
     try:
         return mechanism_from_document(doc, str(source))
     except FileFormatError as err:
         where = f"{os.fspath(source)}: {err.location}" if err.location else os.fspath(source)
-        raise FileFormatError(err.detail, where) from None
+        raise FileFormatError(err.detail, where, err.kind) from None
 
 
 def document_from_mechanism(mechanism: Mechanism) -> dict:
@@ -365,4 +286,4 @@ def dumps(mechanism: Mechanism) -> str:
     try:
         return json.dumps(document_from_mechanism(mechanism), indent=2, ensure_ascii=False, allow_nan=False) + "\n"
     except ValueError as err:
-        raise FileFormatError(f"the design holds a number a file cannot store: {err}", "extensions") from None
+        raise FileFormatError(f"the design holds a number a file cannot store: {err}", "extensions", "text") from None

@@ -17,6 +17,9 @@ from ..errors import KinematicsError
 from .units import RAD_S2_PER_ACCELERATION_UNIT, RAD_S_PER_SPEED_UNIT, metres_per
 
 GROUND = "ground"
+# A point this close to its slide line, relative to the larger of the mechanism's size and the
+# line's length, is on it: the one tolerance of loading a file and of editing a design.
+ON_LINE_RELATIVE = 1e-9
 
 
 @dataclass(frozen=True)
@@ -150,3 +153,22 @@ def move_point(mechanism: Mechanism, name: str, xy) -> Mechanism:
         raise KinematicsError(f"point {name} cannot go to ({x}, {y}): coordinates must be finite", f"points.{name}")
     points[name] = (x, y)
     return replace(mechanism, points=points, warnings=())
+
+
+def slide_offset(mechanism: Mechanism, slide: Slide) -> tuple[float, tuple[float, float]]:
+    """(signed distance in ``length_unit`` of the slide's point from its line, the foot of the
+    perpendicular on the line); the distance is 0.0, and the foot the point itself, when the
+    point is on the line within :data:`ON_LINE_RELATIVE` or the line has no length.
+
+    >>> m = Mechanism(points={"E": (0, 0), "F": (10, 0), "D": (4, 0.5)}, links={})
+    >>> slide_offset(m, Slide("s", "D", "ground", ("E", "F")))
+    (-0.5, (4.0, 0.0))
+    """
+    (ex, ey), (fx, fy) = (mechanism.points[p] for p in slide.line)
+    px, py = mechanism.points[slide.point]
+    dx, dy = fx - ex, fy - ey
+    length = math.hypot(dx, dy)
+    off = ((px - ex) * dy - (py - ey) * dx) / length if length else 0.0
+    if abs(off) <= ON_LINE_RELATIVE * max(mechanism.size, length):
+        return 0.0, (px, py)
+    return off, (px - off * dy / length, py + off * dx / length)

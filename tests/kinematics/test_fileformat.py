@@ -10,7 +10,7 @@ import jsonschema
 import pytest
 
 import kinematics
-from kinematics.files.fileformat import SCHEMA_PATH
+from kinematics.files.fileschema import SCHEMA_PATH
 from tests.designs import SAMPLE_FILES, SAMPLES, four_bar, slider_crank
 
 
@@ -50,7 +50,9 @@ MESSAGES = [
     (lambda d: d["points"].update(ground=[1, 2]), 'points.ground: "ground" is reserved'),
     (lambda d: d["points"].update({"C\n": [1, 2]}),
      'points.C\n: "C\n" is not a valid name (a letter, then letters, digits or _)'),
-    (lambda d: d["points"].update(B=[1, float("nan")]), "points.B: a point is [x, y] with two finite numbers"),
+    (lambda d: d["points"].update(B=[1, "2"]), "points.B: a point is [x, y] with two finite numbers"),
+    # NaN is no JSON value, so no schema can refuse it: a parsed document is checked for JSON data first.
+    (lambda d: d["points"].update(B=[1, float("nan")]), "points.B[1]: NaN is not a number this format accepts"),
     (lambda d: d.pop("links"), 'links: missing "links"'),
     (lambda d: d.update(colour="red"), 'colour: unknown key "colour" (own additions start with "x-")'),
     (lambda d: d["driver"].update(pivot="A"), "driver.pivot: the driver pivot A must be a ground point"),
