@@ -46,9 +46,9 @@ def _bound(report, painted: bytes, temporary: str) -> None:
     pdf.add_metadata({"/Title": report.title, "/Subject": report.subject, "/Creator": "Kinepoly",
                       "/Keywords": f"kinepoly design review; SHA-256 {report.fingerprint}"})
     for entry in report.outline:
-        parent = pdf.add_outline_item(entry.title, entry.page)
+        parent = pdf.add_outline_item(title=entry.title, page_number=entry.page)
         for child in entry.children:
-            pdf.add_outline_item(child.title, child.page, parent=parent)
+            pdf.add_outline_item(title=child.title, page_number=child.page, parent=parent)
     pdf.page_mode = "/UseOutlines"  # a reader opens with the bookmarks shown
     with open(temporary, "wb") as stream:
         pdf.write(stream)

@@ -139,7 +139,9 @@ class _Pages:
 
 
 def _prose(text: str, width: float) -> list:
-    return textwrap.wrap(text, width=max(10, int(width / (BODY_TEXT * PROSE_WIDTH_PER_HEIGHT)))) or [""]
+    # Never broken at a hyphen: "Gruebler-Kutzbach" stays one word.
+    return textwrap.wrap(text, width=max(10, int(width / (BODY_TEXT * PROSE_WIDTH_PER_HEIGHT))),
+                         break_on_hyphens=False) or [""]
 
 
 def _wrap_preformatted(line: str, columns: int) -> list:

@@ -54,7 +54,7 @@ def angle_words(review: Review) -> str:
 
 
 def _lines(text: str, width: float, height: float) -> list:
-    return textwrap.wrap(text, width=max(20, int(width / (height * PROSE_WIDTH_PER_HEIGHT))))
+    return textwrap.wrap(text, width=max(20, int(width / (height * PROSE_WIDTH_PER_HEIGHT))), break_on_hyphens=False)
 
 
 def _wrapped(rec: Recorder, text: str, x: float, y: float, width: float, height: float) -> float:
