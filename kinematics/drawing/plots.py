@@ -99,7 +99,9 @@ def _value_range(plot: Plot) -> tuple:
         half = 0.1 * largest if largest > 1e-9 else 1.0
         return low - half, high + half
     room = MARGIN_SHARE * (high - low)
-    return low - room, high + room
+    # A quantity that is never negative (a size |v|, an angle) keeps its axis from zero up.
+    bottom = low - room if low < 0.0 else max(0.0, low - room)
+    return bottom, high + room
 
 
 def _legend(rec: Recorder, plot: Plot, x0: float, x1: float, top: float, ids: dict) -> float:

@@ -7,10 +7,10 @@ from __future__ import annotations
 import numpy as np
 
 from ..cycle.checks import output_coordinate, transmission_angles
-from ..cycle.peaks import peaks
+from ..cycle.peaks import DEAD_POINT_SHARE, peaks
 from ..cycle.sweep import sweep
 from ..drawing.pages import HEADING_TEXT, PITCH, Heading, Paragraph, Preformatted, body_box, paginate, paper_size
-from ..drawing.plots import Curve, Plot, draw_plot
+from ..drawing.plots import SMALL, Curve, Plot, draw_plot
 from ..drawing.sheet import Recorder, Text
 from ..drawing.style import ANNOTATION
 from ..errors import KinematicsError, SweepCancelled
@@ -25,13 +25,15 @@ ANGLE = "driver angle θ [°]"
 
 def _abscissa(result):
     """(driver angles as plotted, order of the poses, fixed x range): a full turn wrapped to
-    [0°, 360°) and read from 0°, a rocking driver's range in increasing angle."""
+    [0°, 360°) and read from 0°, a rocking driver's range in increasing angle less its outer
+    DEAD_POINT_SHARE at each end, where speeds grow without bound (as the peaks leave it out)."""
     angles = np.asarray(result.driver_angle_deg, dtype=float)
     if result.full_turn:
         wrapped = np.mod(angles, 360.0)
         order = np.argsort(wrapped, kind="stable")
         return wrapped[order], order, (0.0, 360.0)
-    order = np.argsort(angles, kind="stable")
+    trim = max(1, int(DEAD_POINT_SHARE * len(angles)))
+    order = np.argsort(angles, kind="stable")[trim:-trim]
     return angles[order], order, None
 
 
@@ -43,13 +45,16 @@ def _marks(review: Review, result) -> tuple:
     return tuple(marks)
 
 
-def _page(review: Review, heading: str, plots: list) -> object:
-    """One page: the heading, then the plots stacked in the body."""
+def _page(review: Review, heading: str, plots: list, note: str) -> object:
+    """One page: the heading and a note under it, then the plots stacked in the body."""
     x0, y0, x1, y1 = body_box(review.paper)
     rec = Recorder()
     rec.add(Text(position=(x0, y1 - PITCH * HEADING_TEXT), text=heading, height=HEADING_TEXT, pen=ANNOTATION,
                  part="heading"))
     top = y1 - 2 * PITCH * HEADING_TEXT
+    if note:
+        rec.add(Text(position=(x0, top), text=note, height=SMALL, pen=ANNOTATION, part="heading"))
+        top -= 2 * PITCH * SMALL
     # One plot alone takes half the page, not all of it: a plot taller than wide reads poorly.
     height = (top - y0 - PLOT_GAP * (len(plots) - 1)) / max(2, len(plots))
     for i, plot in enumerate(plots):
@@ -120,15 +125,23 @@ def cycle_section(review: Review, progress: Progress) -> Section:
         return Section("Cycle", tuple(pages))
     x, order, x_range = _abscissa(result)
     marks = _marks(review, result)
+    note = "" if result.full_turn else (
+        f"The driver rocks between its dead points {result.range_deg[0]:.2f}° and {result.range_deg[1]:.2f}°; "
+        f"the outer {100 * DEAD_POINT_SHARE:g} % of that range at each end is left out, where speeds grow "
+        "without bound.")
     pages, entries = [], []
     groups = (("Output motion", _output_plots), ("Points: speed and acceleration", _point_plots),
               ("Links: angular velocity and acceleration", _link_plots),
               ("Transmission angle and slides", _transmission_and_slides))
     for i, (heading, make) in enumerate(groups):
         plots = make(mech, result, x, order, x_range, marks)
+        if make is _transmission_and_slides:  # name only what the page holds
+            kinds = [kind for kind, word in (("Transmission angle", "Transmission"), ("slides", "Sliding"))
+                     if any(p.title.startswith(word) for p in plots)]
+            heading = " and ".join(kinds).capitalize()
         for start in range(0, len(plots), 3):
             entries.append((heading, len(pages)) if start == 0 else (f"{heading} (continued)", len(pages)))
-            pages.append(_page(review, heading, plots[start:start + 3]))
+            pages.append(_page(review, heading, plots[start:start + 3], note))
         progress.check(0.6 + 0.3 * (i + 1) / len(groups))
     rocking = "" if result.full_turn else (f" The driver rocks between its dead points {result.range_deg[0]:.2f}° "
                                            f"and {result.range_deg[1]:.2f}°.")

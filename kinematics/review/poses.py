@@ -30,7 +30,7 @@ def poses_section(review: Review, progress: Progress) -> Section:
         except (CannotAssemble, ParallelLines) as err:
             name = angle_title(angle)
             pages += paginate([Heading(f"Driver angle {name}: no construction"),
-                               Paragraph(f"The linkage has no construction at this driver angle: {err}."),
+                               Paragraph(f"The linkage has no construction at this driver angle: {err.detail}."),
                                Paragraph("The other analysis angles and the cycle are reported as usual; the checks "
                                          "page gives the driver's range and its dead points.")],
                               review.paper, review.title)
