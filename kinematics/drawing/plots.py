@@ -7,7 +7,7 @@ legend. Every backend replays them, so a PDF keeps them as vector paths.
 >>> plot = Plot("Rocker", "driver angle θ [°]", "ω [rad/s]", (Curve("rocker", (0, 180, 360), (1.0, -2.0, 1.0)),))
 >>> draw_plot(rec, (20, 20, 190, 100), plot)
 >>> ticks(-2.0, 1.0, 5)
-(-2.0, -1.5, -1.0, -0.5, 0.0, 0.5, 1.0)
+(-2.0, -1.0, 0.0, 1.0)
 """
 
 from __future__ import annotations
