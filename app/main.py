@@ -17,6 +17,7 @@ USAGE = """usage: kinepoly [FILE]                 open the drafting window (on F
        kinepoly render FILE [--angle DEG] -o view.png [--size 1600x1000]
        kinepoly print FILE [--angle DEG] [--paper A3] [--landscape] -o sheet.pdf
        kinepoly export FILE [--angle DEG] -o drawing.dxf
+       kinepoly report FILE [-o review.pdf] [--paper A4|A3] [--steps N] [--angles 30,150,...]
 Each command takes --help. Exit codes: 0 ok, 1 output not written, 2 bad file or findings,
 3 cannot assemble at that angle."""
 
@@ -38,6 +39,10 @@ def main(argv=None) -> int:
         from app.printing import main as print_main
 
         return print_main(argv[1:])
+    if argv and argv[0] == "report":
+        from app.review import main as report_main
+
+        return report_main(argv[1:])
     from app.window import run
 
     return run(argv)

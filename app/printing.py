@@ -32,10 +32,11 @@ from PySide6.QtGui import (
 from kinematics.drawing import PAPER, Arrow, Circle, Hatch, Line, Note, Polyline, Text, draw_sheet
 from kinematics.drawing.output import construction_from_file, run_reporting
 from kinematics.drawing.sheet import DASHES
-from kinematics.errors import StorageError
+from kinematics.errors import StorageError, SweepCancelled
 from kinematics.files.storage import replace_atomically
 
 FONT_FAMILY = "DejaVu Sans"  # Debian fonts-dejavu-core: has ω α ° ² ′ and subscripts
+MONO_FAMILY = "DejaVu Sans Mono"  # the same package's fixed-pitch face, for text in character columns
 PDF_RESOLUTION_DPI = 1200
 PAGE_SIZES = {"A0": QPageSize.PageSizeId.A0, "A1": QPageSize.PageSizeId.A1, "A2": QPageSize.PageSizeId.A2,
               "A3": QPageSize.PageSizeId.A3, "A4": QPageSize.PageSizeId.A4}
@@ -63,18 +64,19 @@ class PainterBackend:
             qpen.setDashPattern(list(DASHES[pen.dash]))  # Qt reads dash patterns in pen widths too
         return qpen
 
-    def font(self, height_mm: float) -> tuple:
+    def font(self, height_mm: float, mono: bool = False) -> tuple:
         """A font whose capitals are ``height_mm`` tall on the device, and its metrics."""
         pixels = max(1, round(height_mm * self.k))
-        if pixels not in self._fonts:
-            probe = QFont(FONT_FAMILY)
+        family = MONO_FAMILY if mono else FONT_FAMILY
+        if (pixels, family) not in self._fonts:
+            probe = QFont(family)
             probe.setPixelSize(1000)
             # A font without a cap-height entry reports 0; 0.73 em is typical of sans faces.  # common practice
             cap_ratio = QFontMetricsF(probe).capHeight() / 1000.0 or 0.73
-            font = QFont(FONT_FAMILY)
+            font = QFont(family)
             font.setPixelSize(max(1, round(pixels / cap_ratio)))
-            self._fonts[pixels] = (font, QFontMetricsF(font))
-        return self._fonts[pixels]
+            self._fonts[pixels, family] = (font, QFontMetricsF(font))
+        return self._fonts[pixels, family]
 
     def draw(self, primitive) -> None:
         p = self.painter
@@ -117,7 +119,7 @@ class PainterBackend:
         self.painter.drawPolygon(QPolygonF([self.point(xy) for xy in points]))
 
     def _text(self, text: Text) -> None:
-        font, metrics = self.font(text.height)
+        font, metrics = self.font(text.height, text.mono)
         at = self.point(text.position)
         width = metrics.horizontalAdvance(text.text)
         x = at.x() - {"left": 0.0, "centre": 0.5 * width, "right": width}[text.align]
@@ -136,19 +138,40 @@ def page_layout(paper: str, landscape: bool) -> QPageLayout:
     return layout
 
 
-def paint_sheet(sheet, device, where: str = "") -> None:
-    """Paint ``sheet`` on a paged device whose page layout is already set (full
-    page); ``where`` names the device in an error."""
+def paint_sheets(sheets, device, where: str = "", progress=None) -> None:
+    """Paint ``sheets``, one a page, on a paged device whose page layout is already set
+    (full page); ``where`` names the device in an error. ``progress``, if given, is called
+    with the fraction painted after each page; returning False stops with SweepCancelled."""
     painter = QPainter()
     if not painter.begin(device):
         raise StorageError("the printer or PDF file could not be opened for painting", where)
     try:
         painter.setRenderHint(QPainter.RenderHint.Antialiasing, True)
-        backend = PainterBackend(painter, sheet.height, device.resolution() / 25.4)
-        for primitive in sheet.primitives:
-            backend.draw(primitive)
+        for number, sheet in enumerate(sheets):
+            if number and not device.newPage():
+                raise StorageError(f"page {number + 1} could not be started", where)
+            backend = PainterBackend(painter, sheet.height, device.resolution() / 25.4)
+            for primitive in sheet.primitives:
+                backend.draw(primitive)
+            if progress is not None and progress((number + 1) / len(sheets)) is False:
+                raise SweepCancelled("the printing was cancelled", f"page {number + 1}")
     finally:
         painter.end()
+
+
+def paint_sheet(sheet, device, where: str = "") -> None:
+    """Paint one ``sheet`` (see :func:`paint_sheets`)."""
+    paint_sheets((sheet,), device, where)
+
+
+def pdf_writer(target, title: str, paper: str, landscape: bool = False) -> QPdfWriter:
+    """A QPdfWriter on ``target`` (a path or a QIODevice) at PDF_RESOLUTION_DPI, full page."""
+    writer = QPdfWriter(target)
+    writer.setResolution(PDF_RESOLUTION_DPI)
+    writer.setTitle(title)
+    writer.setCreator("Kinepoly")
+    writer.setPageLayout(page_layout(paper, landscape))
+    return writer
 
 
 def print_construction(construction, printer_or_path, paper: str = "A4", landscape: bool = False,
@@ -178,11 +201,7 @@ def print_construction(construction, printer_or_path, paper: str = "A4", landsca
     sheet = draw_sheet(construction, paper=paper, landscape=landscape, file_name=file_name, date=date)
     if isinstance(printer_or_path, (str, os.PathLike)):
         def write(temporary):
-            writer = QPdfWriter(temporary)
-            writer.setResolution(PDF_RESOLUTION_DPI)
-            writer.setTitle(sheet.title or "Kinepoly construction")
-            writer.setCreator("Kinepoly")
-            writer.setPageLayout(page_layout(paper, landscape))
+            writer = pdf_writer(temporary, sheet.title or "Kinepoly construction", paper, landscape)
             paint_sheet(sheet, writer, os.fspath(printer_or_path))
             del writer  # the writer holds the file open; let it go before the file is checked and moved
             # QPdfWriter reports no write errors; a whole PDF ends with its %%EOF marker (ISO 32000-1, 7.5.5).

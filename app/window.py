@@ -169,6 +169,7 @@ class MainWindow(SheetOutputs, QMainWindow):
         self._action(files, "&Print…", self.print_dialog, QKeySequence.StandardKey.Print)
         self._action(files, "Export sheet as P&DF…", lambda: self._export("PDF sheet (*.pdf)", self.export_pdf))
         self._action(files, "Export drawing as D&XF…", lambda: self._export("DXF drawing (*.dxf)", self.export_dxf))
+        self.review_action = self._action(files, "Re&view report…", self.review_dialog)
         files.addSeparator()
         self._action(files, "&Quit", self.close, QKeySequence.StandardKey.Quit)
         edit = self.menuBar().addMenu("&Edit")

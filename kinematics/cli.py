@@ -12,10 +12,10 @@ import io
 import json
 import sys
 
-from . import CAUTION, acceleration_components, construct, diagnose, load_mechanism, solve
+from . import CAUTION, acceleration_components, construct, load_mechanism, solve
 from .drawing.output import run_reporting
 from .files.storage import write_atomically
-from .reports.text import construction_text, peaks_text, solution_table, turn
+from .reports.text import construction_text, peaks_text, solution_table
 
 
 def _solution_json(solution) -> dict:
@@ -66,52 +66,14 @@ def _emit(text: str, output):
 
 
 def _check(args) -> int:
-    from .cycle.checks import report
+    from .reports.check_text import check_sentences
 
-    mech = load_mechanism(args.file)
-    for warning in mech.warnings:
-        print(f"warning: {warning}")
-    findings = diagnose(mech)
-    from .solver.mobility import gruebler_count, jacobian_mobility
-
-    mobility, _ = jacobian_mobility(mech)
-    print(f"mobility: {mobility} from the rank of the constraint Jacobian "
-          f"(Gruebler-Kutzbach count {gruebler_count(mech)})")
-    if findings:
-        for finding in findings:
-            print(f"error: {finding}", file=sys.stderr)
-        return 2
-    from .groups.decompose import decompose
-
-    print("construction order: driver " + mech.driver.link + ", then " +
-          ", ".join(g.name for g in decompose(mech).groups))
-    data = report(mech)
-    for loop in data["loops"]:
-        turns = f"; turns fully: {loop.turns_fully}" if loop.turns_fully else "; no link turns fully"
-        print(f"{loop.loop}: {loop.verdict}{turns}")
-    if data["cycle"]:
-        print(f"cycle not swept: {data['cycle']}")
-        return 0
-    if data["full_turn"]:
-        print(f"driver {mech.driver.link} turns fully")
-    else:
-        low, high = data["range_deg"]
-        print(f"driver {mech.driver.link} cannot turn fully: dead points at {low:.3f}° and {high:.3f}°")
-    for key, t in data["transmission"].items():
-        print(f"transmission angle {key}: {t['min_deg']:.2f}° to {t['max_deg']:.2f}°, largest deviation from 90° "
-              f"{t['largest_deviation_from_90_deg']:.2f}° at driver angle {turn(t['deviation_at_deg'], 2):.2f}°")
-    out = data["output"]
-    if out:
-        reversals = ", ".join(f"{turn(a, 2):.2f}°" for a in out["rate_reversals_deg"]) or "none (it turns one way)"
-        print(f"output {out['output']}: travel {out['travel']:.4g} {out['unit']}; rate reverses (limit positions) "
-              f"at {reversals}")
-        if "time_ratio" in out:
-            print(f"time ratio {out['time_ratio']:.4f}: slow stroke {out['slow_stroke']} over "
-                  f"{out['slow_stroke_driver_deg']:.2f}° of driver turn, "
-                  f"fast over {out['fast_stroke_driver_deg']:.2f}°")
-    for warning in data["warnings"]:
-        print(f"warning: {warning}")
-    return 0
+    checks = check_sentences(load_mechanism(args.file))
+    for line in checks.lines:
+        print(line)
+    for finding in checks.findings:
+        print(f"error: {finding}", file=sys.stderr)
+    return 2 if checks.findings else 0
 
 
 def _solve(args) -> int:

@@ -133,15 +133,17 @@ def transmission_angles(mech: Mechanism, result: Sweep) -> dict:
     return angles
 
 
-def _output_coordinate(mech: Mechanism, result: Sweep):
-    """(name, values (N,), unit, rate (N,)) of the output's motion along the cycle."""
+def output_coordinate(mech: Mechanism, result: Sweep):
+    """(name, values (N,), unit, rate (N,), rate of rate (N,)) of the output's motion along the cycle:
+    a link's angle (°) with its ω (rad/s) and α (rad/s²), or a point's travel (mm) along its guide (or
+    its path's principal direction) with its velocity (m/s) and acceleration (m/s²) along it."""
     out = mech.output
     if out is None:
         return None
     if "link" in out:
         link = out["link"]
         angle = np.degrees(np.unwrap(np.radians(result.link_angle_deg[link])))
-        return f"link {link}", angle, "°", result.angular_velocity[link]
+        return f"link {link}", angle, "°", result.angular_velocity[link], result.angular_acceleration[link]
     point = out["point"]
     i = result.point_names.index(point)
     path = result.positions[:, i]
@@ -152,15 +154,15 @@ def _output_coordinate(mech: Mechanism, result: Sweep):
     else:  # the path's principal direction
         centred = path - path.mean(axis=0)
         u = np.linalg.svd(centred, full_matrices=False)[2][0]
-    return f"point {point}", (path @ u) * 1000.0, "mm", result.velocities[:, i] @ u
+    return f"point {point}", (path @ u) * 1000.0, "mm", result.velocities[:, i] @ u, result.accelerations[:, i] @ u
 
 
 def output_motion(mech: Mechanism, result: Sweep) -> dict | None:
     """Limit positions, swing or stroke, and time ratio of the output named in the file."""
-    found = _output_coordinate(mech, result)
+    found = output_coordinate(mech, result)
     if found is None:
         return None
-    name, values, unit, rate = found
+    name, values, unit, rate, _ = found
     angles = result.driver_angle_deg
     following = np.roll(rate, -1)
     turn = np.flatnonzero(np.sign(rate) != np.sign(following))

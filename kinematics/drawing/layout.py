@@ -244,3 +244,10 @@ def draw_model(construction, file_name: str = "", date: str | None = None) -> Sh
     rec.add(Note(position=(x0, bar_y - 2 * pad), lines=tuple(texts), height=size.text, pitch=1.8 * size.text,
                  pen=ANNOTATION, part="note"))
     return rec.sheet(0.0, 0.0, title=solution.mechanism.title)
+
+
+def space_view(solution, box, name: str = "space") -> View:
+    """The space diagram of ``solution`` fitted in ``box`` (x0, y0, x1, y1, sheet mm) at the
+    largest ISO 5455 scale and centred there, as the printed sheet fits its own."""
+    fit = _fit_space(solution, box[2] - box[0], box[3] - box[1])
+    return _centred_view(name, fit, box, "m")

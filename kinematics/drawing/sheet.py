@@ -74,7 +74,8 @@ class Circle:
 class Text:
     """One line of text. ``height`` is the capital height (ISO 3098 h) in mm;
     ``align`` is "left", "centre" or "right" and ``anchor`` is "baseline",
-    "middle" (half the capital height) or "top" (top of the capitals)."""
+    "middle" (half the capital height) or "top" (top of the capitals).
+    ``mono`` asks for a fixed-pitch face, for text laid out in columns of characters."""
 
     position: tuple
     text: str
@@ -85,6 +86,7 @@ class Text:
     view: str = ""
     step: str = ""
     part: str = ""
+    mono: bool = False
 
 
 @dataclass(frozen=True)

@@ -18,8 +18,8 @@ from hypothesis import given, settings
 from hypothesis import strategies as st
 
 import kinematics
-from kinematics.model import units
 from kinematics.files.fileschema import FORMAT_VERSION, SCHEMA_FILES, schema
+from kinematics.model import units
 from tests import CASE_FACTOR
 from tests.designs import (
     BOTTLE_PUSHER,
