@@ -1,22 +1,27 @@
-"""Closed forms of the driver and of each dyad, in complex arithmetic.
+"""What every group form shares: the :class:`Group` interface, the working
+:class:`Frame`, and the polygon arithmetic in complex numbers.
 
 A point is z = x + iy; turning by +90° is multiplying by i. Every function
 works on numpy arrays of any shape (one pose, or a whole cycle at once).
 
 Velocity and acceleration of a group are the intersection of two lines on
 the polygon, each through a known point with a known direction: this is the
-graphical construction itself, and :mod:`kinematics.construct` turns the
-intermediate records returned here into drawn steps.
+graphical construction itself. Each form is one class (the driver, RRR, RRP,
+RPR and the numeric fallback, in the ``group_*`` modules) that both computes
+its motion and draws its construction steps from the same records.
 """
 
 from __future__ import annotations
 
 import math
+from abc import ABC, abstractmethod
+from collections.abc import Mapping
 from dataclasses import dataclass, field
+from types import MappingProxyType
+from typing import ClassVar
 
 import numpy as np
 
-from .decompose import Group
 from .errors import CannotAssemble
 from .model import GROUND, Mechanism
 
@@ -98,12 +103,18 @@ class Frame:
 
     mech: Mechanism
     ref: dict
+    driver_angle_rad: np.ndarray | float = 0.0
     strict: bool = True
+    # The solved pose a group with no closed form takes its motion from (the construction's).
+    solution: object = None
     invalid: np.ndarray | bool = False
     # Group name -> how near each pose is to the group's straight (dead or change) configuration:
     # 1 where the two candidate positions of the group meet, above 1 where it cannot assemble.
     nearness: dict = field(default_factory=dict)
     pos: dict = field(default_factory=dict)
+    # The driver link's points as placed from its given angle: its motion is given, so its images are
+    # made from this placement even where ``pos`` then takes another pose (the solver's, to draw on).
+    driver_pose: dict = field(default_factory=dict)
     vel: dict = field(default_factory=dict)
     acc: dict = field(default_factory=dict)
     omega: dict = field(default_factory=dict)
@@ -112,11 +123,14 @@ class Frame:
     sliding_acceleration: dict = field(default_factory=dict)
 
     @classmethod
-    def start(cls, mech: Mechanism, shape=(), strict=True):
-        """An empty frame with the ground placed. ``strict=False`` marks poses that
-        cannot assemble in ``invalid`` instead of raising."""
+    def start(cls, mech: Mechanism, driver_angle_rad=0.0, strict=True, solution=None):
+        """An empty frame with the ground placed, for the driver at ``driver_angle_rad`` (a number
+        or an array: the frame's shape). ``strict=False`` marks poses that cannot assemble in
+        ``invalid`` instead of raising."""
         ref = {n: complex(*mech.position_m(n)) for n in mech.points}
-        frame = cls(mech=mech, ref=ref, strict=strict, invalid=np.zeros(shape, dtype=bool))
+        shape = np.shape(driver_angle_rad)
+        frame = cls(mech=mech, ref=ref, driver_angle_rad=driver_angle_rad, strict=strict, solution=solution,
+                    invalid=np.zeros(shape, dtype=bool))
         zero = np.zeros(shape)
         for name in mech.ground:
             frame.pos[name] = np.full(shape, ref[name])
@@ -131,17 +145,20 @@ class Frame:
             if name not in (p, q):
                 self.pos[name] = self.pos[p] + (self.ref[name] - self.ref[p]) * turn
 
-    def velocity_images(self, link: str, p: str):
-        """Velocity images of the points of ``link`` by similarity from image p."""
+    def velocity_images(self, link: str, p: str, pos: dict | None = None):
+        """Velocity images of the points of ``link`` by similarity from image p (of the pose ``pos``,
+        the frame's by default)."""
+        pos = self.pos if pos is None else pos
         for name in self.mech.links[link]:
             if name != p:
-                self.vel[name] = self.vel[p] + 1j * self.omega[link] * (self.pos[name] - self.pos[p])
+                self.vel[name] = self.vel[p] + 1j * self.omega[link] * (pos[name] - pos[p])
 
-    def acceleration_images(self, link: str, p: str):
+    def acceleration_images(self, link: str, p: str, pos: dict | None = None):
+        pos = self.pos if pos is None else pos
         factor = -self.omega[link] ** 2 + 1j * self.alpha[link]
         for name in self.mech.links[link]:
             if name != p:
-                self.acc[name] = self.acc[p] + factor * (self.pos[name] - self.pos[p])
+                self.acc[name] = self.acc[p] + factor * (pos[name] - pos[p])
 
     def angular_velocity(self, p: str, q: str):
         r = self.pos[q] - self.pos[p]
@@ -167,108 +184,12 @@ class Frame:
         return unit(self.pos[f] - self.pos[e]), self.pos[e]
 
 
-def _refuse(frame: Frame, where: str, message: str, bad):
+def refuse(frame: Frame, where: str, message: str, bad):
+    """Mark (or, strictly, refuse with CannotAssemble) the poses where ``bad``."""
     if not frame.strict:
         frame.invalid = frame.invalid | bad
     elif np.any(bad):
         raise CannotAssemble(message, where)
-
-
-def _reach_message(mech, group: Group) -> str:
-    if group.form == "RRR":
-        return f"links {group.links[0]} and {group.links[1]} cannot reach"
-    slide = mech.slides[group.slide]
-    if group.form == "RRP":
-        carriers = [b for b in mech.bodies_of(group.roles["A"]) if b not in group.links and b != GROUND]
-        if carriers:
-            return f"links {group.links[0]} and {carriers[0]} cannot reach"
-        return f"link {group.links[0]} cannot reach the line of slide {slide.name}"
-    return f"the slot of link {group.links[0]} cannot pass through point {group.roles['D']}"
-
-
-def position(frame: Frame, group: Group, where: str = ""):
-    """Place the group's points; raises CannotAssemble with the links named."""
-    mech, ref, pos = frame.mech, frame.ref, frame.pos
-    r = group.roles
-    message = _reach_message(mech, group)
-    if group.form == "RRR":
-        a, c = pos[r["A"]], pos[r["C"]]
-        la = abs(ref[r["B"]] - ref[r["A"]])
-        lc = abs(ref[r["B"]] - ref[r["C"]])
-        d = c - a
-        dist = np.abs(d)
-        with np.errstate(divide="ignore", invalid="ignore"):
-            cos_beta = (la ** 2 + dist ** 2 - lc ** 2) / (2.0 * la * dist)
-        frame.nearness[group.name] = np.abs(cos_beta)
-        _refuse(frame, where, message, ~(np.abs(cos_beta) <= 1.0 + REACH_TOLERANCE))
-        beta = np.arccos(np.clip(cos_beta, -1.0, 1.0))
-        pos[r["B"]] = a + la * unit(d) * np.exp(1j * group.sign * beta)
-        frame.place(group.links[0], r["A"], r["B"])
-        frame.place(group.links[1], r["C"], r["B"])
-    elif group.form == "RRP":
-        slide = mech.slides[group.slide]
-        u, e = frame.slot(slide)
-        a = pos[r["A"]]
-        length = abs(ref[r["D"]] - ref[r["A"]])
-        h = cross(u, a - e)
-        frame.nearness[group.name] = np.abs(h) / length
-        _refuse(frame, where, message, np.abs(h) > length * (1.0 + REACH_TOLERANCE))
-        s = dot(u, a - e) + group.sign * np.sqrt(np.maximum(length ** 2 - h ** 2, 0.0))
-        pos[r["D"]] = e + s * u
-        frame.place(group.links[0], r["A"], r["D"])
-    elif group.form == "RPR":
-        slide = mech.slides[group.slide]
-        link = group.links[0]
-        e_ref, f_ref = ref[slide.line[0]], ref[slide.line[1]]
-        u_ref = unit(f_ref - e_ref)
-        offset = cross(u_ref, ref[r["C"]] - e_ref)
-        w = pos[r["D"]] - pos[r["C"]]
-        rho = np.abs(w)
-        # Straight here means the slot's line is tangent to the circle |C − D| = |e|, or, for a slot
-        # through the pivot, the pin passing over the pivot (the slot's direction is then undefined).
-        with np.errstate(divide="ignore", invalid="ignore"):
-            frame.nearness[group.name] = np.fmax(np.abs(offset) / rho, 1.0 - rho / abs(ref[r["D"]] - ref[r["C"]]))
-        _refuse(frame, where, message, np.abs(offset) > rho * (1.0 + REACH_TOLERANCE))
-        turn_in = np.arcsin(np.clip(offset / rho, -1.0, 1.0))
-        psi = np.angle(w) + np.where(group.sign > 0, turn_in, np.pi - turn_in)
-        turn = np.exp(1j * psi) / u_ref
-        for name in mech.links[link]:
-            if name != r["C"]:
-                pos[name] = pos[r["C"]] + (ref[name] - ref[r["C"]]) * turn
-
-
-def velocity(frame: Frame, group: Group) -> Intersection:
-    """Velocity images of the group by intersecting its two direction lines."""
-    mech, pos, vel = frame.mech, frame.pos, frame.vel
-    r = group.roles
-    if group.form == "RRR":
-        a, b, c = r["A"], r["B"], r["C"]
-        meet = intersect(Line(vel[a], 1j * (pos[b] - pos[a])), Line(vel[c], 1j * (pos[b] - pos[c])))
-        vel[b] = meet.point
-        for link, pin in zip(group.links, (a, c), strict=True):
-            frame.omega[link] = frame.angular_velocity(pin, b)
-            frame.velocity_images(link, pin)
-        return meet
-    slide = mech.slides[group.slide]
-    u, _ = frame.slot(slide)
-    if group.form == "RRP":
-        a, d = r["A"], r["D"]
-        coincident = frame.guide_point(slide.guide, d, "vel")
-        meet = intersect(Line(vel[a], 1j * (pos[d] - pos[a])), Line(coincident, u))
-        vel[d] = meet.point
-        link = group.links[0]
-        frame.omega[link] = frame.angular_velocity(a, d)
-        frame.velocity_images(link, a)
-        frame.sliding_velocity[slide.name] = dot(u, vel[d] - coincident)
-        return meet
-    c, d = r["C"], r["D"]
-    link = group.links[0]
-    meet = intersect(Line(vel[c], 1j * (pos[d] - pos[c])), Line(vel[d], u))
-    rel = pos[d] - pos[c]
-    frame.omega[link] = cross(rel, meet.point - vel[c]) / np.abs(rel) ** 2
-    frame.velocity_images(link, c)
-    frame.sliding_velocity[slide.name] = dot(u, vel[d] - meet.point)
-    return meet
 
 
 def radial(frame: Frame, point: str, about: str, start, relative_velocity) -> Laid:
@@ -283,60 +204,76 @@ def coriolis(omega_guide, relative_velocity):
     return 2.0 * 1j * omega_guide * relative_velocity
 
 
-def acceleration(frame: Frame, group: Group):
-    """Acceleration images of the group; returns (laid vectors, intersection)."""
-    mech, pos, vel, acc = frame.mech, frame.pos, frame.vel, frame.acc
-    r = group.roles
-    if group.form == "RRR":
-        a, b, c = r["A"], r["B"], r["C"]
-        first = radial(frame, b, a, acc[a], vel[b] - vel[a])
-        second = radial(frame, b, c, acc[c], vel[b] - vel[c])
-        meet = intersect(Line(first.end, 1j * (pos[b] - pos[a])), Line(second.end, 1j * (pos[b] - pos[c])))
-        acc[b] = meet.point
-        for link, pin, laid in zip(group.links, (a, c), (first, second), strict=True):
-            frame.alpha[link] = frame.angular_acceleration(laid.end, pin, b)
-            frame.acceleration_images(link, pin)
-        return (first, second), meet
-    slide = mech.slides[group.slide]
-    u, _ = frame.slot(slide)
-    link = group.links[0]
-    if group.form == "RRP":
-        a, d = r["A"], r["D"]
-        first = radial(frame, d, a, acc[a], vel[d] - vel[a])
-        coincident = frame.guide_point(slide.guide, d, "acc")
-        omega_guide = 0.0 if slide.guide == GROUND else frame.omega[slide.guide]
-        relative = vel[d] - frame.guide_point(slide.guide, d, "vel")
-        second = Laid("coriolis", coincident, coincident + coriolis(omega_guide, relative), d, slide.guide)
-        meet = intersect(Line(first.end, 1j * (pos[d] - pos[a])), Line(second.end, u))
-        acc[d] = meet.point
-        frame.alpha[link] = frame.angular_acceleration(first.end, a, d)
-        frame.acceleration_images(link, a)
-        frame.sliding_acceleration[slide.name] = dot(u, acc[d] - coincident)
-        return (first, second), meet
-    c, d = r["C"], r["D"]
-    coincident_velocity = vel[c] + 1j * frame.omega[link] * (pos[d] - pos[c])
-    first = radial(frame, d, c, acc[c], coincident_velocity - vel[c])
-    # Laid backwards from d′: the guide point's image is d′ less Coriolis less sliding.
-    second = Laid("coriolis", acc[d], acc[d] - coriolis(frame.omega[link], vel[d] - coincident_velocity), d, link)
-    meet = intersect(Line(first.end, 1j * (pos[d] - pos[c])), Line(second.end, u))
-    rel = pos[d] - pos[c]
-    frame.alpha[link] = cross(rel, meet.point - first.end) / np.abs(rel) ** 2
-    frame.acceleration_images(link, c)
-    frame.sliding_acceleration[slide.name] = dot(u, second.end - meet.point)
-    return (first, second), meet
 
 
-def drive(frame: Frame, link: str, pivot: str, angle_rad, omega, alpha):
-    """Place the driver link at ``angle_rad`` and give its points their motion."""
-    mech, ref = frame.mech, frame.ref
-    first = next(p for p in mech.links[link] if p != pivot)
-    turn = np.exp(1j * (angle_rad - np.angle(ref[first] - ref[pivot])))
-    o = frame.pos[pivot]
-    frame.omega[link] = np.broadcast_to(np.asarray(omega, float), np.shape(o)) + 0.0
-    frame.alpha[link] = np.broadcast_to(np.asarray(alpha, float), np.shape(o)) + 0.0
-    for name in mech.links[link]:
-        if name != pivot:
-            frame.pos[name] = o + (ref[name] - ref[pivot]) * turn
-    frame.velocity_images(link, pivot)
-    frame.acceleration_images(link, pivot)
-    return first
+@dataclass(frozen=True)
+class Group(ABC):
+    """One group of the decomposition, with its outer connections known when it is reached.
+
+    ``links`` lists its links, ``roles`` maps the form's role letters to point names, ``slide``
+    names its slide (if any) and ``sign`` is the branch of the reference pose (see
+    :meth:`branch_sign`). Each form is a subclass; nothing outside a subclass asks which form it is.
+    """
+
+    links: tuple
+    roles: Mapping = field(default_factory=lambda: MappingProxyType({}))
+    slide: str | None = None
+    sign: float = 1.0
+
+    notation: ClassVar[str] = ""  # the form in words, for display only
+    is_dyad: ClassVar[bool] = True  # a closed form exists (otherwise the numeric solver gives the motion)
+
+    @property
+    def name(self) -> str:
+        return f"{self.notation} group of {' and '.join(self.links)}"
+
+    @abstractmethod
+    def position(self, frame: Frame, where: str = ""):
+        """Place the group's points in ``frame`` (vectorised); refuses what cannot assemble."""
+
+    @abstractmethod
+    def velocity(self, frame: Frame):
+        """Velocities of the group's points and ω of its links; returns the Intersection (or None)."""
+
+    @abstractmethod
+    def acceleration(self, frame: Frame):
+        """Accelerations and α; returns (the laid vectors, the Intersection), or None."""
+
+    @abstractmethod
+    def velocity_steps(self, builder, frame: Frame, placed: set):
+        """Work out the velocities and draw their construction steps on ``builder``."""
+
+    @abstractmethod
+    def acceleration_steps(self, builder, frame: Frame, placed: set):
+        """Work out the accelerations and draw their construction steps on ``builder``."""
+
+    def branch_sign(self, mech: Mechanism) -> float:
+        """The branch of the reference pose, kept by every later pose (+1 or −1)."""
+        return 1.0
+
+    def reach_message(self, mech: Mechanism) -> str:
+        """What cannot reach when the group cannot assemble."""
+        return f"the {self.name} cannot assemble"
+
+    def pose_warnings(self, mech: Mechanism, xy: dict) -> list:
+        """Dead point and toggle warnings of this group at the pose ``xy`` (name -> (x, y))."""
+        return []
+
+    def loop_check(self, mech: Mechanism):
+        """The rotatability check of the loop this group closes (a LoopCheck), or None."""
+        return None
+
+    def transmission_angles(self, result) -> dict:
+        """Label -> (N,) transmission angles (degrees) over the sweep ``result``, where they apply."""
+        return {}
+
+    @property
+    def carried_points(self) -> frozenset:
+        """(link, point) pairs whose radial and tangential components belong to the link's point
+        under ``point`` (a slotted link sliding over it), not to ``point`` itself."""
+        return frozenset()
+
+    @property
+    def construction_warning(self) -> str:
+        """A sentence for the construction's warnings about how this group is drawn ("" if none)."""
+        return ""

@@ -12,14 +12,18 @@ import math
 from dataclasses import dataclass, field
 from enum import Enum
 from functools import cached_property
+from typing import TYPE_CHECKING
 
 import numpy as np
 from shapely.geometry import LineString, Point
 
-from .decompose import Decomposition, Group
 from .errors import ParallelLines
 from .scales import preferred_scale
-from .solve import Solution
+
+if TYPE_CHECKING:  # the groups draw their own steps here: these modules import this one
+    from .decompose import Decomposition
+    from .groups import Group
+    from .solve import Solution
 
 # An intersection whose condition figure exceeds this is flagged on its step.
 FLAG_CONDITION = 1e3

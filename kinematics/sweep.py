@@ -16,7 +16,7 @@ import numpy as np
 from .constraints import constraint_system, reference_driver_angle
 from .decompose import decompose
 from .errors import CannotAssemble, KinematicsError, ParallelLines
-from .groups import Frame, acceleration, drive, position, velocity
+from .groups import Frame
 from .mobility import require_ready
 from .model import Mechanism
 from .solve import _Driven, _newton, _track, newton_tolerance
@@ -68,20 +68,18 @@ class Sweep:
 
 def _place(mech, decomposition, angles_rad) -> Frame:
     """Positions at every angle; poses that cannot assemble are marked ``invalid``."""
-    frame = Frame.start(mech, shape=np.shape(angles_rad), strict=False)
-    d = mech.driver
-    drive(frame, d.link, d.pivot, angles_rad, d.speed_rad_s, d.angular_acceleration_rad_s2)
-    for group in decomposition.groups:
-        position(frame, group)
+    frame = Frame.start(mech, angles_rad, strict=False)
+    for group in decomposition.chain:
+        group.position(frame)
     return frame
 
 
 def _move(frame: Frame, decomposition) -> Frame:
     """Velocities and accelerations of a placed frame, group after group."""
-    for group in decomposition.groups:
-        velocity(frame, group)
-    for group in decomposition.groups:
-        acceleration(frame, group)
+    for group in decomposition.chain:
+        group.velocity(frame)
+    for group in decomposition.chain:
+        group.acceleration(frame)
     return frame
 
 
@@ -215,7 +213,7 @@ def sweep(mechanism: Mechanism, steps: int = 360, progress=None) -> Sweep:
     decomposition = decompose(mechanism)
     if not decomposition.all_dyads:
         raise KinematicsError("the linkage has a group that is no dyad; sweep it pose by pose with solve()",
-                              next(g.name for g in decomposition.groups if g.form == "numeric"))
+                              next(g.name for g in decomposition.groups if not g.is_dyad))
     omega = mechanism.driver.speed_rad_s
     sense = 1.0 if omega >= 0 else -1.0
     start = reference_angle_deg(mechanism)
