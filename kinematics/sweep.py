@@ -17,6 +17,7 @@ from .constraints import constraint_system, reference_driver_angle
 from .decompose import decompose
 from .errors import CannotAssemble, KinematicsError, ParallelLines
 from .groups import Frame
+from .memo import frozen_fields
 from .mobility import require_ready
 from .model import Mechanism
 from .solve import _Driven, _newton, _track, newton_tolerance
@@ -46,6 +47,8 @@ class Sweep:
     full_turn : the driver turns fully; otherwise ``range_deg`` gives its dead points.
     closes : one turn brings the linkage back to its first pose.
     time_s : (N,) time from the first pose at constant speed, or None when the driver accelerates.
+
+    The arrays are read-only and the dictionaries read-only mappings: a Sweep is a value.
     """
 
     mechanism: Mechanism
@@ -64,6 +67,9 @@ class Sweep:
     closes: bool
     time_s: np.ndarray | None
     warnings: tuple = ()
+
+    def __post_init__(self):
+        frozen_fields(self)
 
 
 def _place(mech, decomposition, angles_rad) -> Frame:
