@@ -1,16 +1,17 @@
 """The checks a designer runs before trusting a layout: Grashof class of each
 four-bar loop, rotatability of slide loops, transmission angles, dead points,
-limit positions of the output, swing or stroke, and time ratio."""
+limit positions of the output, swing or stroke, and time ratio (the cycle's
+measures are in :mod:`kinematics.cycle_measures`, its peaks in :mod:`kinematics.peaks`)."""
 
 from __future__ import annotations
 
-import numpy as np
-
+from .cycle_measures import output_motion, transmission_angles
 from .decompose import decompose
 from .errors import KinematicsError
 from .loops import LoopCheck, grashof_class
-from .model import GROUND, Mechanism
-from .sweep import Sweep, sweep
+from .model import Mechanism
+from .peaks import peaks
+from .sweep import sweep
 
 __all__ = ["LoopCheck", "grashof_class", "loop_checks", "output_motion", "report", "transmission_angles"]
 
@@ -20,71 +21,9 @@ def loop_checks(mech: Mechanism) -> list:
     return [check for group in decompose(mech).groups if (check := group.loop_check(mech)) is not None]
 
 
-def transmission_angles(mech: Mechanism, result: Sweep) -> dict:
-    """Label -> (N,) transmission angle in degrees (0–180°), for each group that has one (RRR: at B)."""
-    angles = {}
-    for group in decompose(mech).groups:
-        angles.update(group.transmission_angles(result))
-    return angles
-
-
-def _output_coordinate(mech: Mechanism, result: Sweep):
-    """(name, values (N,), unit, rate (N,)) of the output's motion along the cycle."""
-    out = mech.output
-    if out is None:
-        return None
-    if "link" in out:
-        link = out["link"]
-        angle = np.degrees(np.unwrap(np.radians(result.link_angle_deg[link])))
-        return f"link {link}", angle, "°", result.angular_velocity[link]
-    point = out["point"]
-    i = result.point_names.index(point)
-    path = result.positions[:, i]
-    slide = next((s for s in mech.slides.values() if s.point == point and s.guide == GROUND), None)
-    if slide is not None:
-        e, f = (np.array(mech.position_m(p)) for p in slide.line)
-        u = (f - e) / np.linalg.norm(f - e)
-    else:  # the path's principal direction
-        centred = path - path.mean(axis=0)
-        u = np.linalg.svd(centred, full_matrices=False)[2][0]
-    return f"point {point}", (path @ u) * 1000.0, "mm", result.velocities[:, i] @ u
-
-
-def output_motion(mech: Mechanism, result: Sweep) -> dict | None:
-    """Limit positions, swing or stroke, and time ratio of the output named in the file."""
-    found = _output_coordinate(mech, result)
-    if found is None:
-        return None
-    name, values, unit, rate = found
-    angles = result.driver_angle_deg
-    following = np.roll(rate, -1)
-    turn = np.flatnonzero(np.sign(rate) != np.sign(following))
-    if not result.full_turn:
-        turn = turn[turn < len(rate) - 1]
-    # Where the output's rate crosses zero, by linear interpolation between swept poses.
-    step = np.diff(angles, append=angles[0] + (angles[1] - angles[0]) * len(angles))
-    limits = [float(angles[i] + step[i] * rate[i] / (rate[i] - following[i])) for i in turn]
-    hi, lo = int(np.argmax(values)), int(np.argmin(values))
-    motion = {"output": name, "unit": unit, "travel": float(values[hi] - values[lo]),
-              "limit_positions_deg": [float(angles[lo]), float(angles[hi])],
-              "rate_reversals_deg": limits}
-    if result.full_turn and len(turn) == 2:
-        between = abs(limits[1] - limits[0])
-        rising = values[turn[1]] > values[turn[0]]
-        out_stroke = between if rising else 360.0 - between  # driver turn from lowest to highest
-        back = 360.0 - out_stroke
-        slow, fast = (("forward (towards the highest)", out_stroke), ("return", back)) if out_stroke >= back \
-            else (("return", back), ("forward (towards the highest)", out_stroke))
-        motion.update(time_ratio=max(out_stroke, back) / min(out_stroke, back),
-                      slow_stroke=slow[0], slow_stroke_driver_deg=slow[1], fast_stroke_driver_deg=fast[1])
-    return motion
-
-
 def report(mech: Mechanism, steps: int = 3600) -> dict:
     """Everything ``kinepoly check`` prints, as data. A cycle that cannot be swept (a change
     point on the way, a group that is no dyad) leaves the loop checks and says why in ``cycle``."""
-    from .peaks import peaks
-
     loops = loop_checks(mech)
     try:
         table = peaks(sweep(mech, steps))
