@@ -9,7 +9,6 @@ from dataclasses import dataclass
 import numpy as np
 
 from .groups import Frame, Group
-from .model import Mechanism
 from .steps import Component, PolygonBuilder, direction_deg, figure
 
 
@@ -30,9 +29,6 @@ class DriverGroup(Group):
     @property
     def name(self) -> str:
         return f"driver {self.link}"
-
-    def reach_message(self, mech: Mechanism) -> str:
-        return f"driver {self.link} cannot turn there"
 
     def position(self, frame: Frame, where: str = ""):
         """Place the driver link at ``frame.driver_angle_rad``."""
