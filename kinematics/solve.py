@@ -235,15 +235,16 @@ class _Way:
 
     def __init__(self, driven, theta_ref, direction, size, q_reference):
         self.driven, self.theta_ref, self.direction, self.size = driven, theta_ref, direction, size
-        self.start_span, self.start = 0.0, (q_reference, False)
+        self.start_span, start = 0.0, q_reference
         if np.linalg.cond(driven.jacobian(driven.full(q_reference), theta_ref)) > 1e12:
-            self._step_off(q_reference)
+            start = self._step_off(q_reference)
         # Checkpoint index -> (q, passed a change point on the way) or None where a dead point stops the way.
-        self.checkpoints = {0: self.start}
+        self.checkpoints = {0: (start, False)}
 
     def _step_off(self, q_ref):
         """A reference pose drawn exactly at a dead point has no tangent to follow: take a
-        first pose a hair away by Newton alone, if the linkage can go this way at all."""
+        first pose a hair away by Newton alone, if the linkage can go this way at all (the
+        first checkpoint, at ``start_span``); else the reference pose itself."""
         driven = self.driven
         tolerance = newton_tolerance(driven.system)
         # The branches open along the Jacobian's null direction, as the square root of the turn.
@@ -254,8 +255,9 @@ class _Way:
                 start = q_ref + side * math.sqrt(nudge) * size * null
                 q = _newton(driven, start, self.theta_ref + self.direction * nudge, tolerance)
                 if q is not None:
-                    self.start_span, self.start = nudge, (q, False)
-                    return
+                    self.start_span = nudge
+                    return q
+        return q_ref
 
     def _span_of(self, k: int) -> float:
         return self.start_span if k == 0 else k * CHECKPOINT_RAD
