@@ -8,7 +8,6 @@ import math
 
 from .construction.components import RelativeComponent, acceleration_components
 from .construction.construct import construct as _construct
-from .construction.steps import Component, Construction, Polygon, Role, Step
 from .cycle.sweep import Sweep, sweep, verify_sweep
 from .edits.naming import rename_link, rename_point
 from .errors import (
@@ -21,6 +20,7 @@ from .errors import (
     SweepCancelled,
 )
 from .files.fileformat import dumps, load_mechanism
+from .groups.steps import Component, Construction, Polygon, Role, Step
 from .instantaneous.centres import centres
 from .model.mechanism import Driver, Mechanism, Slide, move_point
 from .reports.caution import CAUTION

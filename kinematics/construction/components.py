@@ -11,7 +11,7 @@ from __future__ import annotations
 import math
 from dataclasses import dataclass
 
-from .steps import Component, Construction
+from ..groups.steps import Component, Construction
 
 KINDS = (Component.RADIAL, Component.TANGENTIAL, Component.CORIOLIS)
 
@@ -57,7 +57,7 @@ class RelativeComponent:
 def acceleration_components(construction: Construction) -> tuple:
     """The :class:`RelativeComponent` of every radial, tangential and Coriolis vector of the
     acceleration polygon, in the order the construction draws them."""
-    slotted = {(g.links[0], g.roles["D"]) for g in construction.decomposition.groups if g.form == "RPR"}
+    carried = frozenset().union(*(g.carried_points for g in construction.decomposition.groups))
     found = []
     for step in construction.acceleration.steps:
         if step.component not in KINDS or not step.is_vector:
@@ -66,5 +66,5 @@ def acceleration_components(construction: Construction) -> tuple:
         point, link = step.points[0], step.links[0]
         found.append(RelativeComponent(
             point=point, about=step.about, component=step.component, link=link, vector=(x1 - x0, y1 - y0),
-            step=step.id, carried=step.component is not Component.CORIOLIS and (link, point) in slotted))
+            step=step.id, carried=step.component is not Component.CORIOLIS and (link, point) in carried))
     return tuple(found)

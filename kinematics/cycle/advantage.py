@@ -19,7 +19,7 @@ import numpy as np
 
 from ..errors import KinematicsError
 from ..model.mechanism import GROUND
-from .checks import _output_coordinate
+from .measures import output_coordinate
 from .sweep import Sweep
 
 # A centre farther than this many mechanism sizes from the linkage leaves the centrode's polyline.
@@ -45,14 +45,14 @@ class CycleAdvantage:
 def advantage_over_cycle(result: Sweep) -> CycleAdvantage:
     """The output's velocity ratio and mechanical advantage over the sweep."""
     mech = result.mechanism
-    found = _output_coordinate(mech, result)
+    found = output_coordinate(mech, result)
     if found is None:
         raise KinematicsError("the file names no output: no velocity ratio or mechanical advantage", "output")
     omega = mech.driver.speed_rad_s
     if omega == 0.0:
         raise KinematicsError("the driver's speed is zero: the sweep's rates give no velocity ratio",
                               "driver.speed")
-    name, _, unit, rate = found
+    name, _, unit, rate, _ = found
     ratio = np.asarray(rate, float) / omega
     with np.errstate(divide="ignore"):
         advantage = np.where(ratio == 0.0, np.inf, 1.0 / np.where(ratio == 0.0, 1.0, ratio))

@@ -6,10 +6,8 @@ from dataclasses import replace
 
 import numpy as np
 
-from .checks import output_motion, transmission_angles
+from .measures import DEAD_POINT_SHARE, dead_point_trim, output_motion, transmission_angles
 from .sweep import Sweep
-
-DEAD_POINT_SHARE = 0.01
 
 
 def _trimmed(result: Sweep, kept: slice) -> Sweep:
@@ -42,7 +40,7 @@ def peaks(result: Sweep) -> dict:
     mech = result.mechanism
     # Speeds grow without bound towards a dead point: a rocking driver's peaks leave out the
     # outer DEAD_POINT_SHARE of its range at each end, and say so.
-    trim = 0 if result.full_turn else max(1, int(DEAD_POINT_SHARE * len(result.driver_angle_deg)))
+    trim = dead_point_trim(len(result.driver_angle_deg), result.full_turn)
     kept = slice(trim, len(result.driver_angle_deg) - trim)
     angles = result.driver_angle_deg[kept]
     whole, result = result, _trimmed(result, kept)

@@ -14,12 +14,13 @@ from dataclasses import dataclass
 import numpy as np
 
 from ..errors import CannotAssemble, KinematicsError, ParallelLines, SweepCancelled
+from ..groups.base import Frame
 from ..groups.decompose import decompose
-from ..groups.forms import Frame, acceleration, drive, position, velocity
 from ..model.mechanism import Mechanism
+from ..model.memo import frozen_fields
 from ..solver.constraints import constraint_system, reference_driver_angle
 from ..solver.mobility import require_ready
-from ..solver.solve import _Driven, _newton, _track, newton_tolerance
+from ..solver.solve import DrivenSystem, newton, newton_tolerance, track
 
 # About 100 bytes a pose per point: a million poses of a six-bar take about 1 GB.
 MAX_STEPS = 1_000_000
@@ -46,6 +47,8 @@ class Sweep:
     full_turn : the driver turns fully; otherwise ``range_deg`` gives its dead points.
     closes : one turn brings the linkage back to its first pose.
     time_s : (N,) time from the first pose at constant speed, or None when the driver accelerates.
+
+    The arrays are read-only and the dictionaries read-only mappings: a Sweep is a value.
     """
 
     mechanism: Mechanism
@@ -65,23 +68,24 @@ class Sweep:
     time_s: np.ndarray | None
     warnings: tuple = ()
 
+    def __post_init__(self):
+        frozen_fields(self)
+
 
 def _place(mech, decomposition, angles_rad) -> Frame:
     """Positions at every angle; poses that cannot assemble are marked ``invalid``."""
-    frame = Frame.start(mech, shape=np.shape(angles_rad), strict=False)
-    d = mech.driver
-    drive(frame, d.link, d.pivot, angles_rad, d.speed_rad_s, d.angular_acceleration_rad_s2)
-    for group in decomposition.groups:
-        position(frame, group)
+    frame = Frame.start(mech, angles_rad, strict=False)
+    for group in decomposition.chain:
+        group.position(frame)
     return frame
 
 
 def _move(frame: Frame, decomposition) -> Frame:
     """Velocities and accelerations of a placed frame, group after group."""
-    for group in decomposition.groups:
-        velocity(frame, group)
-    for group in decomposition.groups:
-        acceleration(frame, group)
+    for group in decomposition.chain:
+        group.velocity(frame)
+    for group in decomposition.chain:
+        group.acceleration(frame)
     return frame
 
 
@@ -211,7 +215,7 @@ def sweep(mechanism: Mechanism, steps: int = 360, progress=None) -> Sweep:
     decomposition = decompose(mechanism)
     if not decomposition.all_dyads:
         raise KinematicsError("the linkage has a group that is no dyad; sweep it pose by pose with solve()",
-                              next(g.name for g in decomposition.groups if g.form == "numeric"))
+                              next(g.name for g in decomposition.groups if not g.is_dyad))
     omega = mechanism.driver.speed_rad_s
     sense = 1.0 if omega >= 0 else -1.0
     start = reference_angle_deg(mechanism)
@@ -276,13 +280,13 @@ def verify_sweep(result: Sweep, branch_step_deg: float = 10.0) -> dict:
     """
     mech = result.mechanism
     system = constraint_system(mech)
-    driven = _Driven(system)
+    driven = DrivenSystem(system)
     omega, alpha = mech.driver.speed_rad_s, mech.driver.angular_acceleration_rad_s2
     tolerance = newton_tolerance(system)
     index = [result.point_names.index(n) for n in system.names]
     closed = result.positions[:, index]
     theta = np.radians(result.driver_angle_deg)
-    q = _newton(driven, closed.reshape(len(theta), -1)[:, driven.columns], theta, tolerance)
+    q = newton(driven, closed.reshape(len(theta), -1)[:, driven.columns], theta, tolerance)
     if q is None:
         raise CannotAssemble("the numeric solver does not converge from every swept pose", "sweep")
     x = driven.full(q)
@@ -303,7 +307,7 @@ def verify_sweep(result: Sweep, branch_step_deg: float = 10.0) -> dict:
         ahead = ahead[np.argsort(np.abs(offsets[ahead]))][::stride]
         q_walk, reached = system.x0.reshape(-1)[driven.columns], 0.0
         for k in ahead:
-            tracked = _track(driven, q_walk, theta[k] - offsets[k] + direction * reached,
+            tracked = track(driven, q_walk, theta[k] - offsets[k] + direction * reached,
                              abs(offsets[k]) - reached, direction, size)
             if tracked is None:
                 raise CannotAssemble("continuation from the reference pose stops at a dead point",

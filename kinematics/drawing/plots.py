@@ -17,7 +17,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from ..construction.scales import preferred_scale
+from ..groups.scales import preferred_scale
 from .annotate import outline_box, text_width
 from .sheet import Line, Polyline, Recorder, Text
 from .style import ANNOTATION, Pen

@@ -10,7 +10,7 @@ import math
 
 import numpy as np
 
-from ..construction.steps import Role
+from ..groups.steps import Role
 from . import symbols
 from .sheet import Arrow, Circle, Line, Polyline, Recorder, View
 from .space import outline, positions

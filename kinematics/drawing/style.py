@@ -9,7 +9,7 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 
-from ..construction.steps import Component, Role, Step
+from ..groups.steps import Component, Role, Step
 
 
 @dataclass(frozen=True)

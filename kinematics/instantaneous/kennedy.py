@@ -13,7 +13,7 @@ Secondary centres follow from Kennedy's theorem (the three centres of any three
 bodies lie on one line) in the trade's order: the bodies are the corners of a
 polygon whose sides are the centres known; a diagonal is drawn when it closes two
 triangles of known sides, and the centre is where the two lines meet. Each is a
-:class:`~kinematics.construction.steps.Step` (role KNOWN for a primary centre,
+:class:`~kinematics.groups.steps.Step` (role KNOWN for a primary centre,
 DIRECTION for a line, INTERSECTION for a centre found), coordinates in metres.
 """
 
@@ -25,7 +25,7 @@ from types import MappingProxyType
 
 import numpy as np
 
-from ..construction.steps import FLAG_CONDITION, Role, Step
+from ..groups.steps import FLAG_CONDITION, Role, Step
 from ..model.mechanism import GROUND, Mechanism
 from ..solver.solve import Solution
 from .lines import KennedyLine, Place, join, meet

@@ -7,7 +7,7 @@ centres; through a finite centre in the direction of an infinite one; or, throug
 infinite centres, the line at infinity. Two lines meet at a finite point, at infinity
 in their common direction (parallel lines), or nowhere in particular (coincident
 lines: the centre is undetermined). The finite case is the polygon's own
-:func:`kinematics.groups.forms.intersect`, so its condition figure is the same.
+:func:`kinematics.groups.base.intersect`, so its condition figure is the same.
 """
 
 from __future__ import annotations
@@ -16,7 +16,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from ..groups.forms import Line, intersect
+from ..groups.base import Line, intersect
 
 # Two lines meeting at a smaller sine are parallel: their meeting point would lie more than
 # 1e12 mechanism sizes away, where rounding of the space diagram (1e-16 relative) decides it.

@@ -5,7 +5,7 @@ from __future__ import annotations
 import math
 
 from ..construction.components import acceleration_components
-from ..construction.steps import Construction
+from ..groups.steps import Construction
 from ..solver.solve import Solution
 
 # Below this fraction of the pose's largest value of its kind a number is the solver's rounding

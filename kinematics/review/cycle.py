@@ -6,7 +6,7 @@ from __future__ import annotations
 
 import numpy as np
 
-from ..cycle.checks import output_coordinate, transmission_angles
+from ..cycle.measures import output_coordinate, transmission_angles
 from ..cycle.peaks import DEAD_POINT_SHARE, peaks
 from ..cycle.sweep import sweep
 from ..drawing.pages import HEADING_TEXT, PITCH, Heading, Paragraph, Preformatted, body_box, paginate, paper_size

@@ -10,7 +10,6 @@ way; otherwise the linkage cannot assemble there.
 
 from __future__ import annotations
 
-import bisect
 import math
 from dataclasses import dataclass
 
@@ -20,10 +19,12 @@ from ..errors import CannotAssemble
 from ..groups.decompose import decompose
 from ..groups.poses import pose_warnings
 from ..model.mechanism import Mechanism
-from ..model.memo import remembered
+from ..model.memo import frozen_fields, remembered
 from .constraints import ConstraintSystem, constraint_system, reference_driver_angle
 
 MAX_STEP_RAD = math.radians(10.0)
+# Poses kept along each way from the reference pose, this far apart: one tracking step each.
+CHECKPOINT_RAD = MAX_STEP_RAD
 MIN_STEP_RAD = 1e-9
 NEWTON_ITERATIONS = 12
 # A corrected pose farther than this (relative to size) from its prediction jumped branch.
@@ -48,6 +49,8 @@ class Solution:
         positive from the line's first point towards its second, relative to the guide.
     condition : condition figure of the constraint Jacobian at this pose.
     warnings : plain sentences (dead point, toggle, bifurcation ...).
+
+    The arrays are read-only and the dictionaries read-only mappings: a Solution is a value.
     """
 
     mechanism: Mechanism
@@ -63,6 +66,9 @@ class Solution:
     sliding_acceleration: dict
     condition: float
     warnings: tuple = ()
+
+    def __post_init__(self):
+        frozen_fields(self)
 
     def _row(self, name):
         return self.point_names.index(name)
@@ -81,7 +87,7 @@ def _cross(a, b):
     return a[..., 0] * b[..., 1] - a[..., 1] * b[..., 0]
 
 
-class _Driven:
+class DrivenSystem:
     """The constraint system with the driver row appended, over the unknowns only.
 
     Every method takes a leading batch shape: x (..., n, 2), theta (...)."""
@@ -139,7 +145,7 @@ def newton_tolerance(system: ConstraintSystem) -> float:
     return 1e-12 * max(float(extent), float(np.abs(system.x0).max(initial=0.0)), 1e-3)
 
 
-def _newton(driven: _Driven, q, theta, tolerance):
+def newton(driven: DrivenSystem, q, theta, tolerance):
     """Newton-Raphson from q (..., k); None where any pose of the batch fails to converge."""
     x = driven.full(q)
     residual = driven.residual(x, theta)
@@ -159,7 +165,7 @@ def _newton(driven: _Driven, q, theta, tolerance):
     return None
 
 
-def _track(driven: _Driven, q, theta0, span, direction, size):
+def track(driven: DrivenSystem, q, theta0, span, direction, size):
     """Turn the driver from theta0 through ``span`` (rad, ≥ 0) in ``direction``.
 
     Returns (q, passed_singular) or None where a dead point stops the way."""
@@ -174,7 +180,7 @@ def _track(driven: _Driven, q, theta0, span, direction, size):
         except np.linalg.LinAlgError:
             return None
         predicted = q + first.reshape(-1)[driven.columns] * h + 0.5 * second.reshape(-1)[driven.columns] * h * h
-        corrected = _newton(driven, predicted, theta + direction * h, tolerance)
+        corrected = newton(driven, predicted, theta + direction * h, tolerance)
         if corrected is None or np.max(np.abs(corrected - predicted)) > BRANCH_JUMP_RELATIVE * size:
             step = h / 4.0
             if step < MIN_STEP_RAD:
@@ -220,70 +226,83 @@ def _slide_rates(mech: Mechanism, index, x, xdot, xddot, omega, alpha):
 
 
 class _Way:
-    """The poses already reached along one way (one turning sense) from the reference pose,
-    so that a later angle continues from the nearest of them instead of starting over."""
+    """Checkpoints along one way (one turning sense) from the reference pose: the pose at every
+    whole multiple of CHECKPOINT_RAD, each tracked from the one before and from nothing else.
 
-    MAX_KEPT = 720
+    A pose asked for is tracked from the nearer checkpoint on either side, chosen by its span
+    alone, so the answer does not depend on what was solved before; a dragged crank going back
+    and forth by small turns costs one short track a frame from a checkpoint kept for it."""
 
-    def __init__(self, q_reference):
-        self.spans, self.poses, self.passed = [0.0], [q_reference], [False]
-        self.blocked = math.inf  # a dead point lies before this span
+    def __init__(self, driven, theta_ref, direction, size, q_reference):
+        self.driven, self.theta_ref, self.direction, self.size = driven, theta_ref, direction, size
+        self.start_span, start = 0.0, q_reference
+        if np.linalg.cond(driven.jacobian(driven.full(q_reference), theta_ref)) > 1e12:
+            start = self._step_off(q_reference)
+        # Checkpoint index -> (q, passed a change point on the way) or None where a dead point stops the way.
+        self.checkpoints = {0: (start, False)}
 
-    def _step_off(self, driven, theta_ref, direction):
+    def _step_off(self, q_ref):
         """A reference pose drawn exactly at a dead point has no tangent to follow: take a
-        first pose a hair away by Newton alone, if the linkage can go this way at all."""
+        first pose a hair away by Newton alone, if the linkage can go this way at all (the
+        first checkpoint, at ``start_span``); else the reference pose itself."""
+        driven = self.driven
         tolerance = newton_tolerance(driven.system)
-        q_ref = self.poses[0]
         # The branches open along the Jacobian's null direction, as the square root of the turn.
-        null = np.linalg.svd(driven.jacobian(driven.full(q_ref), theta_ref))[2][-1]
+        null = np.linalg.svd(driven.jacobian(driven.full(q_ref), self.theta_ref))[2][-1]
         size = max(float(np.ptp(driven.system.x0, axis=0).max()), 1e-3)
         for nudge in (1e-8, 1e-6, 1e-4):
             for side in (1.0, -1.0):
                 start = q_ref + side * math.sqrt(nudge) * size * null
-                q = _newton(driven, start, theta_ref + direction * nudge, tolerance)
+                q = newton(driven, start, self.theta_ref + self.direction * nudge, tolerance)
                 if q is not None:
-                    self.spans.insert(1, nudge)
-                    self.poses.insert(1, q)
-                    self.passed.insert(1, False)
-                    return
+                    self.start_span = nudge
+                    return q
+        return q_ref
 
-    def reach(self, driven, theta_ref, span, direction, size):
-        if span >= self.blocked:
-            return None
-        if len(self.spans) == 1 and np.linalg.cond(driven.jacobian(driven.full(self.poses[0]), theta_ref)) > 1e12:
-            self._step_off(driven, theta_ref, direction)
-        i = bisect.bisect_right(self.spans, span) - 1
-        above = i + 1 if i + 1 < len(self.spans) else None
-        if above is not None and self.spans[above] - span < span - self.spans[i] \
-                and self.passed[above] == self.passed[i]:
-            # Nearer a pose already reached further on, with no change point between: turning back
-            # from it stays on the same branch (a dragged crank goes back and forth by small turns).
-            tracked = _track(driven, self.poses[above], theta_ref + direction * self.spans[above],
-                             self.spans[above] - span, -direction, size)
-            if tracked is not None and not tracked[1]:
-                self._keep(i + 1, span, tracked[0], self.passed[i])
-                return tracked[0], self.passed[i]
-        tracked = _track(driven, self.poses[i], theta_ref + direction * self.spans[i], span - self.spans[i],
-                         direction, size)
+    def _span_of(self, k: int) -> float:
+        return self.start_span if k == 0 else k * CHECKPOINT_RAD
+
+    def _track_from(self, k: int, span: float):
+        """Track from checkpoint k (which exists) to ``span`` either way: (q, passed) or None."""
+        q, passed = self.checkpoints[k]
+        begin = self._span_of(k)
+        sense = 1.0 if span >= begin else -1.0
+        tracked = track(self.driven, q, self.theta_ref + self.direction * begin, abs(span - begin),
+                         self.direction * sense, self.size)
         if tracked is None:
-            self.blocked = span
             return None
-        q, passed = tracked[0], tracked[1] or self.passed[i]
-        if span > self.spans[i]:
-            self._keep(i + 1, span, q, passed)
-        return q, passed
+        return tracked[0], passed or tracked[1]
 
-    def _keep(self, at: int, span: float, q, passed: bool):
-        if len(self.spans) < self.MAX_KEPT:
-            self.spans.insert(at, span)
-            self.poses.insert(at, q)
-            self.passed.insert(at, passed)
+    def checkpoint(self, k: int):
+        """Checkpoint k, tracked from checkpoint k − 1 (made first) and kept; None beyond a dead point."""
+        for j in range(max(i for i in self.checkpoints if i <= k) + 1, k + 1):
+            before = self.checkpoints[j - 1]
+            self.checkpoints[j] = None if before is None else self._track_from(j - 1, self._span_of(j))
+        return self.checkpoints[k]
+
+    def reach(self, span: float):
+        """(q, passed) at ``span`` along this way, or None where a dead point stops it first."""
+        k = int(span // CHECKPOINT_RAD)
+        below = self.checkpoint(k)
+        if below is None:
+            return None
+        if span - self._span_of(k) > 0.5 * CHECKPOINT_RAD:
+            above = self.checkpoint(k + 1)
+            if above is not None and above[1] == below[1]:
+                # Turning back from the checkpoint further on, with no change point between, stays on
+                # the same branch; a track that meets one turning back is not used.
+                q, _ = above
+                tracked = track(self.driven, q, self.theta_ref + self.direction * self._span_of(k + 1),
+                                 self._span_of(k + 1) - span, -self.direction, self.size)
+                if tracked is not None and not tracked[1]:
+                    return tracked[0], below[1]
+        return self._track_from(k, span)
 
 
 def solve_pose(mechanism: Mechanism, angle_deg=None, system: ConstraintSystem | None = None) -> Solution:
     """Solve without checking findings first (see :func:`kinematics.solve`)."""
     system = system or constraint_system(mechanism)
-    driven = _Driven(system)
+    driven = DrivenSystem(system)
     driver = mechanism.driver
     omega, alpha = driver.speed_rad_s, driver.angular_acceleration_rad_s2
     theta_ref = reference_driver_angle(system)
@@ -298,10 +317,16 @@ def solve_pose(mechanism: Mechanism, angle_deg=None, system: ConstraintSystem | 
         span = ((theta - theta_ref) * turn) % (2 * math.pi)
         if span > 2 * math.pi - 1e-12:
             span = 0.0
-        ways = remembered(mechanism, "ways", lambda: {1.0: _Way(q), -1.0: _Way(q)})
-        tracked = ways[turn].reach(driven, theta_ref, span, turn, size) if span > 0 else (q, False)
-        if tracked is None:
-            tracked = ways[-turn].reach(driven, theta_ref, 2 * math.pi - span, -turn, size)
+        ways = remembered(mechanism, "ways", dict)
+        for sense, along in ((turn, span), (-turn, 2 * math.pi - span)):
+            if along == 0.0:
+                tracked = (q, False)
+                break
+            if sense not in ways:
+                ways[sense] = _Way(driven, theta_ref, sense, size, q)
+            tracked = ways[sense].reach(along)
+            if tracked is not None:
+                break
         if tracked is None:
             raise CannotAssemble(f"cannot assemble at driver angle {float(angle_deg):.1f}°",
                                  f"driver angle {float(angle_deg):.1f}°")

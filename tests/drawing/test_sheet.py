@@ -9,11 +9,11 @@ from fractions import Fraction
 import pytest
 
 import kinematics
-from kinematics.construction.steps import Role
 from kinematics.drawing import PAPER, Arrow, Circle, Line, Polyline, Text, draw_model, draw_sheet, style
 from kinematics.drawing.layout import MARGIN, MARGIN_FILING
 from kinematics.drawing.scaling import iso5455_ratio, polygon_scale, ratio_text
 from kinematics.drawing.space import outline
+from kinematics.groups.steps import Role
 from tests.designs import (
     BOTTLE_PUSHER,
     GATE_LIFTER,

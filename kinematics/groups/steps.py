@@ -3,7 +3,7 @@
 A :class:`Construction` holds both polygons of one pose; each :class:`Polygon`
 holds its images, its intermediate marks and its :class:`Step` records, each
 with a role and a component in the trade's words. The window, the printer and
-the DXF writer draw from these; :mod:`kinematics.construction.construct` builds them.
+the DXF writer draw from these; :mod:`kinematics.construct` builds them.
 """
 
 from __future__ import annotations
@@ -12,14 +12,18 @@ import math
 from dataclasses import dataclass, field
 from enum import Enum
 from functools import cached_property
+from typing import TYPE_CHECKING
 
 import numpy as np
 from shapely.geometry import LineString, Point
 
 from ..errors import ParallelLines
-from ..groups.decompose import Decomposition, Group
-from ..solver.solve import Solution
 from .scales import preferred_scale
+
+if TYPE_CHECKING:  # the groups draw their own steps here: these modules import this one
+    from ..solver.solve import Solution
+    from .base import Group
+    from .decompose import Decomposition
 
 # An intersection whose condition figure exceeds this is flagged on its step.
 FLAG_CONDITION = 1e3
