@@ -13,6 +13,7 @@ import json
 import math
 import os
 import re
+import stat
 from pathlib import Path
 
 from .errors import FileFormatError
@@ -69,15 +70,50 @@ def parse_text(text: str, where: str) -> dict:
     return data
 
 
+# What a path that is no regular file is, in plain words (stat.S_IFMT of its mode).
+_NOT_A_FILE = {stat.S_IFIFO: "a named pipe", stat.S_IFCHR: "a character device", stat.S_IFBLK: "a block device",
+               stat.S_IFSOCK: "a socket"}
+
+
+def _read_at_most(path: Path, limit: int) -> bytes:
+    """The bytes of the regular file ``path``, refused once more than ``limit`` come in.
+
+    Opened without blocking, so a named pipe is refused rather than waited on; the size the
+    file claims is only a first check (a device or a /proc file claims 0 and never ends)."""
+    where = str(path)
+    handle = os.open(path, os.O_RDONLY | getattr(os, "O_NONBLOCK", 0) | getattr(os, "O_BINARY", 0))
+    with open(handle, "rb", buffering=0, closefd=True) as stream:
+        info = os.fstat(handle)
+        if stat.S_ISDIR(info.st_mode):
+            raise FileFormatError("it is a folder, not a file", where)
+        if not stat.S_ISREG(info.st_mode):
+            kind = _NOT_A_FILE.get(stat.S_IFMT(info.st_mode), "a special file")
+            raise FileFormatError(f"it is {kind}, not a regular file", where)
+        limit_mb = f"{limit / (1024 * 1024):.3g} MB"
+        if info.st_size > limit:
+            raise FileFormatError(f"the file is {info.st_size / 1e6:.1f} MB; mechanism files are at most {limit_mb}",
+                                  where)
+        chunks, total = [], 0
+        while total <= limit:
+            chunk = stream.read(limit + 1 - total)
+            if not chunk:
+                break
+            chunks.append(chunk)
+            total += len(chunk)
+        if total > limit:
+            raise FileFormatError(f"the file is larger than {limit_mb}; mechanism files are at most {limit_mb}",
+                                  where)
+        return b"".join(chunks)
+
+
 def read_document(path) -> dict:
-    """Read a mechanism file into a plain dict, refusing what is not JSON text."""
+    """Read a mechanism file into a plain dict, refusing what is not JSON text in a regular file."""
     path = Path(path)
     where = str(path)
     try:
-        size = path.stat().st_size
-        if size > MAX_FILE_BYTES:
-            raise FileFormatError(f"the file is {size / 1e6:.1f} MB; mechanism files are at most 10 MB", where)
-        raw = path.read_bytes()
+        raw = _read_at_most(path, MAX_FILE_BYTES)
+    except IsADirectoryError:
+        raise FileFormatError("it is a folder, not a file", where) from None
     except OSError as err:
         raise FileFormatError(f"cannot read the file: {err.strerror or err}", where) from None
     try:
@@ -95,6 +131,35 @@ def _depth(value, level=0):
     if isinstance(value, list):
         return max([_depth(v, level + 1) for v in value], default=level + 1)
     return level
+
+
+# A lone UTF-16 surrogate (JSON's "\\ud800" escape) decodes to a code point UTF-8 cannot encode:
+# such a design would open but never save again.
+_SURROGATE = re.compile("[\ud800-\udfff]")
+
+
+def _surrogate_in(text: str) -> str:
+    """"" or where in ``text`` its first lone surrogate is, in words (never the character itself)."""
+    found = _SURROGATE.search(text)
+    if found is None:
+        return ""
+    return (f"the text holds a lone UTF-16 surrogate (\\u{ord(found.group()):04x}) at character "
+            f"{found.start() + 1}, which no UTF-8 file can hold")
+
+
+def _refuse_lone_surrogates(value, where: str = ""):
+    """Refuse text no file could store again, naming its JSON path (before any message could echo it)."""
+    if isinstance(value, str):
+        _expect(not _surrogate_in(value), _surrogate_in(value), where)
+    elif isinstance(value, dict):
+        for key, item in value.items():
+            inner = f"{where}.{key}" if where else key
+            if isinstance(key, str) and _surrogate_in(key):
+                raise FileFormatError(_surrogate_in(key), f"{where} (a key)" if where else "(a top-level key)")
+            _refuse_lone_surrogates(item, inner)
+    elif isinstance(value, list):
+        for i, item in enumerate(value):
+            _refuse_lone_surrogates(item, f"{where}[{i}]")
 
 
 # Coordinates and rates beyond these magnitudes are no machine (and would overflow on squaring).
@@ -270,6 +335,7 @@ def mechanism_from_document(doc: dict, where: str = "") -> Mechanism:
     """Check a parsed document and build the Mechanism (see module doc)."""
     _expect(isinstance(doc, dict), "a mechanism file holds one JSON object", where)
     _expect(_depth(doc) <= MAX_NESTING, f"nested deeper than the format allows ({MAX_NESTING} levels)", where)
+    _refuse_lone_surrogates(doc)
     _expect("kinepoly" in doc, 'missing "kinepoly": this is not a Kinepoly mechanism file', "kinepoly")
     version = doc["kinepoly"]
     _expect(isinstance(version, int) and not isinstance(version, bool) and version >= 1,

@@ -99,7 +99,12 @@ def replace_atomically(target, write: Callable[[str], None], keep_backup: bool =
 
 def write_atomically(target, data: bytes | str, keep_backup: bool = False) -> None:
     """Write bytes (or UTF-8 text) to ``target`` through :func:`replace_atomically`."""
-    payload = data.encode("utf-8") if isinstance(data, str) else data
+    try:
+        payload = data.encode("utf-8") if isinstance(data, str) else data
+    except UnicodeEncodeError as err:
+        raise StorageError(f"the design holds text that cannot be stored as UTF-8 (a lone UTF-16 surrogate, "
+                           f"\\u{ord(err.object[err.start]):04x}, at character {err.start + 1} of the file); "
+                           "nothing was written", str(target)) from None
     replace_atomically(target, lambda path: Path(path).write_bytes(payload), keep_backup)
 
 
