@@ -75,6 +75,15 @@ _NOT_A_FILE = {stat.S_IFIFO: "a named pipe", stat.S_IFCHR: "a character device",
                stat.S_IFSOCK: "a socket"}
 
 
+def not_a_regular_file(mode: int) -> str:
+    """"" for a regular file's ``st_mode``, else why it is none, in words ("it is a named pipe ...")."""
+    if stat.S_ISREG(mode):
+        return ""
+    if stat.S_ISDIR(mode):
+        return "it is a folder, not a file"
+    return f"it is {_NOT_A_FILE.get(stat.S_IFMT(mode), 'a special file')}, not a regular file"
+
+
 def _read_at_most(path: Path, limit: int) -> bytes:
     """The bytes of the regular file ``path``, refused once more than ``limit`` come in.
 
@@ -84,11 +93,7 @@ def _read_at_most(path: Path, limit: int) -> bytes:
     handle = os.open(path, os.O_RDONLY | getattr(os, "O_NONBLOCK", 0) | getattr(os, "O_BINARY", 0))
     with open(handle, "rb", buffering=0, closefd=True) as stream:
         info = os.fstat(handle)
-        if stat.S_ISDIR(info.st_mode):
-            raise FileFormatError("it is a folder, not a file", where)
-        if not stat.S_ISREG(info.st_mode):
-            kind = _NOT_A_FILE.get(stat.S_IFMT(info.st_mode), "a special file")
-            raise FileFormatError(f"it is {kind}, not a regular file", where)
+        _expect(not not_a_regular_file(info.st_mode), not_a_regular_file(info.st_mode), where)
         limit_mb = f"{limit / (1024 * 1024):.3g} MB"
         if info.st_size > limit:
             raise FileFormatError(f"the file is {info.st_size / 1e6:.1f} MB; mechanism files are at most {limit_mb}",
