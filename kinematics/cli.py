@@ -10,9 +10,12 @@ from __future__ import annotations
 import argparse
 import io
 import json
+import math
 import sys
 
-from . import CAUTION, acceleration_components, construct, diagnose, load_mechanism, solve
+import numpy as np
+
+from . import CAUTION, KinematicsError, acceleration_components, construct, diagnose, load_mechanism, solve
 from .drawing.output import run_reporting
 from .report_text import construction_text, peaks_text, solution_table, turn
 from .storage import write_atomically
@@ -56,6 +59,29 @@ def construction_json(construction) -> dict:
             "crosscheck": {"max_relative_difference": construction.max_relative_difference,
                            "where": construction.where},
             "warnings": list(construction.warnings)}
+
+
+def _non_finite(value, path: str = "") -> str:
+    """The JSON path of the first NaN or infinite number in ``value`` ("" when there is none)."""
+    if isinstance(value, (float, np.floating)):
+        return "" if math.isfinite(value) else (path or "the result")
+    if isinstance(value, np.ndarray):
+        bad = np.argwhere(~np.isfinite(value)) if value.dtype.kind in "fc" else ()
+        return f"{path}{''.join(f'[{i}]' for i in bad[0])}" if len(bad) else ""
+    if isinstance(value, dict):
+        items = ((f"{path}.{k}" if path else str(k), v) for k, v in value.items())
+    elif isinstance(value, (list, tuple)):
+        items = ((f"{path}[{i}]", v) for i, v in enumerate(value))
+    else:
+        return ""
+    return next((found for found in (_non_finite(v, at) for at, v in items) if found), "")
+
+
+def _require_finite(result: dict, where: str):
+    """Refuse to write a result holding NaN or infinity (JSON cannot carry it, and no reader expects it)."""
+    at = _non_finite(result)
+    if at:
+        raise KinematicsError(f"the result is not a finite number at {at}; nothing was written", where)
 
 
 def _emit(text: str, output):
@@ -117,6 +143,7 @@ def _check(args) -> int:
 def _solve(args) -> int:
     mech = load_mechanism(args.file)
     solution = solve(mech, args.angle)
+    _require_finite(_solution_json(solution), args.file)
     if args.csv:
         from .drawing.table import results_csv
 
@@ -130,6 +157,7 @@ def _solve(args) -> int:
 
 def _construct(args) -> int:
     construction = construct(solve(load_mechanism(args.file), args.angle))
+    _require_finite(construction_json(construction), args.file)
     if args.json:
         _emit(json.dumps(construction_json(construction), indent=1), args.output)
     else:
@@ -142,6 +170,7 @@ def _sweep(args) -> int:
     from .sweep import sweep, sweep_csv
 
     result = sweep(load_mechanism(args.file), args.steps)
+    _require_finite({k: v for k, v in vars(result).items() if k != "mechanism"}, args.file)
     if args.json:
         stream = io.StringIO()
         json.dump({"kinepoly_sweep": 1, "peaks": peaks(result), "csv": sweep_csv(result)}, stream, indent=1)

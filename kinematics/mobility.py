@@ -112,8 +112,26 @@ def diagnose(mech: Mechanism) -> list:
     return list(remembered(mech, "findings", lambda: tuple(_diagnose(mech))))
 
 
+# The solver converges to 1e-12 of the larger of the design's size and 1 mm (solve.newton_tolerance):
+# below 1 µm that floor is more than a billionth of the design, and at 1e-154 m the squares of its
+# lengths underflow to zero.
+MIN_SIZE_M = 1e-6
+
+
+def _too_small(mech: Mechanism) -> list:
+    size_m = mech.size * mech.metres_per_unit
+    if not 0.0 < size_m < MIN_SIZE_M:
+        return []
+    size_mm = size_m * 1e3
+    return [Finding("points", f"the design is {size_mm:.3g} mm across; designs smaller than {MIN_SIZE_M * 1e3:g} mm "
+                              "(1 µm) cannot be analysed (the solver's tolerance would exceed a billionth of their "
+                              "size)")]
+
+
 def _diagnose(mech: Mechanism) -> list:
-    findings = []
+    findings = _too_small(mech)
+    if findings:
+        return findings
     for link, pts in mech.links.items():
         if tuple(mech.points[pts[0]]) == tuple(mech.points[pts[1]]):
             findings.append(Finding(f"links.{link}", f"the first two points {pts[0]} and {pts[1]} of link {link} "
