@@ -17,7 +17,7 @@ import stat
 from pathlib import Path
 
 from .errors import FileFormatError
-from .model import GROUND, Driver, Mechanism, Slide
+from .model import GROUND, MAX_COORDINATE, Driver, Mechanism, Slide
 from .units import METRES_PER_LENGTH_UNIT, RAD_S2_PER_ACCELERATION_UNIT, RAD_S_PER_SPEED_UNIT
 
 FORMAT_VERSION = 1
@@ -167,8 +167,7 @@ def _refuse_lone_surrogates(value, where: str = ""):
             _refuse_lone_surrogates(item, f"{where}[{i}]")
 
 
-# Coordinates and rates beyond these magnitudes are no machine (and would overflow on squaring).
-MAX_COORDINATE = 1e9
+# Rates beyond this magnitude are no machine (MAX_COORDINATE, the same for coordinates, lives with move_point).
 MAX_RATE = 1e9
 
 

@@ -17,6 +17,9 @@ from .errors import KinematicsError
 from .units import RAD_S2_PER_ACCELERATION_UNIT, RAD_S_PER_SPEED_UNIT, metres_per
 
 GROUND = "ground"
+# Coordinates beyond this magnitude (in length units) are no machine, and would overflow on squaring;
+# the file format refuses them, so no edit makes them.
+MAX_COORDINATE = 1e9
 
 
 @dataclass(frozen=True)
@@ -148,5 +151,8 @@ def move_point(mechanism: Mechanism, name: str, xy) -> Mechanism:
     x, y = (float(c) for c in xy)
     if not (math.isfinite(x) and math.isfinite(y)):
         raise KinematicsError(f"point {name} cannot go to ({x}, {y}): coordinates must be finite", f"points.{name}")
+    if max(abs(x), abs(y)) > MAX_COORDINATE:
+        raise KinematicsError(f"point {name} cannot go to ({x:.6g}, {y:.6g}): coordinates are limited to "
+                              f"±{MAX_COORDINATE:g} length units (the file format's limit)", f"points.{name}")
     points[name] = (x, y)
     return replace(mechanism, points=points, warnings=())
