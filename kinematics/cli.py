@@ -16,6 +16,7 @@ import sys
 import numpy as np
 
 from . import CAUTION, KinematicsError, acceleration_components, construct, diagnose, load_mechanism, solve
+from .arguments import finite_angle, joined_numbers, output_name
 from .drawing.output import run_reporting
 from .report_text import construction_text, peaks_text, solution_table, turn
 from .storage import write_atomically
@@ -85,7 +86,7 @@ def _require_finite(result: dict, where: str):
 
 
 def _emit(text: str, output):
-    if output:
+    if output is not None:
         write_atomically(output, text)
     else:
         sys.stdout.write(text if text.endswith("\n") else text + "\n")
@@ -194,9 +195,10 @@ def _parser():
                            ("construct", "the polygon construction steps in words")):
         p = sub.add_parser(name, help=helptext)
         p.add_argument("file")
-        p.add_argument("--angle", type=float, default=None, help="driver angle in degrees (default: the file's pose)")
+        p.add_argument("--angle", type=finite_angle, default=None,
+                       help="driver angle in degrees (default: the file's pose)")
         p.add_argument("--json", action="store_true", help="machine-readable output in SI units")
-        p.add_argument("-o", "--output", help="write to this file instead of the screen")
+        p.add_argument("-o", "--output", type=output_name, help="write to this file instead of the screen")
         if name == "solve":
             p.add_argument("--csv", action="store_true", help="the results table as CSV (SI units)")
     sw = sub.add_parser("sweep", help="one driver turn: CSV of every pose, or the peaks table")
@@ -204,7 +206,7 @@ def _parser():
     sw.add_argument("--steps", type=int, default=360)
     sw.add_argument("--peaks", action="store_true", help="print the peaks table")
     sw.add_argument("--json", action="store_true", help="peaks and CSV as JSON")
-    sw.add_argument("-o", "--output")
+    sw.add_argument("-o", "--output", type=output_name, help="write to this file instead of the screen")
     return parser
 
 
@@ -217,7 +219,7 @@ def main(argv=None) -> int:
         from .dxf import main as export_main
 
         return export_main(argv[1:])
-    args = _parser().parse_args(argv)
+    args = _parser().parse_args(joined_numbers(argv))
     outcome = []
     code = run_reporting(lambda: outcome.append(COMMANDS[args.command](args)))
     return code or outcome[0]

@@ -52,11 +52,36 @@ def _refuse_constant(name):
     raise ValueError(f"{name} is not a number this format accepts")
 
 
+# More digits than any double holds (1.8e308 has 309): a longer whole number is no coordinate, and
+# Python refuses to convert one of over 4,300 digits with advice meant for programmers.
+MAX_INTEGER_DIGITS = 400
+
+
+class _LongInteger(Exception):
+    pass
+
+
+def _parse_integer(digits: str):
+    if len(digits.lstrip("-")) > MAX_INTEGER_DIGITS:
+        raise _LongInteger(digits)
+    return int(digits)
+
+
+def _line_column(text: str, index: int) -> str:
+    line = text.count("\n", 0, index) + 1
+    return f"line {line} column {index - (text.rfind(chr(10), 0, index) + 1) + 1}"
+
+
 def parse_text(text: str, where: str) -> dict:
-    """Parse JSON text strictly: no repeated keys, no NaN or Infinity."""
+    """Parse JSON text strictly: no repeated keys, no NaN or Infinity, no endless whole numbers."""
     try:
         data = json.loads(text, object_pairs_hook=_pairs_without_repeats,
-                          parse_constant=_refuse_constant)
+                          parse_constant=_refuse_constant, parse_int=_parse_integer)
+    except _LongInteger as long:
+        digits = long.args[0]
+        place = f"{where} {_line_column(text, text.find(digits))}"
+        raise FileFormatError(f"a whole number of {len(digits.lstrip('-'))} digits; numbers in this format have "
+                              f"at most {MAX_INTEGER_DIGITS}", place) from None
     except _Duplicate as dup:
         raise FileFormatError(f'the key "{dup.args[0]}" appears twice in one object', where) from None
     except json.JSONDecodeError as err:
@@ -227,10 +252,11 @@ def _read_links(doc, points, names):
         for i, p in enumerate(pts):
             _expect(isinstance(p, str) and p in points, f'unknown point "{p}"', f"{where}[{i}]")
             _expect(pts.index(p) == i, f'point "{p}" is listed twice', f"{where}[{i}]")
-        distinct = {tuple(points[p]) for p in pts}
-        _expect(len(distinct) >= 2, "a link needs at least two points", where)
-        _expect(tuple(points[pts[0]]) != tuple(points[pts[1]]),
-                f"the first two points {pts[0]} and {pts[1]} coincide; they fix the link's angle", where)
+        _expect(len(pts) >= 2, "a link needs at least two points", where)
+        x, y = points[pts[0]]
+        _expect((x, y) != tuple(points[pts[1]]),
+                f"its first two points {pts[0]} and {pts[1]} are both at ({x:g}, {y:g}); they give the link its "
+                "length and angle, so they must differ", where)
     return links
 
 
@@ -338,7 +364,9 @@ def _snap_slide_points(points, slides, length_unit, size):
 def mechanism_from_document(doc: dict, where: str = "") -> Mechanism:
     """Check a parsed document and build the Mechanism (see module doc)."""
     _expect(isinstance(doc, dict), "a mechanism file holds one JSON object", where)
-    _expect(_depth(doc) <= MAX_NESTING, f"nested deeper than the format allows ({MAX_NESTING} levels)", where)
+    for key, value in doc.items():
+        _expect(_depth(value, 1) <= MAX_NESTING, f"nested deeper than the format allows ({MAX_NESTING} levels)",
+                str(key))
     _refuse_lone_surrogates(doc)
     _expect("kinepoly" in doc, 'missing "kinepoly": this is not a Kinepoly mechanism file', "kinepoly")
     version = doc["kinepoly"]

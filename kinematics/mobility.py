@@ -3,6 +3,7 @@ from the rank of the constraint Jacobian, and what stops analysis."""
 
 from __future__ import annotations
 
+import math
 from dataclasses import dataclass
 
 import numpy as np
@@ -132,10 +133,18 @@ def _diagnose(mech: Mechanism) -> list:
     findings = _too_small(mech)
     if findings:
         return findings
+    unit = mech.length_unit
     for link, pts in mech.links.items():
-        if tuple(mech.points[pts[0]]) == tuple(mech.points[pts[1]]):
+        (ax, ay), (bx, by) = mech.points[pts[0]], mech.points[pts[1]]
+        apart = math.hypot(bx - ax, by - ay)
+        if apart == 0.0:
             findings.append(Finding(f"links.{link}", f"the first two points {pts[0]} and {pts[1]} of link {link} "
                                                      "coincide: the link has no length to keep"))
+        elif apart <= RANK_RELATIVE * mech.size:
+            # Shorter than the rank test can tell from nothing: it would read as a redundant link.
+            findings.append(Finding(f"links.{link}", f"the first two points {pts[0]} and {pts[1]} of link {link} "
+                                                     f"are {apart:.3g} {unit} apart, under a billionth of the "
+                                                     f"design's size ({mech.size:.3g} {unit}): too short to analyse"))
     if findings:
         return findings
     for p in loose_points(mech):
