@@ -2,6 +2,7 @@
 and its fields never change a coordinate the user did not touch."""
 
 import copy
+import json
 import os
 import time
 from dataclasses import replace
@@ -118,3 +119,19 @@ def test_a_design_in_metres_keeps_its_digits(make_window, qtbot):
     assert panel.x.text() == "0.123450 m"
     type_number(qtbot, panel.y, "0.10625")
     assert window.document.mechanism.points["B"] == (0.12345, 0.10625)
+
+
+def test_the_window_opens_a_design_with_a_repeated_slide_and_names_it(qtbot, tmp_path, monkeypatch):
+    """``kinepoly FILE`` used to exit 1 before the window appeared (numpy's LinAlgError)."""
+    from app.window import MainWindow, open_window
+    from tests.designs import CARTON_PUSHER
+
+    monkeypatch.setattr(MainWindow, "ask_to_save", lambda self: True)
+    doc = copy.deepcopy(CARTON_PUSHER)
+    doc["slides"]["again"] = dict(doc["slides"]["guide"])
+    path = tmp_path / "twice.json"
+    path.write_text(json.dumps(doc), encoding="utf-8")
+    window = open_window([str(path)])
+    qtbot.addWidget(window)
+    assert window.isVisible() and window.document.path == str(path)
+    assert "slides.again: slide again is redundant" in window.status.text()
