@@ -3,6 +3,7 @@ and ``print`` draw offscreen; anything else opens the window."""
 
 from __future__ import annotations
 
+import os
 import sys
 
 CORE_COMMANDS = ("check", "solve", "construct", "centres", "sweep", "export")
@@ -23,7 +24,19 @@ Each command takes --help. Exit codes: 0 ok, 1 output not written, 2 bad file or
 
 
 def main(argv=None) -> int:
-    argv = list(sys.argv[1:] if argv is None else argv)
+    """Run ``kinepoly ARGV``; a reader that leaves early (``| head -1``) ends it quietly with exit code 1."""
+    try:
+        code = _dispatch(list(sys.argv[1:] if argv is None else argv))
+        sys.stdout.flush()
+    except BrokenPipeError:
+        # Nothing more can reach the reader; point stdout at nothing so the interpreter's own final
+        # flush does not fail again on the way out.
+        os.dup2(os.open(os.devnull, os.O_WRONLY), sys.stdout.fileno())
+        return 1
+    return code
+
+
+def _dispatch(argv: list) -> int:
     if argv[:1] in (["-h"], ["--help"]):
         print(USAGE)
         return 0

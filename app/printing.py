@@ -29,6 +29,7 @@ from PySide6.QtGui import (
     QPolygonF,
 )
 
+from kinematics.arguments import finite_angle, joined_numbers, output_name
 from kinematics.drawing import PAPER, Arrow, Circle, Hatch, Line, Note, Polyline, Text, draw_sheet
 from kinematics.drawing.output import construction_from_file, run_reporting
 from kinematics.drawing.sheet import DASHES
@@ -223,12 +224,12 @@ def main(argv=None) -> int:
     parser = argparse.ArgumentParser(prog="kinepoly print",
                                      description="Print the space diagram and both polygons at true scale to PDF.")
     parser.add_argument("file", help="mechanism file (JSON)")
-    parser.add_argument("--angle", type=float, default=None, metavar="DEG",
+    parser.add_argument("--angle", type=finite_angle, default=None, metavar="DEG",
                         help="driver angle in degrees (default: the reference pose)")
     parser.add_argument("--paper", choices=sorted(PAPER), default="A4", help="ISO 216 sheet (default A4)")
     parser.add_argument("--landscape", action="store_true", help="landscape instead of portrait")
-    parser.add_argument("-o", "--output", required=True, help="PDF file to write")
-    args = parser.parse_args(argv)
+    parser.add_argument("-o", "--output", type=output_name, required=True, help="PDF file to write")
+    args = parser.parse_args(joined_numbers(argv))
     if QGuiApplication.instance() is None:
         os.environ.setdefault("QT_QPA_PLATFORM", "offscreen")
         application = QGuiApplication([])  # fonts need a GUI application; kept alive until we return

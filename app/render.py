@@ -12,6 +12,8 @@ import os
 import sys
 from pathlib import Path
 
+from kinematics.arguments import finite_angle, joined_numbers, output_name
+
 FOOTER_PIXELS = 44
 
 
@@ -71,23 +73,42 @@ def png_bytes(image) -> bytes:
     return bytes(data)
 
 
+# What Qt's offscreen plugin says about every widget it shows: true of the plugin, no news to the user.
+QUIET_QT_MESSAGES = ("This plugin does not support propagateSizeHints()",)
+
+
+def _pass_on_qt_message(mode, context, message):
+    if message not in QUIET_QT_MESSAGES:
+        print(message, file=sys.stderr)
+
+
 def main(argv) -> int:
     parser = argparse.ArgumentParser(prog="kinepoly render", description=__doc__.split("\n\n")[0])
     parser.add_argument("file", help="mechanism file (.json)")
-    parser.add_argument("--angle", type=float, default=None, help="driver angle, degrees CCW from +x "
-                                                                  "(default: the reference pose)")
-    parser.add_argument("-o", "--output", required=True, help="PNG file to write")
+    parser.add_argument("--angle", type=finite_angle, default=None, help="driver angle, degrees CCW from +x "
+                                                                         "(default: the reference pose)")
+    parser.add_argument("-o", "--output", type=output_name, required=True, help="PNG file to write")
     parser.add_argument("--size", type=parse_size, default=(1600, 1000), help="WIDTHxHEIGHT pixels (1600x1000)")
-    options = parser.parse_args(argv)
+    options = parser.parse_args(joined_numbers(argv))
     os.environ.setdefault("QT_QPA_PLATFORM", "offscreen")
+    from PySide6.QtCore import qInstallMessageHandler
     from PySide6.QtWidgets import QApplication
 
+    app = QApplication.instance() or QApplication(["kinepoly"])
+    previous = qInstallMessageHandler(_pass_on_qt_message)
+    try:
+        return _render(options, app)
+    finally:
+        qInstallMessageHandler(previous)
+
+
+def _render(options, app) -> int:
+    """Load, analyse, draw and write; the exit code (see the module doc)."""
     import kinematics
     from kinematics.files.storage import write_atomically
 
     from .document import Document
 
-    app = QApplication.instance() or QApplication(["kinepoly"])
     try:
         mechanism = kinematics.load_mechanism(options.file)
     except (kinematics.KinematicsError, OSError) as error:

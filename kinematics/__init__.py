@@ -9,6 +9,7 @@ import math
 from .construction.components import RelativeComponent, acceleration_components
 from .construction.construct import construct as _construct
 from .cycle.sweep import Sweep, sweep, verify_sweep
+from .edits.moves import move_point
 from .edits.naming import rename_link, rename_point
 from .errors import (
     CannotAssemble,
@@ -22,7 +23,7 @@ from .errors import (
 from .files.fileformat import dumps, load_mechanism
 from .groups.steps import Component, Construction, Polygon, Role, Step
 from .instantaneous.centres import centres
-from .model.mechanism import Driver, Mechanism, Slide, move_point
+from .model.mechanism import Driver, Mechanism, Slide
 from .reports.caution import CAUTION
 from .solver.mobility import Finding, diagnose
 from .solver.solve import Solution, solve_pose

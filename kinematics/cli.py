@@ -10,9 +10,13 @@ from __future__ import annotations
 import argparse
 import io
 import json
+import math
 import sys
 
-from . import CAUTION, acceleration_components, construct, load_mechanism, solve
+import numpy as np
+
+from . import CAUTION, KinematicsError, acceleration_components, construct, load_mechanism, solve
+from .arguments import finite_angle, joined_numbers, output_name
 from .drawing.output import run_reporting
 from .files.storage import write_atomically
 from .reports.text import construction_text, peaks_text, solution_table
@@ -58,8 +62,31 @@ def construction_json(construction) -> dict:
             "warnings": list(construction.warnings)}
 
 
+def _non_finite(value, path: str = "") -> str:
+    """The JSON path of the first NaN or infinite number in ``value`` ("" when there is none)."""
+    if isinstance(value, (float, np.floating)):
+        return "" if math.isfinite(value) else (path or "the result")
+    if isinstance(value, np.ndarray):
+        bad = np.argwhere(~np.isfinite(value)) if value.dtype.kind in "fc" else ()
+        return f"{path}{''.join(f'[{i}]' for i in bad[0])}" if len(bad) else ""
+    if isinstance(value, dict):
+        items = ((f"{path}.{k}" if path else str(k), v) for k, v in value.items())
+    elif isinstance(value, (list, tuple)):
+        items = ((f"{path}[{i}]", v) for i, v in enumerate(value))
+    else:
+        return ""
+    return next((found for found in (_non_finite(v, at) for at, v in items) if found), "")
+
+
+def _require_finite(result: dict, where: str):
+    """Refuse to write a result holding NaN or infinity (JSON cannot carry it, and no reader expects it)."""
+    at = _non_finite(result)
+    if at:
+        raise KinematicsError(f"the result is not a finite number at {at}; nothing was written", where)
+
+
 def _emit(text: str, output):
-    if output:
+    if output is not None:
         write_atomically(output, text)
     else:
         sys.stdout.write(text if text.endswith("\n") else text + "\n")
@@ -79,6 +106,7 @@ def _check(args) -> int:
 def _solve(args) -> int:
     mech = load_mechanism(args.file)
     solution = solve(mech, args.angle)
+    _require_finite(_solution_json(solution), args.file)
     if args.csv:
         from .drawing.table import results_csv
 
@@ -92,6 +120,7 @@ def _solve(args) -> int:
 
 def _construct(args) -> int:
     construction = construct(solve(load_mechanism(args.file), args.angle))
+    _require_finite(construction_json(construction), args.file)
     if args.json:
         _emit(json.dumps(construction_json(construction), indent=1), args.output)
     else:
@@ -113,6 +142,7 @@ def _sweep(args) -> int:
     from .cycle.sweep import sweep, sweep_csv
 
     result = sweep(load_mechanism(args.file), args.steps)
+    _require_finite({k: v for k, v in vars(result).items() if k != "mechanism"}, args.file)
     if args.json:
         stream = io.StringIO()
         json.dump({"kinepoly_sweep": 1, "peaks": peaks(result), "csv": sweep_csv(result)}, stream, indent=1)
@@ -136,9 +166,10 @@ def _parser():
                            ("construct", "the polygon construction steps in words")):
         p = sub.add_parser(name, help=helptext)
         p.add_argument("file")
-        p.add_argument("--angle", type=float, default=None, help="driver angle in degrees (default: the file's pose)")
+        p.add_argument("--angle", type=finite_angle, default=None,
+                       help="driver angle in degrees (default: the file's pose)")
         p.add_argument("--json", action="store_true", help="machine-readable output in SI units")
-        p.add_argument("-o", "--output", help="write to this file instead of the screen")
+        p.add_argument("-o", "--output", type=output_name, help="write to this file instead of the screen")
         if name == "solve":
             p.add_argument("--csv", action="store_true", help="the results table as CSV (SI units)")
     ce = sub.add_parser("centres", help="instantaneous centres by Kennedy's theorem and their velocity check")
@@ -151,7 +182,7 @@ def _parser():
     sw.add_argument("--steps", type=int, default=360)
     sw.add_argument("--peaks", action="store_true", help="print the peaks table")
     sw.add_argument("--json", action="store_true", help="peaks and CSV as JSON")
-    sw.add_argument("-o", "--output")
+    sw.add_argument("-o", "--output", type=output_name, help="write to this file instead of the screen")
     return parser
 
 
@@ -164,7 +195,7 @@ def main(argv=None) -> int:
         from .drawing.dxf import main as export_main
 
         return export_main(argv[1:])
-    args = _parser().parse_args(argv)
+    args = _parser().parse_args(joined_numbers(argv))
     outcome = []
     code = run_reporting(lambda: outcome.append(COMMANDS[args.command](args)))
     return code or outcome[0]

@@ -58,3 +58,12 @@ class StorageError(KinematicsError):
 
 class SweepCancelled(KinematicsError):
     """The ``progress`` callback of :func:`kinematics.sweep` asked to stop."""
+
+
+class ProtectedFile(StorageError):
+    """The target is read-only, or another user's: it is replaced only when the user agrees
+    (``overwrite_protected=True``). ``reason`` says which, for a question to the user."""
+
+    def __init__(self, reason: str, location: str = ""):
+        self.reason = reason
+        super().__init__(f"{reason}, so it was left as it was", location)

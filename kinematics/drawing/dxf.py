@@ -17,6 +17,7 @@ import ezdxf
 from ezdxf import bbox
 from ezdxf.enums import TextEntityAlignment
 
+from ..arguments import finite_angle, joined_numbers, output_name
 from ..files.storage import replace_atomically
 from . import Arrow, Circle, Hatch, Line, Note, Polyline, Text, draw_model
 from .output import construction_from_file, run_reporting
@@ -165,9 +166,9 @@ def main(argv=None) -> int:
     parser = argparse.ArgumentParser(prog="kinepoly export",
                                      description="Export the space diagram (true size, mm) and both polygons as DXF.")
     parser.add_argument("file", help="mechanism file (JSON)")
-    parser.add_argument("--angle", type=float, default=None, metavar="DEG",
+    parser.add_argument("--angle", type=finite_angle, default=None, metavar="DEG",
                         help="driver angle in degrees (default: the reference pose)")
-    parser.add_argument("-o", "--output", required=True, help="DXF file to write")
-    args = parser.parse_args(argv)
+    parser.add_argument("-o", "--output", type=output_name, required=True, help="DXF file to write")
+    args = parser.parse_args(joined_numbers(argv))
     return run_reporting(lambda: write_dxf(construction_from_file(args.file, args.angle), args.output,
                                            file_name=Path(args.file).name))

@@ -14,6 +14,8 @@ from __future__ import annotations
 import json
 import math
 import os
+import re
+import stat
 from collections import deque
 from dataclasses import replace
 from pathlib import Path
@@ -45,11 +47,36 @@ def _refuse_constant(name):
     raise ValueError(f"{name} is not a number this format accepts")
 
 
+# More digits than any double holds (1.8e308 has 309): a longer whole number is no coordinate, and
+# Python refuses to convert one of over 4,300 digits with advice meant for programmers.
+MAX_INTEGER_DIGITS = 400
+
+
+class _LongInteger(Exception):
+    pass
+
+
+def _parse_integer(digits: str):
+    if len(digits.lstrip("-")) > MAX_INTEGER_DIGITS:
+        raise _LongInteger(digits)
+    return int(digits)
+
+
+def _line_column(text: str, index: int) -> str:
+    line = text.count("\n", 0, index) + 1
+    return f"line {line} column {index - (text.rfind(chr(10), 0, index) + 1) + 1}"
+
+
 def parse_text(text: str, where: str) -> dict:
-    """Parse JSON text strictly: no repeated keys, no NaN or Infinity."""
+    """Parse JSON text strictly: no repeated keys, no NaN or Infinity, no endless whole numbers."""
     try:
         data = json.loads(text, object_pairs_hook=_pairs_without_repeats,
-                          parse_constant=_refuse_constant)
+                          parse_constant=_refuse_constant, parse_int=_parse_integer)
+    except _LongInteger as long:
+        digits = long.args[0]
+        place = f"{where} {_line_column(text, text.find(digits))}"
+        raise FileFormatError(f"a whole number of {len(digits.lstrip('-'))} digits; numbers in this format have "
+                              f"at most {MAX_INTEGER_DIGITS}", place, "text") from None
     except _Duplicate as dup:
         raise FileFormatError(f'the key "{dup.args[0]}" appears twice in one object', where, "text") from None
     except json.JSONDecodeError as err:
@@ -64,16 +91,56 @@ def parse_text(text: str, where: str) -> dict:
     return data
 
 
+# What a path that is no regular file is, in plain words (stat.S_IFMT of its mode).
+_NOT_A_FILE = {stat.S_IFIFO: "a named pipe", stat.S_IFCHR: "a character device", stat.S_IFBLK: "a block device",
+               stat.S_IFSOCK: "a socket"}
+
+
+def not_a_regular_file(mode: int) -> str:
+    """"" for a regular file's ``st_mode``, else why it is none, in words ("it is a named pipe ...")."""
+    if stat.S_ISREG(mode):
+        return ""
+    if stat.S_ISDIR(mode):
+        return "it is a folder, not a file"
+    return f"it is {_NOT_A_FILE.get(stat.S_IFMT(mode), 'a special file')}, not a regular file"
+
+
+def _read_at_most(path: Path, limit: int) -> bytes:
+    """The bytes of the regular file ``path``, refused once more than ``limit`` come in.
+
+    Opened without blocking, so a named pipe is refused rather than waited on; the size the
+    file claims is only a first check (a device or a /proc file claims 0 and never ends)."""
+    where = str(path)
+    handle = os.open(path, os.O_RDONLY | getattr(os, "O_NONBLOCK", 0) | getattr(os, "O_BINARY", 0))
+    with open(handle, "rb", buffering=0, closefd=True) as stream:
+        info = os.fstat(handle)
+        if not_a_regular_file(info.st_mode):
+            raise FileFormatError(not_a_regular_file(info.st_mode), where, "text")
+        limit_mb = f"{limit / (1024 * 1024):.3g} MB"
+        if info.st_size > limit:
+            raise FileFormatError(f"the file is {info.st_size / 1e6:.1f} MB; mechanism files are at most {limit_mb}",
+                                  where, "text")
+        chunks, total = [], 0
+        while total <= limit:
+            chunk = stream.read(limit + 1 - total)
+            if not chunk:
+                break
+            chunks.append(chunk)
+            total += len(chunk)
+        if total > limit:
+            raise FileFormatError(f"the file is larger than {limit_mb}; mechanism files are at most {limit_mb}",
+                                  where, "text")
+        return b"".join(chunks)
+
+
 def read_document(path) -> dict:
-    """Read a mechanism file into a plain dict, refusing what is not JSON text."""
+    """Read a mechanism file into a plain dict, refusing what is not JSON text in a regular file."""
     path = Path(path)
     where = str(path)
     try:
-        size = path.stat().st_size
-        if size > MAX_FILE_BYTES:
-            raise FileFormatError(f"the file is {size / 1e6:.1f} MB; mechanism files are at most 10 MB", where,
-                                  "text")
-        raw = path.read_bytes()
+        raw = _read_at_most(path, MAX_FILE_BYTES)
+    except IsADirectoryError:
+        raise FileFormatError("it is a folder, not a file", where, "text") from None
     except OSError as err:
         raise FileFormatError(f"cannot read the file: {err.strerror or err}", where, "text") from None
     try:
@@ -108,6 +175,36 @@ def check_json_data(doc) -> None:
             raise FileFormatError(f"a Python {type(value).__name__} is not JSON data", where, "text")
 
 
+# A lone UTF-16 surrogate (JSON's "\\ud800" escape) decodes to a code point UTF-8 cannot encode:
+# such a design would open but never save again.
+_SURROGATE = re.compile("[\ud800-\udfff]")
+
+
+def _surrogate_in(text: str) -> str:
+    """"" or where in ``text`` its first lone surrogate is, in words (never the character itself)."""
+    found = _SURROGATE.search(text)
+    if found is None:
+        return ""
+    return (f"the text holds a lone UTF-16 surrogate (\\u{ord(found.group()):04x}) at character "
+            f"{found.start() + 1}, which no UTF-8 file can hold")
+
+
+def _refuse_lone_surrogates(value, where: str = ""):
+    """Refuse text no file could store again, naming its JSON path (before any message could echo it)."""
+    if isinstance(value, str):
+        if _surrogate_in(value):
+            raise FileFormatError(_surrogate_in(value), where, "text")
+    elif isinstance(value, dict):
+        for key, item in value.items():
+            if isinstance(key, str) and _surrogate_in(key):
+                raise FileFormatError(_surrogate_in(key), f"{where} (a key)" if where else "(a top-level key)",
+                                      "text")
+            _refuse_lone_surrogates(item, f"{where}.{key}" if where else key)
+    elif isinstance(value, list):
+        for i, item in enumerate(value):
+            _refuse_lone_surrogates(item, f"{where}[{i}]")
+
+
 def _refuse(message: str, location: str, kind: str = "reference"):
     raise FileFormatError(message, location, kind)
 
@@ -136,7 +233,9 @@ def _check_links(links, points):
         _check_point_names(members, points, f"links.{name}")
         first, second = members[:2]
         if points[first] == points[second]:
-            _refuse(f"the first two points {first} and {second} coincide; they fix the link's angle",
+            x, y = points[first]
+            _refuse(f"its first two points {first} and {second} are both at ({x:g}, {y:g}); they give the link its "
+                    "length and angle, so they must differ",
                     f"links.{name}", "geometry")
 
 
@@ -211,6 +310,7 @@ def mechanism_from_document(doc: dict, where: str = "") -> Mechanism:
     """Check a parsed document and build the Mechanism (see module doc)."""
     if not isinstance(doc, dict):
         _refuse("a mechanism file holds one JSON object", where, "structure")
+    _refuse_lone_surrogates(doc)
     check_structure(doc, format_version(doc))
     _check_names_differ(doc)
     points = {k: tuple(v) for k, v in doc["points"].items()}

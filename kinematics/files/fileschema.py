@@ -4,7 +4,7 @@ Each format version has its schema in ``schema/`` (:data:`SCHEMA_FILES`); the do
 ``kinepoly`` number chooses one. A schema is compiled once, on first use, with
 ``fastjsonschema``, and a refusal is put in the loader's words at the place it names
 (``links.rod: a link needs at least two points``). Everything a schema cannot say (names
-that exist, points on their lines) is checked by :mod:`kinematics.fileformat`.
+that exist, points on their lines) is checked by :mod:`kinematics.files.fileformat`.
 """
 
 from __future__ import annotations
@@ -31,6 +31,10 @@ def schema(version: int) -> dict:
 
 
 _NAME = schema(FORMAT_VERSION)["$defs"]["name"]
+# The bounds of a coordinate (length units) and of a driver's rates (their units): the schema's, which the
+# window's fields and edits keep to, so no edit makes a design the format refuses.
+MAX_COORDINATE = schema(FORMAT_VERSION)["$defs"]["coordinate"]["maximum"]
+MAX_RATE = schema(FORMAT_VERSION)["$defs"]["quantity"]["properties"]["value"]["maximum"]
 # The one name rule: the schema's. Both patterns are anchored; search or fullmatch alike.
 NAME_PATTERN = re.compile(_NAME["pattern"])
 RESERVED_NAME = re.compile(_NAME["not"]["pattern"])

@@ -3,7 +3,7 @@
 A :class:`Construction` holds both polygons of one pose; each :class:`Polygon`
 holds its images, its intermediate marks and its :class:`Step` records, each
 with a role and a component in the trade's words. The window, the printer and
-the DXF writer draw from these; :mod:`kinematics.construct` builds them.
+the DXF writer draw from these; :mod:`kinematics.construction.construct` builds them.
 """
 
 from __future__ import annotations

@@ -9,11 +9,10 @@ from __future__ import annotations
 
 import math
 from collections.abc import Mapping
-from dataclasses import dataclass, field, replace
+from dataclasses import dataclass, field
 from functools import cached_property
 from types import MappingProxyType
 
-from ..errors import KinematicsError
 from .units import RAD_S2_PER_ACCELERATION_UNIT, RAD_S_PER_SPEED_UNIT, metres_per
 
 GROUND = "ground"
@@ -135,24 +134,6 @@ class Mechanism:
         xs = [float(p[0]) for p in self.points.values()]
         ys = [float(p[1]) for p in self.points.values()]
         return math.hypot(max(xs) - min(xs), max(ys) - min(ys))
-
-
-def move_point(mechanism: Mechanism, name: str, xy) -> Mechanism:
-    """A new Mechanism with point ``name`` at ``xy`` (in ``length_unit``) in the
-    reference pose; link shapes follow.
-
-    >>> m = Mechanism(points={"A": (0, 0), "B": (1, 0)}, links={"bar": ("A", "B")})
-    >>> move_point(m, "B", (2.0, 0.0)).points["B"]
-    (2.0, 0.0)
-    """
-    points = dict(mechanism.points)
-    if name not in points:
-        raise KinematicsError(f'unknown point "{name}"', "points")
-    x, y = (float(c) for c in xy)
-    if not (math.isfinite(x) and math.isfinite(y)):
-        raise KinematicsError(f"point {name} cannot go to ({x}, {y}): coordinates must be finite", f"points.{name}")
-    points[name] = (x, y)
-    return replace(mechanism, points=points, warnings=())
 
 
 def slide_offset(mechanism: Mechanism, slide: Slide) -> tuple[float, tuple[float, float]]:

@@ -3,6 +3,7 @@ from the rank of the constraint Jacobian, and what stops analysis."""
 
 from __future__ import annotations
 
+import math
 from dataclasses import dataclass
 
 import numpy as np
@@ -35,15 +36,37 @@ def loose_points(mech: Mechanism) -> list:
     return [p for p in mech.points if not mech.bodies_of(p)]
 
 
+RANK_RELATIVE = 1e-9  # singular values below this share of the largest count as zero
+INVOLVED = 1e-8  # a row whose weight in a dependency among the rows is below this takes no part in it
+
+
 def _rank(matrix) -> int:
     if matrix.size == 0:
         return 0
     singular = np.linalg.svd(matrix, compute_uv=False)
-    return int(np.sum(singular > 1e-9 * max(singular[0], 1e-300)))
+    return int(np.sum(singular > RANK_RELATIVE * max(singular[0], 1e-300)))
 
 
-def jacobian_mobility(mech: Mechanism):
-    """(mobility, redundant links) from the rank of the constraint Jacobian at the reference pose."""
+@dataclass(frozen=True)
+class Redundancy:
+    """The constraint rows of one design that repeat others.
+
+    ``removable``: links and slides whose constraints could all go without changing the rank;
+    ``involved``: every link and slide with a row in a dependency among the rows (file order,
+    links first)."""
+
+    mobility: int
+    removable: tuple
+    involved: tuple
+
+
+def redundancy(mech: Mechanism) -> Redundancy:
+    """Mobility from the rank of the constraint Jacobian at the reference pose, and which links and
+    slides repeat each other's constraints there (kept for as long as the mechanism lives)."""
+    return remembered(mech, "redundancy", lambda: _redundancy(mech))
+
+
+def _redundancy(mech: Mechanism) -> Redundancy:
     system = constraint_system(mech)
     loose = set(loose_points(mech))
     keep = [i for i, n in enumerate(system.names) if system.free[i] and n not in loose]
@@ -51,14 +74,36 @@ def jacobian_mobility(mech: Mechanism):
     jac = system.jacobian(system.x0)[:, columns] if len(system.kind) else np.zeros((0, len(columns)))
     rank = _rank(jac)
     mobility = len(columns) - rank
-    redundant = []
-    if rank < len(jac):
-        owners = np.array(system.owner, dtype=object)
-        for link in mech.links:
-            rows = owners == link
-            if rows.any() and _rank(jac[~rows]) == rank:
-                redundant.append(link)
-    return mobility, redundant
+    if rank == len(jac):
+        return Redundancy(mobility, (), ())
+    # The left null space holds the dependencies among the rows: a row with weight in it repeats others.
+    left, singular, _ = np.linalg.svd(jac, full_matrices=True)
+    weight = np.linalg.norm(left[:, rank:], axis=1)
+    owners = np.array(system.owner, dtype=object)
+    order = [*mech.links, *mech.slides]
+    involved = tuple(o for o in order if (weight[owners == o] > INVOLVED).any())
+    removable = tuple(o for o in involved if _rank(jac[owners != o]) == rank)
+    return Redundancy(mobility, removable, involved)
+
+
+def jacobian_mobility(mech: Mechanism):
+    """(mobility, redundant links and slides) from the rank of the constraint Jacobian at the reference pose."""
+    found = redundancy(mech)
+    return found.mobility, list(found.removable)
+
+
+def _named(mech: Mechanism, owner: str) -> str:
+    return f"slide {owner}" if owner in mech.slides else f"link {owner}"
+
+
+def _redundancy_finding(mech: Mechanism, found: Redundancy, count: int) -> Finding:
+    """The finding for constraints that repeat others, at the last removable link or slide."""
+    last = (found.removable or found.involved)[-1]
+    others = ", ".join(_named(mech, o) for o in found.involved if o != last) or "its own other constraints"
+    where = f"slides.{last}" if last in mech.slides else f"links.{last}"
+    return Finding(where, f"{_named(mech, last)} is redundant: at this geometry its constraints repeat those of "
+                          f"{others} (Gruebler-Kutzbach count {count}, true mobility {found.mobility} from the rank "
+                          "of the constraint Jacobian)")
 
 
 def diagnose(mech: Mechanism) -> list:
@@ -68,12 +113,38 @@ def diagnose(mech: Mechanism) -> list:
     return list(remembered(mech, "findings", lambda: tuple(_diagnose(mech))))
 
 
+# The solver converges to 1e-12 of the larger of the design's size and 1 mm (solve.newton_tolerance):
+# below 1 µm that floor is more than a billionth of the design, and at 1e-154 m the squares of its
+# lengths underflow to zero.
+MIN_SIZE_M = 1e-6
+
+
+def _too_small(mech: Mechanism) -> list:
+    size_m = mech.size * mech.metres_per_unit
+    if not 0.0 < size_m < MIN_SIZE_M:
+        return []
+    size_mm = size_m * 1e3
+    return [Finding("points", f"the design is {size_mm:.3g} mm across; designs smaller than {MIN_SIZE_M * 1e3:g} mm "
+                              "(1 µm) cannot be analysed (the solver's tolerance would exceed a billionth of their "
+                              "size)")]
+
+
 def _diagnose(mech: Mechanism) -> list:
-    findings = []
+    findings = _too_small(mech)
+    if findings:
+        return findings
+    unit = mech.length_unit
     for link, pts in mech.links.items():
-        if tuple(mech.points[pts[0]]) == tuple(mech.points[pts[1]]):
+        (ax, ay), (bx, by) = mech.points[pts[0]], mech.points[pts[1]]
+        apart = math.hypot(bx - ax, by - ay)
+        if apart == 0.0:
             findings.append(Finding(f"links.{link}", f"the first two points {pts[0]} and {pts[1]} of link {link} "
                                                      "coincide: the link has no length to keep"))
+        elif apart <= RANK_RELATIVE * mech.size:
+            # Shorter than the rank test can tell from nothing: it would read as a redundant link.
+            findings.append(Finding(f"links.{link}", f"the first two points {pts[0]} and {pts[1]} of link {link} "
+                                                     f"are {apart:.3g} {unit} apart, under a billionth of the "
+                                                     f"design's size ({mech.size:.3g} {unit}): too short to analyse"))
     if findings:
         return findings
     for p in loose_points(mech):
@@ -85,14 +156,10 @@ def _diagnose(mech: Mechanism) -> list:
         if fixed:
             findings.append(Finding("driver.link", f"the driver {mech.driver.link} is fixed to ground at "
                                                    f"{mech.driver.pivot} and {fixed[0]}: it cannot turn"))
-    mobility, redundant = jacobian_mobility(mech)
-    count = gruebler_count(mech)
-    if redundant and count != mobility:
-        others = ", ".join(redundant[:-1])
-        findings.append(Finding(f"links.{redundant[-1]}",
-                                f"link {redundant[-1]} is redundant: at this geometry its constraints repeat those of "
-                                f"{others or 'the others'} (Gruebler-Kutzbach count {count}, true mobility "
-                                f"{mobility} from the rank of the constraint Jacobian)"))
+    found = redundancy(mech)
+    mobility, count = found.mobility, gruebler_count(mech)
+    if found.involved:
+        findings.append(_redundancy_finding(mech, found, count))
     elif mobility != 1:
         need = ("the linkage needs another link or constraint" if mobility > 1
                 else "the linkage is a structure: it cannot move")

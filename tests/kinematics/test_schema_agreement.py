@@ -112,7 +112,8 @@ DISAGREEMENTS = [
     ("the version true (equal to 1 in Python)", lambda d: d.update(kinepoly=True),
      ("version", "kinepoly: kinepoly must be the format version, a whole number")),
     ("a link whose first two points coincide", lambda d: d["points"].update(B=list(d["points"]["A"])),
-     ("geometry", "links.coupler: the first two points A and B coincide; they fix the link's angle")),
+     ("geometry", "links.coupler: its first two points A and B are both at (34.641, 20); they give the link its "
+                  "length and angle, so they must differ")),
     ("a driver pivot off ground", lambda d: d["driver"].update(pivot="A"),
      ("reference", "driver.pivot: the driver pivot A must be a ground point")),
 ]
