@@ -44,3 +44,12 @@ class StorageError(KinematicsError):
 
 class SweepCancelled(KinematicsError):
     """The ``progress`` callback of :func:`kinematics.sweep` asked to stop."""
+
+
+class NoMassData(KinematicsError):
+    """Forces were asked of a design with no masses and no loads: there is nothing to compute them from."""
+
+
+class ForcesUndetermined(KinematicsError):
+    """Joint forces that statics does not determine (a redundant link, a locked pose):
+    refused rather than guessed by least squares."""

@@ -12,9 +12,13 @@ from collections.abc import Mapping
 from dataclasses import dataclass, field, replace
 from functools import cached_property
 from types import MappingProxyType
+from typing import TYPE_CHECKING
 
 from ..errors import KinematicsError
 from .units import RAD_S2_PER_ACCELERATION_UNIT, RAD_S_PER_SPEED_UNIT, metres_per
+
+if TYPE_CHECKING:
+    from .mass import MassData
 
 GROUND = "ground"
 
@@ -74,6 +78,8 @@ class Mechanism:
     output : ``{"link": name}`` or ``{"point": name}`` or None.
     extensions : top-level ``x-`` keys of the file, kept unread.
     warnings : what loading had to say (a point moved onto its slide line ...).
+    mass_data : :class:`~kinematics.model.mass.MassData` (masses, loads, gravity) or None
+        for a design with no mass data; checked against the design when made.
     """
 
     points: Mapping[str, tuple]
@@ -88,6 +94,7 @@ class Mechanism:
     length_unit: str = "mm"
     extensions: Mapping = field(default_factory=dict)
     warnings: tuple = ()
+    mass_data: MassData | None = None
 
     def __post_init__(self):
         object.__setattr__(self, "points", _frozen({k: tuple(v) for k, v in self.points.items()}))
@@ -98,6 +105,8 @@ class Mechanism:
         object.__setattr__(self, "analysis_angles_deg", tuple(self.analysis_angles_deg))
         if self.output is not None:
             object.__setattr__(self, "output", _frozen(self.output))
+        if self.mass_data is not None:
+            self.mass_data.check(self)
 
     @property
     def metres_per_unit(self) -> float:
