@@ -14,13 +14,16 @@ from .edits.naming import rename_link, rename_point
 from .errors import (
     CannotAssemble,
     FileFormatError,
+    ForcesUndetermined,
     KinematicsError,
     MechanismFindings,
+    NoMassData,
     ParallelLines,
     StorageError,
     SweepCancelled,
 )
 from .files.fileformat import dumps, load_mechanism
+from .model.mass import LinkMass, Load, MassData, PointMass
 from .model.mechanism import Driver, Mechanism, Slide, move_point
 from .reports.caution import CAUTION
 from .solver.mobility import Finding, diagnose
@@ -54,8 +57,8 @@ def construct(solution: Solution, **options) -> Construction:
 
 __all__ = [
     "CAUTION", "CannotAssemble", "Component", "Construction", "Driver", "FileFormatError", "Finding",
-    "KinematicsError", "Mechanism", "MechanismFindings", "ParallelLines", "Polygon", "RelativeComponent", "Role",
-    "Slide", "Solution", "Step", "StorageError", "Sweep", "SweepCancelled", "acceleration_components", "construct",
-    "diagnose", "dumps", "load_mechanism", "move_point", "rename_link", "rename_point", "solve", "sweep",
-    "verify_sweep",
+    "ForcesUndetermined", "KinematicsError", "LinkMass", "Load", "MassData", "Mechanism", "MechanismFindings",
+    "NoMassData", "ParallelLines", "PointMass", "Polygon", "RelativeComponent", "Role", "Slide", "Solution", "Step",
+    "StorageError", "Sweep", "SweepCancelled", "acceleration_components", "construct", "diagnose", "dumps",
+    "load_mechanism", "move_point", "rename_link", "rename_point", "solve", "sweep", "verify_sweep",
 ]

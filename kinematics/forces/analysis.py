@@ -9,103 +9,129 @@ import numpy as np
 
 from ..cycle.sweep import Sweep
 from ..solver.solve import Solution
-from .bodies import Centres, MassModel, Motion, centres, cross, mass_model
+from .bodies import centres, cross, mass_model
 from .motion import from_solution, from_sweep
-from .newton_euler import Solved, solve_forces
+from .newton_euler import solve_forces
 from .power import power_balance_torque
-from .results import Forces, ForceSweep, FrameLoads, LinkInertia, PowerBalance, SlideForce, fixed
+from .results import Forces, ForceSweep, FrameLoads, LinkInertia, PowerBalance, SlideForce
 
 
-def _inertia(model: MassModel, centre: Centres, motion: Motion, names) -> dict:
-    force = -model.mass[:, None] * centre.acceleration
+def _xy(values: np.ndarray) -> np.ndarray:
+    """Complex (N, k) as read-only (N, k, 2) floats, x and y (a view where it can be)."""
+    pairs = np.ascontiguousarray(values, complex).view(float).reshape(values.shape + (2,))
+    pairs.flags.writeable = False
+    return pairs
+
+
+def _real(values: np.ndarray) -> np.ndarray:
+    values = np.array(values, float)
+    values.flags.writeable = False
+    return values
+
+
+def _inertia(model, centre, motion):
+    """Force −m·a_G, couple −I·α, offset I·|α|/(m·|a_G|) and the offset point G + r with
+    r = (C/|F|²)·(F_y, −F_x) = −i·C·F/|F|² (complex), so that cross(r, F) = C."""
+    force = -model.mass * centre.acceleration
     couple = -model.inertia * motion.alpha
-    squared = np.einsum("nki,nki->nk", force, force)
+    squared = force.real ** 2 + force.imag ** 2
     moving = squared > 0.0
-    scale = np.divide(couple, squared, out=np.zeros_like(couple), where=moving)
-    arm = scale[..., None] * np.stack([force[..., 1], -force[..., 0]], axis=-1)
-    offset = np.where(moving, np.sqrt(np.divide(couple ** 2, squared, out=np.zeros_like(couple), where=moving)),
-                      np.where(couple == 0.0, 0.0, np.inf))
-    index = {k: i for i, k in enumerate(model.layout.links)}
-    return {name: LinkInertia(centre_m=centre.position[:, index[name]], force_n=force[:, index[name]],
-                              couple_n_m=couple[:, index[name]], offset_m=offset[:, index[name]],
-                              offset_point_m=centre.position[:, index[name]] + arm[:, index[name]])
-            for name in names}
+    share = np.divide(couple, squared, out=np.zeros_like(couple), where=moving)
+    offset = np.where(moving, np.abs(share) * np.sqrt(squared), np.where(couple == 0.0, 0.0, np.inf))
+    return force, couple, offset, centre.position - 1j * share * force
 
 
-def _frame(model: MassModel, motion: Motion, solved: Solved) -> FrameLoads:
-    lay = model.layout
-    x = motion.positions
-    pivots, guides = {}, {}
+def _frame(model, motion, solved):
+    """What the frame receives: −(its force on each link) at each fixed pivot, −N·n from a block on
+    a fixed guide, N·n from a block pivoted on it with a moving guide through it; −T."""
+    lay, z = model.layout, motion.positions
+    pivots = {}
     for i, pair in enumerate(lay.pairs):
         if pair.frame is not None:
-            pivots[pair.frame] = pivots.get(pair.frame, 0.0) - solved.pairs[:, i]
+            pivots.setdefault(pair.frame, []).append(i)
+    pivot_points = list(pivots)
+    pivot_force = np.stack([-solved.pairs[:, pivots[p]].sum(axis=1) for p in pivot_points], axis=1)
+    guide_names, guide_points, guide_force = [], [], []
     for i, slide in enumerate(lay.slides):
-        push = solved.normals[:, i, None] * solved.normal_directions[:, i]
-        if slide.guide is None:
-            guides[slide.name] = -push
-        elif slide.point in lay.fixed:
-            guides[slide.name] = push  # a block pivoted on the frame, the moving guide sliding through it
-    origin = x[:, model.pivot]
-    total = sum(pivots.values()) + sum(guides.values(), np.zeros_like(origin))
-    moment = -solved.torque
-    for point, received in pivots.items():
-        moment = moment + cross(x[:, lay.points.index(point)] - origin, received)
-    for name, received in guides.items():
-        point = next(s.point for s in lay.slides if s.name == name)
-        moment = moment + cross(x[:, lay.points.index(point)] - origin, received)
-    return FrameLoads(pivots_n=pivots, guides_n=guides, drive_reaction_n_m=-solved.torque, force_n=total,
-                      moment_n_m=moment)
+        push = solved.normals[:, i] * solved.normal_directions[:, i]
+        if slide.guide is None or slide.point in lay.fixed:
+            guide_names.append(slide.name)
+            guide_points.append(lay.points.index(slide.point))
+            guide_force.append(-push if slide.guide is None else push)
+    points = [lay.points.index(p) for p in pivot_points] + guide_points
+    received = np.concatenate([pivot_force] + [g[:, None] for g in guide_force], axis=1)
+    origin = z[:, model.pivot, None]
+    moment = cross(np.take(z, points, axis=1) - origin, received).sum(axis=1) - solved.torque
+    return pivot_points, guide_names, received, moment
 
 
-def _shaking(model: MassModel, centre: Centres, motion: Motion):
-    origin = motion.positions[:, model.pivot]
-    force = -model.mass[:, None] * centre.acceleration
-    moment = cross(centre.position - origin[:, None], force).sum(axis=1) - (model.inertia * motion.alpha).sum(axis=1)
+def _shaking(model, centre, motion):
+    origin = motion.positions[:, model.pivot, None]
+    force = -model.mass * centre.acceleration
+    moment = cross(centre.position - origin, force).sum(axis=1) - (model.inertia * motion.alpha).sum(axis=1)
     total = force.sum(axis=1)
     if len(model.particle_point):
         at = model.particle_point
-        particle = -model.particle_mass[:, None] * motion.accelerations[:, at]
+        particle = -model.particle_mass * np.take(motion.accelerations, at, axis=1)
         total = total + particle.sum(axis=1)
-        moment = moment + cross(motion.positions[:, at] - origin[:, None], particle).sum(axis=1)
+        moment = moment + cross(np.take(motion.positions, at, axis=1) - origin, particle).sum(axis=1)
     return total, moment
 
 
-def _fields(mechanism, motion: Motion, check_every_pose: bool) -> dict:
-    """Everything, as arrays over the batch."""
+def _result(cls, mechanism, motion, pick, **extra):
+    """Both formulations over the motion's poses, each value taken through ``pick`` (the one pose,
+    or all of them)."""
     model = mass_model(mechanism)
-    centre = centres(model, motion)
-    solved = solve_forces(model, motion, centre, check_every_pose)
-    balance_torque, scale = power_balance_torque(model, motion, centre)
+    data = mechanism.mass_data
     lay = model.layout
+    centre = centres(model, motion)
+    solved = solve_forces(model, motion, centre)
+    balance_torque, scale = power_balance_torque(model, motion, centre)
+    reported = [(point, link, sign, i) for i, pair in enumerate(lay.pairs) for point, link, sign in pair.reported]
+    joint = _xy(solved.pairs[:, [r[3] for r in reported]] * np.array([r[2] for r in reported]))
     joints = {}
-    for i, pair in enumerate(lay.pairs):
-        for point, link, sign in pair.reported:
-            joints.setdefault(point, {})[link] = sign * solved.pairs[:, i]
-    slides = {s.name: SlideForce(normal_n=solved.normals[:, i],
-                                 force_n=solved.normals[:, i, None] * solved.normal_directions[:, i])
+    for j, (point, link, _, _) in enumerate(reported):
+        joints.setdefault(point, {})[link] = pick(joint[:, j])
+    push = _xy(solved.normals * solved.normal_directions)
+    normals = _real(solved.normals)
+    slides = {s.name: SlideForce(normal_n=pick(normals[:, i]), force_n=pick(push[:, i]))
               for i, s in enumerate(lay.slides)}
+    force, couple, offset, offset_point = _inertia(model, centre, motion)
+    force, couple, offset = _xy(force), _real(couple), _real(offset)
+    where, centre_xy = _xy(offset_point), _xy(centre.position)
+    index = {k: i for i, k in enumerate(lay.links)}
+    inertia = {name: LinkInertia(centre_m=pick(centre_xy[:, k]), force_n=pick(force[:, k]),
+                                 couple_n_m=pick(couple[:, k]), offset_m=pick(offset[:, k]),
+                                 offset_point_m=pick(where[:, k]))
+               for name, k in ((n, index[n]) for n in data.masses)}
+    particles = _xy(-np.stack([m.mass_kg * motion.accelerations[:, lay.points.index(p)]
+                               for p, m in data.point_masses.items()], axis=1)) if data.point_masses else None
+    shaking_force, shaking_moment = _shaking(model, centre, motion)
+    pivots, guides, received, frame_moment = _frame(model, motion, solved)
+    received_xy = _xy(received)
+    torque = _real(solved.torque)
     size = np.maximum(np.maximum(np.abs(solved.torque), np.abs(balance_torque)), scale)
     difference = np.divide(np.abs(solved.torque - balance_torque), size, out=np.zeros_like(size), where=size > 0)
-    shaking_force, shaking_moment = _shaking(model, centre, motion)
-    particles = {p: -m.mass_kg * motion.accelerations[:, lay.points.index(p)]
-                 for p, m in mechanism.mass_data.point_masses.items()}
-    return dict(driver_angle_deg=motion.angle_deg, drive_torque_n_m=solved.torque, joints_n=joints, slides=slides,
-                inertia=_inertia(model, centre, motion, mechanism.mass_data.masses), particle_inertia_n=particles,
-                shaking_force_n=shaking_force, shaking_moment_n_m=shaking_moment,
-                frame=_frame(model, motion, solved),
-                power_balance=PowerBalance(drive_torque_n_m=balance_torque,
-                                           drive_power_w=solved.torque * mechanism.driver.speed_rad_s,
-                                           relative_difference=difference),
-                condition=solved.condition)
+    frame = FrameLoads(
+        pivots_n=MappingProxyType({p: pick(received_xy[:, i]) for i, p in enumerate(pivots)}),
+        guides_n=MappingProxyType({g: pick(received_xy[:, len(pivots) + i]) for i, g in enumerate(guides)}),
+        drive_reaction_n_m=pick(_real(-solved.torque)), force_n=pick(_xy(received.sum(axis=1))),
+        moment_n_m=pick(_real(frame_moment)))
+    return cls(
+        mechanism=mechanism, driver_angle_deg=pick(_real(motion.angle_deg)), drive_torque_n_m=pick(torque),
+        joints_n=MappingProxyType({p: MappingProxyType(by_link) for p, by_link in joints.items()}),
+        slides=MappingProxyType(slides), inertia=MappingProxyType(inertia),
+        particle_inertia_n=MappingProxyType({p: pick(particles[:, i]) for i, p in enumerate(data.point_masses)}),
+        shaking_force_n=pick(_xy(shaking_force)), shaking_moment_n_m=pick(_real(shaking_moment)), frame=frame,
+        power_balance=PowerBalance(drive_torque_n_m=pick(_real(balance_torque)),
+                                   drive_power_w=pick(_real(solved.torque * mechanism.driver.speed_rad_s)),
+                                   relative_difference=pick(_real(difference))),
+        **extra)
 
 
-def _select(value, pick):
-    """Each array of a result taken through ``pick`` (one pose, or all), made read-only."""
-    if isinstance(value, (LinkInertia, SlideForce, FrameLoads, PowerBalance)):
-        return type(value)(**{k: _select(v, pick) for k, v in vars(value).items()})
-    if isinstance(value, dict):
-        return MappingProxyType({k: _select(v, pick) for k, v in value.items()})
-    return fixed(pick(np.asarray(value)))
+def _one(array: np.ndarray):
+    """The single pose of a batch of one: a float, or a read-only (2,) view."""
+    return float(array[0]) if array.ndim == 1 else array[0]
 
 
 def forces(solution: Solution) -> Forces:
@@ -113,11 +139,7 @@ def forces(solution: Solution) -> Forces:
 
     Raises NoMassData for a design with no mass data, ForcesUndetermined where statics does
     not fix the joint forces."""
-    mech = solution.mechanism
-    fields = _fields(mech, from_solution(solution), check_every_pose=True)
-    values = {k: _select(v, lambda a: a[0]) if k not in ("condition",) else v for k, v in fields.items()}
-    values["driver_angle_deg"] = float(solution.driver_angle_deg)
-    return Forces(mechanism=mech, warnings=tuple(solution.warnings), **values)
+    return _result(Forces, solution.mechanism, from_solution(solution), _one, warnings=tuple(solution.warnings))
 
 
 def sweep_forces(result: Sweep) -> ForceSweep:
@@ -127,7 +149,5 @@ def sweep_forces(result: Sweep) -> ForceSweep:
     Raises NoMassData for a design with no mass data, ForcesUndetermined where statics does
     not fix the joint forces."""
     mech = result.mechanism
-    fields = _fields(mech, from_sweep(result), check_every_pose=False)
-    values = {k: _select(v, lambda a: a) if k != "condition" else v for k, v in fields.items()}
-    return ForceSweep(mechanism=mech, warnings=tuple(result.warnings), full_turn=bool(result.full_turn),
-                      speed_rad_s=mech.driver.speed_rad_s, **values)
+    return _result(ForceSweep, mech, from_sweep(result), lambda a: a, warnings=tuple(result.warnings),
+                   full_turn=bool(result.full_turn), speed_rad_s=mech.driver.speed_rad_s)

@@ -18,10 +18,11 @@ from .layout import Layout, layout
 
 @dataclass(frozen=True)
 class Motion:
-    """The kinematics of N poses in the mechanism's point and link order (SI).
+    """The kinematics of N poses in the mechanism's point and link order (SI), points as complex
+    numbers x + iy.
 
-    ``positions``, ``accelerations``: (N, n, 2); ``omega``, ``alpha``: (N, links);
-    ``angle_deg``: (N,) driver angles; ``unit_velocities`` (N, n, 2) and ``unit_omega``
+    ``positions``, ``accelerations``: (N, n) complex; ``omega``, ``alpha``: (N, links);
+    ``angle_deg``: (N,) driver angles; ``unit_velocities`` (N, n) complex and ``unit_omega``
     (N, links): the velocities per unit driver speed (rad/s), for the power balance."""
 
     angle_deg: np.ndarray
@@ -37,10 +38,11 @@ class Motion:
 class MassModel:
     """A design's masses and loads, index arrays into the point and link order.
 
-    Links: first and second point, the centre in the link's own axes (along its first side,
-    and turned +90°), mass, inertia. Particles (point masses) and point loads sit on a body:
+    Links: first and second point, the centre in the link's own axes as a complex number (along
+    its first side, and turned +90°), mass, inertia. Particles (point masses) and point loads sit on a body:
     ``on_link`` ≥ 0 a link index, else ``on_element`` an element index. Point-load and
-    torque-load values are SI; ``loads`` keeps the Load objects for their intervals."""
+    torque-load values are SI (forces and gravity complex); ``force_load`` and ``torque_load`` keep
+    the Load objects for their intervals."""
 
     layout: Layout
     first: np.ndarray
@@ -53,14 +55,14 @@ class MassModel:
     particle_link: np.ndarray
     particle_element: np.ndarray
     force_point: np.ndarray
-    force_value: np.ndarray
+    force_value: np.ndarray  # complex
     force_link: np.ndarray
     force_element: np.ndarray
     force_load: tuple
     torque_link: np.ndarray
     torque_value: np.ndarray
     torque_load: tuple
-    gravity: np.ndarray
+    gravity: complex
     pivot: int
     sense: float
     length_m: float
@@ -90,12 +92,12 @@ def _build(mech: Mechanism) -> MassModel:
     side = reference[second] - reference[first]
     along = side / np.linalg.norm(side, axis=1)[:, None]
     across = np.stack([-along[:, 1], along[:, 0]], axis=1)
-    centre = np.zeros((len(lay.links), 2))
+    centre = np.zeros(len(lay.links), complex)
     mass, inertia = np.zeros(len(lay.links)), np.zeros(len(lay.links))
     for name, entry in data.masses.items():
         k = links[name]
         offset = np.array(entry.centre) * k_m - reference[first[k]]
-        centre[k] = (offset @ along[k], offset @ across[k])
+        centre[k] = complex(offset @ along[k], offset @ across[k])
         mass[k], inertia[k] = entry.mass_kg, entry.inertia_kg_m2
 
     def body(point, link=None):
@@ -107,23 +109,23 @@ def _build(mech: Mechanism) -> MassModel:
         return links[mech.bodies_of(point)[0]], -1
 
     particles = [(points[p], m.mass_kg, *body(p)) for p, m in data.point_masses.items() if m.mass_kg > 0]
-    forces = [(points[ld.point], ld.force_n, *body(ld.point, ld.link), ld) for ld in data.loads.values()
+    forces = [(points[ld.point], complex(*ld.force_n), *body(ld.point, ld.link), ld) for ld in data.loads.values()
               if ld.force_value is not None]
     torques = [(links[ld.link], ld.torque_n_m, ld) for ld in data.loads.values() if ld.torque_value is not None]
 
-    def column(rows, i, dtype, shape=()):
-        return np.array([r[i] for r in rows], dtype).reshape((len(rows),) + shape)
+    def column(rows, i, dtype):
+        return np.array([r[i] for r in rows], dtype).reshape(len(rows))
 
     return MassModel(
         layout=lay, first=first, second=second, local_centre=centre, mass=mass, inertia=inertia,
         particle_point=column(particles, 0, int), particle_mass=column(particles, 1, float),
         particle_link=column(particles, 2, int), particle_element=column(particles, 3, int),
-        force_point=column(forces, 0, int), force_value=column(forces, 1, float, (2,)),
+        force_point=column(forces, 0, int), force_value=column(forces, 1, complex),
         force_link=column(forces, 2, int), force_element=column(forces, 3, int),
         force_load=tuple(r[4] for r in forces),
         torque_link=column(torques, 0, int), torque_value=column(torques, 1, float),
         torque_load=tuple(r[2] for r in torques),
-        gravity=data.gravity_m_s2, pivot=points[mech.driver.pivot],
+        gravity=complex(*data.gravity_m_s2), pivot=points[mech.driver.pivot],
         sense=1.0 if mech.driver.speed_rad_s >= 0 else -1.0,
         length_m=max(mech.size * k_m, 1e-9))
 
@@ -135,19 +137,16 @@ def active(loads: tuple, angle_deg: np.ndarray, sense: float) -> np.ndarray:
     return np.stack([ld.active(angle_deg, sense) for ld in loads], axis=1).astype(float)
 
 
-def perp(v: np.ndarray) -> np.ndarray:
-    """v turned +90° (last axis x, y)."""
-    return np.stack([-v[..., 1], v[..., 0]], axis=-1)
-
-
 def cross(a: np.ndarray, b: np.ndarray) -> np.ndarray:
-    return a[..., 0] * b[..., 1] - a[..., 1] * b[..., 0]
+    """cross(a, b) = a_x·b_y − a_y·b_x of complex a, b."""
+    return a.real * b.imag - a.imag * b.real
 
 
 @dataclass(frozen=True)
 class Centres:
-    """Where the centres of mass are and how they move: (N, links, 2) each; ``unit_velocity`` is
-    the velocity per unit driver speed. ``arm``: centre less the link's first point."""
+    """Where the centres of mass are and how they move: (N, links) complex each;
+    ``unit_velocity`` is the velocity per unit driver speed; ``arm`` the centre less the link's
+    first point."""
 
     position: np.ndarray
     acceleration: np.ndarray
@@ -156,16 +155,13 @@ class Centres:
 
 
 def centres(model: MassModel, motion: Motion) -> Centres:
-    """Centres of mass carried by their links from the reference pose: G = P1 + c1·u + c2·perp(u),
-    u along the link's first side; then v̂_G = v̂_P1 + ω̂·perp(r) per unit driver speed, a_G = a_P1 + α·perp(r) − ω²·r."""
-    x = motion.positions
-    start = x[:, model.first]
-    side = x[:, model.second] - start
-    along = side / np.sqrt(np.einsum("...i,...i->...", side, side))[..., None]
-    arm = model.local_centre[:, :1] * along + model.local_centre[:, 1:] * perp(along)
-    turned = perp(arm)
-    omega, alpha = motion.omega[..., None], motion.alpha[..., None]
-    acceleration = motion.accelerations[:, model.first] + alpha * turned - omega ** 2 * arm
-    unit_velocity = motion.unit_velocities[:, model.first] + motion.unit_omega[..., None] * turned
-    return Centres(position=start + arm, acceleration=acceleration,
-                   unit_velocity=unit_velocity, arm=arm)
+    """Centres of mass carried by their links from the reference pose: G = P1 + c·u (complex), u
+    the unit vector along the link's first side; then a_G = a_P1 + (iα − ω²)·r and
+    v̂_G = v̂_P1 + iω̂·r per unit driver speed (r = G − P1)."""
+    z = motion.positions
+    start = np.take(z, model.first, axis=1)
+    side = np.take(z, model.second, axis=1) - start
+    arm = side * (model.local_centre / np.abs(side))
+    acceleration = np.take(motion.accelerations, model.first, axis=1) + (1j * motion.alpha - motion.omega ** 2) * arm
+    unit_velocity = np.take(motion.unit_velocities, model.first, axis=1) + 1j * motion.unit_omega * arm
+    return Centres(position=start + arm, acceleration=acceleration, unit_velocity=unit_velocity, arm=arm)

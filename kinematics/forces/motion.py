@@ -11,16 +11,16 @@ from ..solver.solve import Solution, _Driven
 from .bodies import Motion, cross
 
 
-def _ordered(mechanism: Mechanism, names: tuple, array: np.ndarray) -> np.ndarray:
-    """``array`` (N, n, 2) with its point axis in the mechanism's point order."""
+def _complex(mechanism: Mechanism, names: tuple, array: np.ndarray) -> np.ndarray:
+    """(N, n, 2) coordinates as (N, n) complex numbers, the points in the mechanism's order."""
     order = tuple(mechanism.points)
-    if names == order:
-        return array
-    return array[:, [names.index(p) for p in order]]
+    if names != order:
+        array = array[:, [names.index(p) for p in order]]
+    return np.ascontiguousarray(array, float).view(complex)[..., 0]
 
 
-def _unit_rates(mechanism: Mechanism, positions: np.ndarray, angle_deg: np.ndarray, velocities, omega):
-    """Velocities (N, n, 2) and link angular velocities (N, links) per unit driver speed.
+def _unit_rates(mechanism: Mechanism, positions, angle_deg, velocities, omega):
+    """Velocities (N, n) complex and link angular velocities (N, links) per unit driver speed.
 
     At a driver speed other than zero they are the velocities divided by it (they are linear in
     it); at rest they come from the velocity equations solved again at unit speed."""
@@ -29,12 +29,14 @@ def _unit_rates(mechanism: Mechanism, positions: np.ndarray, angle_deg: np.ndarr
         return velocities / speed, omega / speed
     driven = _Driven(constraint_system(mechanism))
     theta = np.radians(angle_deg)
-    unit, _ = driven.rates(positions, driven.jacobian(positions, theta), theta, 1.0, 0.0)
-    first = [list(mechanism.points).index(pts[0]) for pts in mechanism.links.values()]
-    second = [list(mechanism.points).index(pts[1]) for pts in mechanism.links.values()]
+    x = np.stack([positions.real, positions.imag], axis=-1)
+    unit, _ = driven.rates(x, driven.jacobian(x, theta), theta, 1.0, 0.0)
+    unit = unit[..., 0] + 1j * unit[..., 1]
+    index = {p: i for i, p in enumerate(mechanism.points)}
+    first = [index[pts[0]] for pts in mechanism.links.values()]
+    second = [index[pts[1]] for pts in mechanism.links.values()]
     side = positions[:, second] - positions[:, first]
-    turning = cross(side, unit[:, second] - unit[:, first]) / np.einsum("...i,...i->...", side, side)
-    return unit, turning
+    return unit, cross(side, unit[:, second] - unit[:, first]) / np.abs(side) ** 2
 
 
 def _motion(mechanism, angle_deg, positions, velocities, accelerations, omega, alpha) -> Motion:
@@ -49,7 +51,7 @@ def from_solution(solution: Solution) -> Motion:
     names = tuple(solution.point_names)
 
     def points(array):
-        return _ordered(mech, names, np.asarray(array, float)[None])
+        return _complex(mech, names, np.asarray(array, float)[None])
 
     return _motion(mech, np.array([float(solution.driver_angle_deg)]), points(solution.positions),
                    points(solution.velocities), points(solution.accelerations),
@@ -65,6 +67,6 @@ def from_sweep(result: Sweep) -> Motion:
     def links(values):
         return np.stack([np.asarray(values[k], float) for k in mech.links], axis=1)
 
-    return _motion(mech, np.asarray(result.driver_angle_deg, float), _ordered(mech, names, result.positions),
-                   _ordered(mech, names, result.velocities), _ordered(mech, names, result.accelerations),
+    return _motion(mech, np.asarray(result.driver_angle_deg, float), _complex(mech, names, result.positions),
+                   _complex(mech, names, result.velocities), _complex(mech, names, result.accelerations),
                    links(result.angular_velocity), links(result.angular_acceleration))

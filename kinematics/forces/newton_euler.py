@@ -7,7 +7,7 @@ and the loads. Unknowns: the joint force pairs, the slides' normal forces, the d
 its centre, a slide a force along its guide's normal.
 
 Moment rows are divided by the design's size L and the drive torque is solved as T/L, so all
-coefficients are of order one and the condition figure means what it says.
+coefficients are of order one. The system is solved block by block (:mod:`.blocks`).
 """
 
 from __future__ import annotations
@@ -18,32 +18,27 @@ import numpy as np
 
 from ..errors import ForcesUndetermined
 from ..model.memo import remembered
+from .blocks import plan, solve
 from .bodies import Centres, MassModel, Motion, active, cross
-
-# Condition figure above which a pose's joint forces are taken as not determined (the solver
-# refuses a kinematic Jacobian past the same figure as a dead point).
-UNDETERMINED_CONDITION = 1e14
 
 
 @dataclass(frozen=True, eq=False)
 class _Assembly:
-    """What does not change from pose to pose: the matrix's constant entries, where the moment
-    arms go, and incidence matrices taking applied forces and couples to rows."""
+    """What does not change from pose to pose: where the moment arms of the joint forces go, the
+    slides' entries, the block plan, and the incidence of applied forces and couples on rows."""
 
-    template: np.ndarray
-    arm_rows: np.ndarray
-    arm_columns: np.ndarray
     arm_points: np.ndarray
     arm_origins: np.ndarray
     arm_signs: np.ndarray
-    link_rows: tuple
-    particle_rows: tuple
-    force_rows: tuple
-    torque_rows: np.ndarray
+    slide_entries: tuple
+    blocks: tuple
+    applied_points: np.ndarray
+    applied_origins: np.ndarray
+    applied_rows: tuple
     couple_rows: np.ndarray
 
 
-def _rows_of(lay, links: np.ndarray, elements: np.ndarray, length_m: float):
+def _incidence(lay, links, elements, length_m: float):
     """(x, y, moment) incidence matrices (count, rows) for items on links (index ≥ 0) or elements."""
     count = len(links)
     x, y, m = (np.zeros((count, lay.size)) for _ in range(3))
@@ -55,121 +50,128 @@ def _rows_of(lay, links: np.ndarray, elements: np.ndarray, length_m: float):
     return x, y, m
 
 
+def _slide_entries(lay, first) -> tuple:
+    """Per slide: (column, point, line ends, rows, the guide's first point or −1); ``rows`` lists
+    (row, which): 0/1 the normal's x/y on the block, 3/4 minus them on the guide, 2 the guide's
+    moment."""
+    entries = []
+    for slide in lay.slides:
+        rows = []
+        if slide.element is not None:
+            row = lay.element_row(slide.element)
+            rows += [(row, 0), (row + 1, 1)]
+        if slide.guide is not None:
+            rows += [(3 * slide.guide, 3), (3 * slide.guide + 1, 4), (3 * slide.guide + 2, 2)]
+        entries.append((slide.column, lay.points.index(slide.point), lay.points.index(slide.line[0]),
+                        lay.points.index(slide.line[1]), tuple(rows),
+                        int(first[slide.guide]) if slide.guide is not None else -1))
+    return tuple(entries)
+
+
 def _assembly(model: MassModel) -> _Assembly:
     lay = model.layout
-    template = np.zeros((lay.size, lay.size))
+    constant = np.zeros((lay.size, lay.size))
     arms = []
     for pair in lay.pairs:
         for (kind, index), sign, point in pair.on:
             row = 3 * index if kind == "link" else lay.element_row(index)
-            template[row, pair.column] = template[row + 1, pair.column + 1] = sign
-            if kind == "link":
+            constant[row, pair.column] = constant[row + 1, pair.column + 1] = sign
+            if kind == "link" and lay.points.index(point) != model.first[index]:
+                # (A force at the link's first point has no moment about it: no entry.)
                 arms.append((3 * index + 2, pair.column, lay.points.index(point), model.first[index], sign))
-    template[3 * lay.driver + 2, lay.torque_column] = 1.0
+    constant[3 * lay.driver + 2, lay.torque_column] = 1.0
     arms = np.array(arms, float).reshape(-1, 5)
-    nl = len(lay.links)
-    every = np.arange(nl)
+    arm_rows, arm_columns = arms[:, 0].astype(int), arms[:, 1].astype(int)
+    slides = _slide_entries(lay, model.first)
+    # The varying entries, in the order _varying gives their values.
+    rows = list(arm_rows) * 2 + [r for entry in slides for r, _ in entry[4]]
+    columns = list(arm_columns) + [c + 1 for c in arm_columns] + [entry[0] for entry in slides for _ in entry[4]]
+    fixed_row = np.ones(lay.size, bool)
+    fixed_row[2:3 * len(lay.links):3] = False
+    pair_column = np.zeros(lay.size, bool)
+    for pair in lay.pairs:
+        pair_column[pair.column:pair.column + 2] = True
+    blocks = plan(constant, np.array(rows, int), np.array(columns, int), fixed_row, pair_column)
+    every = np.arange(len(lay.links))
+    # Applied forces in one list: link centres, then particles, then point loads.
+    on_links = np.concatenate([every, model.particle_link, model.force_link])
+    on_elements = np.concatenate([every, model.particle_element, model.force_element])
     return _Assembly(
-        template=template, arm_rows=arms[:, 0].astype(int), arm_columns=arms[:, 1].astype(int),
         arm_points=arms[:, 2].astype(int), arm_origins=arms[:, 3].astype(int), arm_signs=arms[:, 4],
-        link_rows=_rows_of(lay, every, every, model.length_m),
-        particle_rows=_rows_of(lay, model.particle_link, model.particle_element, model.length_m),
-        force_rows=_rows_of(lay, model.force_link, model.force_element, model.length_m),
-        torque_rows=_rows_of(lay, model.torque_link, model.torque_link, model.length_m)[2],
-        couple_rows=_rows_of(lay, every, every, model.length_m)[2])
+        slide_entries=slides, blocks=blocks,
+        applied_points=np.concatenate([model.particle_point, model.force_point]),
+        applied_origins=model.first[np.maximum(np.concatenate([model.particle_link, model.force_link]), 0)],
+        applied_rows=_incidence(lay, on_links, on_elements, model.length_m),
+        couple_rows=_incidence(lay, np.concatenate([every, model.torque_link]),
+                               np.concatenate([every, model.torque_link]), model.length_m)[2])
 
 
 @dataclass(frozen=True)
 class Solved:
-    """Newton-Euler results over N poses: ``pairs`` (N, pairs, 2) the unknown force of each pair
-    (see Layout), ``normals`` (N, slides) N, ``normal_directions`` (N, slides, 2) the guides' left
-    normals, ``torque`` (N,) N·m, ``condition`` the largest condition figure met."""
+    """Newton-Euler results over N poses: ``pairs`` (N, pairs) complex, the unknown force of each
+    pair (see Layout); ``normals`` (N, slides) N; ``normal_directions`` (N, slides) complex, the
+    guides' left normals; ``torque`` (N,) N·m."""
 
     pairs: np.ndarray
     normals: np.ndarray
     normal_directions: np.ndarray
     torque: np.ndarray
-    condition: float
 
 
 def _applied(model: MassModel, motion: Motion, centres: Centres, rows: _Assembly) -> np.ndarray:
     """The known terms of every balance (N, rows): inertia, gravity and loads, moments about
     each link's first point divided by L."""
-    x, acc = motion.positions, motion.accelerations
-    origin = x[:, model.first]
-    g = model.gravity
-    link_force = model.mass[:, None] * (g - centres.acceleration)
-    total = _spread(link_force, cross(centres.arm, link_force), rows.link_rows)
-    total += (-model.inertia * motion.alpha) @ rows.couple_rows
+    z, g = motion.positions, model.gravity
+    forces = [model.mass * (g - centres.acceleration)]
+    levers = [centres.arm]
     if len(model.particle_point):
-        at = x[:, model.particle_point]
-        force = model.particle_mass[:, None] * (g - acc[:, model.particle_point])
-        lever = at - origin[:, np.maximum(model.particle_link, 0)]
-        total += _spread(force, cross(lever, force), rows.particle_rows)
+        forces.append(model.particle_mass * (g - np.take(motion.accelerations, model.particle_point, axis=1)))
     if len(model.force_point):
-        at = x[:, model.force_point]
-        force = active(model.force_load, motion.angle_deg, model.sense)[..., None] * model.force_value
-        lever = at - origin[:, np.maximum(model.force_link, 0)]
-        total += _spread(force, cross(lever, force), rows.force_rows)
+        forces.append(active(model.force_load, motion.angle_deg, model.sense) * model.force_value)
+    if len(rows.applied_points):
+        levers.append(np.take(z, rows.applied_points, axis=1) - np.take(z, rows.applied_origins, axis=1))
+    force = np.concatenate(forces, axis=1) if len(forces) > 1 else forces[0]
+    lever = np.concatenate(levers, axis=1) if len(levers) > 1 else levers[0]
+    x, y, m = rows.applied_rows
+    couples = -model.inertia * motion.alpha
     if len(model.torque_link):
-        total += (active(model.torque_load, motion.angle_deg, model.sense) * model.torque_value) @ rows.torque_rows
-    return total
+        couples = np.concatenate([couples, active(model.torque_load, motion.angle_deg, model.sense)
+                                  * model.torque_value], axis=1)
+    return force.real @ x + force.imag @ y + cross(lever, force) @ m + couples @ rows.couple_rows
 
 
-def _spread(force, moment, rows) -> np.ndarray:
-    x, y, m = rows
-    return force[..., 0] @ x + force[..., 1] @ y + moment @ m
+def _varying(model: MassModel, rows: _Assembly, z: np.ndarray):
+    """The values (N, entries) of the entries that vary with the pose, and the slides' left
+    normals (N, slides) complex."""
+    length = model.length_m
+    lever = (np.take(z, rows.arm_points, axis=1) - np.take(z, rows.arm_origins, axis=1)) * (rows.arm_signs / length)
+    values = [-lever.imag, lever.real]
+    normals = np.zeros((len(z), len(rows.slide_entries)), complex)
+    for i, (_, point, start, end, where, guide_origin) in enumerate(rows.slide_entries):
+        line = z[:, end] - z[:, start]
+        normal = 1j * line / np.abs(line)
+        normals[:, i] = normal
+        parts = {0: normal.real, 1: normal.imag, 3: -normal.real, 4: -normal.imag}
+        if guide_origin >= 0:
+            parts[2] = -cross((z[:, point] - z[:, guide_origin]) / length, normal)
+        values += [parts[which][:, None] for _, which in where]
+    return np.concatenate(values, axis=1), normals
 
 
-def solve_forces(model: MassModel, motion: Motion, centres: Centres, check_every_pose: bool = True) -> Solved:
-    """Build and solve the N systems at once.
+def solve_forces(model: MassModel, motion: Motion, centres: Centres) -> Solved:
+    """Build and solve the N systems at once, block after block.
 
     Raises ForcesUndetermined where a pose's system is singular (statics does not fix the
-    joint forces). ``check_every_pose`` False checks the condition at the first pose only and
-    the finiteness of every result (a sweep's poses keep clear of dead points)."""
+    joint forces there)."""
     rows = remembered(model, "assembly", lambda: _assembly(model))
     lay = model.layout
-    x = motion.positions
-    count = len(x)
-    length = model.length_m
-    matrix = np.broadcast_to(rows.template, (count,) + rows.template.shape).copy()
-    lever = (x[:, rows.arm_points] - x[:, rows.arm_origins]) / length
-    matrix[:, rows.arm_rows, rows.arm_columns] = -rows.arm_signs * lever[..., 1]
-    matrix[:, rows.arm_rows, rows.arm_columns + 1] = rows.arm_signs * lever[..., 0]
-    directions = np.zeros((count, len(lay.slides), 2))
-    for i, slide in enumerate(lay.slides):
-        e, f, p = (lay.points.index(name) for name in (*slide.line, slide.point))
-        line = x[:, f] - x[:, e]
-        normal = np.stack([-line[:, 1], line[:, 0]], axis=1) / np.linalg.norm(line, axis=1)[:, None]
-        directions[:, i] = normal
-        if slide.element is not None:
-            row = lay.element_row(slide.element)
-            matrix[:, row, slide.column], matrix[:, row + 1, slide.column] = normal[:, 0], normal[:, 1]
-        if slide.guide is not None:
-            g = 3 * slide.guide
-            matrix[:, g, slide.column], matrix[:, g + 1, slide.column] = -normal[:, 0], -normal[:, 1]
-            guide_arm = (x[:, p] - x[:, model.first[slide.guide]]) / length
-            matrix[:, g + 2, slide.column] = -cross(guide_arm, normal)
-    figures = np.linalg.cond(matrix if check_every_pose else matrix[:1])
-    figures = np.where(np.isfinite(figures), figures, np.inf)
-    worst = int(np.argmax(figures))
-    if figures[worst] > UNDETERMINED_CONDITION:
-        raise ForcesUndetermined(_undetermined(figures[worst]), f"driver angle {motion.angle_deg[worst]:.3f}°")
-    try:
-        unknowns = np.linalg.solve(matrix, -_applied(model, motion, centres, rows)[..., None])[..., 0]
-    except np.linalg.LinAlgError:
-        unknowns = np.full((count, lay.size), np.inf)
-    finite = np.isfinite(unknowns).all(axis=1)
-    if not finite.all():
-        worst = int(np.argmin(finite))
-        raise ForcesUndetermined(_undetermined(np.inf), f"driver angle {motion.angle_deg[worst]:.3f}°")
+    values, normals = _varying(model, rows, motion.positions)
+    unknowns, singular = solve(rows.blocks, values, -_applied(model, motion, centres, rows))
+    if singular is not None:
+        raise ForcesUndetermined("the joint forces are not determined by statics here: a redundant constraint "
+                                 "or a locked pose; no least-squares guess is made",
+                                 f"driver angle {motion.angle_deg[singular]:.3f}°")
     columns = np.array([p.column for p in lay.pairs], int)
-    pairs = np.stack([unknowns[:, columns], unknowns[:, columns + 1]], axis=-1)
-    normals = unknowns[:, [s.column for s in lay.slides]]
-    return Solved(pairs=pairs, normals=normals, normal_directions=directions,
-                  torque=unknowns[:, lay.torque_column] * length, condition=float(figures.max()))
-
-
-def _undetermined(condition: float) -> str:
-    return (f"the joint forces are not determined by statics here (condition figure {condition:.3g}): a redundant "
-            "constraint or a locked pose; no least-squares guess is made")
+    return Solved(pairs=unknowns[:, columns] + 1j * unknowns[:, columns + 1],
+                  normals=unknowns[:, [s.column for s in lay.slides]], normal_directions=normals,
+                  torque=unknowns[:, lay.torque_column] * model.length_m)

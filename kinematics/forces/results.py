@@ -85,7 +85,6 @@ class Forces:
         the driver pivot less Σ I·α.
     frame : :class:`FrameLoads`; equals the shaking force and moment with no gravity and no loads.
     power_balance : :class:`PowerBalance`.
-    condition : condition figure of the Newton-Euler system (scaled to order one).
     warnings : the pose's own warnings.
     """
 
@@ -100,7 +99,6 @@ class Forces:
     shaking_moment_n_m: float
     frame: FrameLoads
     power_balance: PowerBalance
-    condition: float
     warnings: tuple = ()
 
 
@@ -117,12 +115,3 @@ class ForceSweep(Forces):
     def max_relative_difference(self) -> float:
         """The power-balance check over the whole cycle: its largest relative difference."""
         return float(np.max(self.power_balance.relative_difference))
-
-
-def fixed(value):
-    """A read-only copy: an array not writeable, a 0-d value as a float."""
-    array = np.array(value, float)
-    if array.ndim == 0:
-        return float(array)
-    array.flags.writeable = False
-    return array
