@@ -10,6 +10,9 @@ from ..solver.constraints import constraint_system
 from ..solver.solve import Solution, _Driven
 from .bodies import Motion, cross
 
+# Below this driver speed (rad/s) the velocities per unit speed are solved for, not divided out.
+NEAR_REST_RAD_S = 1e-150
+
 
 def _complex(mechanism: Mechanism, names: tuple, array: np.ndarray) -> np.ndarray:
     """(N, n, 2) coordinates as (N, n) complex numbers, the points in the mechanism's order."""
@@ -23,9 +26,10 @@ def _unit_rates(mechanism: Mechanism, positions, angle_deg, velocities, omega):
     """Velocities (N, n) complex and link angular velocities (N, links) per unit driver speed.
 
     At a driver speed other than zero they are the velocities divided by it (they are linear in
-    it); at rest they come from the velocity equations solved again at unit speed."""
+    it); at rest, or so near it that the velocities lose their digits to underflow, they come
+    from the velocity equations solved again at unit speed."""
     speed = mechanism.driver.speed_rad_s
-    if speed != 0.0:
+    if abs(speed) > NEAR_REST_RAD_S:
         return velocities / speed, omega / speed
     driven = _Driven(constraint_system(mechanism))
     theta = np.radians(angle_deg)

@@ -13,11 +13,11 @@ coefficients are of order one. The system is solved block by block (:mod:`.block
 from __future__ import annotations
 
 from dataclasses import dataclass
+from functools import lru_cache
 
 import numpy as np
 
 from ..errors import ForcesUndetermined
-from ..model.memo import remembered
 from .blocks import plan, solve
 from .bodies import Centres, MassModel, Motion, active, cross
 
@@ -38,13 +38,13 @@ class _Assembly:
     couple_rows: np.ndarray
 
 
-def _incidence(lay, links, elements, length_m: float):
+def _incidence(lay, links, elements):
     """(x, y, moment) incidence matrices (count, rows) for items on links (index ≥ 0) or elements."""
     count = len(links)
     x, y, m = (np.zeros((count, lay.size)) for _ in range(3))
     for i, (k, e) in enumerate(zip(links, elements, strict=True)):
         if k >= 0:
-            x[i, 3 * k], y[i, 3 * k + 1], m[i, 3 * k + 2] = 1.0, 1.0, 1.0 / length_m
+            x[i, 3 * k], y[i, 3 * k + 1], m[i, 3 * k + 2] = 1.0, 1.0, 1.0
         else:
             x[i, lay.element_row(e)], y[i, lay.element_row(e) + 1] = 1.0, 1.0
     return x, y, m
@@ -69,20 +69,30 @@ def _slide_entries(lay, first) -> tuple:
 
 
 def _assembly(model: MassModel) -> _Assembly:
-    lay = model.layout
+    """The assembly of ``model``, from a cache keyed by what it depends on (names and indices,
+    no numbers), so a drag, which makes a new Mechanism every frame, plans the blocks once."""
+    return _assembled(model.layout, tuple(model.first), tuple(model.particle_point), tuple(model.particle_link),
+                      tuple(model.particle_element), tuple(model.force_point), tuple(model.force_link),
+                      tuple(model.force_element), tuple(model.torque_link))
+
+
+@lru_cache(maxsize=64)
+def _assembled(lay, first, particle_point, particle_link, particle_element, force_point, force_link, force_element,
+               torque_link) -> _Assembly:
+    first = np.array(first, int)
     constant = np.zeros((lay.size, lay.size))
     arms = []
     for pair in lay.pairs:
         for (kind, index), sign, point in pair.on:
             row = 3 * index if kind == "link" else lay.element_row(index)
             constant[row, pair.column] = constant[row + 1, pair.column + 1] = sign
-            if kind == "link" and lay.points.index(point) != model.first[index]:
+            if kind == "link" and lay.points.index(point) != first[index]:
                 # (A force at the link's first point has no moment about it: no entry.)
-                arms.append((3 * index + 2, pair.column, lay.points.index(point), model.first[index], sign))
+                arms.append((3 * index + 2, pair.column, lay.points.index(point), first[index], sign))
     constant[3 * lay.driver + 2, lay.torque_column] = 1.0
     arms = np.array(arms, float).reshape(-1, 5)
     arm_rows, arm_columns = arms[:, 0].astype(int), arms[:, 1].astype(int)
-    slides = _slide_entries(lay, model.first)
+    slides = _slide_entries(lay, first)
     # The varying entries, in the order _varying gives their values.
     rows = list(arm_rows) * 2 + [r for entry in slides for r, _ in entry[4]]
     columns = list(arm_columns) + [c + 1 for c in arm_columns] + [entry[0] for entry in slides for _ in entry[4]]
@@ -94,16 +104,15 @@ def _assembly(model: MassModel) -> _Assembly:
     blocks = plan(constant, np.array(rows, int), np.array(columns, int), fixed_row, pair_column)
     every = np.arange(len(lay.links))
     # Applied forces in one list: link centres, then particles, then point loads.
-    on_links = np.concatenate([every, model.particle_link, model.force_link])
-    on_elements = np.concatenate([every, model.particle_element, model.force_element])
+    on_links = np.array((*every, *particle_link, *force_link), int)
+    on_elements = np.array((*every, *particle_element, *force_element), int)
     return _Assembly(
         arm_points=arms[:, 2].astype(int), arm_origins=arms[:, 3].astype(int), arm_signs=arms[:, 4],
         slide_entries=slides, blocks=blocks,
-        applied_points=np.concatenate([model.particle_point, model.force_point]),
-        applied_origins=model.first[np.maximum(np.concatenate([model.particle_link, model.force_link]), 0)],
-        applied_rows=_incidence(lay, on_links, on_elements, model.length_m),
-        couple_rows=_incidence(lay, np.concatenate([every, model.torque_link]),
-                               np.concatenate([every, model.torque_link]), model.length_m)[2])
+        applied_points=np.array((*particle_point, *force_point), int),
+        applied_origins=first[np.maximum(np.array((*particle_link, *force_link), int), 0)],
+        applied_rows=_incidence(lay, on_links, on_elements),
+        couple_rows=_incidence(lay, np.array((*every, *torque_link), int), np.array((*every, *torque_link), int))[2])
 
 
 @dataclass(frozen=True)
@@ -137,7 +146,7 @@ def _applied(model: MassModel, motion: Motion, centres: Centres, rows: _Assembly
     if len(model.torque_link):
         couples = np.concatenate([couples, active(model.torque_load, motion.angle_deg, model.sense)
                                   * model.torque_value], axis=1)
-    return force.real @ x + force.imag @ y + cross(lever, force) @ m + couples @ rows.couple_rows
+    return force.real @ x + force.imag @ y + (cross(lever, force) @ m + couples @ rows.couple_rows) / model.length_m
 
 
 def _varying(model: MassModel, rows: _Assembly, z: np.ndarray):
@@ -163,7 +172,7 @@ def solve_forces(model: MassModel, motion: Motion, centres: Centres) -> Solved:
 
     Raises ForcesUndetermined where a pose's system is singular (statics does not fix the
     joint forces there)."""
-    rows = remembered(model, "assembly", lambda: _assembly(model))
+    rows = _assembly(model)
     lay = model.layout
     values, normals = _varying(model, rows, motion.positions)
     unknowns, singular = solve(rows.blocks, values, -_applied(model, motion, centres, rows))

@@ -4,6 +4,7 @@ the crank angle q, with every body's position written in closed form in q, and t
 as the generalised force on q. Nothing of Kinepoly's kinematics or forces is used on that side;
 only the designs' defining numbers (lengths, masses, the centres in each link's own axes)."""
 
+import functools
 import math
 from dataclasses import replace
 
@@ -39,8 +40,8 @@ def _local(mech, link, centre_mm):
     return float(r @ u), float(-r[0] * u[1] + r[1] * u[0])
 
 
-def _lagrange_torque(bodies, frame, crank_frame, q, angles_deg, rpm, alpha, loads=()):
-    """T(q, q̇, q̈) from Lagrange's equations, evaluated at the angles (q̇ from rpm, q̈ = alpha)."""
+def _lagrange_torque(bodies, frame, crank_frame, q, loads=()):
+    """T(q, q̇, q̈) from Lagrange's equations, as a function of (angle rad, speed rad/s, acceleration rad/s²)."""
     torque = sp.symbols("T")
     lagrangian = Lagrangian(frame, *bodies)
     method = LagrangesMethod(lagrangian, [q], forcelist=[(crank_frame, torque * frame.z), *loads], frame=frame)
@@ -51,9 +52,11 @@ def _lagrange_torque(bodies, frame, crank_frame, q, angles_deg, rpm, alpha, load
     equation = equation.subs({qdd: accel}).subs({qd: speed}).subs({q: angle})
     # The equation is linear in T (the generalised force on q): T = −E(0)/(∂E/∂T).
     solved = -equation.subs(torque, 0) / equation.diff(torque)
-    evaluate = sp.lambdify((angle, speed, accel), solved, "math", cse=True)
-    omega = rpm * 2 * math.pi / 60
-    return [float(evaluate(math.radians(a), omega, alpha)) for a in angles_deg]
+    return sp.lambdify((angle, speed, accel), solved, "math", cse=True)
+
+
+def _at(torque, angles_deg, rpm, alpha):
+    return [float(torque(math.radians(a), rpm * 2 * math.pi / 60, alpha)) for a in angles_deg]
 
 
 def _body(name, frame, origin, local, mass, inertia_kg_m2, gravity, reference_point):
@@ -74,18 +77,17 @@ class _Fixed:
 ANGLES = [0.0, 37.0, 90.0, 151.0, 222.0, 300.0]
 
 
-@pytest.mark.parametrize("alpha", [0.0, 6.0])
-def test_four_bar_all_links_massive_against_lagrange(alpha):
-    a, b, c, d = 40.0, 150.0, 110.0, 160.0
-    rpm, gravity = 240.0, (1.5, -9.80665)
-    design = four_bar(a, b, c, d, 30.0, rpm=rpm, alpha=alpha)
-    bare = load(design)
-    masses = {"crank": (1.1, (12.0, 20.0), 0.0021), "coupler": (2.4, (95.0, 70.0), 0.0118),
-              "rocker": (1.7, (175.0, 40.0), 0.0063)}
-    data = MassData(masses={k: LinkMass(k, m, c_, i) for k, (m, c_, i) in masses.items()}, gravity_value=gravity)
-    mech = replace(bare, mass_data=data)
-    ours = [forces(kinematics.solve(mech, angle)).drive_torque_n_m for angle in ANGLES]
+FOUR_BAR = (40.0, 150.0, 110.0, 160.0)
+FOUR_BAR_MASSES = {"crank": (1.1, (12.0, 20.0), 0.0021), "coupler": (2.4, (95.0, 70.0), 0.0118),
+                   "rocker": (1.7, (175.0, 40.0), 0.0063)}
+GRAVITY = (1.5, -9.80665)
 
+
+@functools.cache
+def _four_bar_lagrange():
+    """The four-bar's drive torque by Lagrange, derived once for every test that uses it."""
+    a, b, c, d = FOUR_BAR
+    bare = load(four_bar(a, b, c, d, 30.0))
     q = dynamicsymbols("q")
     n = ReferenceFrame("N")
     o2 = Point("O2")
@@ -102,9 +104,21 @@ def test_four_bar_all_links_massive_against_lagrange(alpha):
     a_pt = o2.locatenew("A", am * f2.x)
     o4 = o2.locatenew("O4", dm * n.x)
     fixed = _Fixed(n, o2)
-    bodies = [_body(k, frame, origin, _local(bare, k, masses[k][1]), masses[k][0], masses[k][2], gravity, fixed)
+    m = FOUR_BAR_MASSES
+    bodies = [_body(k, frame, origin, _local(bare, k, m[k][1]), m[k][0], m[k][2], GRAVITY, fixed)
               for k, frame, origin in (("crank", f2, o2), ("coupler", f3, a_pt), ("rocker", f4, o4))]
-    reference = _lagrange_torque(bodies, n, f2, q, ANGLES, rpm, alpha)
+    return _lagrange_torque(bodies, n, f2, q)
+
+
+@pytest.mark.parametrize("alpha", [0.0, 6.0])
+def test_four_bar_all_links_massive_against_lagrange(alpha):
+    rpm = 240.0
+    bare = load(four_bar(*FOUR_BAR, 30.0, rpm=rpm, alpha=alpha))
+    data = MassData(masses={k: LinkMass(k, m, c_, i) for k, (m, c_, i) in FOUR_BAR_MASSES.items()},
+                    gravity_value=GRAVITY)
+    mech = replace(bare, mass_data=data)
+    ours = [forces(kinematics.solve(mech, angle)).drive_torque_n_m for angle in ANGLES]
+    reference = _at(_four_bar_lagrange(), ANGLES, rpm, alpha)
     for got, want in zip(ours, reference, strict=True):
         assert got == pytest.approx(want, rel=TOLERANCE, abs=TOLERANCE * max(map(abs, reference)))
 
@@ -140,7 +154,7 @@ def test_offset_slider_crank_with_block_mass_against_lagrange():
     block = Particle("block", d_pt, block_kg)
     block.potential_energy = -block_kg * (gravity[0] * d_pt.pos_from(o2).dot(n.x)
                                           + gravity[1] * d_pt.pos_from(o2).dot(n.y))
-    reference = _lagrange_torque(bodies + [block], n, f2, q, ANGLES, rpm, alpha,
-                                 loads=[(d_pt, push[0] * n.x + push[1] * n.y)])
+    reference = _at(_lagrange_torque(bodies + [block], n, f2, q, loads=[(d_pt, push[0] * n.x + push[1] * n.y)]),
+                    ANGLES, rpm, alpha)
     for got, want in zip(ours, reference, strict=True):
         assert got == pytest.approx(want, rel=TOLERANCE, abs=TOLERANCE * max(map(abs, reference)))
