@@ -31,14 +31,17 @@ def _real(values: np.ndarray) -> np.ndarray:
 
 def _inertia(model, centre, motion):
     """Force −m·a_G, couple −I·α, offset I·|α|/(m·|a_G|) and the offset point G + r with
-    r = (C/|F|²)·(F_y, −F_x) = −i·C·F/|F|² (complex), so that cross(r, F) = C."""
+    r = (C/|F|²)·(F_y, −F_x) = −i·C·F/|F|² (complex), so that cross(r, F) = C; the offset is inf
+    for a pure couple, whose offset point is the centre."""
     force = -model.mass * centre.acceleration
     couple = -model.inertia * motion.alpha
-    squared = force.real ** 2 + force.imag ** 2
-    moving = squared > 0.0
-    share = np.divide(couple, squared, out=np.zeros_like(couple), where=moving)
-    offset = np.where(moving, np.abs(share) * np.sqrt(squared), np.where(couple == 0.0, 0.0, np.inf))
-    return force, couple, offset, centre.position - 1j * share * force
+    size = np.abs(force)
+    moving = size > 0.0
+    offset = np.divide(np.abs(couple), size, out=np.where(couple == 0.0, 0.0, np.inf), where=moving)
+    along = np.divide(force, size, out=np.zeros_like(force), where=moving)
+    # r = −i·sgn(C)·h·F/|F|; a pure couple (or an offset past the largest float) keeps the centre.
+    arm = np.where(np.isfinite(offset), -1j * np.sign(couple) * np.where(np.isfinite(offset), offset, 0.0) * along, 0)
+    return force, couple, offset, centre.position + arm
 
 
 def _frame(model, motion, solved):
@@ -65,10 +68,11 @@ def _frame(model, motion, solved):
     return pivot_points, guide_names, received, moment
 
 
-def _shaking(model, centre, motion):
+def _shaking(model, centre, motion, force, couple):
+    """Σ(−m·a) of every moving mass and its moment about the driver pivot less Σ I·α, from the
+    links' inertia ``force`` and ``couple`` and the particles'."""
     origin = motion.positions[:, model.pivot, None]
-    force = -model.mass * centre.acceleration
-    moment = cross(centre.position - origin, force).sum(axis=1) - (model.inertia * motion.alpha).sum(axis=1)
+    moment = cross(centre.position - origin, force).sum(axis=1) + couple.sum(axis=1)
     total = force.sum(axis=1)
     if len(model.particle_point):
         at = model.particle_point
@@ -97,6 +101,7 @@ def _result(cls, mechanism, motion, pick, **extra):
     slides = {s.name: SlideForce(normal_n=pick(normals[:, i]), force_n=pick(push[:, i]))
               for i, s in enumerate(lay.slides)}
     force, couple, offset, offset_point = _inertia(model, centre, motion)
+    shaking_force, shaking_moment = _shaking(model, centre, motion, force, couple)
     force, couple, offset = _xy(force), _real(couple), _real(offset)
     where, centre_xy = _xy(offset_point), _xy(centre.position)
     index = {k: i for i, k in enumerate(lay.links)}
@@ -106,7 +111,6 @@ def _result(cls, mechanism, motion, pick, **extra):
                for name, k in ((n, index[n]) for n in data.masses)}
     particles = _xy(-np.stack([m.mass_kg * motion.accelerations[:, lay.points.index(p)]
                                for p, m in data.point_masses.items()], axis=1)) if data.point_masses else None
-    shaking_force, shaking_moment = _shaking(model, centre, motion)
     pivots, guides, received, frame_moment = _frame(model, motion, solved)
     received_xy = _xy(received)
     torque = _real(solved.torque)

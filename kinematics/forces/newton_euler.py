@@ -18,6 +18,7 @@ from functools import lru_cache
 import numpy as np
 
 from ..errors import ForcesUndetermined
+from ..model.memo import remembered
 from .blocks import plan, solve
 from .bodies import Centres, MassModel, Motion, active, cross
 
@@ -25,7 +26,7 @@ from .bodies import Centres, MassModel, Motion, active, cross
 @dataclass(frozen=True, eq=False)
 class _Assembly:
     """What does not change from pose to pose: where the moment arms of the joint forces go, the
-    slides' entries, the block plan, and the incidence of applied forces and couples on rows."""
+    slides' entries, the block plan, and the rows each applied force goes to."""
 
     arm_points: np.ndarray
     arm_origins: np.ndarray
@@ -35,19 +36,12 @@ class _Assembly:
     applied_points: np.ndarray
     applied_origins: np.ndarray
     applied_rows: tuple
-    couple_rows: np.ndarray
 
 
-def _incidence(lay, links, elements):
-    """(x, y, moment) incidence matrices (count, rows) for items on links (index ≥ 0) or elements."""
-    count = len(links)
-    x, y, m = (np.zeros((count, lay.size)) for _ in range(3))
-    for i, (k, e) in enumerate(zip(links, elements, strict=True)):
-        if k >= 0:
-            x[i, 3 * k], y[i, 3 * k + 1], m[i, 3 * k + 2] = 1.0, 1.0, 1.0
-        else:
-            x[i, lay.element_row(e)], y[i, lay.element_row(e) + 1] = 1.0, 1.0
-    return x, y, m
+def _incidence(lay, links, elements) -> tuple:
+    """Per item on a link (index ≥ 0) or an element: its (x, y, moment) rows, moment −1 on an element."""
+    return tuple((3 * k, 3 * k + 1, 3 * k + 2) if k >= 0 else (lay.element_row(e), lay.element_row(e) + 1, -1)
+                 for k, e in zip(links, elements, strict=True))
 
 
 def _slide_entries(lay, first) -> tuple:
@@ -102,17 +96,15 @@ def _assembled(lay, first, particle_point, particle_link, particle_element, forc
     for pair in lay.pairs:
         pair_column[pair.column:pair.column + 2] = True
     blocks = plan(constant, np.array(rows, int), np.array(columns, int), fixed_row, pair_column)
-    every = np.arange(len(lay.links))
-    # Applied forces in one list: link centres, then particles, then point loads.
-    on_links = np.array((*every, *particle_link, *force_link), int)
-    on_elements = np.array((*every, *particle_element, *force_element), int)
+    # Applied forces other than the links' own: particles, then point loads.
+    on_links = np.array((*particle_link, *force_link), int)
+    on_elements = np.array((*particle_element, *force_element), int)
     return _Assembly(
         arm_points=arms[:, 2].astype(int), arm_origins=arms[:, 3].astype(int), arm_signs=arms[:, 4],
         slide_entries=slides, blocks=blocks,
         applied_points=np.array((*particle_point, *force_point), int),
         applied_origins=first[np.maximum(np.array((*particle_link, *force_link), int), 0)],
-        applied_rows=_incidence(lay, on_links, on_elements),
-        couple_rows=_incidence(lay, np.array((*every, *torque_link), int), np.array((*every, *torque_link), int))[2])
+        applied_rows=_incidence(lay, on_links, on_elements))
 
 
 @dataclass(frozen=True)
@@ -129,24 +121,34 @@ class Solved:
 
 def _applied(model: MassModel, motion: Motion, centres: Centres, rows: _Assembly) -> np.ndarray:
     """The known terms of every balance (N, rows): inertia, gravity and loads, moments about
-    each link's first point divided by L."""
+    each link's first point divided by L. The links' own terms go straight to their rows; the
+    particles' and loads' added to theirs."""
     z, g = motion.positions, model.gravity
-    forces = [model.mass * (g - centres.acceleration)]
-    levers = [centres.arm]
+    count, nl = len(z), len(model.layout.links)
+    total = np.zeros((count, model.layout.size))
+    own = model.mass * (g - centres.acceleration)
+    total[:, 0:3 * nl:3], total[:, 1:3 * nl:3] = own.real, own.imag
+    total[:, 2:3 * nl:3] = (cross(centres.arm, own) - model.inertia * motion.alpha) / model.length_m
+    forces = []
     if len(model.particle_point):
         forces.append(model.particle_mass * (g - np.take(motion.accelerations, model.particle_point, axis=1)))
     if len(model.force_point):
         forces.append(active(model.force_load, motion.angle_deg, model.sense) * model.force_value)
-    if len(rows.applied_points):
-        levers.append(np.take(z, rows.applied_points, axis=1) - np.take(z, rows.applied_origins, axis=1))
-    force = np.concatenate(forces, axis=1) if len(forces) > 1 else forces[0]
-    lever = np.concatenate(levers, axis=1) if len(levers) > 1 else levers[0]
-    x, y, m = rows.applied_rows
-    couples = -model.inertia * motion.alpha
+    if forces:
+        force = np.concatenate(forces, axis=1) if len(forces) > 1 else forces[0]
+        moment = cross(np.take(z, rows.applied_points, axis=1) - np.take(z, rows.applied_origins, axis=1),
+                       force) / model.length_m
+        # Few items (a handful of particles and loads), each onto its own rows; several may share one.
+        for i, (x, y, m) in enumerate(rows.applied_rows):
+            total[:, x] += force[:, i].real
+            total[:, y] += force[:, i].imag
+            if m >= 0:
+                total[:, m] += moment[:, i]
     if len(model.torque_link):
-        couples = np.concatenate([couples, active(model.torque_load, motion.angle_deg, model.sense)
-                                  * model.torque_value], axis=1)
-    return force.real @ x + force.imag @ y + (cross(lever, force) @ m + couples @ rows.couple_rows) / model.length_m
+        acting = active(model.torque_load, motion.angle_deg, model.sense) * model.torque_value / model.length_m
+        for i, link in enumerate(model.torque_link):
+            total[:, 3 * link + 2] += acting[:, i]
+    return total
 
 
 def _varying(model: MassModel, rows: _Assembly, z: np.ndarray):
@@ -172,7 +174,7 @@ def solve_forces(model: MassModel, motion: Motion, centres: Centres) -> Solved:
 
     Raises ForcesUndetermined where a pose's system is singular (statics does not fix the
     joint forces there)."""
-    rows = _assembly(model)
+    rows = remembered(model, "assembly", lambda: _assembly(model))
     lay = model.layout
     values, normals = _varying(model, rows, motion.positions)
     unknowns, singular = solve(rows.blocks, values, -_applied(model, motion, centres, rows))
