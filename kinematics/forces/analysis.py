@@ -3,6 +3,8 @@ read off them (joint forces by link, slides, inertia, shaking, what the frame re
 
 from __future__ import annotations
 
+from dataclasses import dataclass
+from functools import lru_cache
 from types import MappingProxyType
 
 import numpy as np
@@ -44,28 +46,52 @@ def _inertia(model, centre, motion):
     return force, couple, offset, centre.position + arm
 
 
-def _frame(model, motion, solved):
-    """What the frame receives: −(its force on each link) at each fixed pivot, −N·n from a block on
-    a fixed guide, N·n from a block pivoted on it with a moving guide through it; −T."""
-    lay, z = model.layout, motion.positions
-    pivots = {}
+@dataclass(frozen=True, eq=False)
+class _Reading:
+    """How the results are read off the unknowns, per layout: the reported joint forces (pair,
+    sign), which pairs load each fixed pivot, which slides load the frame and with what sign."""
+
+    reported: tuple
+    pair_index: np.ndarray
+    signs: np.ndarray
+    pivots: tuple
+    pivot_incidence: np.ndarray
+    guides: tuple
+    guide_slides: np.ndarray
+    guide_signs: np.ndarray
+    received_points: np.ndarray
+
+
+@lru_cache(maxsize=64)
+def _reading(lay) -> _Reading:
+    reported = tuple((point, link) for pair in lay.pairs for point, link, _ in pair.reported)
+    pivots = tuple(dict.fromkeys(pair.frame for pair in lay.pairs if pair.frame is not None))
+    incidence = np.zeros((len(lay.pairs), len(pivots)))
     for i, pair in enumerate(lay.pairs):
         if pair.frame is not None:
-            pivots.setdefault(pair.frame, []).append(i)
-    pivot_points = list(pivots)
-    pivot_force = np.stack([-solved.pairs[:, pivots[p]].sum(axis=1) for p in pivot_points], axis=1)
-    guide_names, guide_points, guide_force = [], [], []
-    for i, slide in enumerate(lay.slides):
-        push = solved.normals[:, i] * solved.normal_directions[:, i]
-        if slide.guide is None or slide.point in lay.fixed:
-            guide_names.append(slide.name)
-            guide_points.append(lay.points.index(slide.point))
-            guide_force.append(-push if slide.guide is None else push)
-    points = [lay.points.index(p) for p in pivot_points] + guide_points
-    received = np.concatenate([pivot_force] + [g[:, None] for g in guide_force], axis=1)
-    origin = z[:, model.pivot, None]
-    moment = cross(np.take(z, points, axis=1) - origin, received).sum(axis=1) - solved.torque
-    return pivot_points, guide_names, received, moment
+            incidence[i, pivots.index(pair.frame)] = -1.0
+    # A block on a fixed guide presses on it with −N·n; a block pivoted on the frame with a moving
+    # guide through it passes N·n to the frame.
+    guides = [(s.name, i, -1.0 if s.guide is None else 1.0) for i, s in enumerate(lay.slides)
+              if s.guide is None or s.point in lay.fixed]
+    points = [lay.points.index(p) for p in pivots] + [lay.points.index(lay.slides[i].point) for _, i, _ in guides]
+    return _Reading(reported=reported,
+                    pair_index=np.array([i for i, pair in enumerate(lay.pairs) for _ in pair.reported], int),
+                    signs=np.array([sign for pair in lay.pairs for _, _, sign in pair.reported]), pivots=pivots,
+                    pivot_incidence=incidence, guides=tuple(name for name, _, _ in guides),
+                    guide_slides=np.array([i for _, i, _ in guides], int),
+                    guide_signs=np.array([sign for _, _, sign in guides]), received_points=np.array(points, int))
+
+
+def _frame(model, motion, solved, reading: _Reading):
+    """What the frame receives (N, pivots + guides) complex, and its moment about the driver pivot,
+    the drive's reaction −T included."""
+    z = motion.positions
+    through_guides = (solved.normals[:, reading.guide_slides] * solved.normal_directions[:, reading.guide_slides]
+                      * reading.guide_signs)
+    received = np.concatenate([solved.pairs @ reading.pivot_incidence, through_guides], axis=1)
+    lever = np.take(z, reading.received_points, axis=1) - z[:, model.pivot, None]
+    return received, cross(lever, received).sum(axis=1) - solved.torque
 
 
 def _shaking(model, centre, motion, force, couple):
@@ -91,10 +117,10 @@ def _result(cls, mechanism, motion, pick, **extra):
     centre = centres(model, motion)
     solved = solve_forces(model, motion, centre)
     balance_torque, scale = power_balance_torque(model, motion, centre)
-    reported = [(point, link, sign, i) for i, pair in enumerate(lay.pairs) for point, link, sign in pair.reported]
-    joint = _xy(solved.pairs[:, [r[3] for r in reported]] * np.array([r[2] for r in reported]))
+    reading = _reading(lay)
+    joint = _xy(solved.pairs[:, reading.pair_index] * reading.signs)
     joints = {}
-    for j, (point, link, _, _) in enumerate(reported):
+    for j, (point, link) in enumerate(reading.reported):
         joints.setdefault(point, {})[link] = pick(joint[:, j])
     push = _xy(solved.normals * solved.normal_directions)
     normals = _real(solved.normals)
@@ -111,7 +137,8 @@ def _result(cls, mechanism, motion, pick, **extra):
                for name, k in ((n, index[n]) for n in data.masses)}
     particles = _xy(-np.stack([m.mass_kg * motion.accelerations[:, lay.points.index(p)]
                                for p, m in data.point_masses.items()], axis=1)) if data.point_masses else None
-    pivots, guides, received, frame_moment = _frame(model, motion, solved)
+    received, frame_moment = _frame(model, motion, solved, reading)
+    pivots, guides = reading.pivots, reading.guides
     received_xy = _xy(received)
     torque = _real(solved.torque)
     size = np.maximum(np.maximum(np.abs(solved.torque), np.abs(balance_torque)), scale)

@@ -55,6 +55,7 @@ class Block:
     full: np.ndarray | None
     full0: np.ndarray | None
     inverse: np.ndarray | None
+    used: np.ndarray
 
 
 def _matching(pattern: np.ndarray) -> np.ndarray:
@@ -173,7 +174,12 @@ def _block(constant, entry_rows, entry_columns, rows, columns, solved, fixed_row
                      g0=g0)
     else:
         parts["full"], parts["full0"] = _gather(constant, entry_rows, entry_columns, rows, columns)
+    maps = [k for k in ("ec_z", "d", "g", "full") if parts[k] is not None]
+    used = np.flatnonzero(np.any([parts[k].any(axis=1) for k in maps], axis=0)) if maps else np.zeros(0, int)
+    for k in maps:
+        parts[k] = parts[k][used]
     return Block(rows=rows, columns=columns, solved=solved, coupled=constant[np.ix_(rows, solved)].T.copy(),
+                 used=used,
                  coupling_entries=np.array([k for k, _, _ in coupling], int),
                  coupling_columns=np.array([col for _, col, _ in coupling], int), coupling_spread=spread,
                  fixed=fixed, turning=turning, pairs=pairs, others=others, **parts)
@@ -225,7 +231,8 @@ def solve(blocks: tuple, values: np.ndarray, applied: np.ndarray):
             continue
         if block.pseudo is None:
             size = len(block.columns)
-            found, bad = solve_small((values @ block.full + block.full0).reshape(count, size, size), rhs)
+            found, bad = solve_small((values[:, block.used] @ block.full + block.full0).reshape(count, size, size),
+                                     rhs)
             unknowns[:, block.columns] = found
         else:
             bad = _reduced(block, values, rhs, unknowns)
@@ -237,6 +244,7 @@ def _reduced(block: Block, values, rhs, unknowns) -> np.ndarray:
     """Solve a block whose force rows are solved apart (see the module), into ``unknowns``;
     returns where it was singular."""
     count = len(values)
+    values = values[:, block.used]
     nt, nf, no = len(block.turning), len(block.fixed), len(block.others)
     f, g = rhs[:, block.fixed], rhs[:, block.turning]
     ec_z = (values @ block.ec_z + block.ec_z0).reshape(count, nt, -1)
@@ -277,7 +285,10 @@ def solve_small(matrix: np.ndarray, rhs: np.ndarray):
         det = a * d - b * c
         bad = np.abs(det) <= DEPENDENT * np.hypot(a, b) * np.hypot(c, d)
         det = np.where(bad, 1.0, det)
-        return np.stack([(d * rhs[:, 0] - b * rhs[:, 1]) / det, (a * rhs[:, 1] - c * rhs[:, 0]) / det], axis=1), bad
+        found = np.empty(rhs.shape)
+        found[:, 0] = (d * rhs[:, 0] - b * rhs[:, 1]) / det
+        found[:, 1] = (a * rhs[:, 1] - c * rhs[:, 0]) / det
+        return found, bad
     figures = np.linalg.cond(matrix)
     bad = ~(figures < 1.0 / DEPENDENT)
     safe = np.where(bad[:, None, None], np.eye(n), matrix)
