@@ -31,6 +31,9 @@ def _real(values: np.ndarray) -> np.ndarray:
     return values
 
 
+NO_FORCE_N = 1e-100
+
+
 def _inertia(model, centre, motion):
     """Force −m·a_G, couple −I·α, offset I·|α|/(m·|a_G|) and the offset point G + r with
     r = (C/|F|²)·(F_y, −F_x) = −i·C·F/|F|² (complex), so that cross(r, F) = C; the offset is inf
@@ -38,11 +41,10 @@ def _inertia(model, centre, motion):
     force = -model.mass * centre.acceleration
     couple = -model.inertia * motion.alpha
     size = np.abs(force)
-    moving = size > 0.0
+    # A force below this (N) is none: the inertia is a pure couple, its offset infinite.
+    moving = size > NO_FORCE_N
     offset = np.divide(np.abs(couple), size, out=np.where(couple == 0.0, 0.0, np.inf), where=moving)
-    along = np.divide(force, size, out=np.zeros_like(force), where=moving)
-    # r = −i·sgn(C)·h·F/|F|; a pure couple (or an offset past the largest float) keeps the centre.
-    arm = np.where(np.isfinite(offset), -1j * np.sign(couple) * np.where(np.isfinite(offset), offset, 0.0) * along, 0)
+    arm = np.divide(-1j * couple * force, size * size, out=np.zeros_like(force), where=moving)
     return force, couple, offset, centre.position + arm
 
 
@@ -55,7 +57,8 @@ class _Reading:
     pair_index: np.ndarray
     signs: np.ndarray
     pivots: tuple
-    pivot_incidence: np.ndarray
+    pivot_pairs: np.ndarray
+    pivot_starts: np.ndarray
     guides: tuple
     guide_slides: np.ndarray
     guide_signs: np.ndarray
@@ -66,10 +69,9 @@ class _Reading:
 def _reading(lay) -> _Reading:
     reported = tuple((point, link) for pair in lay.pairs for point, link, _ in pair.reported)
     pivots = tuple(dict.fromkeys(pair.frame for pair in lay.pairs if pair.frame is not None))
-    incidence = np.zeros((len(lay.pairs), len(pivots)))
-    for i, pair in enumerate(lay.pairs):
-        if pair.frame is not None:
-            incidence[i, pivots.index(pair.frame)] = -1.0
+    # The pairs at the frame, grouped by pivot (the layout lists a point's pairs together).
+    at_frame = [i for i, pair in enumerate(lay.pairs) if pair.frame is not None]
+    starts = [k for k, i in enumerate(at_frame) if k == 0 or lay.pairs[at_frame[k - 1]].frame != lay.pairs[i].frame]
     # A block on a fixed guide presses on it with −N·n; a block pivoted on the frame with a moving
     # guide through it passes N·n to the frame.
     guides = [(s.name, i, -1.0 if s.guide is None else 1.0) for i, s in enumerate(lay.slides)
@@ -78,7 +80,8 @@ def _reading(lay) -> _Reading:
     return _Reading(reported=reported,
                     pair_index=np.array([i for i, pair in enumerate(lay.pairs) for _ in pair.reported], int),
                     signs=np.array([sign for pair in lay.pairs for _, _, sign in pair.reported]), pivots=pivots,
-                    pivot_incidence=incidence, guides=tuple(name for name, _, _ in guides),
+                    pivot_pairs=np.array(at_frame, int), pivot_starts=np.array(starts, int),
+                    guides=tuple(name for name, _, _ in guides),
                     guide_slides=np.array([i for _, i, _ in guides], int),
                     guide_signs=np.array([sign for _, _, sign in guides]), received_points=np.array(points, int))
 
@@ -89,7 +92,8 @@ def _frame(model, motion, solved, reading: _Reading):
     z = motion.positions
     through_guides = (solved.normals[:, reading.guide_slides] * solved.normal_directions[:, reading.guide_slides]
                       * reading.guide_signs)
-    received = np.concatenate([solved.pairs @ reading.pivot_incidence, through_guides], axis=1)
+    at_pivots = -np.add.reduceat(solved.pairs[:, reading.pivot_pairs], reading.pivot_starts, axis=1)
+    received = np.concatenate([at_pivots, through_guides], axis=1)
     lever = np.take(z, reading.received_points, axis=1) - z[:, model.pivot, None]
     return received, cross(lever, received).sum(axis=1) - solved.torque
 

@@ -119,16 +119,16 @@ class Solved:
     torque: np.ndarray
 
 
-def _applied(model: MassModel, motion: Motion, centres: Centres, rows: _Assembly) -> np.ndarray:
-    """The known terms of every balance (N, rows): inertia, gravity and loads, moments about
-    each link's first point divided by L. The links' own terms go straight to their rows; the
-    particles' and loads' added to theirs."""
+def _right_side(model: MassModel, motion: Motion, centres: Centres, rows: _Assembly) -> np.ndarray:
+    """The right-hand side of every balance (N, rows): minus the known inertia, gravity and load
+    terms, moments about each link's first point divided by L. The links' own terms go straight
+    to their rows; the particles' and loads' are taken from theirs."""
     z, g = motion.positions, model.gravity
     count, nl = len(z), len(model.layout.links)
     total = np.zeros((count, model.layout.size))
-    own = model.mass * (g - centres.acceleration)
+    own = model.mass * (centres.acceleration - g)
     total[:, 0:3 * nl:3], total[:, 1:3 * nl:3] = own.real, own.imag
-    total[:, 2:3 * nl:3] = (cross(centres.arm, own) - model.inertia * motion.alpha) / model.length_m
+    total[:, 2:3 * nl:3] = (cross(centres.arm, own) + model.inertia * motion.alpha) / model.length_m
     forces = []
     if len(model.particle_point):
         forces.append(model.particle_mass * (g - np.take(motion.accelerations, model.particle_point, axis=1)))
@@ -140,14 +140,14 @@ def _applied(model: MassModel, motion: Motion, centres: Centres, rows: _Assembly
                        force) / model.length_m
         # Few items (a handful of particles and loads), each onto its own rows; several may share one.
         for i, (x, y, m) in enumerate(rows.applied_rows):
-            total[:, x] += force[:, i].real
-            total[:, y] += force[:, i].imag
+            total[:, x] -= force[:, i].real
+            total[:, y] -= force[:, i].imag
             if m >= 0:
-                total[:, m] += moment[:, i]
+                total[:, m] -= moment[:, i]
     if len(model.torque_link):
         acting = active(model.torque_load, motion.angle_deg, model.sense) * model.torque_value / model.length_m
         for i, link in enumerate(model.torque_link):
-            total[:, 3 * link + 2] += acting[:, i]
+            total[:, 3 * link + 2] -= acting[:, i]
     return total
 
 
@@ -177,12 +177,12 @@ def solve_forces(model: MassModel, motion: Motion, centres: Centres) -> Solved:
     rows = remembered(model, "assembly", lambda: _assembly(model))
     lay = model.layout
     values, normals = _varying(model, rows, motion.positions)
-    unknowns, singular = solve(rows.blocks, values, -_applied(model, motion, centres, rows))
+    unknowns, singular = solve(rows.blocks, values, _right_side(model, motion, centres, rows))
     if singular is not None:
         raise ForcesUndetermined("the joint forces are not determined by statics here: a redundant constraint "
                                  "or a locked pose; no least-squares guess is made",
                                  f"driver angle {motion.angle_deg[singular]:.3f}°")
-    columns = np.array([p.column for p in lay.pairs], int)
-    return Solved(pairs=unknowns[:, columns] + 1j * unknowns[:, columns + 1],
+    # The pairs' columns come first, x then y of each: read them as complex numbers.
+    return Solved(pairs=np.ascontiguousarray(unknowns[:, :2 * len(lay.pairs)]).view(complex),
                   normals=unknowns[:, [s.column for s in lay.slides]], normal_directions=normals,
                   torque=unknowns[:, lay.torque_column] * model.length_m)

@@ -148,3 +148,30 @@ def test_drive_summary_of_a_cycle():
     size = np.hypot(*result.joints_n["B"]["rocker"].T)
     assert joint.peak_n == size.max() and joint.mean_n == pytest.approx(size.mean())
     assert drive_summary(result).fluctuation == 0.02
+
+
+def test_equivalent_single_inertia_force():
+    # The inertia force −m·a_G and couple −I·α as one force along a line offset from G by r with
+    # cross(r, F) = C, |r| = I·|α|/(m·|a_G|) (common practice).
+    mech = steel(load(four_bar(40.0, 150.0, 110.0, 160.0, 30.0, rpm=300.0, alpha=25.0)))
+    result = forces(kinematics.solve(mech, 120.0))
+    solution = kinematics.solve(mech, 120.0)
+    for link, inertia in result.inertia.items():
+        entry = mech.mass_data.masses[link]
+        r = inertia.offset_point_m - inertia.centre_m
+        f = inertia.force_n
+        assert r[0] * f[1] - r[1] * f[0] == pytest.approx(inertia.couple_n_m, rel=1e-12, abs=1e-15)
+        assert inertia.couple_n_m == pytest.approx(-entry.inertia_kg_m2 * solution.angular_acceleration[link],
+                                                   rel=1e-12)
+        expected = entry.inertia_kg_m2 * abs(solution.angular_acceleration[link]) / np.hypot(*f)
+        assert inertia.offset_m == pytest.approx(expected, rel=1e-12)
+        assert np.hypot(*r) == pytest.approx(expected, rel=1e-12)
+
+
+def test_pure_inertia_couple_has_an_infinite_offset():
+    # A balanced crank accelerating: no inertia force, a couple only; its line is at infinity.
+    mech = load(four_bar(40.0, 150.0, 110.0, 160.0, 30.0, rpm=100.0, alpha=8.0))
+    mech = replace(mech, mass_data=MassData(masses={"crank": LinkMass("crank", 2.0, (0.0, 0.0), 0.004)}))
+    inertia = forces(kinematics.solve(mech, 50.0)).inertia["crank"]
+    assert inertia.offset_m == math.inf and inertia.couple_n_m == pytest.approx(-0.032)
+    assert np.array_equal(inertia.offset_point_m, inertia.centre_m)
