@@ -39,8 +39,9 @@ class MassModel:
     """A design's masses and loads, index arrays into the point and link order.
 
     Links: first and second point, the centre in the link's own axes as a complex number (along
-    its first side, and turned +90°), mass, inertia. Particles (point masses) and point loads sit on a body:
-    ``on_link`` ≥ 0 a link index, else ``on_element`` an element index. Point-load and
+    its first side, and turned +90°) and at the reference pose (``centre_m``), mass, inertia.
+    Particles (point masses) and point loads sit on a body: ``*_link`` ≥ 0 a link index, else
+    ``*_element`` an element index. Point-load and
     torque-load values are SI (forces and gravity complex); ``force_load`` and ``torque_load`` keep
     the Load objects for their intervals."""
 
@@ -48,6 +49,7 @@ class MassModel:
     first: np.ndarray
     second: np.ndarray
     local_centre: np.ndarray
+    centre_m: np.ndarray
     mass: np.ndarray
     inertia: np.ndarray
     particle_point: np.ndarray
@@ -80,24 +82,32 @@ def mass_model(mechanism: Mechanism) -> MassModel:
 
 
 def _build(mech: Mechanism) -> MassModel:
+    """The model of ``mech``: what depends on names and mass data alone comes from a store kept with
+    the (immutable, shared) MassData, so a drag, which changes only the points, redoes only the
+    centres in their links' axes."""
+    data, lay, k_m = mech.mass_data, layout(mech), mech.metres_per_unit
+    sense = 1.0 if mech.driver.speed_rad_s >= 0 else -1.0
+    fixed = remembered(data, ("model", lay, k_m, mech.driver.pivot, sense), lambda: _by_names(mech, lay))
+    reference = np.array([mech.points[p] for p in lay.points], float).reshape(-1, 2) * k_m
+    start = reference[fixed["first"]]
+    side = reference[fixed["second"]] - start
+    along = (side[:, 0] + 1j * side[:, 1]) / np.hypot(side[:, 0], side[:, 1])
+    offset = fixed["centre_m"] - (start[:, 0] + 1j * start[:, 1])
+    # The centre in the link's own axes: the offset turned back by the link's direction.
+    return MassModel(local_centre=offset * np.conj(along), length_m=max(mech.size * k_m, 1e-9), **fixed)
+
+
+def _by_names(mech: Mechanism, lay) -> dict:
     data = mech.mass_data
-    lay = layout(mech)
+    k_m = mech.metres_per_unit
     points = {p: i for i, p in enumerate(lay.points)}
     links = {k: i for i, k in enumerate(lay.links)}
     elements = {p: e for e, p in enumerate(lay.elements)}
-    k_m = mech.metres_per_unit
-    reference = np.array([mech.points[p] for p in lay.points], float).reshape(-1, 2) * k_m
-    first = np.array([points[mech.links[k][0]] for k in lay.links], int)
-    second = np.array([points[mech.links[k][1]] for k in lay.links], int)
-    side = reference[second] - reference[first]
-    along = side / np.linalg.norm(side, axis=1)[:, None]
-    across = np.stack([-along[:, 1], along[:, 0]], axis=1)
     centre = np.zeros(len(lay.links), complex)
     mass, inertia = np.zeros(len(lay.links)), np.zeros(len(lay.links))
     for name, entry in data.masses.items():
         k = links[name]
-        offset = np.array(entry.centre) * k_m - reference[first[k]]
-        centre[k] = complex(offset @ along[k], offset @ across[k])
+        centre[k] = complex(*entry.centre) * k_m
         mass[k], inertia[k] = entry.mass_kg, entry.inertia_kg_m2
 
     def body(point, link=None):
@@ -116,9 +126,10 @@ def _build(mech: Mechanism) -> MassModel:
     def column(rows, i, dtype):
         return np.array([r[i] for r in rows], dtype).reshape(len(rows))
 
-    return MassModel(
-        layout=lay, first=first, second=second, local_centre=centre, mass=mass, inertia=inertia,
-        particle_point=column(particles, 0, int), particle_mass=column(particles, 1, float),
+    return dict(
+        layout=lay, first=np.array([points[mech.links[k][0]] for k in lay.links], int),
+        second=np.array([points[mech.links[k][1]] for k in lay.links], int), centre_m=centre, mass=mass,
+        inertia=inertia, particle_point=column(particles, 0, int), particle_mass=column(particles, 1, float),
         particle_link=column(particles, 2, int), particle_element=column(particles, 3, int),
         force_point=column(forces, 0, int), force_value=column(forces, 1, complex),
         force_link=column(forces, 2, int), force_element=column(forces, 3, int),
@@ -126,8 +137,7 @@ def _build(mech: Mechanism) -> MassModel:
         torque_link=column(torques, 0, int), torque_value=column(torques, 1, float),
         torque_load=tuple(r[2] for r in torques),
         gravity=complex(*data.gravity_m_s2), pivot=points[mech.driver.pivot],
-        sense=1.0 if mech.driver.speed_rad_s >= 0 else -1.0,
-        length_m=max(mech.size * k_m, 1e-9))
+        sense=1.0 if mech.driver.speed_rad_s >= 0 else -1.0)
 
 
 def active(loads: tuple, angle_deg: np.ndarray, sense: float) -> np.ndarray:
