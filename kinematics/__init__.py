@@ -9,13 +9,16 @@ import math
 from .construction.components import RelativeComponent, acceleration_components
 from .construction.construct import construct as _construct
 from .cycle.sweep import Sweep, sweep, verify_sweep
+from .dynamics import drive_summary, forces, sweep_forces
 from .edits.moves import move_point
 from .edits.naming import rename_link, rename_point
 from .errors import (
     CannotAssemble,
     FileFormatError,
+    ForcesUndetermined,
     KinematicsError,
     MechanismFindings,
+    NoMassData,
     ParallelLines,
     StorageError,
     SweepCancelled,
@@ -23,6 +26,7 @@ from .errors import (
 from .files.fileformat import dumps, load_mechanism
 from .groups.steps import Component, Construction, Polygon, Role, Step
 from .instantaneous.centres import centres
+from .model.mass import LinkMass, Load, MassData, PointMass
 from .model.mechanism import Driver, Mechanism, Slide
 from .reports.caution import CAUTION
 from .solver.mobility import Finding, diagnose
@@ -56,8 +60,9 @@ def construct(solution: Solution, **options) -> Construction:
 
 __all__ = [
     "CAUTION", "CannotAssemble", "Component", "Construction", "Driver", "FileFormatError", "Finding",
-    "KinematicsError", "Mechanism", "MechanismFindings", "ParallelLines", "Polygon", "RelativeComponent", "Role",
-    "Slide", "Solution", "Step", "StorageError", "Sweep", "SweepCancelled", "acceleration_components", "centres",
-    "construct", "diagnose", "dumps", "load_mechanism", "move_point", "rename_link", "rename_point", "solve",
-    "sweep", "verify_sweep",
+    "ForcesUndetermined", "KinematicsError", "LinkMass", "Load", "MassData", "Mechanism", "MechanismFindings",
+    "NoMassData", "ParallelLines", "PointMass", "Polygon", "RelativeComponent", "Role", "Slide", "Solution", "Step",
+    "StorageError", "Sweep", "SweepCancelled", "acceleration_components", "centres", "construct", "diagnose",
+    "drive_summary", "dumps", "forces", "load_mechanism", "move_point", "rename_link", "rename_point", "solve",
+    "sweep", "sweep_forces", "verify_sweep",
 ]

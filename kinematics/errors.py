@@ -67,3 +67,12 @@ class ProtectedFile(StorageError):
     def __init__(self, reason: str, location: str = ""):
         self.reason = reason
         super().__init__(f"{reason}, so it was left as it was", location)
+
+
+class NoMassData(KinematicsError):
+    """Forces were asked of a design with no masses and no loads: there is nothing to compute them from."""
+
+
+class ForcesUndetermined(KinematicsError):
+    """Joint forces that statics does not determine (a redundant link, a locked pose):
+    refused rather than guessed by least squares."""

@@ -12,8 +12,12 @@ from collections.abc import Mapping
 from dataclasses import dataclass, field
 from functools import cached_property
 from types import MappingProxyType
+from typing import TYPE_CHECKING
 
 from .units import RAD_S2_PER_ACCELERATION_UNIT, RAD_S_PER_SPEED_UNIT, metres_per
+
+if TYPE_CHECKING:
+    from .mass import MassData
 
 GROUND = "ground"
 # A point this close to its slide line, relative to the larger of the mechanism's size and the
@@ -76,6 +80,8 @@ class Mechanism:
     output : ``{"link": name}`` or ``{"point": name}`` or None.
     extensions : top-level ``x-`` keys of the file, kept unread.
     warnings : what loading had to say (a point moved onto its slide line ...).
+    mass_data : :class:`~kinematics.model.mass.MassData` (masses, loads, gravity) or None
+        for a design with no mass data; checked against the design when made.
     """
 
     points: Mapping[str, tuple]
@@ -90,6 +96,7 @@ class Mechanism:
     length_unit: str = "mm"
     extensions: Mapping = field(default_factory=dict)
     warnings: tuple = ()
+    mass_data: MassData | None = None
 
     def __post_init__(self):
         object.__setattr__(self, "points", _frozen({k: tuple(v) for k, v in self.points.items()}))
@@ -100,6 +107,8 @@ class Mechanism:
         object.__setattr__(self, "analysis_angles_deg", tuple(self.analysis_angles_deg))
         if self.output is not None:
             object.__setattr__(self, "output", _frozen(self.output))
+        if self.mass_data is not None:
+            self.mass_data.check(self)
 
     @property
     def metres_per_unit(self) -> float:

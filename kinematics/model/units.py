@@ -25,3 +25,10 @@ def metres_per(length_unit: str) -> float:
 
 def rpm_from_rad_s(speed_rad_s: float) -> float:
     return speed_rad_s * 60.0 / (2.0 * math.pi)
+
+# Mass data (see kinematics.model.mass): the units a file may state, and their SI factors.
+KG_PER_MASS_UNIT = {"kg": 1.0, "g": 1e-3}
+KG_M2_PER_INERTIA_UNIT = {"kg*m^2": 1.0, "kg*mm^2": 1e-6, "g*mm^2": 1e-9}
+N_PER_FORCE_UNIT = {"N": 1.0}
+N_M_PER_TORQUE_UNIT = {"N*m": 1.0}
+M_S2_PER_GRAVITY_UNIT = {"m/s^2": 1.0}
