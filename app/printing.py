@@ -10,7 +10,6 @@ QGraphicsScene in between, so no view zoom or item cache can get in the way.
 
 from __future__ import annotations
 
-import argparse
 import os
 from pathlib import Path
 
@@ -29,12 +28,12 @@ from PySide6.QtGui import (
     QPolygonF,
 )
 
-from kinematics.arguments import finite_angle, joined_numbers, output_name
-from kinematics.drawing import PAPER, Arrow, Circle, Hatch, Line, Note, Polyline, Text, draw_sheet
-from kinematics.drawing.output import construction_from_file, run_reporting
+from kinematics.drawing import Arrow, Circle, Hatch, Line, Note, Polyline, Text, draw_sheet
 from kinematics.drawing.sheet import DASHES
 from kinematics.errors import StorageError, SweepCancelled
 from kinematics.files.storage import replace_atomically
+
+from .outcomes import construction_from_file, run_reporting
 
 FONT_FAMILY = "DejaVu Sans"  # Debian fonts-dejavu-core: has ω α ° ² ′ and subscripts
 MONO_FAMILY = "DejaVu Sans Mono"  # the same package's fixed-pitch face, for text in character columns
@@ -219,17 +218,8 @@ def print_construction(construction, printer_or_path, paper: str = "A4", landsca
     return sheet
 
 
-def main(argv=None) -> int:
-    """``kinepoly print FILE [--angle DEG] [--paper A4] [--landscape] -o sheet.pdf``."""
-    parser = argparse.ArgumentParser(prog="kinepoly print",
-                                     description="Print the space diagram and both polygons at true scale to PDF.")
-    parser.add_argument("file", help="mechanism file (JSON)")
-    parser.add_argument("--angle", type=finite_angle, default=None, metavar="DEG",
-                        help="driver angle in degrees (default: the reference pose)")
-    parser.add_argument("--paper", choices=sorted(PAPER), default="A4", help="ISO 216 sheet (default A4)")
-    parser.add_argument("--landscape", action="store_true", help="landscape instead of portrait")
-    parser.add_argument("-o", "--output", type=output_name, required=True, help="PDF file to write")
-    args = parser.parse_args(joined_numbers(argv))
+def run(args) -> int:
+    """``kinepoly print`` with its parsed arguments (:func:`app.cli.parser`): the exit code."""
     if QGuiApplication.instance() is None:
         os.environ.setdefault("QT_QPA_PLATFORM", "offscreen")
         application = QGuiApplication([])  # fonts need a GUI application; kept alive until we return

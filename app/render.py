@@ -7,25 +7,11 @@ analysed; 3 the linkage cannot assemble at the asked angle.
 
 from __future__ import annotations
 
-import argparse
 import os
 import sys
 from pathlib import Path
 
-from kinematics.arguments import finite_angle, joined_numbers, output_name
-
 FOOTER_PIXELS = 44
-
-
-def parse_size(text: str) -> tuple[int, int]:
-    """``"1600x1000"`` -> (1600, 1000); refuses sizes that cannot hold the drawings."""
-    try:
-        width, height = (int(part) for part in text.lower().split("x"))
-    except ValueError:
-        raise argparse.ArgumentTypeError(f'size "{text}" is not WIDTHxHEIGHT in pixels, e.g. 1600x1000') from None
-    if not (300 <= width <= 10000 and 200 <= height <= 10000):
-        raise argparse.ArgumentTypeError(f"size {width}x{height} is outside 300x200 … 10000x10000 pixels")
-    return width, height
 
 
 def render_image(document, size: tuple[int, int]):
@@ -82,14 +68,8 @@ def _pass_on_qt_message(mode, context, message):
         print(message, file=sys.stderr)
 
 
-def main(argv) -> int:
-    parser = argparse.ArgumentParser(prog="kinepoly render", description=__doc__.split("\n\n")[0])
-    parser.add_argument("file", help="mechanism file (.json)")
-    parser.add_argument("--angle", type=finite_angle, default=None, help="driver angle, degrees CCW from +x "
-                                                                         "(default: the reference pose)")
-    parser.add_argument("-o", "--output", type=output_name, required=True, help="PNG file to write")
-    parser.add_argument("--size", type=parse_size, default=(1600, 1000), help="WIDTHxHEIGHT pixels (1600x1000)")
-    options = parser.parse_args(joined_numbers(argv))
+def run(options) -> int:
+    """``kinepoly render`` with its parsed arguments (:func:`app.cli.parser`): the exit code."""
     os.environ.setdefault("QT_QPA_PLATFORM", "offscreen")
     from PySide6.QtCore import qInstallMessageHandler
     from PySide6.QtWidgets import QApplication

@@ -6,9 +6,7 @@ or a cancel leaves no file."""
 
 from __future__ import annotations
 
-import argparse
 import io
-import math
 import os
 from pathlib import Path
 
@@ -18,10 +16,10 @@ from PySide6.QtGui import QGuiApplication
 
 from kinematics import KinematicsError, load_mechanism
 from kinematics.drawing import PAPER
-from kinematics.drawing.output import run_reporting
 from kinematics.files.storage import replace_atomically
 from kinematics.review import Progress, build_report
 
+from .outcomes import run_reporting
 from .printing import paint_sheets, pdf_writer
 
 # The assembly (sweep, constructions, layout) takes this share of the progress bar, painting the rest.
@@ -73,28 +71,8 @@ def write_review(mechanism, source: bytes, path, file_name: str = "", paper: str
     return report
 
 
-def _angles(text: str) -> tuple:
-    try:
-        angles = tuple(float(part) for part in text.split(",") if part.strip())
-    except ValueError:
-        raise argparse.ArgumentTypeError(f"angles as degrees separated by commas (30,150), not {text!r}") from None
-    if not angles or not all(math.isfinite(a) for a in angles):
-        raise argparse.ArgumentTypeError(f"angles as finite degrees separated by commas, not {text!r}")
-    return angles
-
-
-def main(argv=None) -> int:
-    """``kinepoly report FILE [-o review.pdf] [--paper A4|A3] [--steps N] [--angles 30,150,...]``."""
-    parser = argparse.ArgumentParser(prog="kinepoly report",
-                                     description="The design-review report: cover, checks, the construction at the "
-                                                 "analysis angles, the cycle, the mechanism's data, in one PDF.")
-    parser.add_argument("file", help="mechanism file (JSON)")
-    parser.add_argument("-o", "--output", default=None, help="PDF file to write (default: FILE's name + .review.pdf)")
-    parser.add_argument("--paper", choices=("A4", "A3"), default="A4", help="ISO 216 size of every page")
-    parser.add_argument("--steps", type=int, default=3600, help="poses in the cycle's sweep (default 3600)")
-    parser.add_argument("--angles", type=_angles, default=None, metavar="DEG,DEG,...",
-                        help="analysis angles (default: the file's analysis_angles_deg, else the reference pose)")
-    args = parser.parse_args(argv)
+def run(args) -> int:
+    """``kinepoly report`` with its parsed arguments (:func:`app.cli.parser`): the exit code."""
     assert args.paper in PAPER
     output = args.output or str(Path(args.file).with_suffix(".review.pdf"))
     if QGuiApplication.instance() is None:

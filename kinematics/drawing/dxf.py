@@ -10,17 +10,12 @@ rather than ezdxf's setup defaults.
 
 from __future__ import annotations
 
-import argparse
-from pathlib import Path
-
 import ezdxf
 from ezdxf import bbox
 from ezdxf.enums import TextEntityAlignment
 
-from ..arguments import finite_angle, joined_numbers, output_name
 from ..files.storage import replace_atomically
 from . import Arrow, Circle, Hatch, Line, Note, Polyline, Text, draw_model
-from .output import construction_from_file, run_reporting
 from .sheet import DASHES
 
 DXF_VERSION = "R2013"  # UTF-8 text (ω, α, ², ′) and true colour on layers
@@ -159,16 +154,3 @@ def write_dxf(construction, path, file_name: str = "", date: str | None = None):
     replace_atomically(path, lambda temporary: doc.saveas(temporary))
     return sheet
 
-
-def main(argv=None) -> int:
-    """``kinepoly export FILE [--angle DEG] -o drawing.dxf``; exit 0 done, 1 not written,
-    2 bad file or findings, 3 no pose or construction at that angle."""
-    parser = argparse.ArgumentParser(prog="kinepoly export",
-                                     description="Export the space diagram (true size, mm) and both polygons as DXF.")
-    parser.add_argument("file", help="mechanism file (JSON)")
-    parser.add_argument("--angle", type=finite_angle, default=None, metavar="DEG",
-                        help="driver angle in degrees (default: the reference pose)")
-    parser.add_argument("-o", "--output", type=output_name, required=True, help="DXF file to write")
-    args = parser.parse_args(joined_numbers(argv))
-    return run_reporting(lambda: write_dxf(construction_from_file(args.file, args.angle), args.output,
-                                           file_name=Path(args.file).name))

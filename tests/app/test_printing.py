@@ -10,12 +10,17 @@ import pytest
 from PySide6.QtPrintSupport import QPrinter
 
 import kinematics
-from app.printing import main, print_construction
+from app.cli import main as command_line
+from app.printing import print_construction
 from tests.designs import BOTTLE_PUSHER, GATE_LIFTER, SAMPLE_FILES, SWING_LEVER, TRIPLE_ROCKER, construction
 
 MM_PER_PT = 25.4 / 72.0  # PDF user space is in points of 1/72 inch
 RATIO = re.compile(r"Space diagram (\d+(?:\.\d+)?):(\d+(?:\.\d+)?)")
 PER_MM = re.compile(r"(Velocity|Acceleration) polygon 1 mm = ([\d.]+) m/s")
+
+
+def main(argv):
+    return command_line(["print", *argv])
 
 
 def _segments(page):

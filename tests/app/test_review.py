@@ -13,9 +13,9 @@ from PySide6.QtCore import Qt, QTimer
 from PySide6.QtWidgets import QFileDialog, QProgressDialog, QPushButton
 
 import kinematics
+from app.cli import main as core_main
 from app.main import main as kinepoly
 from app.review import write_review
-from kinematics.cli import main as core_main
 from tests.app.test_printing import scale_bars_measured
 from tests.designs import SAMPLE_FILES, SAMPLES, TRIPLE_ROCKER, UNFINISHED
 

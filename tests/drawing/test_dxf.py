@@ -14,8 +14,9 @@ import pytest
 from ezdxf import recover
 
 import kinematics
+from app.cli import main as command_line
 from kinematics.drawing import style
-from kinematics.drawing.dxf import main, write_dxf
+from kinematics.drawing.dxf import write_dxf
 from kinematics.errors import StorageError
 from kinematics.files.storage import replace_atomically
 from tests.designs import (
@@ -29,6 +30,10 @@ from tests.designs import (
 )
 
 MM_PER_PT = 25.4 / 72.0
+
+
+def main(argv):
+    return command_line(["export", *argv])
 
 
 def _read(path):

@@ -6,7 +6,7 @@ import numpy as np
 import pytest
 
 import kinematics
-from kinematics.cli import main
+from app.cli import main
 from kinematics.cycle.advantage import advantage_over_cycle, centrodes
 from kinematics.cycle.checks import output_motion
 from tests.designs import CARTON_PUSHER, SAMPLE_FILES, four_bar, load, slider_crank

@@ -11,7 +11,7 @@ import numpy as np
 import pytest
 
 import kinematics
-from kinematics import cli
+from app import cli
 from tests.designs import CARTON_PUSHER, CLAW_FEED
 
 

@@ -50,3 +50,25 @@ def joined_numbers(argv) -> list:
         joined.append(argv[i])
         i += 1
     return joined
+
+
+def parse_size(text: str) -> tuple[int, int]:
+    """``"1600x1000"`` -> (1600, 1000); refuses sizes that cannot hold the drawings."""
+    try:
+        width, height = (int(part) for part in text.lower().split("x"))
+    except ValueError:
+        raise argparse.ArgumentTypeError(f'size "{text}" is not WIDTHxHEIGHT in pixels, e.g. 1600x1000') from None
+    if not (300 <= width <= 10000 and 200 <= height <= 10000):
+        raise argparse.ArgumentTypeError(f"size {width}x{height} is outside 300x200 … 10000x10000 pixels")
+    return width, height
+
+
+def review_angles(text: str) -> tuple:
+    """The ``--angles`` value of ``kinepoly report``: finite degrees separated by commas."""
+    try:
+        angles = tuple(float(part) for part in text.split(",") if part.strip())
+    except ValueError:
+        raise argparse.ArgumentTypeError(f"angles as degrees separated by commas (30,150), not {text!r}") from None
+    if not angles or not all(math.isfinite(a) for a in angles):
+        raise argparse.ArgumentTypeError(f"angles as finite degrees separated by commas, not {text!r}")
+    return angles

@@ -6,12 +6,12 @@ from __future__ import annotations
 
 import sys
 
-from ..errors import CannotAssemble, KinematicsError, MechanismFindings, ParallelLines, StorageError
+from kinematics.errors import CannotAssemble, KinematicsError, MechanismFindings, ParallelLines, StorageError
 
 
 def construction_from_file(path, angle_deg=None):
     """Load, solve and construct the mechanism in ``path`` at driver angle ``angle_deg``."""
-    from .. import construct, load_mechanism, solve
+    from kinematics import construct, load_mechanism, solve
 
     return construct(solve(load_mechanism(path), angle_deg))
 

@@ -1,4 +1,6 @@
-"""``kinepoly check | solve | construct | centres | sweep | export`` — the analysis commands (no Qt).
+"""The ``kinepoly`` command line: one parser for every verb, and the verbs that need no Qt
+(check, solve, construct, centres, sweep, export). ``render``, ``print`` and ``report`` run in
+:mod:`app.render`, :mod:`app.printing` and :mod:`app.review`, imported only when asked for.
 
 Exit codes: 0 ok; 1 the output could not be written; 2 a bad file or a
 mechanism with findings (message on stderr names the place); 3 the linkage
@@ -8,18 +10,22 @@ cannot assemble (or has no construction) at the asked angle.
 from __future__ import annotations
 
 import argparse
+import importlib
 import io
 import json
 import math
 import sys
+from pathlib import Path
 
 import numpy as np
 
-from . import CAUTION, KinematicsError, acceleration_components, construct, load_mechanism, solve
-from .arguments import finite_angle, joined_numbers, output_name
-from .drawing.output import run_reporting
-from .files.storage import write_atomically
-from .reports.text import construction_text, peaks_text, solution_table
+from kinematics import CAUTION, KinematicsError, acceleration_components, construct, load_mechanism, solve
+from kinematics.drawing import PAPER
+from kinematics.files.storage import write_atomically
+from kinematics.reports.text import construction_text, peaks_text, solution_table
+
+from .arguments import finite_angle, joined_numbers, output_name, parse_size, review_angles
+from .outcomes import construction_from_file, run_reporting
 
 
 def _solution_json(solution) -> dict:
@@ -93,7 +99,7 @@ def _emit(text: str, output):
 
 
 def _check(args) -> int:
-    from .reports.check_text import check_sentences
+    from kinematics.reports.check_text import check_sentences
 
     checks = check_sentences(load_mechanism(args.file))
     for line in checks.lines:
@@ -108,7 +114,7 @@ def _solve(args) -> int:
     solution = solve(mech, args.angle)
     _require_finite(_solution_json(solution), args.file)
     if args.csv:
-        from .drawing.table import results_csv
+        from kinematics.drawing.table import results_csv
 
         _emit(results_csv(solution), args.output)
     elif args.json:
@@ -129,8 +135,8 @@ def _construct(args) -> int:
 
 
 def _centres(args) -> int:
-    from . import centres
-    from .instantaneous.text import centres_json, centres_table
+    from kinematics import centres
+    from kinematics.instantaneous.text import centres_json, centres_table
 
     result = centres(solve(load_mechanism(args.file), args.angle))
     _emit(json.dumps(centres_json(result), indent=1) if args.json else centres_table(result), args.output)
@@ -138,8 +144,8 @@ def _centres(args) -> int:
 
 
 def _sweep(args) -> int:
-    from .cycle.peaks import peaks
-    from .cycle.sweep import sweep, sweep_csv
+    from kinematics.cycle.peaks import peaks
+    from kinematics.cycle.sweep import sweep, sweep_csv
 
     result = sweep(load_mechanism(args.file), args.steps)
     _require_finite({k: v for k, v in vars(result).items() if k != "mechanism"}, args.file)
@@ -156,50 +162,104 @@ def _sweep(args) -> int:
     return 0
 
 
-def _parser():
-    parser = argparse.ArgumentParser(prog="kinepoly", description="Velocity and acceleration polygons of planar "
-                                     "linkages, built by exact graphical construction.")
-    sub = parser.add_subparsers(dest="command", required=True)
+def _export(args) -> int:
+    from kinematics.drawing.dxf import write_dxf
+
+    write_dxf(construction_from_file(args.file, args.angle), args.output, file_name=Path(args.file).name)
+    return 0
+
+
+def _with_qt(module: str):
+    """A handler that imports ``module`` (which imports Qt) only when its verb runs."""
+    def handler(args) -> int:
+        return importlib.import_module(module).run(args)
+    return handler
+
+
+def _file_and_angle(parser, what="the file's pose"):
+    parser.add_argument("file", help="mechanism file (JSON)")
+    parser.add_argument("--angle", type=finite_angle, default=None, metavar="DEG",
+                        help=f"driver angle in degrees, counter-clockwise from +x (default: {what})")
+
+
+def parser() -> argparse.ArgumentParser:
+    """The one parser of ``kinepoly VERB ...``; each verb's ``handler`` takes the parsed arguments."""
+    top = argparse.ArgumentParser(prog="kinepoly", description="Velocity and acceleration polygons of planar "
+                                  "linkages, built by exact graphical construction. Without a verb, "
+                                  "kinepoly [FILE] opens the drafting window.")
+    sub = top.add_subparsers(dest="command", required=True)
     check = sub.add_parser("check", help="mobility, Grashof, transmission angle, limit positions")
-    check.add_argument("file")
-    for name, helptext in (("solve", "positions, velocities, accelerations at one driver angle"),
-                           ("construct", "the polygon construction steps in words")):
+    check.add_argument("file", help="mechanism file (JSON)")
+    check.set_defaults(handler=_check)
+    for name, helptext, handler in (("solve", "positions, velocities, accelerations at one driver angle", _solve),
+                                    ("construct", "the polygon construction steps in words", _construct),
+                                    ("centres", "instantaneous centres by Kennedy's theorem and their velocity check",
+                                     _centres)):
         p = sub.add_parser(name, help=helptext)
-        p.add_argument("file")
-        p.add_argument("--angle", type=finite_angle, default=None,
-                       help="driver angle in degrees (default: the file's pose)")
+        _file_and_angle(p)
         p.add_argument("--json", action="store_true", help="machine-readable output in SI units")
         p.add_argument("-o", "--output", type=output_name, help="write to this file instead of the screen")
         if name == "solve":
             p.add_argument("--csv", action="store_true", help="the results table as CSV (SI units)")
-    ce = sub.add_parser("centres", help="instantaneous centres by Kennedy's theorem and their velocity check")
-    ce.add_argument("file")
-    ce.add_argument("--angle", type=float, default=None, help="driver angle in degrees (default: the file's pose)")
-    ce.add_argument("--json", action="store_true", help="machine-readable output in SI units")
-    ce.add_argument("-o", "--output", help="write to this file instead of the screen")
+        p.set_defaults(handler=handler)
     sw = sub.add_parser("sweep", help="one driver turn: CSV of every pose, or the peaks table")
-    sw.add_argument("file")
-    sw.add_argument("--steps", type=int, default=360)
+    sw.add_argument("file", help="mechanism file (JSON)")
+    sw.add_argument("--steps", type=int, default=360, help="poses in the turn (default 360)")
     sw.add_argument("--peaks", action="store_true", help="print the peaks table")
     sw.add_argument("--json", action="store_true", help="peaks and CSV as JSON")
     sw.add_argument("-o", "--output", type=output_name, help="write to this file instead of the screen")
-    return parser
+    sw.set_defaults(handler=_sweep)
+    ex = sub.add_parser("export", help="the space diagram (true size, mm) and both polygons as DXF")
+    _file_and_angle(ex, "the reference pose")
+    ex.add_argument("-o", "--output", type=output_name, required=True, help="DXF file to write")
+    ex.set_defaults(handler=_export)
+    rd = sub.add_parser("render", help="the window's three views as a PNG, without a screen")
+    _file_and_angle(rd, "the reference pose")
+    rd.add_argument("-o", "--output", type=output_name, required=True, help="PNG file to write")
+    rd.add_argument("--size", type=parse_size, default=(1600, 1000), help="WIDTHxHEIGHT pixels (1600x1000)")
+    rd.set_defaults(handler=_with_qt("app.render"))
+    pr = sub.add_parser("print", help="the construction at true scale on an ISO 216 sheet, as PDF")
+    _file_and_angle(pr, "the reference pose")
+    pr.add_argument("--paper", choices=sorted(PAPER), default="A4", help="ISO 216 sheet (default A4)")
+    pr.add_argument("--landscape", action="store_true", help="landscape instead of portrait")
+    pr.add_argument("-o", "--output", type=output_name, required=True, help="PDF file to write")
+    pr.set_defaults(handler=_with_qt("app.printing"))
+    rp = sub.add_parser("report", help="the design-review report: one PDF of the whole analysis")
+    rp.add_argument("file", help="mechanism file (JSON)")
+    rp.add_argument("-o", "--output", type=output_name, default=None,
+                    help="PDF file to write (default: FILE's name + .review.pdf)")
+    rp.add_argument("--paper", choices=("A4", "A3"), default="A4", help="ISO 216 size of every page")
+    rp.add_argument("--steps", type=int, default=3600, help="poses in the cycle's sweep (default 3600)")
+    rp.add_argument("--angles", type=review_angles, default=None, metavar="DEG,DEG,...",
+                    help="analysis angles (default: the file's analysis_angles_deg, else the reference pose)")
+    rp.set_defaults(handler=_with_qt("app.review"))
+    return top
 
 
-COMMANDS = {"check": _check, "solve": _solve, "construct": _construct, "sweep": _sweep, "centres": _centres}
+VERBS = ("check", "solve", "construct", "centres", "sweep", "export", "render", "print", "report")
+# What ``kinepoly --help`` shows: one line a verb (a test keeps it in step with the parser).
+USAGE = """usage: kinepoly [FILE]                 open the drafting window (on FILE)
+       kinepoly check FILE              mobility, Grashof, transmission angle, limit positions
+       kinepoly solve FILE [--angle DEG] [--json | --csv]
+       kinepoly construct FILE [--angle DEG] [--json]
+       kinepoly centres FILE [--angle DEG] [--json]
+       kinepoly sweep FILE [--steps N] [-o cycle.csv] [--peaks] [--json]
+       kinepoly render FILE [--angle DEG] -o view.png [--size 1600x1000]
+       kinepoly print FILE [--angle DEG] [--paper A3] [--landscape] -o sheet.pdf
+       kinepoly export FILE [--angle DEG] -o drawing.dxf
+       kinepoly report FILE [-o review.pdf] [--paper A4|A3] [--steps N] [--angles 30,150,...]
+Each command takes --help. Exit codes: 0 ok, 1 output not written, 2 bad file or findings,
+3 cannot assemble at that angle."""
 
 
-def main(argv=None) -> int:
-    argv = list(sys.argv[1:] if argv is None else argv)
-    if argv and argv[0] == "export":
-        from .drawing.dxf import main as export_main
-
-        return export_main(argv[1:])
-    args = _parser().parse_args(joined_numbers(argv))
-    outcome = []
-    code = run_reporting(lambda: outcome.append(COMMANDS[args.command](args)))
-    return code or outcome[0]
-
-
-if __name__ == "__main__":
-    sys.exit(main())
+def main(argv) -> int:
+    """Run ``kinepoly VERB ...``: the exit code (see the module doc)."""
+    try:
+        args = parser().parse_args(joined_numbers(argv))
+    except SystemExit as stop:  # argparse has said what is wrong (or printed --help)
+        return stop.code if isinstance(stop.code, int) else 2
+    if args.handler in (_check, _solve, _construct, _centres, _sweep, _export):
+        outcome = []
+        code = run_reporting(lambda: outcome.append(args.handler(args)))
+        return code or outcome[0]
+    return args.handler(args)
