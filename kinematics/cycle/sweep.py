@@ -318,8 +318,9 @@ def verify_sweep(result: Sweep, branch_step_deg: float = 10.0) -> dict:
     return worst
 
 
-def sweep_csv(result: Sweep) -> str:
-    """One row per swept pose, SI units in the headers, numbers at full double precision."""
+def sweep_csv(result: Sweep, extra: tuple = ((), ())) -> str:
+    """One row per swept pose, SI units in the headers, numbers at full double precision;
+    ``extra`` (headers, columns) adds columns after the kinematic ones (the forces')."""
     mech = result.mechanism
     header = ["driver_angle_deg"]
     columns = [result.driver_angle_deg]
@@ -335,6 +336,8 @@ def sweep_csv(result: Sweep) -> str:
     for slide in mech.slides:
         header += [f"{slide}.sliding_velocity [m/s]", f"{slide}.sliding_acceleration [m/s^2]"]
         columns += [result.sliding_velocity[slide], result.sliding_acceleration[slide]]
+    header += list(extra[0])
+    columns += list(extra[1])
     table = np.column_stack(columns)
     rows = [",".join(header)] + [",".join(repr(float(v)) for v in row) for row in table]
     return "\n".join(rows) + "\n"
