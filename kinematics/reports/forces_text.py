@@ -56,7 +56,7 @@ def _size(v) -> tuple[float, float]:
     return math.hypot(v[0], v[1]), direction_deg(v[0], v[1])
 
 
-def _shown(value: float, scale: float) -> float:
+def shown_value(value: float, scale: float) -> float:
     """``value`` as a table shows it: 0 below :data:`NEGLIGIBLE` of the pose's largest value of its
     kind (``scale``), the rounding of the linear solve (a couple of 1e-33 N·m, a force of -0.00 N)."""
     return 0.0 if abs(value) <= NEGLIGIBLE * scale else float(value)
@@ -75,7 +75,7 @@ def forces_table(result: Forces) -> str:
     """The forces of one pose for people: N and N·m, directions in degrees from +x counter-clockwise."""
     mech = result.mechanism
     force_scale, couple_scale = _scales(result)
-    torque = _shown(result.drive_torque_n_m, couple_scale)
+    torque = shown_value(result.drive_torque_n_m, couple_scale)
     lines = [f"{mech.title or 'Mechanism'} — forces with driver {mech.driver.link} at {result.driver_angle_deg:.2f}°, "
              f"{mech.driver.speed_value} {mech.driver.speed_unit}; {FRICTIONLESS}",
              "", f"drive torque on {mech.driver.link}: {torque:.4g} N·m {sense(torque)}",
@@ -83,13 +83,13 @@ def forces_table(result: Forces) -> str:
     for point, by_link in result.joints_n.items():
         for link, f in by_link.items():
             size, angle = _size(f)
-            fx, fy = (_shown(c, force_scale) for c in f)
+            fx, fy = (shown_value(c, force_scale) for c in f)
             lines.append(f"{point:<8}{link:<12}{pinned_to(mech, point, link):<12}{fx:>11.2f}{fy:>11.2f}"
                          f"{size:>11.2f}{angle:>9.1f}")
     if result.slides:
         lines += ["", f"{'slide':<12}{'block':<8}{'normal [N]':>12}{'Fx [N]':>11}{'Fy [N]':>11}"]
         for name, s in result.slides.items():
-            normal, fx, fy = (_shown(c, force_scale) for c in (s.normal_n, *s.force_n))
+            normal, fx, fy = (shown_value(c, force_scale) for c in (s.normal_n, *s.force_n))
             lines.append(f"{name:<12}{mech.slides[name].point:<8}{normal:>12.2f}{fx:>11.2f}{fy:>11.2f}")
         lines.append("(normal: on the block, along the guide line's left normal)")
     if result.inertia:
@@ -97,10 +97,11 @@ def forces_table(result: Forces) -> str:
         for link, i in result.inertia.items():
             size, angle = _size(i.force_n)
             offset = f"{i.offset_m * 1e3:>13.2f}" if math.isfinite(i.offset_m) else f"{'(couple)':>13}"
-            lines.append(f"{link:<12}{size:>11.2f}{angle:>9.1f}{_shown(i.couple_n_m, couple_scale):>14.4g}{offset}")
+            couple = shown_value(i.couple_n_m, couple_scale)
+            lines.append(f"{link:<12}{size:>11.2f}{angle:>9.1f}{couple:>14.4g}{offset}")
     shaking, angle = _size(result.shaking_force_n)
     lines += ["", f"shaking force {shaking:.2f} N at {angle:.1f}°, shaking moment "
-              f"{_shown(result.shaking_moment_n_m, couple_scale):.4g} N·m about {mech.driver.pivot}"]
+              f"{shown_value(result.shaking_moment_n_m, couple_scale):.4g} N·m about {mech.driver.pivot}"]
     balance = result.power_balance
     lines.append(f"power balance: drive power {balance.drive_power_w:.4g} W; drive torque by virtual work "
                  f"{balance.drive_torque_n_m:.4g} N·m, relative difference {balance.relative_difference:.1e}")
@@ -133,13 +134,16 @@ def summary_text(summary: DriveSummary, result: ForceSweep) -> str:
     """The drive and bearing summary for people."""
     mech = result.mechanism
     rpm = summary.speed_rad_s * 60 / (2 * math.pi)
+    # A mean of a periodic torque with no loads is 0 to rounding (1e-16 N·m): shown as 0.
+    mean_torque = shown_value(summary.mean_torque_n_m, abs(summary.peak_torque_n_m))
+    mean_power = shown_value(summary.mean_power_w, abs(summary.peak_power_w))
     lines = [f"{mech.title or 'Mechanism'} — drive and bearings over one turn of {mech.driver.link} at "
              f"{rpm:.4g} rpm ({summary.speed_rad_s:.4g} rad/s), {len(result.driver_angle_deg)} poses; {FRICTIONLESS}",
              "",
              f"peak drive torque   {summary.peak_torque_n_m:.4g} N·m at {turn(summary.peak_torque_angle_deg, 1):.1f}°",
-             f"mean drive torque   {summary.mean_torque_n_m:.4g} N·m",
+             f"mean drive torque   {mean_torque:.4g} N·m",
              f"RMS drive torque    {summary.rms_torque_n_m:.4g} N·m",
-             f"mean drive power    {summary.mean_power_w:.4g} W",
+             f"mean drive power    {mean_power:.4g} W",
              f"peak drive power    {summary.peak_power_w:.4g} W",
              f"energy fluctuation  ΔE = {summary.energy_fluctuation_j:.4g} J",
              f"flywheel            I = ΔE/(C_s·ω²) = {summary.flywheel_inertia_kg_m2:.4g} kg·m² for "
