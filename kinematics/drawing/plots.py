@@ -103,8 +103,9 @@ def _value_range(plot: Plot, axis: str = "y") -> tuple:
         half = 0.1 * largest if largest > 1e-9 else 1.0
         return low - half, high + half
     room = MARGIN_SHARE * (high - low)
-    # A quantity that is never negative (a size |v|, an angle) keeps its axis from zero up.
-    bottom = low - room if low < 0.0 else max(0.0, low - room)
+    # A quantity that is never negative (a size |v|, an angle) keeps its axis from zero up; a polar
+    # plot has room around its origin, so that its zero lines clear the frame.
+    bottom = low - room if low < 0.0 or plot.polar else max(0.0, low - room)
     return bottom, high + room
 
 
@@ -162,8 +163,7 @@ def draw_plot(rec: Recorder, box, plot: Plot, view: str = "plot") -> None:
         xs = np.concatenate([np.asarray(c.x, dtype=float) for c in plot.curves])
         low_x, high_x = float(np.nanmin(xs)), float(np.nanmax(xs))
     fixed = plot.x_range is not None
-    across = min(right - left, height_guess) if plot.polar else right - left  # a polar plot ends up square-ish
-    x_ticks = ticks(low_x, high_x, max(2, int(across / TICK_SPACING_MM)), inside=fixed)
+    x_ticks = ticks(low_x, high_x, max(2, int((right - left) / TICK_SPACING_MM)), inside=fixed)
     x_step = x_ticks[1] - x_ticks[0]
     xa, xb = (low_x, high_x) if fixed else (x_ticks[0], x_ticks[-1])
     ya, yb = y_ticks[0], y_ticks[-1]
@@ -172,6 +172,11 @@ def draw_plot(rec: Recorder, box, plot: Plot, view: str = "plot") -> None:
         middle_x, middle_y = 0.5 * (left + right), 0.5 * (area_top + area_bottom)
         left, right = middle_x - 0.5 * (xb - xa) / per_mm, middle_x + 0.5 * (xb - xa) / per_mm
         area_bottom, area_top = middle_y - 0.5 * (yb - ya) / per_mm, middle_y + 0.5 * (yb - ya) / per_mm
+        # Ticks again for the area as it now is, within the same ends, so that their labels stay apart.
+        x_ticks = ticks(xa, xb, max(2, int((right - left) / TICK_SPACING_MM)), inside=True)
+        y_ticks = ticks(ya, yb, max(2, int((area_top - area_bottom) / TICK_SPACING_MM)), inside=True)
+        x_step, y_step = x_ticks[1] - x_ticks[0], y_ticks[1] - y_ticks[0]
+        y_labels = [tick_label(v, y_step) for v in y_ticks]
 
     def to_sheet(x, y):
         return (left + (x - xa) * (right - left) / (xb - xa),
