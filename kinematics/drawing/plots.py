@@ -152,7 +152,6 @@ def draw_plot(rec: Recorder, box, plot: Plot, view: str = "plot") -> None:
     y_step = y_ticks[1] - y_ticks[0]
     y_labels = [tick_label(v, y_step) for v in y_ticks]
     left = x0 + max(text_width(t, SMALL) for t in y_labels) + TICK + 1.5
-    rec.add(Text(position=(x0, top - SMALL), text=plot.y_label, height=SMALL, pen=ANNOTATION, **ids))
     area_top, area_bottom = top - 2.2 * SMALL, y0 + 4.6 * SMALL
     right = x1 - 0.5 * text_width(tick_label(0, 1), SMALL) - 2.0
     if plot.x_range is not None:
@@ -177,6 +176,7 @@ def draw_plot(rec: Recorder, box, plot: Plot, view: str = "plot") -> None:
         y_ticks = ticks(ya, yb, max(2, int((area_top - area_bottom) / TICK_SPACING_MM)), inside=True)
         x_step, y_step = x_ticks[1] - x_ticks[0], y_ticks[1] - y_ticks[0]
         y_labels = [tick_label(v, y_step) for v in y_ticks]
+    rec.add(Text(position=(x0, area_top + 1.2 * SMALL), text=plot.y_label, height=SMALL, pen=ANNOTATION, **ids))
 
     def to_sheet(x, y):
         return (left + (x - xa) * (right - left) / (xb - xa),
