@@ -39,9 +39,14 @@ def _two(mech, points) -> tuple:
     return first, next(p for p in points if mech.points[p] != mech.points[first])
 
 
+# A force below this (N) is none: the inertia is then a pure couple.
+NO_FORCE_N = 1e-100
+
+
 def inertia_offset(force: complex, couple: float) -> complex:
     """r with cross(r, F) = C, perpendicular to F: r = −i·C·F/|F|² (|r| = |C|/|F| = I·|α|/(m·|a_G|))."""
-    return -1j * couple * force / abs(force) ** 2
+    size = abs(force)
+    return -1j * couple * (force / size) / size
 
 
 def centre_images(construction: Construction, pos: dict, acc: dict) -> tuple:
@@ -82,7 +87,7 @@ def known_loads(construction: Construction, state: ForceState, acc: dict) -> tup
         m, inertia = entry.mass_kg, entry.inertia_kg_m2
         force, couple = -m * image, -inertia * alphas[link][0]
         body = ("link", link)
-        if force != 0:
+        if abs(force) > NO_FORCE_N:
             offset = inertia_offset(force, couple)
             state.add(body, Applied(force, centre + offset, f"Fᵢ({link})", Component.INERTIA,
                                     f"inertia of {link}, −m·a_G with m = {figure(m)} kg, moved off G by h = "
