@@ -227,3 +227,31 @@ def test_random_blocks_on_a_turning_guide(rpm, alpha, share, angle, draw, block)
 def test_random_groups_that_are_no_dyad(angle, draw, rpm):
     design = {**TRIAD_PRESS, "driver": {**TRIAD_PRESS["driver"], "speed": {"value": rpm, "unit": "rpm"}}}
     _agrees(_random_mass(load(design), draw + draw[:1], GRAVITY, [], {}), angle)
+
+
+def test_the_command_line_gives_the_force_steps_in_words_and_as_json(monkeypatch, capsys):
+    import json
+
+    import app.cli as cli
+
+    mech = _massive(load(slider_crank(40, 160, 10, 30)))
+    monkeypatch.setattr(cli, "load_mechanism", lambda path: mech)
+    assert cli.main(["construct", "press.json", "--forces", "--angle", "40"]) == 0
+    words = capsys.readouterr().out
+    assert "force polygon (scale" in words and "drive torque" in words and "F(frame→block D)" in words
+    assert cli.main(["construct", "press.json", "--forces", "--json"]) == 0
+    data = json.loads(capsys.readouterr().out)
+    assert data["force"]["unit"] == "N" and data["force"]["scale_per_mm"] > 0
+    assert set(data["force"]) == {"unit", "scale_per_mm", "images", "marks", "steps"}
+    assert data["crosscheck"]["max_relative_difference"] <= TOLERANCE
+    assert data["joints_n"]["A"]["rod"] and data["drive_torque_n_m"] == pytest.approx(
+        forces(kinematics.solve(mech)).drive_torque_n_m, rel=1e-9)
+
+
+def test_the_command_line_names_missing_mass_data(tmp_path, capsys):
+    import app.cli as cli
+
+    path = tmp_path / "lever.json"
+    path.write_text(kinematics.dumps(load(SWING_LEVER)))
+    assert cli.main(["construct", str(path), "--forces"]) == 2
+    assert "masses" in capsys.readouterr().err
