@@ -13,7 +13,7 @@ group that is no dyad (marked numeric), never by the construction of a dyad.
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 from types import MappingProxyType
 
 from ..dynamics import Forces, forces
@@ -105,7 +105,7 @@ def force_polygon(construction: Construction, numeric: Forces | None = None, box
                         drive_torque_n_m=float(state.torque_n_m), max_relative_difference=0.0, where="",
                         warnings=tuple(warnings))
     worst, where = crosscheck(made, numeric)
-    return ForcePolygon(**{**made.__dict__, "max_relative_difference": worst, "where": where})
+    return replace(made, max_relative_difference=worst, where=where)
 
 
 def crosscheck(made: ForcePolygon, numeric: Forces) -> tuple:

@@ -26,7 +26,7 @@ def angular_accelerations(construction: Construction, pos: dict, acc: dict) -> d
             found[c.link] = (cross(r, complex(*c.vector)) / abs(r) ** 2,
                              f"from the tangential component, step {c.step}")
     decomposition = construction.decomposition
-    found.setdefault(decomposition.driver_link, (0.0, "no tangential component on the polygon"))
+    found.setdefault(decomposition.driver_link, (0.0, "is 0: the polygon lays no tangential component"))
     mech = construction.solution.mechanism
     for group in decomposition.groups:
         for link in group.links:
@@ -90,7 +90,7 @@ def known_loads(construction: Construction, state: ForceState, acc: dict) -> tup
     for link, entry in data.masses.items():
         centre, image = centres[link]
         m, inertia = entry.mass_kg, entry.inertia_kg_m2
-        force, couple = -m * image, -inertia * alphas[link][0]
+        force, couple = -m * image, -inertia * alphas[link][0] + 0.0  # + 0.0: no "−0" in the words
         body = ("link", link)
         if abs(force) > NO_FORCE_N:
             offset = inertia_offset(force, couple)
