@@ -183,7 +183,7 @@ def _sweep(args) -> int:
     extra = ((), ())
     if args.forces:
         from kinematics.dynamics import sweep_forces
-        from kinematics.reports.forces_text import force_columns
+        from kinematics.reports.forces_tables import force_columns
 
         extra = force_columns(sweep_forces(result))
         _require_finite(dict(zip(*extra, strict=True)), args.file)
@@ -202,7 +202,7 @@ def _sweep(args) -> int:
 
 def _forces(args) -> int:
     from kinematics.dynamics import forces, sweep_forces
-    from kinematics.reports import forces_text
+    from kinematics.reports import forces_tables
 
     if args.cycle and args.angle is not None:
         raise KinematicsError("--angle is for one pose; --cycle sweeps the whole turn: choose one")
@@ -216,15 +216,15 @@ def _forces(args) -> int:
 
         result = sweep_forces(sweep(mech, 360 if args.steps is None else args.steps))
         summary = drive_summary(result, DEFAULT_FLUCTUATION if args.fluctuation is None else args.fluctuation)
-        document = forces_text.summary_json(summary, result)
+        document = forces_tables.summary_json(summary, result)
         _require_finite(document, args.file)
         text = json.dumps(document, indent=1) if args.json else \
-            forces_text.summary_text(summary, result) + f"\n\n{CAUTION}"
+            forces_tables.summary_text(summary, result) + f"\n\n{CAUTION}"
     else:
         result = forces(solve(mech, args.angle))
-        document = forces_text.forces_json(result)
+        document = forces_tables.forces_json(result)
         _require_finite(document, args.file)
-        text = json.dumps(document, indent=1) if args.json else forces_text.forces_table(result) + f"\n\n{CAUTION}"
+        text = json.dumps(document, indent=1) if args.json else forces_tables.forces_table(result) + f"\n\n{CAUTION}"
     _emit(text, args.output)
     return 0
 

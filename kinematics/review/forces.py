@@ -13,7 +13,7 @@ from ..drawing.plots import Curve, Plot
 from ..dynamics import DEFAULT_FLUCTUATION, FRICTIONLESS, drive_summary, sweep_forces
 from ..errors import KinematicsError, SweepCancelled
 from ..reports.caution import CAUTION
-from ..reports.forces_text import pinned_to, shown_value, summary_text
+from ..reports.forces_tables import pinned_to, shown_value, summary_text
 from .base import Progress, Review, Section
 from .cycle import ANGLE, abscissa, analysis_marks, plot_page
 
