@@ -11,9 +11,8 @@ import numpy as np
 import pytest
 
 from kinematics.cycle import sweep as sweep_module
+from kinematics.cycle.sweep import CHANGE_POINT_BATCH, CHANGE_POINT_ROUNDS, CHANGE_POINT_SUSPECTS, PROBE_STEPS, sweep
 from kinematics.errors import ParallelLines
-from kinematics.cycle.sweep import (CHANGE_POINT_BATCH, CHANGE_POINT_ROUNDS, CHANGE_POINT_SUSPECTS, PROBE_STEPS,
-                                    sweep)
 from tests.designs import four_bar, load
 
 
