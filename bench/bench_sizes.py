@@ -28,46 +28,13 @@ import time
 from pathlib import Path
 
 ROOT = Path(__file__).resolve().parents[1]
+sys.path.insert(0, str(ROOT))
+
+from tests.designs import many_links, one_link  # noqa: E402
+
 VERBS = {"check": [], "solve": ["--json"], "construct": ["--json"], "centres": ["--json"],
          "sweep": ["-o", "{out}.csv"], "render": ["-o", "{out}.png"], "print": ["-o", "{out}.pdf"],
          "export": ["-o", "{out}.dxf"]}
-
-
-def _base():
-    """Crank 20, coupler 60, rocker 45, frame 55 (mm), crank at 60°: a crank-rocker (20 + 60 < 45 + 55)."""
-    a, b, c, d, t = 20.0, 60.0, 45.0, 55.0, math.radians(60.0)
-    ax, ay = a * math.cos(t), a * math.sin(t)
-    ex, ey = d - ax, -ay
-    dist = math.hypot(ex, ey)
-    phi = math.atan2(ey, ex) + math.acos((b * b + dist * dist - c * c) / (2 * b * dist))
-    points = {"O2": [0.0, 0.0], "A": [ax, ay], "B": [ax + b * math.cos(phi), ay + b * math.sin(phi)], "O4": [d, 0.0]}
-    return {"kinepoly": 1, "length_unit": "mm", "points": points, "ground": ["O2", "O4"],
-            "links": {"crank": ["O2", "A"], "coupler": ["A", "B"], "rocker": ["O4", "B"]},
-            "driver": {"link": "crank", "pivot": "O2", "speed": {"value": 60, "unit": "rpm"}}}
-
-
-def one_link(size: int) -> dict:
-    design = _base()
-    for i in range(size - 4):
-        angle = 2 * math.pi * i / max(size - 4, 1)
-        design["points"][f"P{i}"] = [30 + 15 * math.cos(angle), 60 + 15 * math.sin(angle)]
-        design["links"]["coupler"].append(f"P{i}")
-    return design
-
-
-def many_links(size: int) -> dict:
-    design = _base()
-    last = "B"
-    for i in range((size - 4) // 2):
-        lx, ly = design["points"][last]
-        # A long binary link to the right and a long one down to a pivot: the chain assembles all turn.
-        design["points"][f"D{i}"] = [lx + 200.0, ly]
-        design["points"][f"G{i}"] = [lx + 200.0, ly - 200.0]
-        design["ground"].append(f"G{i}")
-        design["links"][f"r{i}"] = [last, f"D{i}"]
-        design["links"][f"s{i}"] = [f"G{i}", f"D{i}"]
-        last = f"D{i}"
-    return design
 
 
 SAMPLE = ROOT / "samples" / "label-swing-arm.json"
@@ -102,7 +69,6 @@ def time_verb(verb: str, path: Path, out: Path, timeout: float) -> tuple:
 
 
 def _child(verb: str, path: str, out: str) -> int:
-    sys.path.insert(0, str(ROOT))
     _run_in_process(verb, SAMPLE, Path(out))  # warm: imports, fonts, Qt's first paint
     seconds, code = _run_in_process(verb, Path(path), Path(out))
     print(seconds, code)

@@ -9,6 +9,7 @@ from dataclasses import dataclass
 import numpy as np
 
 from ..errors import MechanismFindings
+from ..model.limits import beyond_limits
 from ..model.mechanism import GROUND, Mechanism
 from ..model.memo import remembered
 from .constraints import constraint_system
@@ -148,6 +149,9 @@ def _too_small(mech: Mechanism) -> list:
 
 
 def _diagnose(mech: Mechanism) -> list:
+    place, why = beyond_limits(len(mech.points), len(mech.links), len(mech.slides))
+    if why:  # a design built in code, past the limits the file format keeps
+        return [Finding(place, why)]
     findings = _too_small(mech)
     if findings:
         return findings
