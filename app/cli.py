@@ -68,6 +68,24 @@ def construction_json(construction) -> dict:
             "warnings": list(construction.warnings)}
 
 
+def force_polygon_json(made) -> dict:
+    """The force polygon in the kinematic polygons' structure (``unit`` "N", ``scale_per_mm``), each
+    step with its place in the space diagram (m), and the forces it finds, SI."""
+    polygon = _polygon_json(made.polygon)
+    for entry, step in zip(polygon["steps"], made.polygon.steps, strict=True):
+        entry["space"] = [list(xy) for xy in step.space]
+    return {"kinepoly_force_polygon": 1, "driver_angle_deg": made.construction.solution.driver_angle_deg,
+            "notation": "F(a→b) is the force of a on b",
+            "centre_images": [{"id": s.id, "label": s.label, "link": s.links[0], "acceleration": list(s.coords[0]),
+                               "text": s.text} for s in made.centre_images],
+            "angular_acceleration_rad_s2": dict(made.angular_accelerations),
+            "force": polygon,
+            "joints_n": {p: {k: list(f) for k, f in by.items()} for p, by in made.joints_n.items()},
+            "slides_normal_n": dict(made.normals_n), "drive_torque_n_m": made.drive_torque_n_m,
+            "crosscheck": {"max_relative_difference": made.max_relative_difference, "where": made.where},
+            "warnings": list(made.warnings)}
+
+
 def _non_finite(value, path: str = "") -> str:
     """The JSON path of the first NaN or infinite number in ``value`` ("" when there is none)."""
     if isinstance(value, (float, np.floating)):
@@ -126,6 +144,16 @@ def _solve(args) -> int:
 
 def _construct(args) -> int:
     construction = construct(solve(load_mechanism(args.file), args.angle))
+    if args.forces:
+        from kinematics.forcepolygon import force_polygon
+        from kinematics.reports.force_text import force_polygon_text
+
+        made = force_polygon(construction)
+        result = force_polygon_json(made)
+        _require_finite(result, args.file)
+        _emit(json.dumps(result, indent=1, ensure_ascii=False) if args.json else force_polygon_text(made),
+              args.output)
+        return 0
     _require_finite(construction_json(construction), args.file)
     if args.json:
         _emit(json.dumps(construction_json(construction), indent=1), args.output)
@@ -201,6 +229,9 @@ def parser() -> argparse.ArgumentParser:
         p.add_argument("-o", "--output", type=output_name, help="write to this file instead of the screen")
         if name == "solve":
             p.add_argument("--csv", action="store_true", help="the results table as CSV (SI units)")
+        if name == "construct":
+            p.add_argument("--forces", action="store_true",
+                           help="the force polygon instead: joint forces and drive torque from the mass data")
         p.set_defaults(handler=handler)
     sw = sub.add_parser("sweep", help="one driver turn: CSV of every pose, or the peaks table")
     sw.add_argument("file", help="mechanism file (JSON)")
@@ -241,7 +272,7 @@ VERBS = ("check", "solve", "construct", "centres", "sweep", "export", "render", 
 USAGE = """usage: kinepoly [FILE]                 open the drafting window (on FILE)
        kinepoly check FILE              mobility, Grashof, transmission angle, limit positions
        kinepoly solve FILE [--angle DEG] [--json | --csv]
-       kinepoly construct FILE [--angle DEG] [--json]
+       kinepoly construct FILE [--angle DEG] [--forces] [--json]
        kinepoly centres FILE [--angle DEG] [--json]
        kinepoly sweep FILE [--steps N] [-o cycle.csv] [--peaks] [--json]
        kinepoly render FILE [--angle DEG] -o view.png [--size 1600x1000]
