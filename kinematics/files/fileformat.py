@@ -24,6 +24,7 @@ from dataclasses import replace
 from pathlib import Path
 
 from ..errors import FileFormatError
+from ..model.limits import beyond_limits
 from ..model.mechanism import GROUND, Driver, Mechanism, Slide, slide_offset
 from ..model.units import METRES_PER_LENGTH_UNIT
 from .fileschema import check_structure, format_version, written_version
@@ -316,6 +317,10 @@ def mechanism_from_document(doc: dict, where: str = "") -> Mechanism:
         _refuse("a mechanism file holds one JSON object", where, "structure")
     _refuse_lone_surrogates(doc)
     check_structure(doc, format_version(doc))
+    # Before any check that grows with the design, so that a huge one is refused at once.
+    place, why = beyond_limits(len(doc["points"]), len(doc["links"]), len(doc.get("slides", {})))
+    if why:
+        _refuse(why, place, "size")
     _check_names_differ(doc)
     points = {k: tuple(v) for k, v in doc["points"].items()}
     ground = doc.get("ground", [])
