@@ -32,12 +32,14 @@ def _solution_json(solution) -> dict:
     names = solution.point_names
     return {
         "kinepoly_result": 1, "driver_angle_deg": solution.driver_angle_deg,
-        "units": {"length": "m", "velocity": "m/s", "acceleration": "m/s^2", "angular_velocity": "rad/s",
-                  "angular_acceleration": "rad/s^2"},
+        "units": {"length": "m", "velocity": "m/s", "acceleration": "m/s^2", "jerk": "m/s^3",
+                  "angular_velocity": "rad/s", "angular_acceleration": "rad/s^2", "angular_jerk": "rad/s^3"},
         "points": {n: {"position": solution.positions[i].tolist(), "velocity": solution.velocities[i].tolist(),
-                       "acceleration": solution.accelerations[i].tolist()} for i, n in enumerate(names)},
+                       "acceleration": solution.accelerations[i].tolist(), "jerk": solution.jerks[i].tolist()}
+                   for i, n in enumerate(names)},
         "links": {k: {"angle_deg": solution.link_angle_deg[k], "angular_velocity": solution.angular_velocity[k],
-                      "angular_acceleration": solution.angular_acceleration[k]} for k in solution.link_angle_deg},
+                      "angular_acceleration": solution.angular_acceleration[k],
+                      "angular_jerk": solution.angular_jerk[k]} for k in solution.link_angle_deg},
         "slides": {k: {"point": solution.mechanism.slides[k].point,
                        "sliding_velocity": solution.sliding_velocity[k],
                        "sliding_acceleration": solution.sliding_acceleration[k]} for k in solution.sliding_velocity},

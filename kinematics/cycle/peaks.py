@@ -16,6 +16,8 @@ def _trimmed(result: Sweep, kept: slice) -> Sweep:
 
     return replace(result, driver_angle_deg=result.driver_angle_deg[kept], positions=result.positions[kept],
                    velocities=result.velocities[kept], accelerations=result.accelerations[kept],
+                   jerks=result.jerks[kept], angular_jerk=cut(result.angular_jerk),
+                   sliding_jerk=cut(result.sliding_jerk),
                    link_angle_deg=cut(result.link_angle_deg), angular_velocity=cut(result.angular_velocity),
                    angular_acceleration=cut(result.angular_acceleration),
                    sliding_velocity=cut(result.sliding_velocity),
@@ -31,8 +33,8 @@ def _at(values, angles):
 def peaks(result: Sweep) -> dict:
     """Peaks table of a sweep, SI units, angles in degrees of driver angle.
 
-    ``points``: name -> max |v| (m/s), max |a| (m/s²) and where; ``links``: max
-    |ω|, |α|; ``slides``: max |sliding velocity|, |sliding acceleration|;
+    ``points``: name -> max |v| (m/s), max |a| (m/s²), max |j| (m/s³) and where; ``links``: max
+    |ω|, |α|, |α̇|; ``slides``: max |sliding velocity|, |sliding acceleration|;
     ``transmission``: minimum angle and where; ``output``: limit positions,
     travel and time ratio; ``velocity_ratio``: output rate over driver speed,
     its extremes over the cycle.
@@ -48,13 +50,16 @@ def peaks(result: Sweep) -> dict:
     for i, name in enumerate(result.point_names):
         speed, at_v = _at(np.linalg.norm(result.velocities[:, i], axis=1), angles)
         accel, at_a = _at(np.linalg.norm(result.accelerations[:, i], axis=1), angles)
-        points[name] = {"max_speed": speed, "at_deg": at_v, "max_acceleration": accel, "acceleration_at_deg": at_a}
+        jerk, at_j = _at(np.linalg.norm(result.jerks[:, i], axis=1), angles)
+        points[name] = {"max_speed": speed, "at_deg": at_v, "max_acceleration": accel, "acceleration_at_deg": at_a,
+                        "max_jerk": jerk, "jerk_at_deg": at_j}
     links = {}
     for link in mech.links:
         w, at_w = _at(np.abs(result.angular_velocity[link]), angles)
         a, at_a = _at(np.abs(result.angular_acceleration[link]), angles)
+        j, at_j = _at(np.abs(result.angular_jerk[link]), angles)
         links[link] = {"max_angular_velocity": w, "at_deg": at_w, "max_angular_acceleration": a,
-                       "acceleration_at_deg": at_a}
+                       "acceleration_at_deg": at_a, "max_angular_jerk": j, "jerk_at_deg": at_j}
     slides = {}
     for slide in mech.slides:
         v, at_v = _at(np.abs(result.sliding_velocity[slide]), angles)

@@ -41,9 +41,10 @@ class Sweep:
     ----------
     driver_angle_deg : (N,) driver angles in the order swept.
     point_names : order of the point axis below.
-    positions, velocities, accelerations : (N, n, 2) arrays, m, m/s, m/s².
-    link_angle_deg, angular_velocity, angular_acceleration : link -> (N,) arrays (°, rad/s, rad/s²).
-    sliding_velocity, sliding_acceleration : slide -> (N,) arrays (m/s, m/s²).
+    positions, velocities, accelerations, jerks : (N, n, 2) arrays, m, m/s, m/s², m/s³.
+    link_angle_deg, angular_velocity, angular_acceleration, angular_jerk : link -> (N,) arrays
+        (°, rad/s, rad/s², rad/s³).
+    sliding_velocity, sliding_acceleration, sliding_jerk : slide -> (N,) arrays (m/s, m/s², m/s³).
     full_turn : the driver turns fully; otherwise ``range_deg`` gives its dead points.
     closes : one turn brings the linkage back to its first pose.
     time_s : (N,) time from the first pose at constant speed, or None when the driver accelerates.
@@ -62,6 +63,9 @@ class Sweep:
     angular_acceleration: dict
     sliding_velocity: dict
     sliding_acceleration: dict
+    jerks: np.ndarray
+    angular_jerk: dict
+    sliding_jerk: dict
     full_turn: bool
     range_deg: tuple
     closes: bool
@@ -81,11 +85,13 @@ def _place(mech, decomposition, angles_rad) -> Frame:
 
 
 def _move(frame: Frame, decomposition) -> Frame:
-    """Velocities and accelerations of a placed frame, group after group."""
+    """Velocities, accelerations and jerks of a placed frame, group after group."""
     for group in decomposition.chain:
         group.velocity(frame)
     for group in decomposition.chain:
         group.acceleration(frame)
+    for group in decomposition.chain:
+        group.jerk(frame)
     return frame
 
 
@@ -204,14 +210,17 @@ def _columns(mech: Mechanism, frame: Frame) -> dict:
         # A (N, n) complex array viewed as (N, n, 2) floats: x and y without a copy.
         return np.stack([values[n] for n in names], axis=1).view(np.float64).reshape(count, len(names), 2)
 
-    columns = {"positions": stack(frame.pos), "velocities": stack(frame.vel), "accelerations": stack(frame.acc)}
+    columns = {"positions": stack(frame.pos), "velocities": stack(frame.vel), "accelerations": stack(frame.acc),
+               "jerks": stack(frame.jerk)}
     for link, pts in mech.links.items():
         columns[("angle", link)] = np.degrees(np.angle(frame.pos[pts[1]] - frame.pos[pts[0]]))
         columns[("omega", link)] = np.asarray(frame.omega[link], float)
         columns[("alpha", link)] = np.asarray(frame.alpha[link], float)
+        columns[("jerk", link)] = np.asarray(frame.angular_jerk[link], float)
     for slide in mech.slides:
         columns[("slide_v", slide)] = np.asarray(frame.sliding_velocity[slide], float)
         columns[("slide_a", slide)] = np.asarray(frame.sliding_acceleration[slide], float)
+        columns[("slide_j", slide)] = np.asarray(frame.sliding_jerk[slide], float)
     return columns
 
 
@@ -285,6 +294,8 @@ def sweep(mechanism: Mechanism, steps: int = 360, progress=None) -> Sweep:
                  angular_acceleration={k: columns[("alpha", k)] for k in mechanism.links},
                  sliding_velocity={k: columns[("slide_v", k)] for k in mechanism.slides},
                  sliding_acceleration={k: columns[("slide_a", k)] for k in mechanism.slides},
+                 jerks=columns["jerks"], angular_jerk={k: columns[("jerk", k)] for k in mechanism.links},
+                 sliding_jerk={k: columns[("slide_j", k)] for k in mechanism.slides},
                  full_turn=full, range_deg=(low, high), closes=full, time_s=time_s, warnings=tuple(warnings))
 
 
@@ -295,7 +306,7 @@ def verify_sweep(result: Sweep, branch_step_deg: float = 10.0) -> dict:
     independently by solving, from the reference pose by continuation, every
     pose ``branch_step_deg`` apart. Returns the largest differences relative
     to the largest value of each quantity: ``position``, ``velocity``,
-    ``acceleration``, and ``branch`` (position at the continuation poses).
+    ``acceleration``, ``jerk``, and ``branch`` (position at the continuation poses).
     """
     mech = result.mechanism
     system = constraint_system(mech)
@@ -309,11 +320,14 @@ def verify_sweep(result: Sweep, branch_step_deg: float = 10.0) -> dict:
     if q is None:
         raise CannotAssemble("the numeric solver does not converge from every swept pose", "sweep")
     x = driven.full(q)
-    xdot, xddot = driven.rates(x, driven.jacobian(x, theta), theta, omega, alpha)
+    jac = driven.jacobian(x, theta)
+    xdot, xddot = driven.rates(x, jac, theta, omega, alpha)
+    xjerk = driven.jerk(x, jac, xdot, xddot, theta, omega, alpha, mech.driver.angular_jerk_rad_s3)
     size = mech.size * mech.metres_per_unit
     worst = {}
     for key, numeric, swept in (("position", x, closed), ("velocity", xdot, result.velocities[:, index]),
-                                ("acceleration", xddot, result.accelerations[:, index])):
+                                ("acceleration", xddot, result.accelerations[:, index]),
+                                ("jerk", xjerk, result.jerks[:, index])):
         worst[key] = float(np.abs(numeric - swept).max() / (np.abs(swept).max() or 1.0))
     # The branch, independently: continuation walks from the reference pose at a coarse step,
     # one each way (a ranged sweep reaches both of its dead points from the reference pose).
@@ -345,13 +359,13 @@ def sweep_csv(result: Sweep, extra: tuple = ((), ())) -> str:
     columns = [result.driver_angle_deg]
     for i, name in enumerate(result.point_names):
         for quantity, unit, values in (("", "m", result.positions), ("v", "m/s", result.velocities),
-                                       ("a", "m/s^2", result.accelerations)):
+                                       ("a", "m/s^2", result.accelerations), ("j", "m/s^3", result.jerks)):
             for axis, k in (("x", 0), ("y", 1)):
                 header.append(f"{name}.{quantity}{axis} [{unit}]")
                 columns.append(values[:, i, k])
     for link in mech.links:
-        header += [f"{link}.omega [rad/s]", f"{link}.alpha [rad/s^2]"]
-        columns += [result.angular_velocity[link], result.angular_acceleration[link]]
+        header += [f"{link}.omega [rad/s]", f"{link}.alpha [rad/s^2]", f"{link}.jerk [rad/s^3]"]
+        columns += [result.angular_velocity[link], result.angular_acceleration[link], result.angular_jerk[link]]
     for slide in mech.slides:
         header += [f"{slide}.sliding_velocity [m/s]", f"{slide}.sliding_acceleration [m/s^2]"]
         columns += [result.sliding_velocity[slide], result.sliding_acceleration[slide]]

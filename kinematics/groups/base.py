@@ -121,6 +121,9 @@ class Frame:
     alpha: dict = field(default_factory=dict)
     sliding_velocity: dict = field(default_factory=dict)
     sliding_acceleration: dict = field(default_factory=dict)
+    jerk: dict = field(default_factory=dict)
+    angular_jerk: dict = field(default_factory=dict)
+    sliding_jerk: dict = field(default_factory=dict)
 
     @classmethod
     def start(cls, mech: Mechanism, driver_angle_rad=0.0, strict=True, solution=None):
@@ -136,6 +139,7 @@ class Frame:
             frame.pos[name] = np.full(shape, ref[name])
             frame.vel[name] = zero + 0j
             frame.acc[name] = zero + 0j
+            frame.jerk[name] = zero + 0j
         return frame
 
     def place(self, link: str, p: str, q: str):
@@ -160,6 +164,19 @@ class Frame:
             if name != p:
                 self.acc[name] = self.acc[p] + factor * (pos[name] - pos[p])
 
+    def jerk_factor(self, link: str, angular_jerk):
+        """j_Q − j_P = factor·(z_Q − z_P) on one link: i(α̇ − ω³) − 3ωα."""
+        omega, alpha = self.omega[link], self.alpha[link]
+        return 1j * (angular_jerk - omega ** 3) - 3.0 * omega * alpha
+
+    def jerk_images(self, link: str, p: str, pos: dict | None = None):
+        """Jerks of the points of ``link`` from the jerk of p and the link's α̇ (``angular_jerk``)."""
+        pos = self.pos if pos is None else pos
+        factor = self.jerk_factor(link, self.angular_jerk[link])
+        for name in self.mech.links[link]:
+            if name != p:
+                self.jerk[name] = self.jerk[p] + factor * (pos[name] - pos[p])
+
     def angular_velocity(self, p: str, q: str):
         r = self.pos[q] - self.pos[p]
         return cross(r, self.vel[q] - self.vel[p]) / np.abs(r) ** 2
@@ -177,6 +194,8 @@ class Frame:
         r = self.pos[at] - self.pos[base]
         if field_name == "vel":
             return self.vel[base] + 1j * self.omega[guide] * r
+        if field_name == "jerk":
+            return self.jerk[base] + self.jerk_factor(guide, self.angular_jerk[guide]) * r
         return self.acc[base] + (-self.omega[guide] ** 2 + 1j * self.alpha[guide]) * r
 
     def slot(self, slide):
@@ -202,6 +221,18 @@ def radial(frame: Frame, point: str, about: str, start, relative_velocity) -> La
 def coriolis(omega_guide, relative_velocity):
     """2·ω × v_rel: the relative velocity turned 90° the way the guide turns, doubled."""
     return 2.0 * 1j * omega_guide * relative_velocity
+
+
+def sliding_jerk_terms(omega_guide, alpha_guide, u, sliding_velocity, sliding_acceleration):
+    """What a point sliding along u on a turning guide adds to the jerk of the guide's point under it,
+    besides its own sliding jerk: 3·ṡ·(iα − ω²)·u + 3·s̈·iω·u (the third derivative of s·u, u turning)."""
+    return 3.0 * (sliding_velocity * (1j * alpha_guide - omega_guide ** 2)
+                  + sliding_acceleration * 1j * omega_guide) * u
+
+
+def known_jerk(frame: Frame, link: str, pin: str, point: str):
+    """The jerk of ``point`` of ``link`` less its unknown part iα̇·r: j_pin + (−iω³ − 3ωα)·r."""
+    return frame.jerk[pin] + frame.jerk_factor(link, 0.0) * (frame.pos[point] - frame.pos[pin])
 
 
 
@@ -238,6 +269,10 @@ class Group(ABC):
     @abstractmethod
     def acceleration(self, frame: Frame):
         """Accelerations and α; returns (the laid vectors, the Intersection), or None."""
+
+    @abstractmethod
+    def jerk(self, frame: Frame):
+        """Jerks of the group's points and α̇ of its links (after :meth:`acceleration`)."""
 
     @abstractmethod
     def velocity_steps(self, builder, frame: Frame, placed: set):

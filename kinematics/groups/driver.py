@@ -55,6 +55,13 @@ class DriverGroup(Group):
         frame.acceleration_images(self.link, self.pivot, frame.driver_pose)
         return None
 
+    def jerk(self, frame: Frame):
+        """α̇ as given (zero at constant angular acceleration); the images from the given placement."""
+        jerk = frame.mech.driver.angular_jerk_rad_s3
+        frame.angular_jerk[self.link] = np.broadcast_to(np.asarray(jerk, float), np.shape(frame.pos[self.pivot])) + 0.0
+        frame.jerk_images(self.link, self.pivot, frame.driver_pose)
+        return None
+
     def velocity_steps(self, builder: PolygonBuilder, frame: Frame, placed: set):
         self.velocity(frame)
         link, pivot, omega = self.link, self.pivot, frame.omega[self.link]

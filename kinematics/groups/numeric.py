@@ -45,6 +45,9 @@ class NumericGroup(Group):
     def acceleration(self, frame: Frame):
         self._take(frame, frame.acc, frame.alpha, "accelerations", "angular_acceleration")
 
+    def jerk(self, frame: Frame):
+        self._take(frame, frame.jerk, frame.angular_jerk, "jerks", "angular_jerk")
+
     def velocity_steps(self, builder: PolygonBuilder, frame: Frame, placed: set):
         self._steps(builder, frame, placed, self.velocity, frame.vel)
 

@@ -10,7 +10,22 @@ from dataclasses import dataclass
 import numpy as np
 
 from ..model.mechanism import Mechanism
-from .base import REACH_TOLERANCE, Frame, Group, Laid, Line, coriolis, cross, dot, intersect, radial, refuse, unit
+from .base import (
+    REACH_TOLERANCE,
+    Frame,
+    Group,
+    Laid,
+    Line,
+    coriolis,
+    cross,
+    dot,
+    intersect,
+    known_jerk,
+    radial,
+    refuse,
+    sliding_jerk_terms,
+    unit,
+)
 from .force_steps import (
     ForceState,
     by_name,
@@ -96,6 +111,25 @@ class RPRGroup(Group):
         frame.acceleration_images(link, c)
         frame.sliding_acceleration[slide.name] = dot(u, second.end - meet.point)
         return (first, second), meet
+
+    def jerk(self, frame: Frame):
+        """The jerk of the slotted link's point under D (⊥ CD through its known part) meets the line
+        parallel to the slot through j_D less the terms of D's sliding motion on the turning slot."""
+        pos = frame.pos
+        slide = frame.mech.slides[self.slide]
+        u, _ = frame.slot(slide)
+        link = self.links[0]
+        c, d = self.roles["C"], self.roles["D"]
+        start = known_jerk(frame, link, c, d)
+        back = frame.jerk[d] - sliding_jerk_terms(frame.omega[link], frame.alpha[link], u,
+                                                  frame.sliding_velocity[slide.name],
+                                                  frame.sliding_acceleration[slide.name])
+        meet = intersect(Line(start, 1j * (pos[d] - pos[c])), Line(back, u))
+        r = pos[d] - pos[c]
+        frame.angular_jerk[link] = cross(r, meet.point - start) / np.abs(r) ** 2
+        frame.jerk_images(link, c)
+        frame.sliding_jerk[slide.name] = dot(u, back - meet.point)
+        return meet
 
     def velocity_steps(self, builder: PolygonBuilder, frame: Frame, placed: set):
         vb, pos = builder, frame.pos

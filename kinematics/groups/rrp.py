@@ -10,7 +10,21 @@ from dataclasses import dataclass
 import numpy as np
 
 from ..model.mechanism import GROUND, Mechanism
-from .base import REACH_TOLERANCE, Frame, Group, Laid, Line, coriolis, cross, dot, intersect, radial, refuse
+from .base import (
+    REACH_TOLERANCE,
+    Frame,
+    Group,
+    Laid,
+    Line,
+    coriolis,
+    cross,
+    dot,
+    intersect,
+    known_jerk,
+    radial,
+    refuse,
+    sliding_jerk_terms,
+)
 from .force_steps import (
     ForceState,
     by_name,
@@ -90,6 +104,28 @@ class RRPGroup(Group):
         frame.acceleration_images(link, a)
         frame.sliding_acceleration[slide.name] = dot(u, acc[d] - coincident)
         return (first, second), meet
+
+    def jerk(self, frame: Frame):
+        """The line of D's jerk on its link (⊥ AD) meets the line of the sliding jerk (∥ guide) laid
+        from the guide's point under D plus the terms of the sliding motion on a turning guide."""
+        pos = frame.pos
+        slide = frame.mech.slides[self.slide]
+        u, _ = frame.slot(slide)
+        link = self.links[0]
+        a, d = self.roles["A"], self.roles["D"]
+        start = known_jerk(frame, link, a, d)
+        guided = frame.guide_point(slide.guide, d, "jerk")
+        if slide.guide != GROUND:
+            guided = guided + sliding_jerk_terms(frame.omega[slide.guide], frame.alpha[slide.guide], u,
+                                                 frame.sliding_velocity[slide.name],
+                                                 frame.sliding_acceleration[slide.name])
+        meet = intersect(Line(start, 1j * (pos[d] - pos[a])), Line(guided, u))
+        frame.jerk[d] = meet.point
+        r = pos[d] - pos[a]
+        frame.angular_jerk[link] = cross(r, meet.point - start) / np.abs(r) ** 2
+        frame.jerk_images(link, a)
+        frame.sliding_jerk[slide.name] = dot(u, meet.point - guided)
+        return meet
 
     def velocity_steps(self, builder: PolygonBuilder, frame: Frame, placed: set):
         vb, pos = builder, frame.pos

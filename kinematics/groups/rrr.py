@@ -9,7 +9,7 @@ from dataclasses import dataclass
 import numpy as np
 
 from ..model.mechanism import Mechanism
-from .base import REACH_TOLERANCE, Frame, Group, Line, intersect, radial, refuse, unit
+from .base import REACH_TOLERANCE, Frame, Group, Line, cross, intersect, known_jerk, radial, refuse, unit
 from .force_steps import (
     ForceState,
     by_name,
@@ -78,6 +78,19 @@ class RRRGroup(Group):
             frame.alpha[link] = frame.angular_acceleration(laid.end, pin, b)
             frame.acceleration_images(link, pin)
         return (first, second), meet
+
+    def jerk(self, frame: Frame):
+        """j_B = j_A + (i(α̇1 − ω1³) − 3ω1α1)·r_AB = j_C + (i(α̇2 − ω2³) − 3ω2α2)·r_CB: two lines again."""
+        pos = frame.pos
+        a, b, c = (self.roles[k] for k in "ABC")
+        starts = [known_jerk(frame, link, pin, b) for link, pin in zip(self.links, (a, c), strict=True)]
+        meet = intersect(Line(starts[0], 1j * (pos[b] - pos[a])), Line(starts[1], 1j * (pos[b] - pos[c])))
+        frame.jerk[b] = meet.point
+        for link, pin, start in zip(self.links, (a, c), starts, strict=True):
+            r = pos[b] - pos[pin]
+            frame.angular_jerk[link] = cross(r, meet.point - start) / np.abs(r) ** 2
+            frame.jerk_images(link, pin)
+        return meet
 
     def velocity_steps(self, builder: PolygonBuilder, frame: Frame, placed: set):
         vb, pos = builder, frame.pos

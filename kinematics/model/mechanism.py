@@ -40,7 +40,9 @@ class Slide:
 class Driver:
     """A link pivoted on ground at ``pivot``, turning at a given speed.
 
-    ``speed`` and ``angular_acceleration`` keep the file's value and unit.
+    ``speed`` and ``angular_acceleration`` keep the file's value and unit; ``angular_jerk_rad_s3``, the
+    rate of change of the angular acceleration, is zero for a drive at constant angular acceleration
+    (no file key gives it yet).
     """
 
     link: str
@@ -50,6 +52,7 @@ class Driver:
     angular_acceleration_value: float = 0.0
     angular_acceleration_unit: str = "rad/s^2"
     kind: str = "rotary"
+    angular_jerk_rad_s3: float = 0.0
 
     @property
     def speed_rad_s(self) -> float:

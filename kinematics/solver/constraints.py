@@ -92,6 +92,15 @@ class ConstraintSystem:
                               xdot[..., self.c, :] - xdot[..., self.d, :]) * self.weight
 
 
+    def cubic_term(self, xdot: np.ndarray, xddot: np.ndarray) -> np.ndarray:
+        """Third time derivative of the values at zero jerk: 3·(ü ∘ v̇ + u̇ ∘ v̈)."""
+        a, b, c, d = self.a, self.b, self.c, self.d
+        first_dot, second_dot = xdot[..., a, :] - xdot[..., b, :], xdot[..., c, :] - xdot[..., d, :]
+        first_ddot, second_ddot = xddot[..., a, :] - xddot[..., b, :], xddot[..., c, :] - xddot[..., d, :]
+        return 3.0 * (_product(self.kind, first_ddot, second_dot)
+                      + _product(self.kind, first_dot, second_ddot)) * self.weight
+
+
 def _product(kind, u, v):
     dot = u[..., 0] * v[..., 0] + u[..., 1] * v[..., 1]
     cross = u[..., 0] * v[..., 1] - u[..., 1] * v[..., 0]

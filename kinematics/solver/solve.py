@@ -42,10 +42,10 @@ class Solution:
     mechanism : the Mechanism solved.
     driver_angle_deg : driver angle of this pose, degrees CCW from +x.
     point_names : order of the rows below.
-    positions, velocities, accelerations : (n, 2) arrays, m, m/s, m/s².
+    positions, velocities, accelerations, jerks : (n, 2) arrays, m, m/s, m/s², m/s³.
     link_angle_deg : link -> direction from its first point to its second, (−180°, 180°].
-    angular_velocity, angular_acceleration : link -> rad/s, rad/s² (CCW positive).
-    sliding_velocity, sliding_acceleration : slide -> m/s, m/s² along its line,
+    angular_velocity, angular_acceleration, angular_jerk : link -> rad/s, rad/s², rad/s³ (CCW positive).
+    sliding_velocity, sliding_acceleration, sliding_jerk : slide -> m/s, m/s², m/s³ along its line,
         positive from the line's first point towards its second, relative to the guide.
     condition : condition figure of the constraint Jacobian at this pose.
     warnings : plain sentences (dead point, toggle, bifurcation ...).
@@ -64,6 +64,9 @@ class Solution:
     angular_acceleration: dict
     sliding_velocity: dict
     sliding_acceleration: dict
+    jerks: np.ndarray
+    angular_jerk: dict
+    sliding_jerk: dict
     condition: float
     warnings: tuple = ()
 
@@ -81,6 +84,9 @@ class Solution:
 
     def acceleration(self, name) -> np.ndarray:
         return self.accelerations[self._row(name)]
+
+    def jerk(self, name) -> np.ndarray:
+        return self.jerks[self._row(name)]
 
 
 def _cross(a, b):
@@ -136,6 +142,21 @@ class DrivenSystem:
         rhs = -np.concatenate([self.system.quadratic_term(xdot), driver_term[..., None]], axis=-1)
         xddot = self.full(np.linalg.solve(jac, rhs[..., None])[..., 0], self.zeros)
         return xdot, xddot
+
+    def jerk(self, x, jac, xdot, xddot, theta, omega, alpha, alpha_dot=0.0):
+        """Jerks (..., n, 2) of all points: the third solve, J·x⃛ = −(the rest of the third derivative).
+
+        The driver row cross(u(θ), w) differentiated three times with u̇ = ω·u⊥, u̇⊥ = −ω·u gives
+        (α̇ − ω³)·(u⊥ × w) − 3ωα·(u × w) + 3α·(u⊥ × ẇ) − 3ω²·(u × ẇ) + 3ω·(u⊥ × ẅ) besides u × w⃛."""
+        theta = np.asarray(theta, float)
+        u = np.stack([np.cos(theta), np.sin(theta)], axis=-1)
+        perp_u = np.stack([-u[..., 1], u[..., 0]], axis=-1)
+        w, wdot, wddot = self._lever(x), self._lever(xdot), self._lever(xddot)
+        driver_term = ((alpha_dot - omega ** 3) * _cross(perp_u, w) - 3 * omega * alpha * _cross(u, w)
+                       + 3 * alpha * _cross(perp_u, wdot) - 3 * omega ** 2 * _cross(u, wdot)
+                       + 3 * omega * _cross(perp_u, wddot))
+        rhs = -np.concatenate([self.system.cubic_term(xdot, xddot), driver_term[..., None]], axis=-1)
+        return self.full(np.linalg.solve(jac, rhs[..., None])[..., 0], self.zeros)
 
 
 def newton_tolerance(system: ConstraintSystem) -> float:
@@ -207,6 +228,30 @@ def _link_rates(mech: Mechanism, index, x, xdot, xddot):
         omega[name] = float((r[0] * v[1] - r[1] * v[0]) / rr)
         alpha[name] = float((r[0] * a[1] - r[1] * a[0]) / rr)
     return angle, omega, alpha
+
+
+def _link_jerks(mech: Mechanism, index, x, xjerk, omega) -> dict:
+    """α̇ of every link: with j = (α̇ − ω³)·r⊥ − 3ωα·r on a rigid link, r × j = (α̇ − ω³)·|r|²."""
+    jerk = {}
+    for name, pts in mech.links.items():
+        i, j = index[pts[0]], index[pts[1]]
+        r, rel = x[j] - x[i], xjerk[j] - xjerk[i]
+        jerk[name] = float((r[0] * rel[1] - r[1] * rel[0]) / (r @ r) + omega[name] ** 3)
+    return jerk
+
+
+def _slide_jerks(mech: Mechanism, index, x, xjerk, omega, alpha, jerk, sliding_velocity) -> dict:
+    """s⃛ of every slide: u·(j_D − j_Dg) + 3ṡω², j_Dg the jerk of the guide's point under D."""
+    result = {}
+    for slide in mech.slides.values():
+        e, f, d = index[slide.line[0]], index[slide.line[1]], index[slide.point]
+        u = (x[f] - x[e]) / np.linalg.norm(x[f] - x[e])
+        r = x[d] - x[e]
+        perp_r = np.array([-r[1], r[0]])
+        w, al, aj = omega.get(slide.guide, 0.0), alpha.get(slide.guide, 0.0), jerk.get(slide.guide, 0.0)
+        guide_j = xjerk[e] + (aj - w ** 3) * perp_r - 3.0 * w * al * r
+        result[slide.name] = float(u @ (xjerk[d] - guide_j) + 3.0 * sliding_velocity[slide.name] * w * w)
+    return result
 
 
 def _slide_rates(mech: Mechanism, index, x, xdot, xddot, omega, alpha):
@@ -346,6 +391,11 @@ def solve_pose(mechanism: Mechanism, angle_deg=None, system: ConstraintSystem | 
     # The driver's own rates are given, not solved: report them as given, free of rounding.
     link_omega[driver.link], link_alpha[driver.link] = float(omega), float(alpha)
     slide_v, slide_a = _slide_rates(mechanism, index, x, xdot, xddot, link_omega, link_alpha)
+    alpha_dot = driver.angular_jerk_rad_s3
+    xjerk = driven.jerk(x, jac, xdot, xddot, theta, omega, alpha, alpha_dot)
+    link_jerk = _link_jerks(mechanism, index, x, xjerk, link_omega)
+    link_jerk[driver.link] = float(alpha_dot)
+    slide_j = _slide_jerks(mechanism, index, x, xjerk, link_omega, link_alpha, link_jerk, slide_v)
     if condition > NEAR_SINGULAR_CONDITION:
         warnings.append(f"near a dead point of the driver: condition figure {condition:.3g}")
     warnings += pose_warnings(mechanism, decompose(mechanism), {n: tuple(x[i]) for i, n in enumerate(system.names)})
@@ -354,4 +404,4 @@ def solve_pose(mechanism: Mechanism, angle_deg=None, system: ConstraintSystem | 
                     point_names=system.names, positions=x, velocities=xdot, accelerations=xddot,
                     link_angle_deg=angle, angular_velocity=link_omega, angular_acceleration=link_alpha,
                     sliding_velocity=slide_v, sliding_acceleration=slide_a, condition=condition,
-                    warnings=tuple(warnings))
+                    warnings=tuple(warnings), jerks=xjerk, angular_jerk=link_jerk, sliding_jerk=slide_j)
