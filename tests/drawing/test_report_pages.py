@@ -84,3 +84,15 @@ def load_file(path):
     import kinematics
 
     return kinematics.load_mechanism(path)
+
+
+def test_the_appendix_states_the_masses_and_loads_as_the_file_does():
+    # A sample with mass data (format 2): the appendix lists every link mass, point mass and load,
+    # so the report stands alone.
+    path = SAMPLES / "cap-press-feeder.json"
+    mech = load(path)
+    report = build_report(mech, path.read_bytes(), file_name=path.name, steps=36)
+    words = " ".join(p.text for sheet in report.sheets for p in sheet.primitives if isinstance(p, Text))
+    assert "Masses and loads" in words and "Frictionless joints." in words
+    for name in (*mech.mass_data.masses, *mech.mass_data.point_masses, *mech.mass_data.loads):
+        assert name in words
