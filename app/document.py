@@ -7,6 +7,7 @@ nothing else recomputes kinematics.
 
 from __future__ import annotations
 
+import threading
 import weakref
 from concurrent.futures import Future, ThreadPoolExecutor
 from concurrent.futures import TimeoutError as NotYet
@@ -72,8 +73,16 @@ class Sweeper(QObject):
     def __init__(self, parent=None):
         super().__init__(parent)
         pool = self._pool = ThreadPoolExecutor(max_workers=1, thread_name_prefix="kinepoly-sweep")
-        # Queued requests go with the document; one already running ends on its own.
-        self.destroyed.connect(lambda *_: pool.shutdown(wait=False, cancel_futures=True))
+        gate = self._gate = _Gate()
+
+        def close(*_):
+            # Queued requests go with the document; one already running ends on its own, and its result
+            # is not sent: the worker must never emit on an object the window's thread is deleting.
+            with gate.lock:
+                gate.open = False
+            pool.shutdown(wait=False, cancel_futures=True)
+
+        self.destroyed.connect(close)
         self.latest = 0
 
     def request(self, mechanism: Mechanism) -> Future:
@@ -92,10 +101,21 @@ class Sweeper(QObject):
     def _send(self, future: Future):
         if future.cancelled() or future.exception() is not None:
             return
-        try:
-            self.arrived.emit(*future.result())
-        except RuntimeError:  # the document, and this object with it, is gone
-            pass
+        with self._gate.lock:
+            if not self._gate.open:
+                return
+            try:
+                self.arrived.emit(*future.result())
+            except RuntimeError:  # the document, and this object with it, is gone
+                pass
+
+
+class _Gate:
+    """Whether a sweeper may still send, and the lock that makes closing wait for a send under way."""
+
+    def __init__(self):
+        self.lock = threading.Lock()
+        self.open = True
 
 
 class EditCommand(QUndoCommand):
