@@ -11,7 +11,7 @@ from __future__ import annotations
 import re
 from dataclasses import replace
 
-from PySide6.QtCore import Qt, Signal
+from PySide6.QtCore import Qt, QTimer, Signal
 from PySide6.QtGui import QBrush, QColor
 from PySide6.QtWidgets import QAbstractItemView, QHeaderView, QTableWidget, QTableWidgetItem
 
@@ -73,6 +73,7 @@ class MassGrid(QTableWidget):
                              | QAbstractItemView.EditTrigger.AnyKeyPressed)
         self.mechanism = None
         self.refusal = None  # (row, column, text) of the last refused cell, kept through a refill
+        self.pending = False  # a typed value waits to be taken (see _changed)
         self.itemChanged.connect(self._changed)
 
     def fill(self, mechanism, rows):
@@ -99,11 +100,18 @@ class MassGrid(QTableWidget):
         self.setFixedHeight(self.horizontalHeader().sizeHint().height() + rows + 2 * self.frameWidth() + 2)
 
     def _changed(self, item):
-        key = item.data(Qt.ItemDataRole.UserRole)
+        # Handled once the view has finished writing the cell: the edit refills the grid, which
+        # must not delete the item Qt is still setting.
+        place = (item.data(Qt.ItemDataRole.UserRole), item.row(), item.column(), item.text())
+        self.pending = True
+        QTimer.singleShot(0, self, lambda: self._typed(*place))
+
+    def _typed(self, key, row: int, column: int, typed: str):
+        self.pending = False
         try:
-            after, text = self.apply(key, item.column(), item.text())
+            after, text = self.apply(key, column, typed)
         except FileFormatError as error:
-            self.refusal = (item.row(), item.column(), str(error))
+            self.refusal = (row, column, str(error))
             self.edited.emit(None, str(error))
             return
         self.refusal = None
