@@ -11,7 +11,8 @@ from PySide6.QtTest import QTest
 import kinematics
 from app import building
 from app.building import BuildError
-from tests.designs import CARTON_PUSHER, CLAW_FEED, load
+from kinematics.model.limits import MAX_LINKS_AND_SLIDES, MAX_POINTS
+from tests.designs import CARTON_PUSHER, CLAW_FEED, UNFINISHED, load
 from tests.kinematics.test_schema_agreement import FORMAT_2
 
 
@@ -201,3 +202,42 @@ def test_deleting_or_fixing_a_joint_drops_the_mass_data_it_leaves_without_a_plac
     fixed = building.set_fixed(mech, "D", True)
     assert not fixed.mass_data.point_masses and "cutting" not in fixed.mass_data.loads
     assert "brake" in fixed.mass_data.loads
+
+
+def _at_the_point_limit():
+    """The unfinished claw feed with its coupler carrying points up to the size limit."""
+    design = copy.deepcopy(UNFINISHED)
+    extra = {f"Q{i}": [70 + (i % 10) * 3, 150 + (i // 10) * 3] for i in range(MAX_POINTS - len(design["points"]))}
+    design["points"].update(extra)
+    design["links"]["coupler"] += list(extra)
+    return design
+
+
+def test_a_click_that_would_pass_the_size_limit_is_refused_in_words(make_window):
+    """At 100 points a new joint would make a file the loader refuses (kinematics.model.limits): the
+    click is refused with the limit in words, and the design keeps its points."""
+    window = make_window(_at_the_point_limit())
+    before = dict(window.document.mechanism.points)
+    window.use_tool("joint")
+    click_at(window, -80.0, -60.0)
+    assert dict(window.document.mechanism.points) == before
+    assert f"no room for another joint: Kinepoly analyses designs of at most {MAX_POINTS} points" in \
+        window.status.text()
+
+
+def test_no_edit_builds_a_design_past_the_limits():
+    mech = kinematics.load_mechanism(_at_the_point_limit())
+    with pytest.raises(BuildError, match=f"at most {MAX_POINTS} points"):
+        building.add_point(mech, (0.0, 0.0), fixed=True)
+    bars = building.empty()
+    for k in range(MAX_LINKS_AND_SLIDES + 1):
+        bars, p = building.add_point(bars, (10.0 * k, 0.0), fixed=True)
+        bars, q = building.add_point(bars, (10.0 * k, 50.0))
+        if k == MAX_LINKS_AND_SLIDES:
+            with pytest.raises(BuildError, match=f"at most {MAX_LINKS_AND_SLIDES} links and slides"):
+                building.join(bars, [p, q])
+            with pytest.raises(BuildError, match=f"at most {MAX_LINKS_AND_SLIDES} links and slides"):
+                building.add_slide(bars, q, "O1", "O2")
+        else:
+            bars, _ = building.join(bars, [p, q])
+    kinematics.load_mechanism(json.loads(kinematics.dumps(bars)))  # the largest it allowed still loads
