@@ -71,6 +71,7 @@ class ForcesTable(QWidget):
         super().__init__(parent)
         self.message = QLabel()
         self.message.setWordWrap(True)
+        self.message.setAlignment(Qt.AlignmentFlag.AlignLeft | Qt.AlignmentFlag.AlignTop)
         self.model = QStandardItemModel(0, len(HEADERS), self)
         self.model.setHorizontalHeaderLabels(HEADERS)
         self.view = QTableView()

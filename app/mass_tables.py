@@ -97,7 +97,9 @@ class MassGrid(QTableWidget):
     def fit_height(self, most_rows: int = 8):
         """As tall as its rows (up to ``most_rows``, then it scrolls): the tab reads as one form."""
         rows = sum(self.rowHeight(r) for r in range(min(self.rowCount(), most_rows)))
-        self.setFixedHeight(self.horizontalHeader().sizeHint().height() + rows + 2 * self.frameWidth() + 2)
+        # Room for the horizontal scroll bar too: a narrow tab scrolls the columns, never hides a row.
+        self.setFixedHeight(self.horizontalHeader().sizeHint().height() + rows + 2 * self.frameWidth() + 2
+                            + self.horizontalScrollBar().sizeHint().height())
 
     def _changed(self, item):
         # Handled once the view has finished writing the cell: the edit refills the grid, which
