@@ -19,6 +19,7 @@ from PySide6.QtGui import QUndoCommand, QUndoStack
 import kinematics
 from kinematics import KinematicsError, Mechanism
 
+from .forces_data import CycleForces, cycle_forces, pose_forces
 from .throttle import Throttle
 
 SWEEP_STEPS = 180  # 2° apart: smooth paths at drawing size, about 2 ms for a six-bar
@@ -35,6 +36,8 @@ class Analysis:
     construction: object = None
     findings: tuple = ()
     problem: str = ""
+    forces: object = None
+    forces_problem: str = ""
 
 
 def cycle(mechanism: Mechanism):
@@ -58,13 +61,14 @@ def analyse(mechanism: Mechanism, angle_deg: float | None) -> Analysis:
         construction = kinematics.construct(solution)
     except KinematicsError as error:
         return Analysis(problem=str(error))
-    return Analysis(solution=solution, construction=construction)
+    forces, forces_problem = pose_forces(solution)
+    return Analysis(solution=solution, construction=construction, forces=forces, forces_problem=forces_problem)
 
 
 class Sweeper(QObject):
     """Cycle sweeps on one worker thread, off the window's; only the latest request's result counts.
 
-    :meth:`request` returns a Future of ``(ticket, sweep)``; every result is also sent back to the
+    :meth:`request` returns a Future of ``(ticket, (sweep, cycle forces))``; every result is also sent back to the
     window's thread by ``arrived(ticket, sweep)``. A request overtaken before its turn is not swept.
     """
 
@@ -96,7 +100,11 @@ class Sweeper(QObject):
         self.latest += 1
 
     def _run(self, ticket: int, mechanism: Mechanism):
-        return ticket, cycle(mechanism) if ticket == self.latest else None
+        if ticket != self.latest:
+            return ticket, None
+        # The cycle's forces ride with its sweep, on the same thread: the window never waits for them.
+        result = cycle(mechanism)
+        return ticket, (result, cycle_forces(result))
 
     def _send(self, future: Future):
         if future.cancelled() or future.exception() is not None:
@@ -156,6 +164,7 @@ class Document(QObject):
     sweep : the core's :class:`kinematics.Sweep` of one cycle, or None (unfinished, no dyad chain);
         during a drag it may be up to a tenth of a second behind ``mechanism`` (see
         :attr:`sweep_behind`); ``swept`` says it has caught up.
+    cycle_forces : :class:`app.forces_data.CycleForces` of that sweep (made with it, on the worker thread).
     path : the file it was read from or saved to, or None.
     undo_stack : QUndoStack of :class:`EditCommand`.
     """
@@ -171,6 +180,7 @@ class Document(QObject):
         self.path = path
         self.analysis = analyse(mechanism, None)
         self.sweep = None
+        self.cycle_forces = CycleForces()
         self._sweeper = Sweeper(self)
         self._sweeper.arrived.connect(self._arrived)
         self._shown = 0  # the ticket of the sweep in ``sweep``
@@ -221,6 +231,7 @@ class Document(QObject):
         if self.analysis.solution is None:
             self._sweeper.drop()
             self._shown, self.sweep, self._pending = self._sweeper.latest, None, None
+            self.cycle_forces = CycleForces()
             return
         self._pending = self._sweeper.request(self.mechanism)
         if not self._dragging:
@@ -237,7 +248,8 @@ class Document(QObject):
     def _show(self, ticket: int, result) -> bool:
         if ticket != self._sweeper.latest or ticket == self._shown:
             return False  # stale (a newer design was asked for) or already shown
-        self._shown, self.sweep = ticket, result
+        self._shown = ticket
+        self.sweep, self.cycle_forces = result if result is not None else (None, CycleForces())
         return True
 
     def _arrived(self, ticket: int, result):
