@@ -88,9 +88,11 @@ def _mtext(lines) -> str:
 
 
 def _tag(entities, primitive) -> None:
-    """Extended data: which construction step or part of the mechanism the entity draws."""
-    tags = [(1000, f"{key} {value}") for key, value in (("step", primitive.step), ("part", primitive.part),
-                                                        ("view", primitive.view)) if value]
+    """Extended data: what the entity draws ("step 3", "point B", "link crank", "scale bar velocity")
+    and its view."""
+    ref = primitive.ref
+    tags = [(1000, f"{key} {value}") for key, value in ((ref.kind, ref.name) if ref else ("", ""),
+                                                        ("view", primitive.view)) if key and value]
     if tags:
         for entity in entities:
             entity.set_xdata(APP_ID, tags)

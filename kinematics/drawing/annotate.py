@@ -9,7 +9,7 @@ import textwrap
 from .. import CAUTION
 from ..style import ANNOTATION
 from .scaling import bar_value, plain
-from .sheet import FRAME, Hatch, Line, Polyline, Recorder, Text
+from .sheet import FRAME, Hatch, Line, Polyline, Recorder, Ref, Text
 from .symbols import Symbols
 
 # Advance of one character over the capital height: measured with Qt 6.11 for
@@ -47,7 +47,7 @@ def scale_bar(rec: Recorder, at, mm_per_value: float, unit: str, longest: float,
     length = value * mm_per_value
     x, y = at
     thick = 0.5 * size.text
-    ids = {"view": view, "part": "scale bar"}
+    ids = {"view": view, "ref": Ref("scale bar", view)}
     rec.add(Line(start=(x, y), end=(x + length, y), pen=ANNOTATION, **ids))
     rec.add(Line(start=(x, y + thick), end=(x + length, y + thick), pen=ANNOTATION, **ids))
     step = length / BAR_DIVISIONS
@@ -110,7 +110,7 @@ def title_block(rec: Recorder, box, lines: list, size: Symbols) -> None:
     x0, y0, x1, y1 = box
     pitch = ROW * size.text
     pad = size.text
-    ids = {"part": "title block"}
+    ids = {"ref": Ref("title block")}
     outline_box(rec, x0, y0, x1, y1, FRAME, **ids)
     (_, title), *rest = lines
     y = y1 - 1.6 * pitch

@@ -1,5 +1,10 @@
 """Symbol sizes and the small shapes every view draws (arrowheads, pins,
-fixed-pivot marks, slider blocks, labels), in sheet millimetres."""
+fixed-pivot marks, slider blocks, labels), in sheet millimetres.
+
+Each mark a label must keep clear of is noted in the recorder's ``marks``
+(view, box), and each label in its ``labels``, for
+:func:`~kinematics.drawing.declutter.declutter`.
+"""
 
 from __future__ import annotations
 
@@ -38,7 +43,19 @@ def arrow(rec: Recorder, start, end, pen, size: Symbols, **ids) -> bool:
     half = 0.2 * head  # head width 1:2.5 of its length, a usual drafting proportion  # common practice
     corners = (end, (back[0] - half * uy, back[1] + half * ux), (back[0] + half * uy, back[1] - half * ux))
     rec.add(Arrow(start=start, end=end, head=corners, pen=pen, **ids))
+    mark(rec, corners, ids.get("view", ""))
     return True
+
+
+def mark(rec: Recorder, points, view: str) -> None:
+    """Note the box round ``points`` as one a label must keep clear of."""
+    xs, ys = [x for x, _ in points], [y for _, y in points]
+    rec.marks.append((view, (min(xs), min(ys), max(xs), max(ys))))
+
+
+def dot_mark(rec: Recorder, at, radius: float, view: str) -> None:
+    """Note the box of a round mark of ``radius`` about ``at``."""
+    rec.marks.append((view, (at[0] - radius, at[1] - radius, at[0] + radius, at[1] + radius)))
 
 
 def fixed_pivot(rec: Recorder, at, pen, size: Symbols, **ids) -> None:
@@ -46,7 +63,9 @@ def fixed_pivot(rec: Recorder, at, pen, size: Symbols, **ids) -> None:
     x, y = at
     w, h = 2.4 * size.pin, 3.2 * size.pin
     base = y - size.pin - h
-    rec.add(Polyline(points=((x, y - size.pin), (x - w, base), (x + w, base)), pen=pen, closed=True, **ids))
+    triangle = ((x, y - size.pin), (x - w, base), (x + w, base))
+    rec.add(Polyline(points=triangle, pen=pen, closed=True, **ids))
+    mark(rec, triangle, ids.get("view", ""))
     rec.add(Line(start=(x - 1.6 * w, base), end=(x + 1.6 * w, base), pen=pen, **ids))
     for i in range(5):
         left = x - 1.6 * w + i * 0.8 * w
@@ -55,10 +74,9 @@ def fixed_pivot(rec: Recorder, at, pen, size: Symbols, **ids) -> None:
 
 def pin(rec: Recorder, at, pen, size: Symbols, joint: bool, **ids) -> None:
     """A pin joint (open circle) or a point on one body only (filled dot)."""
-    if joint:
-        rec.add(Circle(centre=at, radius=size.pin, pen=pen, **ids))
-    else:
-        rec.add(Circle(centre=at, radius=size.dot, pen=pen, filled=True, **ids))
+    radius = size.pin if joint else size.dot
+    rec.add(Circle(centre=at, radius=radius, pen=pen, filled=not joint, **ids))
+    dot_mark(rec, at, size.pin, ids.get("view", ""))  # a dot keeps a pin's room: it is picked with the mouse
 
 
 def slider_block(rec: Recorder, at, direction, pen, size: Symbols, **ids) -> None:
@@ -70,6 +88,7 @@ def slider_block(rec: Recorder, at, direction, pen, size: Symbols, **ids) -> Non
         corners.append((at[0] + a * half_long * ux - b * half_short * uy,
                         at[1] + a * half_long * uy + b * half_short * ux))
     rec.add(Polyline(points=tuple(corners), pen=pen, closed=True, **ids))
+    mark(rec, corners, ids.get("view", ""))
 
 
 def directions_at(point, segments, tolerance: float) -> list:
@@ -91,17 +110,30 @@ def directions_at(point, segments, tolerance: float) -> list:
 CLEAR_ANGLE = math.radians(40.0)
 
 
+# The sixteen directions a label may take, as turns from its preferred one, with the bonus
+# each gets for staying near it.
+_TURNS = tuple((k * math.pi / 8.0, 0.3 * math.cos(k * math.pi / 8.0)) for k in range(16))
+
+
 def _label_direction(away: float, avoid) -> float:
     """The direction to set a label in: clear of the lines through the point
     (``avoid``, radians, either sense), and as near ``away`` as that allows."""
-    if not avoid:
-        return away
-
-    def clearance(c):
-        return min(abs((c - a + 0.5 * math.pi) % math.pi - 0.5 * math.pi) for a in avoid)
-
-    candidates = [away + k * math.pi / 8.0 for k in range(16)]
-    return max(candidates, key=lambda c: min(clearance(c), CLEAR_ANGLE) + 0.3 * math.cos(c - away))
+    # Written out in loops rather than min/max over generators: this runs for every label of
+    # every view at every frame of a drag.
+    half = 0.5 * math.pi
+    best, best_score = away, -math.inf
+    for turn, bonus in _TURNS:
+        candidate = away + turn
+        clearance = CLEAR_ANGLE  # clear enough: further does not count
+        for line in avoid:
+            gap = abs((candidate - line + half) % math.pi - half)
+            if gap < clearance:
+                clearance = gap
+        if turn == 0.0 and clearance >= CLEAR_ANGLE:
+            return away  # the best any direction can score: clear, and straight away
+        if clearance + bonus > best_score:
+            best, best_score = candidate, clearance + bonus
+    return best
 
 
 def label(rec: Recorder, at, text: str, away_from, pen, size: Symbols, gap: float, avoid=(), **ids) -> None:
@@ -111,9 +143,15 @@ def label(rec: Recorder, at, text: str, away_from, pen, size: Symbols, gap: floa
     dx, dy = at[0] - away_from[0], at[1] - away_from[1]
     away = math.atan2(dy, dx) if math.hypot(dx, dy) > 1e-9 else math.pi / 4.0
     direction = _label_direction(away, avoid)
+    rec.labels.append((len(rec.primitives), at, gap, direction))
+    rec.add(text_beside(at, direction, gap, Text(position=at, text=text, height=size.text, pen=pen, **ids)))
+
+
+def text_beside(at, direction: float, gap: float, text: Text) -> Text:
+    """``text`` set beside ``at`` towards ``direction`` (radians), clear of a mark ``gap`` mm
+    wide: aligned and anchored on the side facing the point."""
     ux, uy = math.cos(direction), math.sin(direction)
-    distance = gap + 0.6 * size.text
-    position = (at[0] + distance * ux, at[1] + distance * uy)
+    distance = gap + 0.6 * text.height
     align = "left" if ux > 0.38 else "right" if ux < -0.38 else "centre"
     anchor = "baseline" if uy > 0.38 else "top" if uy < -0.38 else "middle"
-    rec.add(Text(position=position, text=text, height=size.text, pen=pen, align=align, anchor=anchor, **ids))
+    return text._replace(position=(at[0] + distance * ux, at[1] + distance * uy), align=align, anchor=anchor)

@@ -1,0 +1,95 @@
+"""Each view drawn alone, for a pane that zooms: the space diagram at true size
+(sheet mm = machine mm, the file's origin kept), a polygon at its construction's
+scale, each with its scale bar, on a sheet with no paper.
+
+The symbols (pins, marks, arrowheads, text) come at the size asked for, so a
+window that keeps them a constant size on screen records its views again at
+each zoom, with sizes in drawing millimetres for that zoom. A view's ``box`` is
+what the drawing covers to scale (its points and its scale bar, not the
+symbols), for fitting the pane.
+
+>>> import kinematics
+>>> from kinematics.drawing.symbols import Symbols
+>>> mech = kinematics.load_mechanism({"kinepoly": 1, "length_unit": "mm",
+...     "points": {"O": [0, 0], "A": [30, 40]}, "ground": ["O"], "links": {"crank": ["O", "A"]},
+...     "driver": {"link": "crank", "pivot": "O", "speed": {"value": 60, "unit": "rpm"}}})
+>>> sheet = space_pane(mech, kinematics.solve(mech), Symbols())
+>>> sheet.views["space"].box
+(0.0, -11.0, 30.0, 40.0)
+"""
+
+from __future__ import annotations
+
+from .annotate import printed_unit, scale_bar
+from .polygons import draw_polygon, polygon_bounds
+from .scaling import plain
+from .sheet import Recorder, Sheet, View
+from .space import draw_linkage, draw_paths, file_positions, positions, traced_points
+from .symbols import Symbols
+
+# The space diagram's scale bar: about a quarter of the design long, this far under it (as
+# fractions of the design's size), placed from the file's pose so it stays put while the driver
+# turns. A polygon's bar: two fifths of the drawing's width, as far under it.
+SPACE_BAR_LENGTH, SPACE_BAR_BELOW = 0.25, 0.22
+POLYGON_BAR_LENGTH, POLYGON_BAR_BELOW = 0.4, 0.12
+
+
+def _bounds(points) -> tuple:
+    points = list(points)
+    xs, ys = [x for x, _ in points], [y for _, y in points]
+    return (min(xs), min(ys), max(xs), max(ys))
+
+
+def _with(box: tuple, other: tuple) -> tuple:
+    return (min(box[0], other[0]), min(box[1], other[1]), max(box[2], other[2]), max(box[3], other[3]))
+
+
+def space_pane(mech, solution, size: Symbols) -> Sheet:
+    """The space diagram of ``mech`` in the pose of ``solution`` (as the file places its points
+    when None), with its scale bar."""
+    xy = positions(solution) if solution is not None else file_positions(mech)
+    rec = Recorder()
+    if not xy:
+        rec.add_view(View("space", (0.0, 0.0, 0.0, 0.0), (0.0, 0.0), 1000.0, "m", "1:1"))
+        return rec.sheet(0.0, 0.0, title=mech.title)
+    view = View("space", (0.0, 0.0, 0.0, 0.0), (0.0, 0.0), 1000.0, "m", "1:1")
+    draw_linkage(rec, mech, xy, view, size)
+    reference = _bounds([view.place(mech.position_m(n)) for n in mech.points])
+    design_mm = max(1e3 * mech.size * mech.metres_per_unit, 1.0)
+    left, y = reference[0], reference[1] - SPACE_BAR_BELOW * design_mm
+    length = scale_bar(rec, (left, y), 1.0, "mm", SPACE_BAR_LENGTH * design_mm, "space diagram to scale", size,
+                       "space")
+    box = _with(_bounds(view.place(p) for p in xy.values()), (left, y, left + length, y))
+    rec.add_view(View("space", box, view.origin, view.mm_per_unit, view.unit, view.scale_text))
+    return rec.sheet(0.0, 0.0, title=mech.title)
+
+
+def paths_pane(mech, sweep) -> Sheet:
+    """The paths over the cycle ``sweep`` of the points a space diagram traces, at true size;
+    the view's box is where every point goes over the cycle."""
+    rec = Recorder()
+    low, high = sweep.positions.min(axis=(0, 1)).tolist(), sweep.positions.max(axis=(0, 1)).tolist()
+    view = View("space", (1e3 * low[0], 1e3 * low[1], 1e3 * high[0], 1e3 * high[1]), (0.0, 0.0), 1000.0, "m",
+                "1:1")
+    rec.add_view(view)
+    draw_paths(rec, sweep, view, traced_points(mech))
+    return rec.sheet(0.0, 0.0, title=mech.title)
+
+
+def polygon_pane(polygon, solution, size: Symbols) -> Sheet:
+    """``polygon`` of ``solution`` at its construction's scale (``polygon.scale_per_mm``), with
+    its scale bar under it."""
+    scale = polygon.scale_per_mm
+    unit = printed_unit(polygon.unit)
+    view = View(polygon.kind, (0.0, 0.0, 0.0, 0.0), (0.0, 0.0), 1.0 / scale, polygon.unit,
+                f"1 mm = {plain(scale)} {unit}")
+    rec = Recorder()
+    draw_polygon(rec, polygon, solution, view, size)
+    x0, y0, x1, y1 = (v / scale for v in polygon_bounds(polygon))
+    width = max(x1 - x0, y1 - y0, 1.0)
+    y = y0 - POLYGON_BAR_BELOW * width
+    length = scale_bar(rec, (x0, y), view.mm_per_unit, polygon.unit, POLYGON_BAR_LENGTH * width,
+                       f"drawing scale {view.scale_text}", size, polygon.kind) * view.mm_per_unit
+    rec.add_view(View(polygon.kind, _with((x0, y0, x1, y1), (x0, y, x0 + length, y)), view.origin,
+                      view.mm_per_unit, view.unit, view.scale_text))
+    return rec.sheet(0.0, 0.0)
