@@ -30,26 +30,38 @@ class DrawingsPanel(QSplitter):
             self.addWidget(view)
         self.setSizes([620, 490, 490])
         self.space_view.hovered.connect(self.mark_point)
-        for scene, view in self._pairs():
-            view.rescaled.connect(lambda scene=scene, view=view: scene.declutter(self._mm_per_pixel(view)))
+        # A zoom changes the size the symbols must be drawn at to keep their size on screen.
+        self.space_view.rescaled.connect(self._draw_space)
+        for view in (self.velocity_view, self.acceleration_view):
+            view.rescaled.connect(lambda view=view: self._draw_polygon(view))
         self.refresh()
         self.fit_space()
 
     def refresh(self):
-        doc = self.document
         topology = self.space_scene.topology
-        self.space_scene.show(doc.mechanism, doc.solution, doc.sweep)
+        self._draw_space()
+        self.show_paths()
         if self.space_scene.topology != topology and self.space_view.auto_fit:
             self.fit_space()  # a joint or link was added or removed: keep the whole design in view
-        self.space_scene.declutter(self._mm_per_pixel(self.space_view))
+        for view in (self.velocity_view, self.acceleration_view):
+            self._draw_polygon(view, fit=True)
+
+    def _draw_space(self):
+        doc = self.document
+        self.space_scene.show(doc.mechanism, doc.solution, self._mm_per_pixel(self.space_view))
+
+    def _draw_polygon(self, view, fit: bool = False):
+        """Draw the polygon of ``view``; ``fit`` lets the view refit it first (and draws it again for
+        the new zoom when it did)."""
+        doc, scene = self.document, view.scene()
         construction = doc.construction
-        plates = {n: pts for n, pts in doc.mechanism.links.items() if len(pts) > 2}
-        for scene, view, polygon in (
-                (self.velocity_scene, self.velocity_view, construction and construction.velocity),
-                (self.acceleration_scene, self.acceleration_view, construction and construction.acceleration)):
-            scene.show(polygon, plates)
+        polygon = construction and getattr(construction, scene.kind)
+        zoom = self._mm_per_pixel(view)
+        scene.show(polygon, doc.solution, zoom)
+        if fit and polygon is not None:
             view.show_rect(scene.content_rect)
-            scene.declutter(self._mm_per_pixel(view))
+            if self._mm_per_pixel(view) != zoom:
+                scene.show(polygon, doc.solution, self._mm_per_pixel(view))
 
     def set_draft(self, on: bool):
         """Draw without antialiasing while the pose follows the mouse (nearly half the cost of a
@@ -60,11 +72,7 @@ class DrawingsPanel(QSplitter):
 
     def show_paths(self):
         """Redraw the coupler paths alone (the document's sweep caught up with a drag)."""
-        self.space_scene.show_paths(self.document.sweep)
-
-    def _pairs(self):
-        return ((self.space_scene, self.space_view), (self.velocity_scene, self.velocity_view),
-                (self.acceleration_scene, self.acceleration_view))
+        self.space_scene.show_paths(self.document.mechanism, self.document.sweep)
 
     @staticmethod
     def _mm_per_pixel(view) -> float:
@@ -85,8 +93,10 @@ class DrawingsPanel(QSplitter):
             centre = rect.center()
             rect = QRectF(centre.x() - 0.5 * least, centre.y() - 0.5 * least, least, least)
         self.space_view.auto_fit = True
+        zoom = self._mm_per_pixel(self.space_view)
         self.space_view.show_rect(rect)
-        self.space_scene.declutter(self._mm_per_pixel(self.space_view))
+        if self._mm_per_pixel(self.space_view) != zoom:
+            self._draw_space()
 
     def fit_all(self):
         self.fit_space()
@@ -110,5 +120,5 @@ class DrawingsPanel(QSplitter):
     def select_step(self, step_id: str):
         """Emphasise step ``step_id`` in its polygon and the links it concerns ("" clears)."""
         for scene in (self.velocity_scene, self.acceleration_scene):
-            scene.select_step(step_id if step_id in scene.step_items else None)
+            scene.select_step(step_id if scene.has_step(step_id) else None)
         self.space_scene.emphasise(links=self._selected_links())

@@ -18,8 +18,6 @@ from PySide6.QtCore import QMarginsF, QPointF, Qt
 from PySide6.QtGui import (
     QBrush,
     QColor,
-    QFont,
-    QFontMetricsF,
     QGuiApplication,
     QPageLayout,
     QPageSize,
@@ -34,7 +32,8 @@ from kinematics.drawing.output import construction_from_file, run_reporting
 from kinematics.drawing.sheet import DASHES
 from kinematics.storage import StorageError, replace_atomically
 
-FONT_FAMILY = "DejaVu Sans"  # Debian fonts-dejavu-core: has ω α ° ² ′ and subscripts
+from .drawing_kit import font_for_capitals
+
 PDF_RESOLUTION_DPI = 1200
 PAGE_SIZES = {"A0": QPageSize.PageSizeId.A0, "A1": QPageSize.PageSizeId.A1, "A2": QPageSize.PageSizeId.A2,
               "A3": QPageSize.PageSizeId.A3, "A4": QPageSize.PageSizeId.A4}
@@ -47,7 +46,6 @@ class PainterBackend:
         self.painter = painter
         self.height = sheet_height_mm
         self.k = pixels_per_mm
-        self._fonts = {}
 
     def point(self, xy) -> QPointF:
         return QPointF(xy[0] * self.k, (self.height - xy[1]) * self.k)
@@ -64,16 +62,7 @@ class PainterBackend:
 
     def font(self, height_mm: float) -> tuple:
         """A font whose capitals are ``height_mm`` tall on the device, and its metrics."""
-        pixels = max(1, round(height_mm * self.k))
-        if pixels not in self._fonts:
-            probe = QFont(FONT_FAMILY)
-            probe.setPixelSize(1000)
-            # A font without a cap-height entry reports 0; 0.73 em is typical of sans faces.  # common practice
-            cap_ratio = QFontMetricsF(probe).capHeight() / 1000.0 or 0.73
-            font = QFont(FONT_FAMILY)
-            font.setPixelSize(max(1, round(pixels / cap_ratio)))
-            self._fonts[pixels] = (font, QFontMetricsF(font))
-        return self._fonts[pixels]
+        return font_for_capitals(max(1, round(height_mm * self.k)))
 
     def draw(self, primitive) -> None:
         p = self.painter

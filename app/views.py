@@ -9,7 +9,10 @@ from PySide6.QtCore import QPointF, QRect, QRectF, Qt, Signal
 from PySide6.QtGui import QColor, QPainter, QPen, QPixmap
 from PySide6.QtWidgets import QGraphicsView
 
+from kinematics.drawing import Ref
+
 from .drawing_kit import DASHES, label_font
+from .scene_backend import ITEM_HANDLE, ITEM_REF
 
 ZOOM_PER_WHEEL_STEP = 1.15
 # Panning needs room beyond the drawing; the scene rect is the drawing grown by this factor.
@@ -112,8 +115,9 @@ class PolygonView(DrawingView):
         """The step drawn within a few pixels of ``pos`` (lines are thin: aim need not be exact)."""
         near = QRect(pos.x() - PICK_PIXELS, pos.y() - PICK_PIXELS, 2 * PICK_PIXELS, 2 * PICK_PIXELS)
         for item in self.items(near):
-            if isinstance(item.data(0), str):
-                return item.data(0)
+            ref = item.data(ITEM_REF)
+            if isinstance(ref, Ref) and ref.kind == "step":
+                return ref.name
         return None
 
     def mousePressEvent(self, event):
@@ -221,10 +225,10 @@ class SpaceView(DrawingView):
             super().keyPressEvent(event)
 
     def joint_at(self, pos) -> str | None:
+        """The joint whose pin is under ``pos`` (view pixels), if any."""
         for item in self.items(pos):
-            data = item.data(0)
-            if isinstance(data, tuple) and data[0] == "point":
-                return data[1]
+            if item.data(ITEM_HANDLE):
+                return item.data(ITEM_REF).name
         return None
 
     def _machine_mm(self, pos) -> tuple:

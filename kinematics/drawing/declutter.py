@@ -46,22 +46,30 @@ def declutter(rec: Recorder, view: str) -> None:
         text = rec.primitives[index]
         if text.view != view:
             continue
-        # Only boxes that could touch one of this label's sides matter (a few, of many).
-        first = text_box(text)
-        reach = gap + 1.5 * max(first[2] - first[0], first[3] - first[1])
-        near = (at[0] - reach, at[1] - reach, at[0] + reach, at[1] + reach)
-        near_placed = [box for box in placed if _overlap(near, box)]
-        near_marks = [box for box in marks if _overlap(near, box)]
-        fallback = chosen = None
-        for side in (direction, *SIDES):
-            candidate = text if side == direction else text_beside(at, side, gap, text)
-            box = first if side == direction else text_box(candidate)
-            if any(_overlap(box, other) for other in near_placed):
-                continue
-            fallback = fallback or (candidate, box)
-            if not any(_overlap(box, other) for other in near_marks):
-                chosen = (candidate, box)
-                break
-        candidate, box = chosen or fallback or (text, first)
-        rec.primitives[index] = candidate
+        box = text_box(text)
+        # Most labels are free where they were set: one look at every box tells.
+        if any(_overlap(box, other) for other in placed) or any(_overlap(box, other) for other in marks):
+            text, box = _free_side(text, box, at, gap, direction, placed, marks)
+            rec.primitives[index] = text
         placed.append(box)
+
+
+def _free_side(text: Text, box: tuple, at, gap: float, direction: float, placed: list, marks: list) -> tuple:
+    """The label ``text`` (covering ``box``) on the first side free of both ``placed`` labels and
+    ``marks``, else of the labels alone, else where it was; and its box."""
+    # Only boxes that could touch one of this label's sides matter (a few, of many).
+    reach = gap + 1.5 * max(box[2] - box[0], box[3] - box[1])
+    near = (at[0] - reach, at[1] - reach, at[0] + reach, at[1] + reach)
+    near_placed = [other for other in placed if _overlap(near, other)]
+    near_marks = [other for other in marks if _overlap(near, other)]
+    # Where it was, if clear of the other labels, is the side to fall back on (the first tried).
+    fallback = None if any(_overlap(box, other) for other in near_placed) else (text, box)
+    for side in SIDES:
+        candidate = text_beside(at, side, gap, text)
+        side_box = text_box(candidate)
+        if any(_overlap(side_box, other) for other in near_placed):
+            continue
+        if not any(_overlap(side_box, other) for other in near_marks):
+            return candidate, side_box
+        fallback = fallback or (candidate, side_box)
+    return fallback or (text, box)

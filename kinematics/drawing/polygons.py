@@ -73,15 +73,12 @@ def _labels(polygon, view: View, size: Symbols) -> list:
 
 def _draw_image_figures(rec: Recorder, polygon, solution, view: View, xy: dict) -> None:
     """The image of each link, directly similar to it: a segment for a bar, a figure for a plate."""
-    image_steps = {name: step.id for step in polygon.steps if step.role is Role.IMAGE for name in step.points}
     for link, names in solution.mechanism.links.items():
         if len(names) < 2 or not all(n in polygon.images for n in names):
             continue
         order, closed = outline(names, xy)
         points = tuple(view.place(polygon.images[n]) for n in order)
-        step_id = next((image_steps[n] for n in order if n in image_steps), "")
-        # Drawn as the link's image: it leads back to the image step that found it, if one did.
-        ids = {"view": view.name, "ref": Ref("step", step_id) if step_id else Ref("image", link)}
+        ids = {"view": view.name, "ref": Ref("image", link)}
         if len(points) == 2:
             rec.add(Line(start=points[0], end=points[1], pen=IMAGE, **ids))
         else:

@@ -6,7 +6,7 @@ from __future__ import annotations
 import math
 from fractions import Fraction
 
-from ..scales import series_at_least, series_at_most
+from ..scales import series_at_least, series_at_most, series_term
 
 
 def iso5455_ratio(largest: float) -> Fraction:
@@ -22,7 +22,8 @@ def iso5455_ratio(largest: float) -> Fraction:
     """
     if not math.isfinite(largest) or largest <= 0.0:
         raise ValueError(f"no drawing scale fits a factor of {largest}")
-    return series_at_most(largest)
+    mantissa, power = series_term(largest, at_least=False)
+    return Fraction(mantissa) * Fraction(10) ** power
 
 
 def ratio_text(ratio: Fraction) -> str:
@@ -37,12 +38,12 @@ def polygon_scale(needed_per_mm: float) -> float:
     """The smallest round scale 1, 2, 5 × 10ⁿ (units per mm of paper) not below ``needed_per_mm``."""
     if not math.isfinite(needed_per_mm) or needed_per_mm <= 0.0:
         return 1.0
-    return float(series_at_least(needed_per_mm))
+    return series_at_least(needed_per_mm)
 
 
 def bar_value(longest_mm: float, mm_per_value: float) -> float:
     """The largest round value (1, 2, 5 × 10ⁿ) whose bar is at most ``longest_mm`` long."""
-    return float(series_at_most(longest_mm / mm_per_value))
+    return series_at_most(longest_mm / mm_per_value)
 
 
 def plain(value: float) -> str:

@@ -96,6 +96,10 @@ def directions_at(point, segments, tolerance: float) -> list:
     px, py = point
     out = []
     for (x0, y0), (x1, y1) in segments:
+        # Most segments are far from the point: their box, grown by the tolerance, tells at once.
+        if (px < x0 - tolerance and px < x1 - tolerance) or (px > x0 + tolerance and px > x1 + tolerance) or \
+                (py < y0 - tolerance and py < y1 - tolerance) or (py > y0 + tolerance and py > y1 + tolerance):
+            continue
         dx, dy = x1 - x0, y1 - y0
         length2 = dx * dx + dy * dy
         if length2 == 0.0:
