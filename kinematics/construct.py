@@ -20,7 +20,7 @@ from .errors import KinematicsError
 from .groups import Frame, Laid, acceleration, drive, velocity
 from .model import GROUND
 from .solve import Solution
-from .steps import Component, Construction, PolygonBuilder, Role, direction_deg, figure
+from .steps import Component, Construction, PolygonBuilder, Role, direction_words, figure
 
 
 def _driver_steps(frame: Frame, mech, vb: PolygonBuilder, ab: PolygonBuilder):
@@ -34,7 +34,7 @@ def _driver_steps(frame: Frame, mech, vb: PolygonBuilder, ab: PolygonBuilder):
         v = frame.vel[q]
         vb.vector(Component.DRIVER, 0.0, v, vb.label(q), f"v_{q} = ω_{link} × r_{pivot}{q}",
                   f"velocity of {q}: ω·r = {figure(abs(omega))} rad/s × {figure(abs(r))} m = {figure(abs(v))} m/s, "
-                  f"perpendicular to {pivot}{q}, at {direction_deg(v):.1f}°", points=(q,), links=(link,))
+                  f"perpendicular to {pivot}{q}{direction_words(v)}", points=(q,), links=(link,))
         radial_end = -(omega ** 2) * r
         ab.vector(Component.RADIAL, 0.0, radial_end, "" if alpha else ab.label(q),
                   f"a_{q}{pivot}^r = ω²·r_{q}{pivot}",

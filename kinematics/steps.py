@@ -20,6 +20,7 @@ from .decompose import Decomposition, Group
 from .errors import ParallelLines
 from .scales import preferred_scale
 from .solve import Solution
+from .vectors import direction_deg
 
 # An intersection whose condition figure exceeds this is flagged on its step.
 FLAG_CONDITION = 1e3
@@ -121,8 +122,11 @@ def as_xy(z) -> tuple:
     return (z.real, z.imag)
 
 
-def direction_deg(z) -> float:
-    return math.degrees(math.atan2(complex(z).imag, complex(z).real)) % 360.0
+def direction_words(z) -> str:
+    """", at 150.0°" for a vector z (complex), "" for a zero one (see :mod:`kinematics.vectors`)."""
+    z = complex(z)
+    direction = direction_deg(z.real, z.imag)
+    return "" if direction is None else f", at {direction:.1f}°"
 
 
 @dataclass
