@@ -27,7 +27,7 @@ from PySide6.QtGui import (
     QPolygonF,
 )
 
-from kinematics.drawing import PAPER, Arrow, Circle, Hatch, Line, Note, Polyline, Text, draw_sheet
+from kinematics.drawing import PAPER, Arrow, Circle, Hatch, Line, Note, Polyline, Strokes, Text, draw_sheet
 from kinematics.drawing.output import construction_from_file, run_reporting
 from kinematics.drawing.sheet import DASHES
 from kinematics.storage import StorageError, replace_atomically
@@ -70,6 +70,11 @@ class PainterBackend:
         if isinstance(primitive, Line):
             p.setPen(self.pen(primitive.pen))
             p.drawLine(self.point(primitive.start), self.point(primitive.end))
+        elif isinstance(primitive, Strokes):
+            p.setPen(self.pen(primitive.pen))
+            ends = primitive.points
+            for i in range(0, len(ends) - 1, 2):
+                p.drawLine(self.point(ends[i]), self.point(ends[i + 1]))
         elif isinstance(primitive, Polyline):
             p.setPen(self.pen(primitive.pen))
             polygon = QPolygonF([self.point(xy) for xy in primitive.points])

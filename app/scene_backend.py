@@ -30,7 +30,7 @@ from PySide6.QtWidgets import (
     QGraphicsSimpleTextItem,
 )
 
-from kinematics.drawing import Arrow, Circle, Hatch, Line, Polyline, Text
+from kinematics.drawing import Arrow, Circle, Hatch, Line, Polyline, Strokes, Text
 from kinematics.style import IMAGE, SPACE_PATH
 
 from .drawing_kit import font_for_capitals, qpen
@@ -167,6 +167,9 @@ class SceneBackend:
             if primitive.pen == SPACE_PATH:
                 # A path of a whole cycle stays put while the links move over it: kept as a pixmap.
                 items[0].setCacheMode(QGraphicsItem.CacheMode.DeviceCoordinateCache)
+        elif kind is Strokes:
+            items = [QGraphicsPathItem()]
+            items[0].setZValue(Z_LINE)
         elif kind is Arrow:
             shaft, head = QGraphicsLineItem(), QGraphicsPolygonItem()
             shaft.setZValue(Z_SHAFT)
@@ -230,6 +233,13 @@ class SceneBackend:
                 path = QPainterPath()
                 path.addPolygon(_points(primitive.points))
                 items[0].setPath(path)
+        elif kind is Strokes:
+            path = QPainterPath()
+            ends = primitive.points
+            for i in range(0, len(ends) - 1, 2):
+                path.moveTo(ends[i][0], -ends[i][1])
+                path.lineTo(ends[i + 1][0], -ends[i + 1][1])
+            items[0].setPath(path)
         elif kind is Arrow:
             (x0, y0), (x1, y1) = primitive.start, primitive.end
             items[0].setLine(x0, -y0, x1, -y1)

@@ -17,7 +17,7 @@ import ezdxf
 from ezdxf import bbox
 from ezdxf.enums import TextEntityAlignment
 
-from .drawing import Arrow, Circle, Hatch, Line, Note, Polyline, Text, draw_model
+from .drawing import Arrow, Circle, Hatch, Line, Note, Polyline, Strokes, Text, draw_model
 from .drawing.output import construction_from_file, run_reporting
 from .drawing.sheet import DASHES
 from .storage import replace_atomically
@@ -111,6 +111,9 @@ def _add(msp, attribs, primitive) -> list:
     """The entities drawing one primitive."""
     if isinstance(primitive, Line):
         return [msp.add_line(primitive.start, primitive.end, dxfattribs=attribs)]
+    if isinstance(primitive, Strokes):
+        ends = primitive.points
+        return [msp.add_line(ends[i], ends[i + 1], dxfattribs=attribs) for i in range(0, len(ends) - 1, 2)]
     if isinstance(primitive, Polyline):
         return [msp.add_lwpolyline(primitive.points, close=primitive.closed, dxfattribs=attribs)]
     if isinstance(primitive, Arrow):

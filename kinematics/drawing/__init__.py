@@ -12,8 +12,8 @@ the DXF writer and (later) the window replay. No Qt here.
 """
 
 from .layout import PAPER, draw_model, draw_sheet
-from .sheet import Arrow, Circle, Hatch, Line, Note, Polyline, Recorder, Ref, Sheet, Text, View
+from .sheet import Arrow, Circle, Hatch, Line, Note, Polyline, Recorder, Ref, Sheet, Strokes, Text, View
 from .table import results_csv
 
-__all__ = ["PAPER", "Arrow", "Circle", "Hatch", "Line", "Note", "Polyline", "Recorder", "Ref", "Sheet", "Text", "View",
-           "draw_model", "draw_sheet", "results_csv"]
+__all__ = ["PAPER", "Arrow", "Circle", "Hatch", "Line", "Note", "Polyline", "Recorder", "Ref", "Sheet", "Strokes",
+           "Text", "View", "draw_model", "draw_sheet", "results_csv"]

@@ -37,6 +37,15 @@ def _overlap(a: tuple, b: tuple) -> bool:
     return a[0] < b[2] and b[0] < a[2] and a[1] < b[3] and b[1] < a[3]
 
 
+def _hits(box: tuple, others: list) -> bool:
+    """True when ``box`` overlaps any of ``others`` (written out: it runs for every label of every frame)."""
+    x0, y0, x1, y1 = box
+    for a0, b0, a1, b1 in others:
+        if x0 < a1 and a0 < x1 and y0 < b1 and b0 < y1:
+            return True
+    return False
+
+
 def declutter(rec: Recorder, view: str) -> None:
     """Move the labels of ``view`` so none covers an earlier one or a mark, where a side is
     free; where none is free of both, a side free of the other labels will do."""
@@ -48,7 +57,7 @@ def declutter(rec: Recorder, view: str) -> None:
             continue
         box = text_box(text)
         # Most labels are free where they were set: one look at every box tells.
-        if any(_overlap(box, other) for other in placed) or any(_overlap(box, other) for other in marks):
+        if _hits(box, placed) or _hits(box, marks):
             text, box = _free_side(text, box, at, gap, direction, placed, marks)
             rec.primitives[index] = text
         placed.append(box)
@@ -63,13 +72,13 @@ def _free_side(text: Text, box: tuple, at, gap: float, direction: float, placed:
     near_placed = [other for other in placed if _overlap(near, other)]
     near_marks = [other for other in marks if _overlap(near, other)]
     # Where it was, if clear of the other labels, is the side to fall back on (the first tried).
-    fallback = None if any(_overlap(box, other) for other in near_placed) else (text, box)
+    fallback = None if _hits(box, near_placed) else (text, box)
     for side in SIDES:
         candidate = text_beside(at, side, gap, text)
         side_box = text_box(candidate)
-        if any(_overlap(side_box, other) for other in near_placed):
+        if _hits(side_box, near_placed):
             continue
-        if not any(_overlap(side_box, other) for other in near_marks):
+        if not _hits(side_box, near_marks):
             return candidate, side_box
         fallback = fallback or (candidate, side_box)
     return fallback or (text, box)

@@ -20,9 +20,11 @@ symbols), for fitting the pane.
 
 from __future__ import annotations
 
+import math
+
 from .annotate import printed_unit, scale_bar
 from .polygons import draw_polygon, polygon_bounds
-from .scaling import plain
+from .scaling import bar_value, plain
 from .sheet import Recorder, Sheet, View
 from .space import draw_linkage, draw_paths, file_positions, positions, traced_points
 from .symbols import Symbols
@@ -87,9 +89,13 @@ def polygon_pane(polygon, solution, size: Symbols) -> Sheet:
     draw_polygon(rec, polygon, solution, view, size)
     x0, y0, x1, y1 = (v / scale for v in polygon_bounds(polygon))
     width = max(x1 - x0, y1 - y0, 1.0)
-    y = y0 - POLYGON_BAR_BELOW * width
-    length = scale_bar(rec, (x0, y), view.mm_per_unit, polygon.unit, POLYGON_BAR_LENGTH * width,
-                       f"drawing scale {view.scale_text}", size, polygon.kind) * view.mm_per_unit
-    rec.add_view(View(polygon.kind, _with((x0, y0, x1, y1), (x0, y, x0 + length, y)), view.origin,
+    length = bar_value(POLYGON_BAR_LENGTH * width, view.mm_per_unit) * view.mm_per_unit
+    # On a grid of half the bar's length: the bar stays put while the polygon changes a little
+    # from frame to frame of a drag, rather than trembling with the drawing's edge.
+    grid = 0.5 * length
+    x, y = math.floor(x0 / grid) * grid, math.floor((y0 - POLYGON_BAR_BELOW * width) / grid) * grid
+    scale_bar(rec, (x, y), view.mm_per_unit, polygon.unit, length, f"drawing scale {view.scale_text}", size,
+              polygon.kind)
+    rec.add_view(View(polygon.kind, _with((x0, y0, x1, y1), (x, y, x + length, y)), view.origin,
                       view.mm_per_unit, view.unit, view.scale_text))
     return rec.sheet(0.0, 0.0)

@@ -56,6 +56,16 @@ class Polyline(NamedTuple):
     ref: Ref | None = None
 
 
+class Strokes(NamedTuple):
+    """Separate straight strokes in one pen (hatching, ticks): ``points`` taken in pairs,
+    each pair one stroke."""
+
+    points: tuple
+    pen: Pen
+    view: str = ""
+    ref: Ref | None = None
+
+
 class Arrow(NamedTuple):
     """A vector: shaft from ``start`` to ``end`` and a filled ``head`` triangle
     (its three corners, tip first) at ``end``."""

@@ -13,7 +13,7 @@ from ..model import GROUND
 from ..style import ANNOTATION, SPACE_GROUND, SPACE_LINK, SPACE_PATH
 from . import symbols
 from .declutter import declutter
-from .sheet import Line, Polyline, Recorder, Ref, Text, View
+from .sheet import Line, Polyline, Recorder, Ref, Strokes, Text, View
 from .symbols import Symbols
 
 # Points this close to one line (relative to the link's size) make a straight bar, not a plate.
@@ -83,8 +83,8 @@ def draw_linkage(rec: Recorder, mech, xy: dict, view: View, size: Symbols) -> No
     at = {name: view.place(p) for name, p in xy.items()}
     if not at:
         return
-    for link, names in mech.links.items():
-        order, closed = outline(names, xy)
+    orders = {link: outline(names, xy) for link, names in mech.links.items()}
+    for link, (order, closed) in orders.items():
         ids = {"view": view.name, "ref": Ref("link", link)}
         if len(order) == 2:
             rec.add(Line(start=at[order[0]], end=at[order[1]], pen=SPACE_LINK, **ids))
@@ -95,7 +95,7 @@ def draw_linkage(rec: Recorder, mech, xy: dict, view: View, size: Symbols) -> No
     xs, ys = [x for x, _ in at.values()], [y for _, y in at.values()]
     centre = (sum(xs) / len(xs), sum(ys) / len(ys))
     _draw_joints(rec, mech, at, centre, size, view.name)
-    _draw_link_names(rec, mech, xy, at, centre, size, view.name)
+    _draw_link_names(rec, orders, at, centre, size, view.name)
     if mech.driver is not None:
         _draw_driver_sense(rec, mech, at, centre, size, {"view": view.name, "ref": Ref("driver", mech.driver.link)})
     declutter(rec, view.name)
@@ -123,14 +123,13 @@ def _segments(primitives, view: str) -> list:
     return out
 
 
-def _draw_link_names(rec: Recorder, mech, xy, at, centre, size: Symbols, view: str) -> None:
+def _draw_link_names(rec: Recorder, orders: dict, at, centre, size: Symbols, view: str) -> None:
     """Each link's name in small text, so the results table reads against the
     drawing: beside a bar's middle (on the side away from the mechanism's
-    middle), at a plate's centre."""
+    middle), at a plate's centre. ``orders`` is each link's :func:`outline`."""
     small = Symbols(text=size.small_text)
-    for link, names in mech.links.items():
+    for link, (order, closed) in orders.items():
         ids = {"view": view, "ref": Ref("link", link)}
-        order, closed = outline(names, xy)
         if closed:
             where = (sum(at[n][0] for n in order) / len(order), sum(at[n][1] for n in order) / len(order))
             rec.add(Text(position=where, text=link, height=size.small_text, pen=ANNOTATION, align="centre",
@@ -201,14 +200,17 @@ def _draw_slide(rec: Recorder, slide, at, size: Symbols, ids) -> None:
         # Hatching on the guide's right-hand side marks it as fixed: strokes at 45° back along it.
         pitch, stroke = 3.0 * size.pin, 2.0 * size.pin * 0.7071
         hx, hy = stroke * (uy - ux), stroke * (-ux - uy)
+        strokes = []
         for k in range(int((hi - lo) // pitch) + 1):
             sx, sy = ex + (lo + k * pitch) * ux, ey + (lo + k * pitch) * uy
-            rec.add(Line(start=(sx, sy), end=(sx + hx, sy + hy), pen=SPACE_GROUND, **ids))
+            strokes += [(sx, sy), (sx + hx, sy + hy)]
+        rec.add(Strokes(points=tuple(strokes), pen=SPACE_GROUND, **ids))
     symbols.slider_block(rec, (dx, dy), (ux, uy), SPACE_LINK, size, **ids)
 
 
-def _angle_gap(a: float, b: float) -> float:
-    return abs((a - b + math.pi) % (2.0 * math.pi) - math.pi)
+# Where the driver's sense arrow may sit round its pivot: every 10°.
+_ARC_MIDDLES = tuple(math.radians(d) for d in range(0, 360, 10))
+_TURN = 2.0 * math.pi
 
 
 def _draw_driver_sense(rec: Recorder, mech, at, centre, size: Symbols, ids) -> None:
@@ -222,7 +224,13 @@ def _draw_driver_sense(rec: Recorder, mech, at, centre, size: Symbols, ids) -> N
             for n in names if n != driver.pivot]
     busy.append(math.atan2(cy - centre[1], cx - centre[0]))  # the label sits away from the middle
     busy.append(-0.5 * math.pi)  # the fixed-pivot mark hangs below
-    middle = max((math.radians(d) for d in range(0, 360, 10)), key=lambda c: min(_angle_gap(c, b) for b in busy))
+    middle, widest = 0.0, -1.0
+    for candidate in _ARC_MIDDLES:  # loops, not min/max over generators: this runs at every frame of a drag
+        gap = math.pi
+        for taken in busy:
+            gap = min(gap, abs((candidate - taken + math.pi) % _TURN - math.pi))
+        if gap > widest:
+            middle, widest = candidate, gap
     sense = 1.0 if driver.speed_rad_s > 0 else -1.0
     radius = 5.5 * size.pin
     angles = [middle + sense * math.radians(-45 + 5 * k) for k in range(19)]  # 90° of arc

@@ -11,7 +11,7 @@ from __future__ import annotations
 import math
 from dataclasses import dataclass
 
-from .sheet import Arrow, Circle, Line, Polyline, Recorder, Text
+from .sheet import Arrow, Circle, Polyline, Recorder, Strokes, Text
 
 
 @dataclass(frozen=True)
@@ -66,10 +66,11 @@ def fixed_pivot(rec: Recorder, at, pen, size: Symbols, **ids) -> None:
     triangle = ((x, y - size.pin), (x - w, base), (x + w, base))
     rec.add(Polyline(points=triangle, pen=pen, closed=True, **ids))
     mark(rec, triangle, ids.get("view", ""))
-    rec.add(Line(start=(x - 1.6 * w, base), end=(x + 1.6 * w, base), pen=pen, **ids))
+    strokes = [(x - 1.6 * w, base), (x + 1.6 * w, base)]  # the base line, then its hatching
     for i in range(5):
         left = x - 1.6 * w + i * 0.8 * w
-        rec.add(Line(start=(left + 0.6 * w, base), end=(left, base - 0.6 * w), pen=pen, **ids))
+        strokes += [(left + 0.6 * w, base), (left, base - 0.6 * w)]
+    rec.add(Strokes(points=tuple(strokes), pen=pen, **ids))
 
 
 def pin(rec: Recorder, at, pen, size: Symbols, joint: bool, **ids) -> None:
@@ -114,29 +115,36 @@ def directions_at(point, segments, tolerance: float) -> list:
 CLEAR_ANGLE = math.radians(40.0)
 
 
-# The sixteen directions a label may take, as turns from its preferred one, with the bonus
-# each gets for staying near it.
-_TURNS = tuple((k * math.pi / 8.0, 0.3 * math.cos(k * math.pi / 8.0)) for k in range(16))
+# The sixteen directions a label may take, as turns from its preferred one, with the bonus each
+# gets for staying near it; tried in the order of that bonus, so the search can stop as soon as
+# no direction left could score better (each keeps its place in the sixteen for ties).
+_TURNS = sorted(((k * math.pi / 8.0, 0.3 * math.cos(k * math.pi / 8.0), k) for k in range(16)),
+                key=lambda turn: (-turn[1], turn[2]))
 
 
 def _label_direction(away: float, avoid) -> float:
     """The direction to set a label in: clear of the lines through the point
-    (``avoid``, radians, either sense), and as near ``away`` as that allows."""
+    (``avoid``, radians, either sense), and as near ``away`` as that allows.
+
+    Of the sixteen directions, the one with the best score, clearance (up to CLEAR_ANGLE) plus a
+    bonus for staying near ``away``; the first of the sixteen among equals.
+    """
     # Written out in loops rather than min/max over generators: this runs for every label of
     # every view at every frame of a drag.
     half = 0.5 * math.pi
-    best, best_score = away, -math.inf
-    for turn, bonus in _TURNS:
+    best, best_score, best_k = away, -math.inf, 16
+    for turn, bonus, k in _TURNS:
+        if CLEAR_ANGLE + bonus < best_score:
+            break  # no direction left can do better
         candidate = away + turn
         clearance = CLEAR_ANGLE  # clear enough: further does not count
         for line in avoid:
             gap = abs((candidate - line + half) % math.pi - half)
             if gap < clearance:
                 clearance = gap
-        if turn == 0.0 and clearance >= CLEAR_ANGLE:
-            return away  # the best any direction can score: clear, and straight away
-        if clearance + bonus > best_score:
-            best, best_score = candidate, clearance + bonus
+        score = clearance + bonus
+        if score > best_score or (score == best_score and k < best_k):
+            best, best_score, best_k = candidate, score, k
     return best
 
 
@@ -158,4 +166,5 @@ def text_beside(at, direction: float, gap: float, text: Text) -> Text:
     distance = gap + 0.6 * text.height
     align = "left" if ux > 0.38 else "right" if ux < -0.38 else "centre"
     anchor = "baseline" if uy > 0.38 else "top" if uy < -0.38 else "middle"
-    return text._replace(position=(at[0] + distance * ux, at[1] + distance * uy), align=align, anchor=anchor)
+    return Text((at[0] + distance * ux, at[1] + distance * uy), text.text, text.height, text.pen, align, anchor,
+                text.view, text.ref)
