@@ -7,11 +7,14 @@ from PySide6.QtCore import QRectF, Qt
 from PySide6.QtGui import QPainter
 from PySide6.QtWidgets import QSplitter
 
+from kinematics.drawing.panes import BAR_ROOM
+
 from .polygon_scene import PolygonScene
-from .space_scene import SpaceScene
+from .space_scene import PIXELS_PER_SYMBOL_MM, SCREEN_SYMBOLS, SpaceScene
 from .views import PolygonView, SpaceView
 
 EMPTY_VIEW_MM = 200.0
+REFITS = 3
 
 
 class DrawingsPanel(QSplitter):
@@ -28,12 +31,14 @@ class DrawingsPanel(QSplitter):
         self.acceleration_view = PolygonView(self.acceleration_scene, "acceleration polygon")
         for view in (self.space_view, self.velocity_view, self.acceleration_view):
             self.addWidget(view)
+            view.bottom_pixels = BAR_ROOM * SCREEN_SYMBOLS.text * PIXELS_PER_SYMBOL_MM  # the scale bar's words
         self.setSizes([620, 490, 490])
         self.space_view.hovered.connect(self.mark_point)
-        # A zoom changes the size the symbols must be drawn at to keep their size on screen.
-        self.space_view.rescaled.connect(self._draw_space)
+        # A zoom changes the size the symbols must be drawn at to keep their size on screen, and so
+        # the room they take: a view that fits its drawing (it was resized) fits it again.
+        self.space_view.rescaled.connect(self._space_rescaled)
         for view in (self.velocity_view, self.acceleration_view):
-            view.rescaled.connect(lambda view=view: self._draw_polygon(view))
+            view.rescaled.connect(lambda view=view: self._draw_polygon(view, fit=view.auto_fit))
         self.refresh()
         self.fit_space()
 
@@ -45,6 +50,11 @@ class DrawingsPanel(QSplitter):
             self.fit_space()  # a joint or link was added or removed: keep the whole design in view
         for view in (self.velocity_view, self.acceleration_view):
             self._draw_polygon(view, fit=True)
+
+    def _space_rescaled(self):
+        self._draw_space()
+        if self.space_view.auto_fit:
+            self.fit_space()
 
     def _draw_space(self):
         doc = self.document
@@ -58,10 +68,14 @@ class DrawingsPanel(QSplitter):
         polygon = construction and getattr(construction, scene.kind)
         zoom = self._mm_per_pixel(view)
         scene.show(polygon, doc.solution, zoom)
-        if fit and polygon is not None:
+        # A refit changes the zoom, and with it how much room the symbols take: drawn again at the
+        # new zoom and fitted again, a few times at most (it settles at once in practice).
+        for _ in range(REFITS if fit and polygon is not None else 0):
             view.show_rect(scene.content_rect)
-            if self._mm_per_pixel(view) != zoom:
-                scene.show(polygon, doc.solution, self._mm_per_pixel(view))
+            if self._mm_per_pixel(view) == zoom:
+                break
+            zoom = self._mm_per_pixel(view)
+            scene.show(polygon, doc.solution, zoom)
 
     def set_draft(self, on: bool):
         """Draw without antialiasing while the pose follows the mouse (nearly half the cost of a
@@ -80,6 +94,16 @@ class DrawingsPanel(QSplitter):
 
     def fit_space(self):
         """Fit the space diagram, with room for the links to turn."""
+        self.space_view.auto_fit = True
+        # As for a polygon: a refit changes the room the symbols take, so fitted again at the new zoom.
+        for _ in range(REFITS):
+            zoom = self._mm_per_pixel(self.space_view)
+            self.space_view.show_rect(self._space_rect())
+            if self._mm_per_pixel(self.space_view) == zoom:
+                break
+            self._draw_space()
+
+    def _space_rect(self) -> QRectF:
         rect = self.space_scene.drawing_rect()
         mech = self.document.mechanism
         # At least the design's own size across (a 200 mm sheet for one point or none), so a
@@ -92,11 +116,7 @@ class DrawingsPanel(QSplitter):
         if rect.width() < least and rect.height() < least:
             centre = rect.center()
             rect = QRectF(centre.x() - 0.5 * least, centre.y() - 0.5 * least, least, least)
-        self.space_view.auto_fit = True
-        zoom = self._mm_per_pixel(self.space_view)
-        self.space_view.show_rect(rect)
-        if self._mm_per_pixel(self.space_view) != zoom:
-            self._draw_space()
+        return rect
 
     def fit_all(self):
         self.fit_space()

@@ -19,8 +19,9 @@ from kinematics.drawing.symbols import Symbols
 from .scene_backend import SceneBackend
 
 # The window's symbols, in millimetres of a sheet drawn at PIXELS_PER_SYMBOL_MM on screen: the
-# sheet's proportions, a little larger than on paper (a screen is read from further away).
-SCREEN_SYMBOLS = Symbols(text=2.5, small_text=1.9, pin=1.1, dot=0.7, arrow=3.0)
+# sheet's proportions, pins and arrowheads a little larger than on paper (a screen is read from
+# further away, and a pin is picked with the mouse).
+SCREEN_SYMBOLS = Symbols(text=2.5, small_text=1.9, pin=1.1, dot=0.7, arrow=4.5)
 PIXELS_PER_SYMBOL_MM = 4.0
 FIT_PAD = 0.06  # room round the drawing when fitting, as a fraction of its size
 

@@ -48,11 +48,21 @@ class DrawingView(QGraphicsView):
         self.viewport().setAttribute(Qt.WidgetAttribute.WA_OpaquePaintEvent)
         self.auto_fit = True
         self.fit_rect = QRectF(-100, -100, 200, 200)
+        self.bottom_pixels = 0.0  # room kept under the drawing for what keeps its screen size (a scale bar)
+
+    def room_pixels(self) -> tuple:
+        """Screen pixels kept free above and under the drawing when it is fitted."""
+        return 0.0, self.bottom_pixels
 
     def show_rect(self, rect: QRectF):
-        """The area to fit; refits unless the user has zoomed or panned, or the drawing is still
-        in view and fills at least REFIT_BELOW of it (a drawing that rescaled on every frame of a
-        drag would be hard to follow, and each refit repaints the whole view once more)."""
+        """The area to fit, with :meth:`room_pixels` above and under it; refits unless the user has
+        zoomed or panned, or the drawing is still in view and fills at least REFIT_BELOW of it (a
+        drawing that rescaled on every frame of a drag would be hard to follow, and each refit
+        repaints the whole view once more)."""
+        top, bottom = self.room_pixels()
+        height = self.viewport().height()
+        free = max(height - top - bottom, 0.3 * height)
+        rect = rect.adjusted(0, -rect.height() * top / free, 0, rect.height() * bottom / free)
         self.fit_rect = QRectF(rect)
         visible = self.mapToScene(self.viewport().rect()).boundingRect()
         if self.auto_fit and visible.contains(rect) and max(rect.width() / max(visible.width(), 1e-12),
@@ -132,11 +142,9 @@ class PolygonView(DrawingView):
         """Pixels the title and legend take at the top of the view."""
         return LEGEND_TOP + LEGEND_LINE * len(self.scene().used_pens())
 
-    def show_rect(self, rect: QRectF):
+    def room_pixels(self) -> tuple:
         # Room above the drawing for the legend, so it never covers a vector.
-        free = max(self.viewport().height() - self.legend_height(), 0.3 * self.viewport().height())
-        extra = rect.height() * self.legend_height() / free
-        super().show_rect(rect.adjusted(0, -extra, 0, 0))
+        return self.legend_height(), self.bottom_pixels
 
     def drawForeground(self, painter: QPainter, rect):
         painter.save()

@@ -5,8 +5,9 @@ scale, each with its scale bar, on a sheet with no paper.
 The symbols (pins, marks, arrowheads, text) come at the size asked for, so a
 window that keeps them a constant size on screen records its views again at
 each zoom, with sizes in drawing millimetres for that zoom. A view's ``box`` is
-what the drawing covers to scale (its points and its scale bar, not the
-symbols), for fitting the pane.
+what the drawing covers to scale (its points and where its scale bar starts,
+not the symbols), for fitting the pane, which keeps BAR_ROOM text heights free
+under it for the bar.
 
 >>> import kinematics
 >>> from kinematics.drawing.symbols import Symbols
@@ -34,6 +35,12 @@ from .symbols import Symbols
 # turns. A polygon's bar: two fifths of the drawing's width, as far under it.
 SPACE_BAR_LENGTH, SPACE_BAR_BELOW = 0.25, 0.22
 POLYGON_BAR_LENGTH, POLYGON_BAR_BELOW = 0.4, 0.12
+# Symbols keep their size while the drawing is zoomed: a bar is at least this many text heights
+# long (room for the numbers at its ends), and its caption takes this many over it (see
+# annotate.scale_bar: the bar's thickness, the gap and the caption's height). The box a view
+# fits leaves them out (they would grow as it zooms out); a pane keeps BAR_ROOM text heights
+# free under it for the bar's caption and its numbers.
+BAR_LEAST, CAPTION_ROOM, BAR_ROOM = 16.0, 3.2, 5.6
 
 
 def _bounds(points) -> tuple:
@@ -59,9 +66,10 @@ def space_pane(mech, solution, size: Symbols) -> Sheet:
     reference = _bounds([view.place(mech.position_m(n)) for n in mech.points])
     design_mm = max(1e3 * mech.size * mech.metres_per_unit, 1.0)
     left, y = reference[0], reference[1] - SPACE_BAR_BELOW * design_mm
-    length = scale_bar(rec, (left, y), 1.0, "mm", SPACE_BAR_LENGTH * design_mm, "space diagram to scale", size,
-                       "space")
-    box = _with(_bounds(view.place(p) for p in xy.values()), (left, y, left + length, y))
+    longest = SPACE_BAR_LENGTH * design_mm
+    scale_bar(rec, (left, y - CAPTION_ROOM * size.text), 1.0, "mm", max(longest, BAR_LEAST * size.text),
+              "space diagram to scale", size, "space")
+    box = _with(_bounds(view.place(p) for p in xy.values()), (left, y, left + longest, y))
     rec.add_view(View("space", box, view.origin, view.mm_per_unit, view.unit, view.scale_text))
     return rec.sheet(0.0, 0.0, title=mech.title)
 
@@ -89,13 +97,13 @@ def polygon_pane(polygon, solution, size: Symbols) -> Sheet:
     draw_polygon(rec, polygon, solution, view, size)
     x0, y0, x1, y1 = (v / scale for v in polygon_bounds(polygon))
     width = max(x1 - x0, y1 - y0, 1.0)
-    length = bar_value(POLYGON_BAR_LENGTH * width, view.mm_per_unit) * view.mm_per_unit
+    longest = POLYGON_BAR_LENGTH * width
     # On a grid of half the bar's length: the bar stays put while the polygon changes a little
     # from frame to frame of a drag, rather than trembling with the drawing's edge.
-    grid = 0.5 * length
+    grid = 0.5 * bar_value(longest, view.mm_per_unit) * view.mm_per_unit
     x, y = math.floor(x0 / grid) * grid, math.floor((y0 - POLYGON_BAR_BELOW * width) / grid) * grid
-    scale_bar(rec, (x, y), view.mm_per_unit, polygon.unit, length, f"drawing scale {view.scale_text}", size,
-              polygon.kind)
-    rec.add_view(View(polygon.kind, _with((x0, y0, x1, y1), (x, y, x + length, y)), view.origin,
-                      view.mm_per_unit, view.unit, view.scale_text))
+    scale_bar(rec, (x, y - CAPTION_ROOM * size.text), view.mm_per_unit, polygon.unit,
+              max(longest, BAR_LEAST * size.text), view.scale_text, size, polygon.kind)
+    box = _with((x0, y0, x1, y1), (x, y, x + longest, y))
+    rec.add_view(View(polygon.kind, box, view.origin, view.mm_per_unit, view.unit, view.scale_text))
     return rec.sheet(0.0, 0.0)
