@@ -246,7 +246,11 @@ class SceneBackend:
             items[1].setPolygon(_points(primitive.head))
         elif kind is Circle:
             (x, y), r = primitive.centre, primitive.radius
-            items[0].setRect(x - r, -y - r, 2.0 * r, 2.0 * r)
+            # Moved, not reshaped, while its size holds: a new rectangle makes Qt work out the
+            # ellipse's outline again.
+            if entry.primitive is None or entry.primitive.radius != r:
+                items[0].setRect(-r, -r, 2.0 * r, 2.0 * r)
+            items[0].setPos(x, -y)
         elif kind is Hatch:
             items[0].setPolygon(_points(primitive.points))
         else:

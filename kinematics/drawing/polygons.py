@@ -12,7 +12,7 @@ from ..steps import Role
 from ..style import IMAGE, pen_for
 from . import symbols
 from .declutter import declutter
-from .sheet import Arrow, Circle, Line, Polyline, Recorder, Ref, View
+from .sheet import Circle, Line, Polyline, Recorder, Ref, View
 from .space import outline, positions
 from .symbols import Symbols
 
@@ -31,27 +31,31 @@ def polygon_bounds(polygon) -> tuple:
 def draw_polygon(rec: Recorder, polygon, solution, view: View, size: Symbols, xy: dict | None = None) -> None:
     """Record ``polygon`` (a :class:`kinematics.Polygon` of ``solution``) into ``view``; ``xy``
     is the pose's point positions (:func:`~kinematics.drawing.space.positions`) if already at hand."""
-    _draw_image_figures(rec, polygon, solution, view, positions(solution) if xy is None else xy)
+    name, place = view.name, view.place
+    # The lines a label must not sit along: the image segments, construction lines and vectors.
+    segments = _draw_image_figures(rec, polygon, solution, view, positions(solution) if xy is None else xy)
     # Construction lines first, vectors over them, points and labels on top: the order a reader needs.
     for step in sorted(polygon.steps, key=lambda s: _LAYER_ORDER[s.role]):
-        pen = pen_for(step)
-        ids = {"view": view.name, "ref": Ref("step", step.id)}
-        coords = [view.place(c) for c in step.coords]
+        pen, ref = pen_for(step), Ref("step", step.id)
         if step.role is Role.DIRECTION:
-            rec.add(Line(start=coords[0], end=coords[-1], pen=pen, **ids))
+            ends = place(step.coords[0]), place(step.coords[-1])
+            rec.add(Line(*ends, pen, name, ref))
+            segments.append(ends)
         elif step.is_vector:
-            symbols.arrow(rec, coords[0], coords[-1], pen, size, **ids)
+            ends = place(step.coords[0]), place(step.coords[-1])
+            if symbols.arrow(rec, *ends, pen, size, view=name, ref=ref):
+                segments.append(ends)
         else:
-            rec.add(Circle(centre=coords[0], radius=size.dot, pen=pen, filled=True, **ids))
-            symbols.dot_mark(rec, coords[0], size.dot, view.name)
+            at = place(step.coords[0])
+            rec.add(Circle(at, size.dot, pen, True, name, ref))
+            symbols.dot_mark(rec, at, size.dot, name)
     labels = _labels(polygon, view, size)
     centre = (sum(where[0] for where, _, _ in labels) / len(labels),
               sum(where[1] for where, _, _ in labels) / len(labels)) if labels else view.origin
-    segments = [(p.start, p.end) for p in rec.primitives if p.view == view.name and isinstance(p, (Line, Arrow))]
+    lines = symbols.lines_near(segments, size.dot)
     for where, text, step_id in labels:
-        avoid = symbols.directions_at(where, segments, tolerance=size.dot)
-        symbols.label(rec, where, text, centre, IMAGE, size, gap=size.dot, avoid=avoid, view=view.name,
-                      ref=Ref("step", step_id))
+        symbols.label(rec, where, text, centre, IMAGE, size, gap=size.dot, avoid=symbols.directions_at(where, lines),
+                      view=name, ref=Ref("step", step_id))
     declutter(rec, view.name)
 
 
@@ -71,8 +75,10 @@ def _labels(polygon, view: View, size: Symbols) -> list:
     return merged
 
 
-def _draw_image_figures(rec: Recorder, polygon, solution, view: View, xy: dict) -> None:
-    """The image of each link, directly similar to it: a segment for a bar, a figure for a plate."""
+def _draw_image_figures(rec: Recorder, polygon, solution, view: View, xy: dict) -> list:
+    """The image of each link, directly similar to it: a segment for a bar, a figure for a plate;
+    returns the segments' ends."""
+    segments = []
     for link, names in solution.mechanism.links.items():
         if len(names) < 2 or not all(n in polygon.images for n in names):
             continue
@@ -81,5 +87,7 @@ def _draw_image_figures(rec: Recorder, polygon, solution, view: View, xy: dict) 
         ids = {"view": view.name, "ref": Ref("image", link)}
         if len(points) == 2:
             rec.add(Line(start=points[0], end=points[1], pen=IMAGE, **ids))
+            segments.append(points)
         else:
             rec.add(Polyline(points=points, pen=IMAGE, closed=closed, **ids))
+    return segments

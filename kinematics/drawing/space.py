@@ -165,7 +165,7 @@ def _draw_joints(rec: Recorder, mech, at, centre, size: Symbols, view: str) -> N
     """Pins, fixed-pivot marks and point labels."""
     sliding = {slide.point for slide in mech.slides.values()}
     sides = _guide_sides(mech, at)
-    segments = _segments(rec.primitives, view)
+    lines = symbols.lines_near(_segments(rec.primitives, view), size.dot)
     for name, where in at.items():
         ids = {"view": view, "ref": Ref("point", name)}
         bodies = mech.bodies_of(name)
@@ -179,7 +179,7 @@ def _draw_joints(rec: Recorder, mech, at, centre, size: Symbols, view: str) -> N
         gap = 5.0 * size.pin if pivot else 4.0 * size.pin if name in sliding else size.pin
         side = sides.get(name)
         away_from = (where[0] - side[0], where[1] - side[1]) if side is not None and not pivot else centre
-        avoid = symbols.directions_at(where, segments, tolerance=size.dot)
+        avoid = symbols.directions_at(where, lines)
         if pivot:
             avoid.append(-0.5 * math.pi)  # the fixed-pivot mark hangs below the pin
         symbols.label(rec, where, name, away_from, SPACE_LINK, size, gap=gap, avoid=avoid, **ids)

@@ -49,8 +49,11 @@ def arrow(rec: Recorder, start, end, pen, size: Symbols, **ids) -> bool:
 
 def mark(rec: Recorder, points, view: str) -> None:
     """Note the box round ``points`` as one a label must keep clear of."""
-    xs, ys = [x for x, _ in points], [y for _, y in points]
-    rec.marks.append((view, (min(xs), min(ys), max(xs), max(ys))))
+    (x0, y0), *rest = points
+    x1, y1 = x0, y0
+    for x, y in rest:  # written out: every arrowhead of every frame comes here
+        x0, x1, y0, y1 = min(x0, x), max(x1, x), min(y0, y), max(y1, y)
+    rec.marks.append((view, (x0, y0, x1, y1)))
 
 
 def dot_mark(rec: Recorder, at, radius: float, view: str) -> None:
@@ -92,22 +95,31 @@ def slider_block(rec: Recorder, at, direction, pen, size: Symbols, **ids) -> Non
     mark(rec, corners, ids.get("view", ""))
 
 
-def directions_at(point, segments, tolerance: float) -> list:
-    """Directions (radians) of the ``segments`` ((x0, y0), (x1, y1)) that pass within ``tolerance`` of ``point``."""
-    px, py = point
+def lines_near(segments, tolerance: float) -> list:
+    """``segments`` ((x0, y0), (x1, y1)) made ready for :func:`directions_at`: each with its box
+    grown by ``tolerance``, its direction and what the distance test needs (worked out once for
+    all the labels of a view)."""
     out = []
     for (x0, y0), (x1, y1) in segments:
-        # Most segments are far from the point: their box, grown by the tolerance, tells at once.
-        if (px < x0 - tolerance and px < x1 - tolerance) or (px > x0 + tolerance and px > x1 + tolerance) or \
-                (py < y0 - tolerance and py < y1 - tolerance) or (py > y0 + tolerance and py > y1 + tolerance):
-            continue
         dx, dy = x1 - x0, y1 - y0
         length2 = dx * dx + dy * dy
-        if length2 == 0.0:
-            continue
-        t = min(1.0, max(0.0, ((px - x0) * dx + (py - y0) * dy) / length2))
-        if math.hypot(x0 + t * dx - px, y0 + t * dy - py) <= tolerance:
-            out.append(math.atan2(dy, dx))
+        if length2 > 0.0:
+            out.append((min(x0, x1) - tolerance, max(x0, x1) + tolerance, min(y0, y1) - tolerance,
+                        max(y0, y1) + tolerance, x0, y0, dx, dy, length2, math.atan2(dy, dx), tolerance))
+    return out
+
+
+def directions_at(point, lines: list) -> list:
+    """Directions (radians) of the ``lines`` (from :func:`lines_near`) that pass within their
+    tolerance of ``point``."""
+    px, py = point
+    out = []
+    for left, right, bottom, top, x0, y0, dx, dy, length2, direction, tolerance in lines:
+        # Most lines are far from the point: their box tells at once.
+        if left <= px <= right and bottom <= py <= top:
+            t = min(1.0, max(0.0, ((px - x0) * dx + (py - y0) * dy) / length2))
+            if math.hypot(x0 + t * dx - px, y0 + t * dy - py) <= tolerance:
+                out.append(direction)
     return out
 
 
