@@ -23,6 +23,7 @@ class DrawingsPanel(QSplitter):
     def __init__(self, document, parent=None):
         super().__init__(Qt.Orientation.Horizontal, parent)
         self.document = document
+        self.draft = False
         self.space_scene = SpaceScene()
         self.velocity_scene = PolygonScene("velocity")
         self.acceleration_scene = PolygonScene("acceleration")
@@ -58,7 +59,7 @@ class DrawingsPanel(QSplitter):
 
     def _draw_space(self):
         doc = self.document
-        self.space_scene.show(doc.mechanism, doc.solution, self._mm_per_pixel(self.space_view))
+        self.space_scene.show(doc.mechanism, doc.solution, self._mm_per_pixel(self.space_view), self.draft)
 
     def _draw_polygon(self, view, fit: bool = False):
         """Draw the polygon of ``view``; ``fit`` lets the view refit it first (and draws it again for
@@ -67,7 +68,7 @@ class DrawingsPanel(QSplitter):
         construction = doc.construction
         polygon = construction and getattr(construction, scene.kind)
         zoom = self._mm_per_pixel(view)
-        scene.show(polygon, doc.solution, zoom)
+        scene.show(polygon, doc.solution, zoom, self.draft)
         # A refit changes the zoom, and with it how much room the symbols take: drawn again at the
         # new zoom and fitted again, a few times at most (it settles at once in practice).
         for _ in range(REFITS if fit and polygon is not None else 0):
@@ -75,14 +76,19 @@ class DrawingsPanel(QSplitter):
             if self._mm_per_pixel(view) == zoom:
                 break
             zoom = self._mm_per_pixel(view)
-            scene.show(polygon, doc.solution, zoom)
+            scene.show(polygon, doc.solution, zoom, self.draft)
 
     def set_draft(self, on: bool):
-        """Draw without antialiasing while the pose follows the mouse (nearly half the cost of a
-        repaint); the finished pose is drawn smooth again."""
+        """Draw without antialiasing, and labels as a draft (see kinematics.drawing.Recorder), while
+        the pose follows the mouse (nearly half the cost of a repaint, a third of the recording);
+        the finished pose is drawn in full again."""
+        if on == self.draft:
+            return
+        self.draft = on
         for view in (self.space_view, self.velocity_view, self.acceleration_view):
-            if bool(view.renderHints() & QPainter.RenderHint.Antialiasing) == on:
-                view.setRenderHint(QPainter.RenderHint.Antialiasing, not on)
+            view.setRenderHint(QPainter.RenderHint.Antialiasing, not on)
+        if not on:
+            self.refresh()
 
     def show_paths(self):
         """Redraw the coupler paths alone (the document's sweep caught up with a drag)."""

@@ -48,9 +48,9 @@ class PolygonScene(QGraphicsScene):
         """The style pens in use, in first-use order, for the legend."""
         return list(self._pens)
 
-    def show(self, polygon, solution, mm_per_pixel: float):
+    def show(self, polygon, solution, mm_per_pixel: float, draft: bool = False):
         """Draw ``polygon`` of ``solution`` with symbols for a zoom of ``mm_per_pixel`` (or clear the
-        drawing for None)."""
+        drawing for None); a ``draft`` while the pose follows the mouse."""
         self.polygon = polygon
         if polygon is None:
             self.sheet = None
@@ -65,7 +65,7 @@ class PolygonScene(QGraphicsScene):
             self._pens = list(dict.fromkeys(pen_for(s) for s in polygon.steps))
             if self.selected_step not in steps:
                 self.select_step(None)
-        self.sheet = polygon_pane(polygon, solution, screen_symbols(mm_per_pixel))
+        self.sheet = polygon_pane(polygon, solution, screen_symbols(mm_per_pixel), draft)
         self.drawing.show(self.sheet, 1.0 / mm_per_pixel)
         self.content_rect = scene_rect(self.sheet.views[self.kind].box).adjusted(-MARGIN_MM, -MARGIN_MM,
                                                                                  MARGIN_MM, MARGIN_MM)

@@ -52,12 +52,12 @@ class SpaceScene(QGraphicsScene):
         self.swept = None
         self.motion_box = None  # where every joint goes over the cycle (sheet box), None without a sweep
 
-    def show(self, mechanism, solution, mm_per_pixel: float):
+    def show(self, mechanism, solution, mm_per_pixel: float, draft: bool = False):
         """Draw ``mechanism`` in the pose of ``solution`` (as the file places it when None), its
-        symbols sized for a zoom of ``mm_per_pixel``."""
+        symbols sized for a zoom of ``mm_per_pixel`` (a ``draft`` while the pose follows the mouse)."""
         self.topology = (tuple(mechanism.points), tuple(mechanism.links.items()), mechanism.ground,
                          tuple(mechanism.slides.values()))
-        self.sheet = space_pane(mechanism, solution, screen_symbols(mm_per_pixel))
+        self.sheet = space_pane(mechanism, solution, screen_symbols(mm_per_pixel), draft)
         self.linkage.show(self.sheet, 1.0 / mm_per_pixel)
 
     def show_paths(self, mechanism, sweep):

@@ -53,11 +53,11 @@ def _with(box: tuple, other: tuple) -> tuple:
     return (min(box[0], other[0]), min(box[1], other[1]), max(box[2], other[2]), max(box[3], other[3]))
 
 
-def space_pane(mech, solution, size: Symbols) -> Sheet:
+def space_pane(mech, solution, size: Symbols, draft: bool = False) -> Sheet:
     """The space diagram of ``mech`` in the pose of ``solution`` (as the file places its points
-    when None), with its scale bar."""
+    when None), with its scale bar; a ``draft`` as :class:`~kinematics.drawing.sheet.Recorder` says."""
     xy = positions(solution) if solution is not None else file_positions(mech)
-    rec = Recorder()
+    rec = Recorder(draft=draft)
     if not xy:
         rec.add_view(View("space", (0.0, 0.0, 0.0, 0.0), (0.0, 0.0), 1000.0, "m", "1:1"))
         return rec.sheet(0.0, 0.0, title=mech.title)
@@ -86,14 +86,14 @@ def paths_pane(mech, sweep) -> Sheet:
     return rec.sheet(0.0, 0.0, title=mech.title)
 
 
-def polygon_pane(polygon, solution, size: Symbols) -> Sheet:
+def polygon_pane(polygon, solution, size: Symbols, draft: bool = False) -> Sheet:
     """``polygon`` of ``solution`` at its construction's scale (``polygon.scale_per_mm``), with
-    its scale bar under it."""
+    its scale bar under it; a ``draft`` as :class:`~kinematics.drawing.sheet.Recorder` says."""
     scale = polygon.scale_per_mm
     unit = printed_unit(polygon.unit)
     view = View(polygon.kind, (0.0, 0.0, 0.0, 0.0), (0.0, 0.0), 1.0 / scale, polygon.unit,
                 f"1 mm = {plain(scale)} {unit}")
-    rec = Recorder()
+    rec = Recorder(draft=draft)
     draw_polygon(rec, polygon, solution, view, size)
     x0, y0, x1, y1 = (v / scale for v in polygon_bounds(polygon))
     width = max(x1 - x0, y1 - y0, 1.0)

@@ -52,7 +52,7 @@ def draw_polygon(rec: Recorder, polygon, solution, view: View, size: Symbols, xy
     labels = _labels(polygon, view, size)
     centre = (sum(where[0] for where, _, _ in labels) / len(labels),
               sum(where[1] for where, _, _ in labels) / len(labels)) if labels else view.origin
-    lines = symbols.lines_near(segments, size.dot)
+    lines = [] if rec.draft else symbols.lines_near(segments, size.dot)
     for where, text, step_id in labels:
         symbols.label(rec, where, text, centre, IMAGE, size, gap=size.dot, avoid=symbols.directions_at(where, lines),
                       view=name, ref=Ref("step", step_id))

@@ -182,13 +182,17 @@ class Recorder:
 
     ``labels`` and ``marks`` are what :func:`~kinematics.drawing.declutter.declutter` works
     from: each label placed so far (its primitive's index and how it was placed) and the boxes
-    of the marks a label must keep clear of, per view.
+    of the marks a label must keep clear of, per view. A ``draft`` (a window's drawing while
+    the pose follows the mouse) sets labels where they face, without searching for the side
+    clearest of the lines through their point; they are still kept apart from each other and
+    from the marks.
     """
 
     primitives: list = field(default_factory=list)
     views: dict = field(default_factory=dict)
     labels: list = field(default_factory=list)
     marks: list = field(default_factory=list)
+    draft: bool = False
 
     def add(self, primitive) -> None:
         self.primitives.append(primitive)

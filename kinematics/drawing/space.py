@@ -165,7 +165,7 @@ def _draw_joints(rec: Recorder, mech, at, centre, size: Symbols, view: str) -> N
     """Pins, fixed-pivot marks and point labels."""
     sliding = {slide.point for slide in mech.slides.values()}
     sides = _guide_sides(mech, at)
-    lines = symbols.lines_near(_segments(rec.primitives, view), size.dot)
+    lines = [] if rec.draft else symbols.lines_near(_segments(rec.primitives, view), size.dot)
     for name, where in at.items():
         ids = {"view": view, "ref": Ref("point", name)}
         bodies = mech.bodies_of(name)
