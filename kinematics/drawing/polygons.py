@@ -79,15 +79,15 @@ def _draw_image_figures(rec: Recorder, polygon, solution, view: View, xy: dict) 
     """The image of each link, directly similar to it: a segment for a bar, a figure for a plate;
     returns the segments' ends."""
     segments = []
+    images, place, name = polygon.images, view.place, view.name
     for link, names in solution.mechanism.links.items():
-        if len(names) < 2 or not all(n in polygon.images for n in names):
+        if len(names) < 2 or not images.keys() >= set(names):
+            continue
+        if len(names) == 2:
+            points = (place(images[names[0]]), place(images[names[1]]))
+            rec.add(Line(points[0], points[1], IMAGE, name, Ref("image", link)))
+            segments.append(points)
             continue
         order, closed = outline(names, xy)
-        points = tuple(view.place(polygon.images[n]) for n in order)
-        ids = {"view": view.name, "ref": Ref("image", link)}
-        if len(points) == 2:
-            rec.add(Line(start=points[0], end=points[1], pen=IMAGE, **ids))
-            segments.append(points)
-        else:
-            rec.add(Polyline(points=points, pen=IMAGE, closed=closed, **ids))
+        rec.add(Polyline(tuple(place(images[n]) for n in order), IMAGE, closed, name, Ref("image", link)))
     return segments

@@ -149,7 +149,8 @@ class View:
         (a double holds 15 to 17; the last are the noise of the unit conversions) and carries
         the file's own numbers.
         """
-        x, y = self.origin[0] + float(xy[0]) * self.mm_per_unit, self.origin[1] + float(xy[1]) * self.mm_per_unit
+        (ox, oy), k = self.origin, self.mm_per_unit
+        x, y = ox + xy[0] * k, oy + xy[1] * k  # plain floats in, plain floats out (every caller gives floats)
         if self.significant:
             x, y = float(f"{x:.{self.significant}g}"), float(f"{y:.{self.significant}g}")
         return (x, y)

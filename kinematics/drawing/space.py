@@ -209,7 +209,7 @@ def _draw_slide(rec: Recorder, slide, at, size: Symbols, ids) -> None:
 
 
 # Where the driver's sense arrow may sit round its pivot: every 10°.
-_ARC_MIDDLES = tuple(math.radians(d) for d in range(0, 360, 10))
+_ARC_STEP = math.radians(10.0)
 _TURN = 2.0 * math.pi
 
 
@@ -224,13 +224,10 @@ def _draw_driver_sense(rec: Recorder, mech, at, centre, size: Symbols, ids) -> N
             for n in names if n != driver.pivot]
     busy.append(math.atan2(cy - centre[1], cx - centre[0]))  # the label sits away from the middle
     busy.append(-0.5 * math.pi)  # the fixed-pivot mark hangs below
-    middle, widest = 0.0, -1.0
-    for candidate in _ARC_MIDDLES:  # loops, not min/max over generators: this runs at every frame of a drag
-        gap = math.pi
-        for taken in busy:
-            gap = min(gap, abs((candidate - taken + math.pi) % _TURN - math.pi))
-        if gap > widest:
-            middle, widest = candidate, gap
+    # In the middle of the widest gap between the busy directions, on the 10° grid.
+    busy = sorted(b % _TURN for b in busy)
+    widest, start = max(((busy[(i + 1) % len(busy)] - b) % _TURN or _TURN, b) for i, b in enumerate(busy))
+    middle = round((start + 0.5 * widest) / _ARC_STEP) * _ARC_STEP
     sense = 1.0 if driver.speed_rad_s > 0 else -1.0
     radius = 5.5 * size.pin
     angles = [middle + sense * math.radians(-45 + 5 * k) for k in range(19)]  # 90° of arc
