@@ -90,12 +90,14 @@ _SHAPE = {Polyline: Polyline._fields.index("closed"), Circle: Circle._fields.ind
 
 
 class _Drawn:
-    """The items of one primitive and the primitive they show now."""
+    """The items of one primitive, the primitive they show now and the zoom it was shown at;
+    ``shaped_for`` is what the item was last shaped for (a text's words and size, a pin's radius
+    in pixels), so it is reshaped only when that changes."""
 
-    __slots__ = ("primitive", "items", "emphasised", "text_key")
+    __slots__ = ("primitive", "items", "emphasised", "shaped_for", "zoom")
 
     def __init__(self, primitive, items):
-        self.primitive, self.items, self.emphasised, self.text_key = None, items, False, None
+        self.primitive, self.items, self.emphasised, self.shaped_for, self.zoom = None, items, False, None, None
 
 
 class SceneBackend:
@@ -127,7 +129,7 @@ class SceneBackend:
             if entry is None:
                 entry = drawn[key] = self._make(primitive)
                 self.by_ref.setdefault(primitive.ref, []).append(entry)
-            elif entry.primitive == primitive and (type(primitive) is not Text or entry.text_key[1] == pixels_per_mm):
+            elif entry.primitive == primitive and entry.zoom == pixels_per_mm:
                 continue
             self._update(entry, primitive)
         if len(keys) != len(drawn):
@@ -178,6 +180,9 @@ class SceneBackend:
             items = [shaft, head]
         elif kind is Circle:
             items = [QGraphicsEllipseItem()]
+            # A pin or a dot is a symbol: drawn in screen pixels about its centre, which costs a
+            # tenth of an ellipse the view's transform must flatten at every paint.
+            items[0].setFlag(QGraphicsItem.GraphicsItemFlag.ItemIgnoresTransformations)
             items[0].setZValue(Z_PIN)
             if ref is not None and ref.kind == "point":
                 items[0].setData(ITEM_HANDLE, True)
@@ -245,23 +250,24 @@ class SceneBackend:
             items[0].setLine(x0, -y0, x1, -y1)
             items[1].setPolygon(_points(primitive.head))
         elif kind is Circle:
-            (x, y), r = primitive.centre, primitive.radius
+            (x, y), r = primitive.centre, primitive.radius * self.pixels_per_mm
             # Moved, not reshaped, while its size holds: a new rectangle makes Qt work out the
             # ellipse's outline again.
-            if entry.primitive is None or entry.primitive.radius != r:
+            if entry.shaped_for != r:
+                entry.shaped_for = r
                 items[0].setRect(-r, -r, 2.0 * r, 2.0 * r)
             items[0].setPos(x, -y)
         elif kind is Hatch:
             items[0].setPolygon(_points(primitive.points))
         else:
             self._update_text(entry, primitive)
-        entry.primitive = primitive
+        entry.primitive, entry.zoom = primitive, self.pixels_per_mm
 
     def _update_text(self, entry: _Drawn, text: Text) -> None:
         item = entry.items[0]
         key = ((text.text, text.height, text.align, text.anchor), self.pixels_per_mm)
-        if key != entry.text_key:
-            entry.text_key = key
+        if key != entry.shaped_for:
+            entry.shaped_for = key
             font, metrics = font_for_capitals(max(1, round(text.height * self.pixels_per_mm)))
             item.setFont(font)
             item.setText(text.text)
