@@ -32,7 +32,7 @@ class DrawingsPanel(QSplitter):
         self.acceleration_view = PolygonView(self.acceleration_scene, "acceleration polygon")
         for view in (self.space_view, self.velocity_view, self.acceleration_view):
             self.addWidget(view)
-            view.bottom_pixels = BAR_ROOM * SCREEN_SYMBOLS.text * PIXELS_PER_SYMBOL_MM  # the scale bar's words
+            view.bottom_pixels = BAR_ROOM * SCREEN_SYMBOLS.small_text * PIXELS_PER_SYMBOL_MM  # the bar's words
         self.setSizes([620, 490, 490])
         self.space_view.hovered.connect(self.mark_point)
         # A zoom changes the size the symbols must be drawn at to keep their size on screen, and so

@@ -19,7 +19,7 @@ from .scene_backend import HOVER_COLOUR, SceneBackend
 from .space_scene import scene_rect, screen_symbols
 
 RING_PIXELS = 9.0
-MARGIN_MM = 8.0  # room round a polygon when fitting, drawing mm
+MARGIN_MM = 4.0  # room round a polygon when fitting, drawing mm
 
 
 class PolygonScene(QGraphicsScene):

@@ -32,14 +32,15 @@ from .symbols import Symbols
 
 # The space diagram's scale bar: about a quarter of the design long, this far under it (as
 # fractions of the design's size), placed from the file's pose so it stays put while the driver
-# turns. A polygon's bar: two fifths of the drawing's width, as far under it.
+# turns. A polygon's bar: two fifths of the drawing's width.
 SPACE_BAR_LENGTH, SPACE_BAR_BELOW = 0.25, 0.22
-POLYGON_BAR_LENGTH, POLYGON_BAR_BELOW = 0.4, 0.12
+POLYGON_BAR_LENGTH = 0.4
 # Symbols keep their size while the drawing is zoomed: a bar is at least this many text heights
 # long (room for the numbers at its ends), and its caption takes this many over it (see
 # annotate.scale_bar: the bar's thickness, the gap and the caption's height). The box a view
-# fits leaves them out (they would grow as it zooms out); a pane keeps BAR_ROOM text heights
-# free under it for the bar's caption and its numbers.
+# fits leaves them out (they would grow as it zooms out); a pane keeps BAR_ROOM heights of the
+# small text (a pane's bar is written in it, to take less of a small window) free under it for
+# the bar's caption and its numbers.
 BAR_LEAST, CAPTION_ROOM, BAR_ROOM = 16.0, 3.2, 5.6
 
 
@@ -67,8 +68,9 @@ def space_pane(mech, solution, size: Symbols, draft: bool = False) -> Sheet:
     design_mm = max(1e3 * mech.size * mech.metres_per_unit, 1.0)
     left, y = reference[0], reference[1] - SPACE_BAR_BELOW * design_mm
     longest = SPACE_BAR_LENGTH * design_mm
-    scale_bar(rec, (left, y - CAPTION_ROOM * size.text), 1.0, "mm", max(longest, BAR_LEAST * size.text),
-              "space diagram to scale", size, "space")
+    words = Symbols(text=size.small_text)
+    scale_bar(rec, (left, y - CAPTION_ROOM * words.text), 1.0, "mm", max(longest, BAR_LEAST * words.text),
+              "space diagram to scale", words, "space")
     box = _with(_bounds(view.place(p) for p in xy.values()), (left, y, left + longest, y))
     rec.add_view(View("space", box, view.origin, view.mm_per_unit, view.unit, view.scale_text))
     return rec.sheet(0.0, 0.0, title=mech.title)
@@ -98,12 +100,13 @@ def polygon_pane(polygon, solution, size: Symbols, draft: bool = False) -> Sheet
     x0, y0, x1, y1 = (v / scale for v in polygon_bounds(polygon))
     width = max(x1 - x0, y1 - y0, 1.0)
     longest = POLYGON_BAR_LENGTH * width
-    # On a grid of half the bar's length: the bar stays put while the polygon changes a little
-    # from frame to frame of a drag, rather than trembling with the drawing's edge.
-    grid = 0.5 * bar_value(longest, view.mm_per_unit) * view.mm_per_unit
-    x, y = math.floor(x0 / grid) * grid, math.floor((y0 - POLYGON_BAR_BELOW * width) / grid) * grid
-    scale_bar(rec, (x, y - CAPTION_ROOM * size.text), view.mm_per_unit, polygon.unit,
-              max(longest, BAR_LEAST * size.text), view.scale_text, size, polygon.kind)
-    box = _with((x0, y0, x1, y1), (x, y, x + longest, y))
+    # Just under the drawing, on a grid of a quarter of the bar's length: the bar stays put while
+    # the polygon changes a little from frame to frame of a drag, rather than trembling with its edge.
+    grid = 0.25 * bar_value(longest, view.mm_per_unit) * view.mm_per_unit
+    x, y = math.floor(x0 / grid) * grid, math.floor(y0 / grid) * grid
+    words = Symbols(text=size.small_text)
+    scale_bar(rec, (x, y - CAPTION_ROOM * words.text), view.mm_per_unit, polygon.unit,
+              max(longest, BAR_LEAST * words.text), view.scale_text, words, polygon.kind)
+    box = (x0, y0, x1, y1)  # the bar lies in the room the pane keeps under the drawing
     rec.add_view(View(polygon.kind, box, view.origin, view.mm_per_unit, view.unit, view.scale_text))
     return rec.sheet(0.0, 0.0)
