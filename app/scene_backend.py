@@ -225,7 +225,7 @@ class SceneBackend:
     def _update(self, entry: _Drawn, primitive) -> None:
         kind = type(primitive)
         items = entry.items
-        if entry.primitive is None or entry.primitive.pen != primitive.pen:
+        if entry.primitive is None or entry.primitive.pen is not primitive.pen:  # pens are shared constants
             self._style(entry, primitive)  # new, or its role changed (a step flagged ill-conditioned)
         if kind is Line:
             (x0, y0), (x1, y1) = primitive.start, primitive.end

@@ -16,7 +16,12 @@ from .sheet import Circle, Line, Polyline, Recorder, Ref, View
 from .space import outline, positions
 from .symbols import Symbols
 
-_LAYER_ORDER = {Role.DIRECTION: 0, Role.KNOWN: 1, Role.RESULT: 1, Role.INTERSECTION: 2, Role.IMAGE: 2}
+
+def _layer(step) -> int:
+    """Where a step is drawn in the stack: construction lines, then vectors, then points (by
+    identity: an Enum's hash is a Python call, and this runs for every step of every frame)."""
+    role = step.role
+    return 0 if role is Role.DIRECTION else 1 if role is Role.KNOWN or role is Role.RESULT else 2
 
 
 def polygon_bounds(polygon) -> tuple:
@@ -35,7 +40,7 @@ def draw_polygon(rec: Recorder, polygon, solution, view: View, size: Symbols, xy
     # The lines a label must not sit along: the image segments, construction lines and vectors.
     segments = _draw_image_figures(rec, polygon, solution, view, positions(solution) if xy is None else xy)
     # Construction lines first, vectors over them, points and labels on top: the order a reader needs.
-    for step in sorted(polygon.steps, key=lambda s: _LAYER_ORDER[s.role]):
+    for step in sorted(polygon.steps, key=_layer):
         pen, ref = pen_for(step), Ref("step", step.id)
         if step.role is Role.DIRECTION:
             ends = place(step.coords[0]), place(step.coords[-1])
