@@ -100,9 +100,10 @@ def polygon_pane(polygon, solution, size: Symbols, draft: bool = False) -> Sheet
     x0, y0, x1, y1 = (v / scale for v in polygon_bounds(polygon))
     width = max(x1 - x0, y1 - y0, 1.0)
     longest = POLYGON_BAR_LENGTH * width
-    # Just under the drawing, on a grid of a quarter of the bar's length: the bar stays put while
-    # the polygon changes a little from frame to frame of a drag, rather than trembling with its edge.
-    grid = 0.25 * bar_value(longest, view.mm_per_unit) * view.mm_per_unit
+    # Just under the drawing, on a grid of half the bar's length: the bar stays put while the
+    # polygon changes a little from frame to frame of a drag (and is drawn from what was kept),
+    # rather than trembling with its edge.
+    grid = 0.5 * bar_value(longest, view.mm_per_unit) * view.mm_per_unit
     x, y = math.floor(x0 / grid) * grid, math.floor(y0 / grid) * grid
     words = Symbols(text=size.small_text)
     scale_bar(rec, (x, y - CAPTION_ROOM * words.text), view.mm_per_unit, polygon.unit,
