@@ -1,15 +1,12 @@
 """Qt renderings of the shared visual language in :mod:`kinematics.style`:
 pens, fonts sized by their capitals, for the window's scenes and the printer.
-
-Scene units are millimetres of drawing with y pointing down (Qt's way), so
-every model coordinate goes through :func:`scene_xy`, which turns y up.
 """
 
 from __future__ import annotations
 
 from functools import cache
 
-from PySide6.QtCore import QPointF, Qt
+from PySide6.QtCore import Qt
 from PySide6.QtGui import QColor, QFont, QFontMetricsF, QPen
 
 from kinematics.style import Pen
@@ -21,11 +18,6 @@ DASHES = {"solid": Qt.PenStyle.SolidLine, "dashed": Qt.PenStyle.DashLine, "dotte
           "dashdot": Qt.PenStyle.DashDotLine}
 FONT_FAMILY = "DejaVu Sans"  # Debian fonts-dejavu-core: has ω α ° ² ′ and subscripts
 LABEL_PIXELS = 13
-
-
-def scene_xy(x: float, y: float) -> QPointF:
-    """A model point (x right, y up) as a scene point (y down)."""
-    return QPointF(float(x), -float(y))
 
 
 def qpen(pen: Pen, scale: float = 1.0) -> QPen:
