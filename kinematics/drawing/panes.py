@@ -24,9 +24,10 @@ from __future__ import annotations
 import math
 
 from .annotate import printed_unit, scale_bar
+from .declutter import text_box
 from .polygons import draw_polygon, polygon_bounds
 from .scaling import bar_value, plain
-from .sheet import Recorder, Sheet, View
+from .sheet import Recorder, Sheet, Text, View
 from .space import draw_linkage, draw_paths, file_positions, positions, traced_points
 from .symbols import Symbols
 
@@ -96,18 +97,19 @@ def polygon_pane(polygon, solution, size: Symbols, draft: bool = False) -> Sheet
     view = View(polygon.kind, (0.0, 0.0, 0.0, 0.0), (0.0, 0.0), 1.0 / scale, polygon.unit,
                 f"1 mm = {plain(scale)} {unit}")
     rec = Recorder(draft=draft)
-    draw_polygon(rec, polygon, solution, view, size)
     x0, y0, x1, y1 = (v / scale for v in polygon_bounds(polygon))
     width = max(x1 - x0, y1 - y0, 1.0)
     longest = POLYGON_BAR_LENGTH * width
     # Just under the drawing, on a grid of half the bar's length: the bar stays put while the
     # polygon changes a little from frame to frame of a drag (and is drawn from what was kept),
-    # rather than trembling with its edge.
+    # rather than trembling with its edge. Drawn first, its words are marks the labels keep clear of.
     grid = 0.5 * bar_value(longest, view.mm_per_unit) * view.mm_per_unit
     x, y = math.floor(x0 / grid) * grid, math.floor(y0 / grid) * grid
     words = Symbols(text=size.small_text)
     scale_bar(rec, (x, y - CAPTION_ROOM * words.text), view.mm_per_unit, polygon.unit,
               max(longest, BAR_LEAST * words.text), view.scale_text, words, polygon.kind)
+    rec.marks.extend((polygon.kind, text_box(p)) for p in rec.primitives if isinstance(p, Text))
+    draw_polygon(rec, polygon, solution, view, size)
     box = (x0, y0, x1, y1)  # the bar lies in the room the pane keeps under the drawing
     rec.add_view(View(polygon.kind, box, view.origin, view.mm_per_unit, view.unit, view.scale_text))
     return rec.sheet(0.0, 0.0)
