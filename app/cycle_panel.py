@@ -27,7 +27,8 @@ from PySide6.QtWidgets import (
 
 import kinematics
 from kinematics import KinematicsError
-from kinematics.sweep import SweepCancelled
+from kinematics.cycle.measures import DEAD_POINT_SHARE, clear_of_dead_points
+from kinematics.errors import SweepCancelled
 
 from . import cycle_series as series
 
@@ -288,7 +289,7 @@ class CyclePanel(QWidget):
             self.peaks.setText("")
             return
         lines, extents = [], {family: [] for family in self.plots}
-        clear = series.clear_of_dead_points(sweep)
+        clear = clear_of_dead_points(sweep)
         for index, (quantity, curve) in enumerate(self.curves.items()):
             values = self.units.shown(quantity.family, series.si_values(sweep, quantity))
             curve.setData(axis.x, values[axis.order])
@@ -296,7 +297,7 @@ class CyclePanel(QWidget):
             lines.append(f"<span style='color:{PALETTE[index % len(PALETTE)]}'>■</span> "
                          + series.peak_text(quantity, values, axis, self.units.unit(quantity.family), clear))
         if not sweep.full_turn and lines:
-            lines.append(f"(the outer {series.DEAD_POINT_END_FRACTION:.0%} of the range at each dead point "
+            lines.append(f"(the outer {DEAD_POINT_SHARE:.0%} of the range at each dead point "
                          "is left out of the scale and the peaks)")
         self.peaks.setText("&nbsp;&nbsp;&nbsp; ".join(lines))
         if self.plots and axis.span != self.span:

@@ -14,7 +14,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from kinematics.model import GROUND
+from kinematics.model.mechanism import GROUND
 
 from .display_units import LENGTH_SYSTEMS, angular_speed
 
@@ -28,7 +28,6 @@ FAMILIES = {
 _FORMS = {"magnitude": "|{}|", "x": "{}ₓ", "y": "{}ᵧ", "rate": "{}", "sliding": "{}"}
 # A subscript s, not a dot over s: the double dot (combining U+0308) is lost in common fonts.
 _SLIDING_SYMBOLS = {"velocity": "vₛ", "acceleration": "aₛ"}
-DEAD_POINT_END_FRACTION = 0.03
 
 
 @dataclass(frozen=True)
@@ -210,20 +209,6 @@ def cycle_axis(sweep, kind: str = "angle") -> CycleAxis:
         span = (float(wrapped.min()), float(wrapped.max()))
     order = np.argsort(wrapped, kind="stable")
     return CycleAxis("angle", wrapped, wrapped[order], order, span, **common)
-
-
-def clear_of_dead_points(sweep) -> np.ndarray:
-    """(N,) True for the samples away from the driver's dead points (every sample of a full turn).
-
-    Swept at constant driver speed, rates grow without bound towards a dead point, where a
-    real driver stops and turns back; the outer ``DEAD_POINT_END_FRACTION`` of a rocking
-    range at each end would only set the scale and the peaks.
-    """
-    clear = np.ones(len(sweep.driver_angle_deg), bool)
-    end = max(1, round(DEAD_POINT_END_FRACTION * len(clear)))
-    if not sweep.full_turn and len(clear) > 2 * end:  # a sweep too short to trim keeps every sample
-        clear[:end] = clear[-end:] = False
-    return clear
 
 
 def peak(values: np.ndarray, clear: np.ndarray) -> int:

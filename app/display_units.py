@@ -8,7 +8,7 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 
-from kinematics.units import METRES_PER_LENGTH_UNIT, rpm_from_rad_s
+from kinematics.model.units import METRES_PER_LENGTH_UNIT, rpm_from_rad_s
 
 
 @dataclass(frozen=True)

@@ -11,7 +11,8 @@ from __future__ import annotations
 import itertools
 import math
 
-from kinematics import Mechanism, move_point
+from kinematics import KinematicsError, Mechanism, move_point
+from kinematics.files.fileschema import MAX_COORDINATE
 
 from .building import keep_slides_on_guides, snap
 
@@ -60,12 +61,20 @@ class JointDrag:
         x = self.start_xy[0] + (at_mm[0] - self.start_mm[0]) / self.mm_per_unit
         y = self.start_xy[1] + (at_mm[1] - self.start_mm[1]) / self.mm_per_unit
         x, y = snap((x, y), self.grid_mm / self.mm_per_unit)
-        if (x, y) == tuple(self.document.mechanism.points[self.name]):
-            return ""  # still on the same grid node: nothing to edit, solve or draw
-        after = keep_slides_on_guides(move_point(self.document.mechanism, self.name, (x, y)))
         unit = self.document.mechanism.length_unit
+        # The file format holds coordinates up to ±MAX_COORDINATE: a far drag stops at that edge.
+        clamped = (min(max(x, -MAX_COORDINATE), MAX_COORDINATE), min(max(y, -MAX_COORDINATE), MAX_COORDINATE))
+        edge = (f"{self.name} stops at ({clamped[0]:.4g}, {clamped[1]:.4g}) {unit}: coordinates are limited to "
+                f"±{MAX_COORDINATE:g} {unit}" if clamped != (x, y) else "")
+        x, y = clamped
+        if (x, y) == tuple(self.document.mechanism.points[self.name]):
+            return edge  # still on the same grid node (or at the edge): nothing to edit, solve or draw
+        try:
+            after = keep_slides_on_guides(move_point(self.document.mechanism, self.name, (x, y)))
+        except KinematicsError as error:  # a sliding point carried past the edge onto its line
+            return f"{error} — the last valid design is kept"
         problem = self.document.edit(after, f"move {self.name}", drag=self.serial)
         if problem:
             return (f"{self.name} cannot go to ({x:.4g}, {y:.4g}) {unit}: {problem} — "
                     "the last valid design is kept")
-        return ""
+        return edge

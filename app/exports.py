@@ -6,10 +6,11 @@ from __future__ import annotations
 
 from pathlib import Path
 
+from PySide6.QtCore import Qt
 from PySide6.QtPrintSupport import QPrintDialog, QPrinter
-from PySide6.QtWidgets import QDialog, QFileDialog
+from PySide6.QtWidgets import QApplication, QDialog, QFileDialog, QProgressDialog
 
-from kinematics import KinematicsError
+from kinematics import KinematicsError, SweepCancelled, dumps
 
 
 class SheetOutputs:
@@ -51,7 +52,7 @@ class SheetOutputs:
         construction = self._ready_construction()
         if construction is None:
             return False
-        from kinematics.dxf import write_dxf  # ezdxf takes half a second to import: only when asked
+        from kinematics.drawing.dxf import write_dxf  # ezdxf takes half a second to import: only when asked
 
         try:
             write_dxf(construction, str(path), file_name=self._file_name())
@@ -74,3 +75,51 @@ class SheetOutputs:
             except (KinematicsError, OSError) as error:
                 self.show_error("Cannot print", str(error))
 
+    def review_dialog(self):
+        """File > Review report…: ask where, then write the design-review report."""
+        if self._ready_construction() is None:
+            return
+        path, _ = QFileDialog.getSaveFileName(self, "Review report", "", "PDF report (*.pdf)")
+        if path:
+            self.export_review(path)
+
+    def _design_bytes(self) -> bytes:
+        """The bytes the report's fingerprint is of: the file itself while the design is as
+        saved, otherwise the design as it would be saved now."""
+        path = self.document.path
+        if path and self.document.undo_stack.isClean():
+            try:
+                return Path(path).read_bytes()
+            except OSError:
+                pass
+        return dumps(self.document.mechanism).encode("utf-8")
+
+    def export_review(self, path) -> bool:
+        """The design-review report, with a progress dialog whose Cancel leaves no file."""
+        if self._ready_construction() is None:
+            return False
+        from .review import write_review  # pypdf and the report's pages load when first used
+
+        dialog = QProgressDialog("Writing the review report…", "Cancel", 0, 1000, self)
+        dialog.setWindowTitle("Review report")
+        dialog.setWindowModality(Qt.WindowModality.WindowModal)
+        dialog.setMinimumDuration(0)
+
+        def progress(fraction):
+            dialog.setValue(round(1000 * fraction))
+            QApplication.processEvents()
+            return not dialog.wasCanceled()
+
+        try:
+            write_review(self.document.mechanism, self._design_bytes(), str(path), file_name=self._file_name(),
+                         progress=progress)
+        except SweepCancelled:
+            self.say("review report cancelled: no file written")
+            return False
+        except (KinematicsError, OSError) as error:
+            self.show_error("Cannot write the review report", f"{path}:\n{error}")
+            return False
+        finally:
+            dialog.reset()
+        self.say(f"review report written to {path}")
+        return True

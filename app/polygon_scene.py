@@ -13,7 +13,7 @@ from PySide6.QtWidgets import QGraphicsEllipseItem, QGraphicsItem, QGraphicsScen
 
 from kinematics.drawing import Arrow, Circle, Line, Ref
 from kinematics.drawing.panes import polygon_pane
-from kinematics.style import pen_for
+from kinematics.drawing.style import pen_for
 
 from .scene_backend import HOVER_COLOUR, SceneBackend
 from .space_scene import scene_rect, screen_symbols

@@ -10,7 +10,6 @@ QGraphicsScene in between, so no view zoom or item cache can get in the way.
 
 from __future__ import annotations
 
-import argparse
 import os
 from pathlib import Path
 
@@ -27,12 +26,13 @@ from PySide6.QtGui import (
     QPolygonF,
 )
 
-from kinematics.drawing import PAPER, Arrow, Circle, Hatch, Line, Note, Polyline, Strokes, Text, draw_sheet
-from kinematics.drawing.output import construction_from_file, run_reporting
+from kinematics.drawing import Arrow, Circle, Hatch, Line, Note, Polyline, Strokes, Text, draw_sheet
 from kinematics.drawing.sheet import DASHES
-from kinematics.storage import StorageError, replace_atomically
+from kinematics.errors import StorageError, SweepCancelled
+from kinematics.files.storage import replace_atomically
 
-from .drawing_kit import font_for_capitals
+from .drawing_kit import FONT_FAMILY, MONO_FAMILY, font_for_capitals
+from .outcomes import construction_from_file, run_reporting
 
 PDF_RESOLUTION_DPI = 1200
 PAGE_SIZES = {"A0": QPageSize.PageSizeId.A0, "A1": QPageSize.PageSizeId.A1, "A2": QPageSize.PageSizeId.A2,
@@ -60,9 +60,9 @@ class PainterBackend:
             qpen.setDashPattern(list(DASHES[pen.dash]))  # Qt reads dash patterns in pen widths too
         return qpen
 
-    def font(self, height_mm: float) -> tuple:
+    def font(self, height_mm: float, mono: bool = False) -> tuple:
         """A font whose capitals are ``height_mm`` tall on the device, and its metrics."""
-        return font_for_capitals(max(1, round(height_mm * self.k)))
+        return font_for_capitals(max(1, round(height_mm * self.k)), MONO_FAMILY if mono else FONT_FAMILY)
 
     def draw(self, primitive) -> None:
         p = self.painter
@@ -110,7 +110,7 @@ class PainterBackend:
         self.painter.drawPolygon(QPolygonF([self.point(xy) for xy in points]))
 
     def _text(self, text: Text) -> None:
-        font, metrics = self.font(text.height)
+        font, metrics = self.font(text.height, text.mono)
         at = self.point(text.position)
         width = metrics.horizontalAdvance(text.text)
         x = at.x() - {"left": 0.0, "centre": 0.5 * width, "right": width}[text.align]
@@ -129,19 +129,40 @@ def page_layout(paper: str, landscape: bool) -> QPageLayout:
     return layout
 
 
-def paint_sheet(sheet, device, where: str = "") -> None:
-    """Paint ``sheet`` on a paged device whose page layout is already set (full
-    page); ``where`` names the device in an error."""
+def paint_sheets(sheets, device, where: str = "", progress=None) -> None:
+    """Paint ``sheets``, one a page, on a paged device whose page layout is already set
+    (full page); ``where`` names the device in an error. ``progress``, if given, is called
+    with the fraction painted after each page; returning False stops with SweepCancelled."""
     painter = QPainter()
     if not painter.begin(device):
         raise StorageError("the printer or PDF file could not be opened for painting", where)
     try:
         painter.setRenderHint(QPainter.RenderHint.Antialiasing, True)
-        backend = PainterBackend(painter, sheet.height, device.resolution() / 25.4)
-        for primitive in sheet.primitives:
-            backend.draw(primitive)
+        for number, sheet in enumerate(sheets):
+            if number and not device.newPage():
+                raise StorageError(f"page {number + 1} could not be started", where)
+            backend = PainterBackend(painter, sheet.height, device.resolution() / 25.4)
+            for primitive in sheet.primitives:
+                backend.draw(primitive)
+            if progress is not None and progress((number + 1) / len(sheets)) is False:
+                raise SweepCancelled("the printing was cancelled", f"page {number + 1}")
     finally:
         painter.end()
+
+
+def paint_sheet(sheet, device, where: str = "") -> None:
+    """Paint one ``sheet`` (see :func:`paint_sheets`)."""
+    paint_sheets((sheet,), device, where)
+
+
+def pdf_writer(target, title: str, paper: str, landscape: bool = False) -> QPdfWriter:
+    """A QPdfWriter on ``target`` (a path or a QIODevice) at PDF_RESOLUTION_DPI, full page."""
+    writer = QPdfWriter(target)
+    writer.setResolution(PDF_RESOLUTION_DPI)
+    writer.setTitle(title)
+    writer.setCreator("Kinepoly")
+    writer.setPageLayout(page_layout(paper, landscape))
+    return writer
 
 
 def print_construction(construction, printer_or_path, paper: str = "A4", landscape: bool = False,
@@ -171,11 +192,7 @@ def print_construction(construction, printer_or_path, paper: str = "A4", landsca
     sheet = draw_sheet(construction, paper=paper, landscape=landscape, file_name=file_name, date=date)
     if isinstance(printer_or_path, (str, os.PathLike)):
         def write(temporary):
-            writer = QPdfWriter(temporary)
-            writer.setResolution(PDF_RESOLUTION_DPI)
-            writer.setTitle(sheet.title or "Kinepoly construction")
-            writer.setCreator("Kinepoly")
-            writer.setPageLayout(page_layout(paper, landscape))
+            writer = pdf_writer(temporary, sheet.title or "Kinepoly construction", paper, landscape)
             paint_sheet(sheet, writer, os.fspath(printer_or_path))
             del writer  # the writer holds the file open; let it go before the file is checked and moved
             # QPdfWriter reports no write errors; a whole PDF ends with its %%EOF marker (ISO 32000-1, 7.5.5).
@@ -192,17 +209,8 @@ def print_construction(construction, printer_or_path, paper: str = "A4", landsca
     return sheet
 
 
-def main(argv=None) -> int:
-    """``kinepoly print FILE [--angle DEG] [--paper A4] [--landscape] -o sheet.pdf``."""
-    parser = argparse.ArgumentParser(prog="kinepoly print",
-                                     description="Print the space diagram and both polygons at true scale to PDF.")
-    parser.add_argument("file", help="mechanism file (JSON)")
-    parser.add_argument("--angle", type=float, default=None, metavar="DEG",
-                        help="driver angle in degrees (default: the reference pose)")
-    parser.add_argument("--paper", choices=sorted(PAPER), default="A4", help="ISO 216 sheet (default A4)")
-    parser.add_argument("--landscape", action="store_true", help="landscape instead of portrait")
-    parser.add_argument("-o", "--output", required=True, help="PDF file to write")
-    args = parser.parse_args(argv)
+def run(args) -> int:
+    """``kinepoly print`` with its parsed arguments (:func:`app.cli.parser`): the exit code."""
     if QGuiApplication.instance() is None:
         os.environ.setdefault("QT_QPA_PLATFORM", "offscreen")
         application = QGuiApplication([])  # fonts need a GUI application; kept alive until we return

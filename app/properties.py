@@ -3,15 +3,22 @@ the chosen link's name, and the driver's speed. Each change is one undoable edit
 
 from __future__ import annotations
 
+import math
 from contextlib import contextmanager
 from dataclasses import replace
 
 from PySide6.QtWidgets import QCheckBox, QComboBox, QDoubleSpinBox, QFormLayout, QLabel, QLineEdit, QWidget
 
 from kinematics import KinematicsError, move_point, rename_link, rename_point
+from kinematics.files.fileschema import MAX_COORDINATE, MAX_RATE
+from kinematics.model.units import metres_per
 
 from . import building
 from .building import BuildError
+
+# The place fields show a joint to this resolution whatever the file's unit (1 µm: 3 decimals in mm,
+# 6 in m, 5 in inches), across the whole range the file format holds.
+PLACE_RESOLUTION_M = 1e-6
 
 
 def _spin(low: float, high: float, decimals: int) -> QDoubleSpinBox:
@@ -51,16 +58,16 @@ class PropertiesPanel(QWidget):
         self.title = QLineEdit()
         self.point = QComboBox()
         self.point_name = QLineEdit()
-        self.x, self.y = _spin(-1e6, 1e6, 3), _spin(-1e6, 1e6, 3)
+        self.x, self.y = _spin(-MAX_COORDINATE, MAX_COORDINATE, 3), _spin(-MAX_COORDINATE, MAX_COORDINATE, 3)
         self.fixed = QCheckBox("fixed to the frame")
         self.link = QComboBox()
         self.link_name = QLineEdit()
         self.link_points = QLabel()
         self.driver = QLabel()
-        self.speed = _spin(-1e5, 1e5, 3)
+        self.speed = _spin(-MAX_RATE, MAX_RATE, 3)
         self.speed_unit = QComboBox()
         self.speed_unit.addItems(["rpm", "rad/s"])
-        self.alpha = _spin(-1e6, 1e6, 3)
+        self.alpha = _spin(-MAX_RATE, MAX_RATE, 3)
         self.alpha.setSuffix(" rad/s²")
         form = QFormLayout(self)
         form.addRow("title", self.title)
@@ -81,8 +88,8 @@ class PropertiesPanel(QWidget):
         self.point_name.editingFinished.connect(self.apply_point_name)
         self.link.currentTextChanged.connect(self.show_link)
         self.link_name.editingFinished.connect(self.apply_link_name)
-        self.x.valueChanged.connect(self.apply_place)
-        self.y.valueChanged.connect(self.apply_place)
+        self.x.valueChanged.connect(lambda value: self.apply_place(0, value))
+        self.y.valueChanged.connect(lambda value: self.apply_place(1, value))
         self.fixed.toggled.connect(self.apply_fixed)
         for widget in (self.speed, self.alpha):
             widget.valueChanged.connect(self.apply_driver)
@@ -113,8 +120,10 @@ class PropertiesPanel(QWidget):
         _refill(self.point, list(mech.points))
         _refill(self.link, list(mech.links))
         suffix = f" {mech.length_unit}"
-        self.x.setSuffix(suffix)
-        self.y.setSuffix(suffix)
+        decimals = max(0, math.ceil(-math.log10(PLACE_RESOLUTION_M / metres_per(mech.length_unit)) - 1e-9))
+        for field in (self.x, self.y):
+            field.setSuffix(suffix)
+            field.setDecimals(decimals)
         self._fill_point(self.point.currentText())
         self._fill_link(self.link.currentText())
         driver = mech.driver
@@ -187,11 +196,21 @@ class PropertiesPanel(QWidget):
         self.say("")
         self._edit(renamed, f"rename {kind} {old} to {new}")
 
-    def apply_place(self, *_):
+    def apply_place(self, axis: int, value: float):
+        """Set coordinate ``axis`` (0 x, 1 y) of the shown joint; the other one stays exactly as it is
+        (the field showing it may hold fewer digits than the file)."""
         name, mech = self.point.currentText(), self.document.mechanism
-        if name in mech.points and (self.x.value(), self.y.value()) != tuple(mech.points[name]):
-            moved = building.keep_slides_on_guides(move_point(mech, name, (self.x.value(), self.y.value())))
-            self._edit(moved, f"place {name}")
+        if name not in mech.points or value == mech.points[name][axis]:
+            return
+        xy = list(mech.points[name])
+        xy[axis] = value
+        try:
+            moved = building.keep_slides_on_guides(move_point(mech, name, xy))
+        except KinematicsError as error:
+            self.say(str(error))
+            self.refresh()
+            return
+        self._edit(moved, f"place {name}")
 
     def apply_fixed(self, on: bool):
         name = self.point.currentText()

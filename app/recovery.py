@@ -9,6 +9,7 @@ that wrote it, so a second Kinepoly running at the same time leaves it alone.
 
 from __future__ import annotations
 
+import datetime as _dt
 import os
 from pathlib import Path
 
@@ -16,7 +17,7 @@ from PySide6.QtCore import QObject, QStandardPaths, QTimer
 from PySide6.QtWidgets import QMessageBox
 
 from kinematics import KinematicsError
-from kinematics.storage import read_recovery, write_recovery
+from kinematics.files.storage import read_recovery, write_recovery
 
 AUTOSAVE_MS = 60_000
 EDITS_PER_COPY = 20
@@ -29,13 +30,31 @@ def recovery_folder() -> Path:
 
 
 def _alive(pid: int) -> bool:
+    """Whether process ``pid`` still runs. A killed process whose parent has not yet collected it
+    (a zombie) answers signals but will never write again: it counts as gone."""
     try:
         os.kill(pid, 0)
     except ProcessLookupError:
         return False
     except PermissionError:
         return True
-    return True
+    try:
+        # /proc/PID/stat: "pid (name) state ..."; the name may hold spaces or brackets, the state follows the last ")".
+        state = Path(f"/proc/{pid}/stat").read_text().rsplit(")", 1)[1].split()[0]
+    except (OSError, IndexError):
+        return True  # no /proc (not Linux): the signal's answer stands
+    return state not in ("Z", "X")
+
+
+def when_in_words(saved_at: str) -> str:
+    """A recovery copy's ISO 8601 time stamp as the local date and time in words
+    ("Thursday 3 December 2026 at 14:32"); the stamp itself if it cannot be read."""
+    try:
+        moment = _dt.datetime.fromisoformat(saved_at)
+    except ValueError:
+        return saved_at or "an unknown time"
+    local = moment.astimezone() if moment.tzinfo else moment
+    return f"{local:%A} {local.day} {local:%B %Y} at {local:%H:%M}"
 
 
 class Autosave(QObject):
@@ -113,7 +132,8 @@ def offer_recovery(window, folder: Path | None = None) -> bool:
         origin = f" (from {source})" if source else ""
         answer = QMessageBox.question(
             window, "Restore unsaved work?",
-            f"Kinepoly stopped before “{title}”{origin} was saved.\nA recovery copy from {saved_at} is kept.\n\n"
+            f"Kinepoly stopped before “{title}”{origin} was saved.\n"
+            f"A recovery copy from {when_in_words(saved_at)} is kept.\n\n"
             "Restore it? (No deletes the copy.)")
         if answer == QMessageBox.StandardButton.Yes:
             window.restore(mechanism, source or None)

@@ -7,23 +7,11 @@ analysed; 3 the linkage cannot assemble at the asked angle.
 
 from __future__ import annotations
 
-import argparse
 import os
 import sys
 from pathlib import Path
 
 FOOTER_PIXELS = 44
-
-
-def parse_size(text: str) -> tuple[int, int]:
-    """``"1600x1000"`` -> (1600, 1000); refuses sizes that cannot hold the drawings."""
-    try:
-        width, height = (int(part) for part in text.lower().split("x"))
-    except ValueError:
-        raise argparse.ArgumentTypeError(f'size "{text}" is not WIDTHxHEIGHT in pixels, e.g. 1600x1000') from None
-    if not (300 <= width <= 10000 and 200 <= height <= 10000):
-        raise argparse.ArgumentTypeError(f"size {width}x{height} is outside 300x200 … 10000x10000 pixels")
-    return width, height
 
 
 def render_image(document, size: tuple[int, int]):
@@ -71,23 +59,36 @@ def png_bytes(image) -> bytes:
     return bytes(data)
 
 
-def main(argv) -> int:
-    parser = argparse.ArgumentParser(prog="kinepoly render", description=__doc__.split("\n\n")[0])
-    parser.add_argument("file", help="mechanism file (.json)")
-    parser.add_argument("--angle", type=float, default=None, help="driver angle, degrees CCW from +x "
-                                                                  "(default: the reference pose)")
-    parser.add_argument("-o", "--output", required=True, help="PNG file to write")
-    parser.add_argument("--size", type=parse_size, default=(1600, 1000), help="WIDTHxHEIGHT pixels (1600x1000)")
-    options = parser.parse_args(argv)
+# What Qt's offscreen plugin says about every widget it shows: true of the plugin, no news to the user.
+QUIET_QT_MESSAGES = ("This plugin does not support propagateSizeHints()",)
+
+
+def _pass_on_qt_message(mode, context, message):
+    if message not in QUIET_QT_MESSAGES:
+        print(message, file=sys.stderr)
+
+
+def run(options) -> int:
+    """``kinepoly render`` with its parsed arguments (:func:`app.cli.parser`): the exit code."""
     os.environ.setdefault("QT_QPA_PLATFORM", "offscreen")
+    from PySide6.QtCore import qInstallMessageHandler
     from PySide6.QtWidgets import QApplication
 
+    app = QApplication.instance() or QApplication(["kinepoly"])
+    previous = qInstallMessageHandler(_pass_on_qt_message)
+    try:
+        return _render(options, app)
+    finally:
+        qInstallMessageHandler(previous)
+
+
+def _render(options, app) -> int:
+    """Load, analyse, draw and write; the exit code (see the module doc)."""
     import kinematics
-    from kinematics.storage import write_atomically
+    from kinematics.files.storage import write_atomically
 
     from .document import Document
 
-    app = QApplication.instance() or QApplication(["kinepoly"])
     try:
         mechanism = kinematics.load_mechanism(options.file)
     except (kinematics.KinematicsError, OSError) as error:

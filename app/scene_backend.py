@@ -31,7 +31,7 @@ from PySide6.QtWidgets import (
 )
 
 from kinematics.drawing import Arrow, Circle, Hatch, Line, Polyline, Strokes, Text
-from kinematics.style import IMAGE, SPACE_PATH
+from kinematics.drawing.style import IMAGE, SPACE_PATH
 
 from .drawing_kit import font_for_capitals, qpen
 

@@ -23,8 +23,8 @@ from PySide6.QtWidgets import (
 
 import kinematics
 from kinematics import KinematicsError, Mechanism
-from kinematics.scales import series_at_most
-from kinematics.storage import save_mechanism
+from kinematics.files.storage import remove_stale_temporaries
+from kinematics.groups.scales import series_at_most
 
 from .angle_control import AngleControl
 from .build_tools import HINTS, Builder
@@ -32,7 +32,7 @@ from .building import empty
 from .document import Document
 from .editing import JointDrag
 from .exports import SheetOutputs
-from .files import recent_files, remember
+from .files import recent_files, remember, save_asking
 from .icons import icon
 from .panels import EMPTY_VIEW_MM, DrawingsPanel
 from .properties import PropertiesPanel
@@ -169,6 +169,7 @@ class MainWindow(SheetOutputs, QMainWindow):
         self._action(files, "&Print…", self.print_dialog, QKeySequence.StandardKey.Print)
         self._action(files, "Export sheet as P&DF…", lambda: self._export("PDF sheet (*.pdf)", self.export_pdf))
         self._action(files, "Export drawing as D&XF…", lambda: self._export("DXF drawing (*.dxf)", self.export_dxf))
+        self.review_action = self._action(files, "Re&view report…", self.review_dialog)
         files.addSeparator()
         self._action(files, "&Quit", self.close, QKeySequence.StandardKey.Quit)
         edit = self.menuBar().addMenu("&Edit")
@@ -362,6 +363,7 @@ class MainWindow(SheetOutputs, QMainWindow):
         except (KinematicsError, OSError) as error:
             self.show_error("Cannot open the file", f"{path}:\n{error}")
             return False
+        remove_stale_temporaries(path)  # what saves of this design cut short left beside it
         self.note = "; ".join(mechanism.warnings)
         self.document.replace(mechanism, path)
         self.drawings.fit_all()
@@ -380,7 +382,9 @@ class MainWindow(SheetOutputs, QMainWindow):
 
     def save_to(self, path) -> bool:
         try:
-            save_mechanism(self.document.mechanism, path)
+            if not save_asking(self, self.document.mechanism, path):
+                self.say(f"not saved: {path} was left as it was")
+                return False
         except (KinematicsError, OSError) as error:
             self.show_error("Cannot save", f"{path}:\n{error}")
             return False

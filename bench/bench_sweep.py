@@ -25,9 +25,9 @@ ROOT = Path(__file__).resolve().parents[1]
 sys.path.insert(0, str(ROOT))
 
 import kinematics  # noqa: E402
-from kinematics.constraints import build_system  # noqa: E402
-from kinematics.solve import _Driven  # noqa: E402
-from kinematics.sweep import sweep, verify_sweep  # noqa: E402
+from kinematics.cycle.sweep import sweep, verify_sweep  # noqa: E402
+from kinematics.solver.constraints import build_system  # noqa: E402
+from kinematics.solver.solve import DrivenSystem  # noqa: E402
 from tests.designs import four_bar  # noqa: E402
 
 
@@ -60,7 +60,7 @@ def bare_four_bar(a, b, c, d, theta, omega):
 
 def fsolve_per_step(mech, angles_deg):
     """A straightforward per-angle root-finder on the same equations (finite-difference Jacobian)."""
-    driven = _Driven(build_system(mech))
+    driven = DrivenSystem(build_system(mech))
     q = driven.system.x0.reshape(-1)[driven.columns]
     for angle in angles_deg:
         theta = math.radians(angle)

@@ -6,22 +6,31 @@ Never imports Qt.
 
 import math
 
-from .components import RelativeComponent, acceleration_components
-from .construct import construct as _construct
-from .errors import CannotAssemble, FileFormatError, KinematicsError, MechanismFindings, ParallelLines
-from .fileformat import dumps, load_mechanism
-from .mobility import Finding, diagnose
-from .model import Driver, Mechanism, Slide, move_point
-from .naming import rename_link, rename_point
-from .solve import Solution, solve_pose
-from .steps import Component, Construction, Polygon, Role, Step
-from .sweep import Sweep, sweep, verify_sweep
-
-CAUTION = (
-    "Caution: rigid-body kinematics only (no deflection, clearance, dynamics or strength). Results must be "
-    "checked by a competent engineer; guarding and machine design follow local codes and licensed practice."
+from .construction.components import RelativeComponent, acceleration_components
+from .construction.construct import construct as _construct
+from .cycle.sweep import Sweep, sweep, verify_sweep
+from .dynamics import drive_summary, forces, sweep_forces
+from .edits.moves import move_point
+from .edits.naming import rename_link, rename_point
+from .errors import (
+    CannotAssemble,
+    FileFormatError,
+    ForcesUndetermined,
+    KinematicsError,
+    MechanismFindings,
+    NoMassData,
+    ParallelLines,
+    StorageError,
+    SweepCancelled,
 )
-
+from .files.fileformat import dumps, load_mechanism
+from .groups.steps import Component, Construction, Polygon, Role, Step
+from .instantaneous.centres import centres
+from .model.mass import LinkMass, Load, MassData, PointMass
+from .model.mechanism import Driver, Mechanism, Slide
+from .reports.caution import CAUTION
+from .solver.mobility import Finding, diagnose
+from .solver.solve import Solution, solve_pose
 
 # Beyond this the angle's fraction of a turn is lost to rounding.
 MAX_ANGLE_DEG = 1e6
@@ -34,7 +43,7 @@ def solve(mechanism: Mechanism, angle_deg: float | None = None) -> Solution:
     Raises MechanismFindings if the mechanism cannot be analysed, and
     CannotAssemble if no pose exists at that angle.
     """
-    from .mobility import require_ready
+    from .solver.mobility import require_ready
 
     if angle_deg is not None and not (isinstance(angle_deg, (int, float)) and math.isfinite(angle_deg)
                                       and abs(angle_deg) <= MAX_ANGLE_DEG):
@@ -45,13 +54,15 @@ def solve(mechanism: Mechanism, angle_deg: float | None = None) -> Solution:
 
 
 def construct(solution: Solution, **options) -> Construction:
-    """The velocity and acceleration polygons of a solved pose (see :mod:`kinematics.construct`)."""
+    """The velocity and acceleration polygons of a solved pose (see :mod:`kinematics.construction.construct`)."""
     return _construct(solution, **options)
 
 
 __all__ = [
-    "CAUTION", "CannotAssemble", "Component", "Construction", "Driver", "FileFormatError", "Finding", "KinematicsError",
-    "Mechanism", "MechanismFindings", "ParallelLines", "Polygon", "RelativeComponent", "Role", "Slide", "Solution",
-    "Step", "Sweep", "acceleration_components", "construct", "diagnose", "dumps", "load_mechanism", "move_point",
-    "rename_link", "rename_point", "solve", "sweep", "verify_sweep",
+    "CAUTION", "CannotAssemble", "Component", "Construction", "Driver", "FileFormatError", "Finding",
+    "ForcesUndetermined", "KinematicsError", "LinkMass", "Load", "MassData", "Mechanism", "MechanismFindings",
+    "NoMassData", "ParallelLines", "PointMass", "Polygon", "RelativeComponent", "Role", "Slide", "Solution", "Step",
+    "StorageError", "Sweep", "SweepCancelled", "acceleration_components", "centres", "construct", "diagnose",
+    "drive_summary", "dumps", "forces", "load_mechanism", "move_point", "rename_link", "rename_point", "solve",
+    "sweep", "sweep_forces", "verify_sweep",
 ]

@@ -1,5 +1,5 @@
 """Drawing a construction: the Sheet of recorded primitives that the printer,
-the DXF writer and (later) the window replay. No Qt here.
+the DXF writer and the window replay. No Qt here.
 
 >>> import kinematics
 >>> from kinematics.drawing import draw_sheet

@@ -7,10 +7,10 @@ import math
 import textwrap
 from functools import lru_cache
 
-from .. import CAUTION
-from ..style import ANNOTATION
+from ..reports.caution import CAUTION
 from .scaling import bar_value, plain
 from .sheet import FRAME, Hatch, Line, Polyline, Recorder, Ref, Strokes, Text
+from .style import ANNOTATION
 from .symbols import Symbols
 
 # Advance of one character over the capital height: measured with Qt 6.11 for

@@ -8,7 +8,6 @@ import datetime
 import math
 from dataclasses import dataclass
 
-from ..style import ANNOTATION
 from .annotate import (
     caution_lines,
     description,
@@ -25,6 +24,7 @@ from .results import results_band, results_height
 from .scaling import bar_value, iso5455_ratio, plain, polygon_scale, ratio_text
 from .sheet import FRAME, Note, Recorder, Ref, Sheet, View
 from .space import draw_space, positions
+from .style import ANNOTATION
 from .symbols import Symbols
 
 # ISO 216 A series, portrait width × height in mm.
@@ -246,3 +246,10 @@ def draw_model(construction, file_name: str = "", date: str | None = None) -> Sh
     rec.add(Note(position=(x0, bar_y - 2 * pad), lines=tuple(texts), height=size.text, pitch=1.8 * size.text,
                  pen=ANNOTATION, ref=Ref("note")))
     return rec.sheet(0.0, 0.0, title=solution.mechanism.title)
+
+
+def space_view(solution, box, name: str = "space") -> View:
+    """The space diagram of ``solution`` fitted in ``box`` (x0, y0, x1, y1, sheet mm) at the
+    largest ISO 5455 scale and centred there, as the printed sheet fits its own."""
+    fit = _fit_space(solution, box[2] - box[0], box[3] - box[1])
+    return _centred_view(name, fit, box, "m")

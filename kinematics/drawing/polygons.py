@@ -8,12 +8,12 @@ from __future__ import annotations
 
 import math
 
-from ..steps import Role
-from ..style import IMAGE, pen_for
+from ..groups.steps import Role
 from . import symbols
 from .declutter import declutter
 from .sheet import Circle, Line, Polyline, Recorder, Ref, View
 from .space import outline, positions
+from .style import IMAGE, pen_for
 from .symbols import Symbols
 
 

@@ -4,9 +4,9 @@ legend of the pens the polygons use."""
 
 from __future__ import annotations
 
-from ..style import ANNOTATION, LEGEND, pen_for
 from .annotate import ROW, outline_box, text_width
 from .sheet import Line, Recorder, Ref, Text
+from .style import ANNOTATION, LEGEND, pen_for
 from .symbols import Symbols
 from .table import link_rows, point_rows, slide_rows
 

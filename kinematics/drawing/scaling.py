@@ -6,7 +6,7 @@ from __future__ import annotations
 import math
 from fractions import Fraction
 
-from ..scales import series_at_least, series_at_most, series_term
+from ..groups.scales import series_at_least, series_at_most, series_term
 
 
 def iso5455_ratio(largest: float) -> Fraction:

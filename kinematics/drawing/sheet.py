@@ -2,7 +2,7 @@
 
 Coordinates are millimetres on the sheet, x to the right and y up, origin at
 the lower-left corner of the sheet (or of the model, for a DXF drawing). Each
-primitive carries the pen (:mod:`kinematics.style`) that gives its role, the
+primitive carries the pen (:mod:`kinematics.drawing.style`) that gives its role, the
 view it belongs to and a :class:`Ref` to what it draws (a point, a link, a
 construction step ...), so a backend can put it on a layer and a window can
 lead a click back to the model. Backends (DXF writer, Qt painter, the window's
@@ -14,7 +14,7 @@ from __future__ import annotations
 from dataclasses import dataclass, field
 from typing import NamedTuple
 
-from ..style import ANNOTATION, Pen
+from .style import ANNOTATION, Pen
 
 # Dash patterns of ISO 128 line types in multiples of the line width: dashed
 # (type 02: 12 dash, 3 gap), dotted (type 07 as dots 0.5, gap 3), long
@@ -90,7 +90,8 @@ class Circle(NamedTuple):
 class Text(NamedTuple):
     """One line of text. ``height`` is the capital height (ISO 3098 h) in mm;
     ``align`` is "left", "centre" or "right" and ``anchor`` is "baseline",
-    "middle" (half the capital height) or "top" (top of the capitals)."""
+    "middle" (half the capital height) or "top" (top of the capitals).
+    ``mono`` asks for a fixed-pitch face, for text laid out in columns of characters."""
 
     position: tuple
     text: str
@@ -100,6 +101,7 @@ class Text(NamedTuple):
     anchor: str = "baseline"
     view: str = ""
     ref: Ref | None = None
+    mono: bool = False
 
 
 class Hatch(NamedTuple):

@@ -9,11 +9,11 @@ from __future__ import annotations
 
 import math
 
-from ..model import GROUND
-from ..style import ANNOTATION, SPACE_GROUND, SPACE_LINK, SPACE_PATH
+from ..model.mechanism import GROUND
 from . import symbols
 from .declutter import declutter
 from .sheet import Line, Polyline, Recorder, Ref, Strokes, Text, View
+from .style import ANNOTATION, SPACE_GROUND, SPACE_LINK, SPACE_PATH
 from .symbols import Symbols
 
 # Points this close to one line (relative to the link's size) make a straight bar, not a plate.

@@ -2,7 +2,10 @@
 peaks, the fine sweep worker, coupler paths, and a look at the screen."""
 
 import doctest
+import json
 import math
+import subprocess
+import sys
 
 import numpy as np
 import pytest
@@ -12,10 +15,11 @@ from PySide6.QtTest import QTest
 from PySide6.QtWidgets import QApplication
 
 import app.cycle_series
+import app.cycle_series as series
 import kinematics
 from app.cycle_panel import NO_CYCLE, PALETTE, CyclePanel
 from app.cycle_series import Quantity, coupler_paths_mm, readable
-from kinematics.peaks import peaks
+from kinematics.cycle.peaks import peaks
 from tests.designs import CARTON_PUSHER, CLAW_FEED, SAMPLES, SWING_LEVER, TRIPLE_ROCKER, load
 
 SIX_BAR = SAMPLES / "stacker-transfer-stephenson.json"
@@ -209,6 +213,36 @@ def test_the_peaks_readout_agrees_with_the_cores_peaks_table(panel):
     table = peaks(result)["points"]["P"]
     assert f"peak {readable(table['max_speed'])} m/s at {table['at_deg'] % 360:.1f}°" in panel.peaks.text()
     assert readable(10737.4) == "10737" and readable(-53.3412) == "-53.34" and readable(2.5e-5) == "2.5e-05"
+
+
+def test_the_window_and_the_command_leave_out_the_same_dead_point_ends(panel, tmp_path):
+    """For a driver that rocks, the window's peaks and those of ``kinepoly sweep --json`` are the
+    same samples' (both leave out the same share of the range at each dead point)."""
+    design = tmp_path / "rocker.json"
+    design.write_text(json.dumps(TRIPLE_ROCKER), encoding="utf-8")
+    out = subprocess.run([sys.executable, "-m", "app.main", "sweep", str(design), "--steps", "360", "--json"],
+                         capture_output=True, text=True)
+    assert out.returncode == 0, out.stderr
+    table = json.loads(out.stdout)["peaks"]
+    result = kinematics.sweep(load(TRIPLE_ROCKER), 360)
+    assert not result.full_turn and table["dead_point_share_left_out"] > 0
+    panel.set_units("m", "rad/s")
+    panel.set_sweep(result)
+    point, link = table["points"]["B"], table["links"]["output"]
+    # The accelerations peak at the first sample kept (they grow fastest towards a dead point).
+    expected = {Quantity("velocity", "magnitude", "B"): (point["max_speed"], point["at_deg"]),
+                Quantity("acceleration", "magnitude", "B"): (point["max_acceleration"], point["acceleration_at_deg"]),
+                Quantity("angular velocity", "rate", "output"): (link["max_angular_velocity"], link["at_deg"]),
+                Quantity("angular acceleration", "rate", "output"): (link["max_angular_acceleration"],
+                                                                     link["acceleration_at_deg"])}
+    panel.choose(list(expected))
+    text = panel.peaks.text()
+    for quantity, (value, at_deg) in expected.items():
+        at = int(np.flatnonzero(result.driver_angle_deg == at_deg)[0])
+        signed = float(series.si_values(result, quantity)[at])
+        assert abs(signed) == pytest.approx(value, rel=1e-12)  # the same sample, maybe another rounding
+        assert f"<b>{quantity.label}</b> peak {readable(signed)}" in text
+        assert f"at {panel.axis.along[at]:.1f}°" in text
 
 
 def test_a_new_sweep_updates_the_existing_curves_in_place(panel):

@@ -39,7 +39,7 @@ def test_save_writes_the_core_text_atomically(make_window, tmp_path):
     assert target.read_text(encoding="utf-8") == kinematics.dumps(window.document.mechanism)
     assert kinematics.load_mechanism(target).points == window.document.mechanism.points
     assert os.stat(target).st_mode & 0o777 == mode, "an overwritten file keeps its permissions"
-    # The previous version stays beside it, one generation (kinematics.storage.save_mechanism).
+    # The previous version stays beside it, one generation (kinematics.files.storage.save_mechanism).
     assert sorted(p.name for p in tmp_path.iterdir()) == ["claw.json", "claw.json.bak", "settings.ini"]
     assert (tmp_path / "claw.json.bak").read_text(encoding="utf-8") == "old"
     assert window.document.undo_stack.isClean() and window.document.path == str(target)
@@ -54,7 +54,7 @@ def test_a_failed_save_leaves_the_old_file_whole_and_no_temporary(make_window, t
     def refuse(*_):
         raise OSError("disk full")
 
-    monkeypatch.setattr(kinematics.storage.os, "replace", refuse)
+    monkeypatch.setattr(kinematics.files.storage.os, "replace", refuse)
     assert not window.save_to(target)
     assert target.read_text(encoding="utf-8") == "the old contents"
     assert [p.name for p in tmp_path.iterdir() if p.name.endswith((".tmp", ".part"))] == []

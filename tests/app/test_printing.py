@@ -10,12 +10,17 @@ import pytest
 from PySide6.QtPrintSupport import QPrinter
 
 import kinematics
-from app.printing import main, print_construction
+from app.cli import main as command_line
+from app.printing import print_construction
 from tests.designs import BOTTLE_PUSHER, GATE_LIFTER, SAMPLE_FILES, SWING_LEVER, TRIPLE_ROCKER, construction
 
 MM_PER_PT = 25.4 / 72.0  # PDF user space is in points of 1/72 inch
 RATIO = re.compile(r"Space diagram (\d+(?:\.\d+)?):(\d+(?:\.\d+)?)")
 PER_MM = re.compile(r"(Velocity|Acceleration) polygon 1 mm = ([\d.]+) m/s")
+
+
+def main(argv):
+    return command_line(["print", *argv])
 
 
 def _segments(page):
@@ -100,7 +105,12 @@ def test_driver_velocity_vector_measures_omega_r_at_the_polygon_scale(sheet_pdf)
 
 
 def test_each_scale_bar_is_as_long_as_its_label_says(sheet_pdf):
-    page = sheet_pdf(BOTTLE_PUSHER, 40.0)
+    assert scale_bars_measured(sheet_pdf(BOTTLE_PUSHER, 40.0)) == 3
+
+
+def scale_bars_measured(page) -> int:
+    """Measure every scale bar of a construction sheet against its caption's scale (±0.1 mm);
+    returns how many were measured."""
     words, segments = _words(page), _segments(page)
     ratio, per_mm = _space_ratio(page), _polygon_scales(page)
     checked = 0
@@ -119,7 +129,7 @@ def test_each_scale_bar_is_as_long_as_its_label_says(sheet_pdf):
                     "m/s²": float(value) / per_mm.get("acceleration", math.nan)}[unit]
         assert drawn == pytest.approx(expected, abs=0.1), caption["text"]
         checked += 1
-    assert checked == 3
+    return checked
 
 
 def test_the_sheet_carries_the_caution_and_the_results(sheet_pdf):

@@ -1,8 +1,12 @@
 """Recovery copies: written while work is unsaved, offered back after a crash, gone after a clean exit."""
 
+import datetime
 import os
+import signal
 import subprocess
 import sys
+import time
+from pathlib import Path
 
 import pytest
 from PySide6.QtWidgets import QMessageBox
@@ -32,7 +36,7 @@ def test_every_twentieth_edit_writes_a_copy_that_round_trips(make_window, folder
     assert not window.autosave.path.exists()
     nudge(window, dx=0.01)
     assert window.autosave.path.exists()
-    restored, saved_at, source = kinematics.storage.read_recovery(window.autosave.path)
+    restored, saved_at, source = kinematics.files.storage.read_recovery(window.autosave.path)
     assert restored == window.document.mechanism and saved_at
 
 
@@ -77,13 +81,14 @@ def test_after_a_crash_the_next_start_offers_the_copy(make_window, folder, monke
     dead = subprocess.run([sys.executable, "-c", "import os; print(os.getpid())"], capture_output=True, text=True)
     folder.mkdir(parents=True)
     copy = folder / f"recovery-{int(dead.stdout)}-1.json"
-    kinematics.storage.write_recovery(mech, copy, source="/designs/pusher.json")
+    kinematics.files.storage.write_recovery(mech, copy, source="/designs/pusher.json")
     assert left_behind() == [copy]
     asked = []
     monkeypatch.setattr(QMessageBox, "question", lambda *args: asked.append(args[2]) or QMessageBox.Yes)
     window = make_window()
     assert offer_recovery(window)
     assert "A recovery copy from" in asked[0] and "/designs/pusher.json" in asked[0]
+    assert "+00:00" not in asked[0] and " at " in asked[0]  # local time in words, not the raw stamp
     assert window.document.mechanism == mech and window.document.path == "/designs/pusher.json"
     assert not window.document.undo_stack.isClean()  # restored work is still unsaved
     assert not copy.exists() and window.autosave.path.exists()
@@ -92,9 +97,9 @@ def test_after_a_crash_the_next_start_offers_the_copy(make_window, folder, monke
 def test_a_declined_copy_is_removed_and_a_live_ones_is_left(make_window, folder, monkeypatch):
     folder.mkdir(parents=True)
     live = folder / f"recovery-{os.getppid()}-1.json"
-    kinematics.storage.write_recovery(load(CLAW_FEED), live)
+    kinematics.files.storage.write_recovery(load(CLAW_FEED), live)
     dead = folder / "recovery-999999999-1.json"
-    kinematics.storage.write_recovery(load(CLAW_FEED), dead)
+    kinematics.files.storage.write_recovery(load(CLAW_FEED), dead)
     monkeypatch.setattr(QMessageBox, "question", lambda *args: QMessageBox.No)
     assert not offer_recovery(make_window())
     assert not dead.exists() and live.exists()
@@ -108,3 +113,30 @@ def test_a_copy_that_cannot_be_written_does_not_interrupt_work(make_window, tmp_
     nudge(window)
     assert window.autosave.write_if_unsaved() is False
     assert isinstance(window.autosave, Autosave)
+
+
+def test_a_killed_process_not_yet_collected_leaves_its_copy_offered_at_once(folder):
+    # SIGKILL, and the parent (this test) has not waited: the process is a zombie, which still
+    # answers kill(pid, 0). Its copy must be offered on the very next start, not one start later.
+    child = subprocess.Popen([sys.executable, "-c", "import time; time.sleep(60)"])
+    try:
+        folder.mkdir(parents=True)
+        copy = folder / f"recovery-{child.pid}-1.json"
+        kinematics.files.storage.write_recovery(load(CLAW_FEED), copy)
+        assert left_behind() == []  # running: its copy is its own
+        child.send_signal(signal.SIGKILL)
+        for _ in range(200):  # until the kernel has made it a zombie
+            if Path(f"/proc/{child.pid}/stat").read_text().rsplit(")", 1)[1].split()[0] == "Z":
+                break
+            time.sleep(0.01)
+        assert left_behind() == [copy]
+    finally:
+        child.kill()
+        child.wait()
+
+
+def test_the_time_of_a_copy_is_said_in_local_words():
+    stamp = "2026-03-04T05:06:07+00:00"
+    local = datetime.datetime.fromisoformat(stamp).astimezone()
+    assert recovery.when_in_words(stamp) == f"{local:%A} {local.day} {local:%B %Y} at {local:%H:%M}"
+    assert recovery.when_in_words("") == "an unknown time"

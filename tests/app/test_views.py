@@ -7,7 +7,7 @@ from PySide6.QtWidgets import QApplication, QGraphicsLineItem
 
 from app.scene_backend import ITEM_REF, Z_LINE
 from kinematics.drawing import Ref
-from kinematics.style import pen_for
+from kinematics.drawing.style import pen_for
 from tests.designs import CLAW_FEED
 
 

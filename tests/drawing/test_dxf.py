@@ -14,9 +14,11 @@ import pytest
 from ezdxf import recover
 
 import kinematics
-from kinematics import style
-from kinematics.dxf import main, write_dxf
-from kinematics.storage import StorageError, replace_atomically
+from app.cli import main as command_line
+from kinematics.drawing import style
+from kinematics.drawing.dxf import write_dxf
+from kinematics.errors import StorageError
+from kinematics.files.storage import replace_atomically
 from tests.designs import (
     BOTTLE_PUSHER,
     GATE_LIFTER,
@@ -28,6 +30,10 @@ from tests.designs import (
 )
 
 MM_PER_PT = 25.4 / 72.0
+
+
+def main(argv):
+    return command_line(["export", *argv])
 
 
 def _read(path):

@@ -9,12 +9,11 @@ from fractions import Fraction
 import pytest
 
 import kinematics
-from kinematics import style
-from kinematics.drawing import PAPER, Arrow, Circle, Line, Polyline, Ref, Text, draw_model, draw_sheet
+from kinematics.drawing import PAPER, Arrow, Circle, Line, Polyline, Ref, Text, draw_model, draw_sheet, style
 from kinematics.drawing.layout import MARGIN, MARGIN_FILING
 from kinematics.drawing.scaling import iso5455_ratio, polygon_scale, ratio_text
 from kinematics.drawing.space import outline
-from kinematics.steps import Role
+from kinematics.groups.steps import Role
 from tests.designs import (
     BOTTLE_PUSHER,
     GATE_LIFTER,
@@ -167,7 +166,7 @@ def test_model_drawing_keeps_true_millimetres_and_the_files_origin():
 
 
 def test_drawing_never_imports_qt():
-    code = ("import sys, kinematics.drawing, kinematics.dxf; "
+    code = ("import sys, kinematics.drawing, kinematics.drawing.dxf; "
             "sys.exit(any(m.startswith(('PySide6', 'app')) for m in sys.modules))")
     assert subprocess.run([sys.executable, "-c", code]).returncode == 0
 

@@ -7,8 +7,8 @@ import numpy as np
 import pytest
 
 import kinematics
-from kinematics.checks import loop_checks
-from kinematics.sweep import sweep, verify_sweep
+from kinematics.cycle.checks import loop_checks
+from kinematics.cycle.sweep import sweep, verify_sweep
 from tests.designs import SAMPLES, driver
 
 PARALLELOGRAM = {"kinepoly": 1, "points": {"O2": [0, 0], "A": [0, 40], "B": [100, 40], "O4": [100, 0]},

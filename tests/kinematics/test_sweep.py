@@ -8,8 +8,9 @@ from hypothesis import given, settings
 from hypothesis import strategies as st
 
 import kinematics
-from kinematics.checks import grashof_class, output_motion
-from kinematics.sweep import sweep, sweep_csv, verify_sweep
+from kinematics.cycle.measures import output_motion
+from kinematics.cycle.sweep import sweep, sweep_csv, verify_sweep
+from kinematics.groups.loops import grashof_class
 from tests import CASE_FACTOR
 from tests.designs import SAMPLE_FILES, SAMPLES, four_bar, slider_crank
 
@@ -142,7 +143,8 @@ def test_solve_does_not_depend_on_what_was_solved_before():
 
 
 def test_a_sweep_by_chunks_reports_progress_equals_the_whole_and_can_be_cancelled():
-    from kinematics.sweep import PROGRESS_CHUNK, SweepCancelled
+    from kinematics.cycle.sweep import PROGRESS_CHUNK
+    from kinematics.errors import SweepCancelled
 
     mech = kinematics.load_mechanism(SAMPLES / "stacker-transfer-stephenson.json")
     steps = 2 * PROGRESS_CHUNK + 500

@@ -3,8 +3,8 @@
 import math
 
 import kinematics
-from kinematics.report_text import solution_table
-from kinematics.vectors import NEGLIGIBLE, direction_deg
+from kinematics.groups.vectors import NEGLIGIBLE, direction_deg
+from kinematics.reports.text import solution_table
 from tests.designs import CLAW_FEED, load
 
 
