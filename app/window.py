@@ -24,12 +24,12 @@ from PySide6.QtWidgets import (
 import kinematics
 from kinematics import KinematicsError, Mechanism
 from kinematics.files.storage import remove_stale_temporaries
+from kinematics.groups.scales import series_at_most
 
 from .angle_control import AngleControl
 from .build_tools import HINTS, Builder
 from .building import empty
 from .document import Document
-from .drawing_kit import preferred_length
 from .editing import JointDrag
 from .exports import SheetOutputs
 from .files import recent_files, remember, save_asking
@@ -316,7 +316,7 @@ class MainWindow(SheetOutputs, QMainWindow):
         if not self.snapping.isChecked():
             return 0.0
         mech = self.document.mechanism
-        return preferred_length(max(1e3 * mech.size * mech.metres_per_unit, EMPTY_VIEW_MM) / 20.0)
+        return series_at_most(max(1e3 * mech.size * mech.metres_per_unit, EMPTY_VIEW_MM) / 20.0)
 
     def _snapping_changed(self, *_):
         self.drawings.space_view.grid_mm = self.grid_mm()

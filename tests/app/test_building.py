@@ -23,7 +23,7 @@ def click_at(window, x_mm, y_mm):
 
 def click_joint(window, name):
     view = window.drawings.space_view
-    at = window.drawings.space_scene.joints[name].dot.pos()
+    at = window.drawings.space_scene.joint_pos(name)
     QTest.mouseClick(view.viewport(), Qt.LeftButton, Qt.NoModifier, view.mapFromScene(at))
 
 
@@ -158,7 +158,7 @@ def test_snapping_draws_the_grid_and_lands_drags_on_it(make_window):
     step = window.grid_mm()
     assert step == 10.0  # a twentieth of the 245 mm diagonal, down to the 1-2-5 series
     assert grid_pixels() > 100
-    start = window.drawings.space_scene.joints["P"].dot.pos()
+    start = window.drawings.space_scene.joint_pos("P")
     QTest.mousePress(view.viewport(), Qt.LeftButton, Qt.NoModifier, view.mapFromScene(start))
     QTest.mouseMove(view.viewport(), view.mapFromScene(start + QPointF(13.0, -4.0)))
     QTest.mouseRelease(view.viewport(), Qt.LeftButton, Qt.NoModifier, view.mapFromScene(start + QPointF(13.0, -4.0)))

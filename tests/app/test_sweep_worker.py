@@ -34,7 +34,7 @@ def test_a_drag_frame_returns_while_a_slow_sweep_runs(make_window, monkeypatch, 
     window.snapping.setChecked(False)
     started, release, swept = _slow_cycle(monkeypatch)
     view = window.drawings.space_view
-    start = window.drawings.space_scene.joints["B"].dot.pos()
+    start = window.drawings.space_scene.joint_pos("B")
     QTest.mousePress(view.viewport(), Qt.MouseButton.LeftButton, Qt.KeyboardModifier.NoModifier,
                      view.mapFromScene(start))
     before = doc.mechanism
