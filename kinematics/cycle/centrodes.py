@@ -24,11 +24,13 @@ CENTRODE_REACH = 20.0
 
 @dataclass(frozen=True)
 class Centrodes:
-    """``fixed`` and ``moving``: tuples of (k, 2) arrays in metres, one per finite stretch."""
+    """``fixed`` and ``moving``: tuples of (k, 2) arrays in metres, one per finite stretch;
+    ``driver_angle_deg``: the (k,) driver angles of each stretch's points, in the same order."""
 
     link: str
     fixed: tuple
     moving: tuple
+    driver_angle_deg: tuple
 
 
 def coupler_of(mech) -> str:
@@ -68,4 +70,5 @@ def centrodes(result: Sweep, link: str | None = None) -> Centrodes:
     xy = np.stack([centre.real, centre.imag], axis=-1)
     uv = np.stack([body.real, body.imag], axis=-1)
     closes = result.full_turn and result.closes
-    return Centrodes(link=link, fixed=_stretches(xy, finite, closes), moving=_stretches(uv, finite, closes))
+    return Centrodes(link=link, fixed=_stretches(xy, finite, closes), moving=_stretches(uv, finite, closes),
+                     driver_angle_deg=_stretches(result.driver_angle_deg, finite, closes))
