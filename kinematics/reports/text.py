@@ -27,10 +27,13 @@ def turn(angle_deg: float, digits: int) -> float:
 
 
 def direction_deg(vx: float, vy: float) -> float:
+    """The direction of (vx, vy) in degrees from +x, counter-clockwise, as it prints to one decimal."""
     return turn(math.degrees(math.atan2(vy, vx)), 1)
 
 
 def solution_table(solution: Solution) -> str:
+    """The solved pose for people: each point's position (mm), speed and acceleration with their
+    directions, each link's angle, ω and α with their senses, the slides' rates, and the warnings."""
     mech = solution.mechanism
     lines = [f"{mech.title or 'Mechanism'} — driver {mech.driver.link} at {solution.driver_angle_deg:.2f}°, "
              f"{mech.driver.speed_rad_s:.4g} rad/s ({mech.driver.speed_value} {mech.driver.speed_unit})",
@@ -57,6 +60,7 @@ def solution_table(solution: Solution) -> str:
 
 
 def construction_text(construction: Construction) -> str:
+    """Both polygons' construction steps in words, in order, with their scales and the cross-check."""
     lines = []
     for polygon in (construction.velocity, construction.acceleration):
         lines.append(f"{polygon.kind} polygon (scale {polygon.scale_per_mm:g} {polygon.unit.replace('^2', '²')} "

@@ -38,6 +38,7 @@ def abscissa(result):
 
 
 def analysis_marks(review: Review, result) -> tuple:
+    """The analysis angles as (driver angle in degrees, label) marks for the cycle plots."""
     marks = []
     for angle in review.angles_deg:
         if angle is not None:

@@ -49,6 +49,7 @@ def driver_words(mech) -> str:
 
 
 def angle_words(review: Review) -> str:
+    """The analysis angles in words ("30°, 150°"), or "the reference pose"."""
     angles = [a for a in review.angles_deg if a is not None]
     return ", ".join(f"{a:g}°" for a in angles) if angles else "the reference pose"
 
