@@ -19,15 +19,15 @@ from PySide6.QtWidgets import QAbstractItemView, QHeaderView, QTableView
 
 from kinematics import acceleration_components
 from kinematics.errors import KinematicsError
+from kinematics.groups.vectors import direction_deg, negligible
 from kinematics.instantaneous.advantage import solver_advantage
-from kinematics.reports.text import NEGLIGIBLE
 
-from .display_units import LENGTH_SYSTEMS, angular_speed, direction_deg, sense
+from .display_units import LENGTH_SYSTEMS, angular_speed, sense
 
 
 def _clean(value: float, scale: float) -> float:
-    """``value`` set to 0 when it is below NEGLIGIBLE × ``scale``."""
-    return 0.0 if abs(value) < NEGLIGIBLE * scale else value
+    """``value`` set to 0 when it is negligible against ``scale`` (see :mod:`kinematics.groups.vectors`)."""
+    return 0.0 if negligible(value, scale) else value
 
 
 def _number(value: float) -> str:

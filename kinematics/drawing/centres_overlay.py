@@ -13,7 +13,8 @@ import math
 
 from . import symbols
 from .centre_places import centre_places, linkage_box, where_words
-from .sheet import Circle, Line, Recorder, Text, View
+from .declutter import declutter
+from .sheet import Circle, Recorder, Ref, Strokes, Text, View
 from .style import CENTRE
 from .symbols import Symbols
 
@@ -25,7 +26,7 @@ SAME_DIRECTION = 1e-9
 
 
 def _ids(view: View, name: str) -> dict:
-    return {"view": view.name, "part": name}
+    return {"view": view.name, "ref": Ref("centre", name)}
 
 
 def _grouped(items, key, close) -> list:
@@ -91,13 +92,17 @@ def draw_centres(rec: Recorder, centres, view: View, size: Symbols, places=None)
         ids = _ids(view, group[0].name)
         ring, arm = 1.4 * size.pin, 2.4 * size.pin
         rec.add(Circle(centre=at, radius=ring, pen=CENTRE, **ids))
-        rec.add(Line(start=(at[0] - arm, at[1]), end=(at[0] + arm, at[1]), pen=CENTRE, **ids))
-        rec.add(Line(start=(at[0], at[1] - arm), end=(at[0], at[1] + arm), pen=CENTRE, **ids))
+        rec.add(Strokes(points=((at[0] - arm, at[1]), (at[0] + arm, at[1]), (at[0], at[1] - arm),
+                                (at[0], at[1] + arm)), pen=CENTRE, **ids))
+        symbols.dot_mark(rec, at, arm, view.name)
         symbols.label(rec, at, name, middle, CENTRE, Symbols(text=size.small_text), gap=arm, **ids)
     beyond = [p for p in places if p.kind in ("off view", "infinity")]
     for group in _grouped(beyond, lambda p: p.direction,
                           lambda a, b: math.dist(a, b) <= SAME_DIRECTION):
         _edge_arrow(rec, view, group[0].direction, _beyond_words(group), group[0].name, size)
+    # The centres' labels kept clear of the linkage's and of each other (the linkage's own were
+    # placed first, and stay where they are unless a centre's mark now covers them).
+    declutter(rec, view.name)
     lost = [p.name for p in places if p.kind == "undetermined"]
     if lost:
         bx0, by0, _, _ = view.box

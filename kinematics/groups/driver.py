@@ -11,7 +11,7 @@ from typing_extensions import override
 
 from .base import Frame, Group
 from .force_steps import FRAME, ForceState, every, force_label, gather, lay, moment, pins_carried, result
-from .steps import Component, PolygonBuilder, Role, as_xy, direction_deg, figure
+from .steps import Component, PolygonBuilder, Role, as_xy, direction_words, figure
 
 
 @dataclass(frozen=True)
@@ -81,7 +81,7 @@ class DriverGroup(Group):
             v = frame.vel[q]
             builder.vector(Component.DRIVER, 0.0, v, builder.label(q), f"v_{q} = ω_{link} × r_{pivot}{q}",
                            f"velocity of {q}: ω·r = {figure(abs(omega))} rad/s × {figure(abs(r))} m = "
-                           f"{figure(abs(v))} m/s, perpendicular to {pivot}{q}, at {direction_deg(v):.1f}°",
+                           f"{figure(abs(v))} m/s, perpendicular to {pivot}{q}{direction_words(v)}",
                            points=(q,), links=(link,))
         placed.update(frame.mech.links[link])
 

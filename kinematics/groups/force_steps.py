@@ -22,7 +22,8 @@ import numpy as np
 from ..errors import ParallelLines
 from ..model.mechanism import GROUND
 from .base import Line, cross, intersect, unit
-from .steps import Component, PolygonBuilder, Role, as_xy, direction_deg, figure
+from .steps import Component, PolygonBuilder, Role, as_xy, figure
+from .vectors import direction_deg
 
 FRAME = "frame"
 
@@ -163,7 +164,8 @@ def lay(builder: PolygonBuilder, start: complex, runs: list) -> tuple:
                 continue
             size = figure(abs(load.force))
             builder.vector(load.component, at, at + load.force, load.label, f"{load.label} = {size} N",
-                           f"{load.label}: {load.text}, {size} N at {direction_deg(load.force):.1f}°"
+                           f"{load.label}: {load.text}, {size} N at "
+                           f"{direction_deg(load.force.real, load.force.imag):.1f}°"
                            + (f", with a couple of {figure(load.couple)} N·m" if load.couple else ""),
                            links=load.links, points=load.points, space=(as_xy(load.at),))
             at += load.force
@@ -219,7 +221,7 @@ def result(builder: PolygonBuilder, start: complex, end: complex, label: str, te
     """A force found on the polygon, from ``start`` to ``end``, with its value."""
     force = end - start
     builder.vector(component, start, end, label, f"{label} = {figure(abs(force))} N",
-                   f"{label}: {text}, {figure(abs(force))} N at {direction_deg(force):.1f}°"
+                   f"{label}: {text}, {figure(abs(force))} N at {direction_deg(force.real, force.imag):.1f}°"
                    if abs(force) else f"{label}: {text}, 0 N", role=Role.RESULT, **extra)
     return force
 

@@ -19,6 +19,7 @@ from shapely.geometry import LineString, Point
 
 from ..errors import ParallelLines
 from .scales import preferred_scale
+from .vectors import direction_deg
 
 if TYPE_CHECKING:  # the groups draw their own steps here: these modules import this one
     from ..solver.solve import Solution
@@ -146,9 +147,11 @@ def as_xy(z) -> tuple:
     return (z.real, z.imag)
 
 
-def direction_deg(z) -> float:
-    """The direction of the complex vector ``z`` in degrees, counter-clockwise from +x, in [0, 360)."""
-    return math.degrees(math.atan2(complex(z).imag, complex(z).real)) % 360.0
+def direction_words(z) -> str:
+    """", at 150.0°" for a vector z (complex), "" for a zero one (see :mod:`kinematics.groups.vectors`)."""
+    z = complex(z)
+    direction = direction_deg(z.real, z.imag)
+    return "" if direction is None else f", at {direction:.1f}°"
 
 
 @dataclass
