@@ -12,9 +12,9 @@ from __future__ import annotations
 import math
 
 from . import symbols
-from .centre_places import centre_places, linkage_box, where_words
+from .centre_places import bounds_with_centres, centre_places, linkage_box, where_words
 from .declutter import declutter
-from .sheet import Circle, Recorder, Ref, Strokes, Text, View
+from .sheet import Circle, Recorder, Ref, Sheet, Strokes, Text, View
 from .style import CENTRE
 from .symbols import Symbols
 
@@ -108,3 +108,16 @@ def draw_centres(rec: Recorder, centres, view: View, size: Symbols, places=None)
         bx0, by0, _, _ = view.box
         rec.add(Text(position=(bx0, by0), text="undetermined: " + ", ".join(lost), height=size.small_text,
                      pen=CENTRE, **_ids(view, lost[0])))
+
+
+def centres_pane(centres, size: Symbols) -> Sheet:
+    """The centres alone over a space diagram drawn as :func:`kinematics.drawing.panes.space_pane`
+    draws it (sheet mm = machine mm, the file's origin kept), for a window that shows them over
+    its own; the view's ``box`` is the linkage's grown to take in the centres on the view."""
+    places = centre_places(centres)
+    x0, y0, x1, y1 = (1000.0 * v for v in bounds_with_centres(centres.solution, places))
+    view = View("space", (x0, y0, x1, y1), (0.0, 0.0), 1000.0, "m", "1:1")
+    rec = Recorder()
+    rec.add_view(view)
+    draw_centres(rec, centres, view, size, places)
+    return rec.sheet(0.0, 0.0, title=centres.solution.mechanism.title)
