@@ -10,7 +10,7 @@ from PySide6.QtWidgets import QApplication
 import kinematics
 from kinematics.drawing import Circle, Ref, Text
 from kinematics.drawing.centre_places import centre_places
-from tests.designs import SAMPLE_FILES, four_bar, load
+from tests.designs import SAMPLE_FILES, four_bar
 
 SHOTS = "/work/notes/shots-centres"
 SIX_BAR = next(p for p in SAMPLE_FILES if p.name.startswith("stacker-transfer"))
