@@ -113,10 +113,13 @@ def draw_centres(rec: Recorder, centres, view: View, size: Symbols, places=None)
 def centres_pane(centres, size: Symbols) -> Sheet:
     """The centres alone over a space diagram drawn as :func:`kinematics.drawing.panes.space_pane`
     draws it (sheet mm = machine mm, the file's origin kept), for a window that shows them over
-    its own; the view's ``box`` is the linkage's grown to take in the centres on the view."""
+    its own; the view's ``box`` is the linkage's grown to take in the centres on the view, and the
+    edge arrows round it."""
     places = centre_places(centres)
     x0, y0, x1, y1 = (1000.0 * v for v in bounds_with_centres(centres.solution, places))
-    view = View("space", (x0, y0, x1, y1), (0.0, 0.0), 1000.0, "m", "1:1")
+    # Room outside the drawing for the edge arrows, so they point away from the linkage, not over it.
+    pad = 4.0 * size.arrow + size.text
+    view = View("space", (x0 - pad, y0 - pad, x1 + pad, y1 + pad), (0.0, 0.0), 1000.0, "m", "1:1")
     rec = Recorder()
     rec.add_view(view)
     draw_centres(rec, centres, view, size, places)

@@ -67,3 +67,21 @@ def test_the_centres_follow_the_pose(make_window):
     x, y = pole.at_m
     assert math.dist(after["ground|coupler"], (1000 * x, 1000 * y)) <= 1e-9  # rounding of the mm scale
     window.drawings.space_view.grab().save(f"{SHOTS}/window-centres-four-bar.png")
+
+
+def test_far_centres_point_from_the_view_edge_outside_the_linkage(make_window):
+    # Crank and rocker nearly parallel: the coupler's pole and the crank-rocker centre lie far off
+    # (common practice); the window shows arrows at the edge, clear of the linkage's own box.
+    window = make_window(four_bar(40, 120, 41, 120, 89))
+    QTest.keyClick(window, Qt.Key_K, Qt.ControlModifier)
+    QApplication.processEvents()
+    sheet = window.drawings.space_scene.centres_sheet
+    arrows = [p for p in sheet.primitives if type(p).__name__ == "Arrow"]
+    assert len(arrows) == 2
+    xs, ys = window.document.solution.positions[:, 0] * 1000, window.document.solution.positions[:, 1] * 1000
+    for arrow in arrows:
+        x, y = arrow.end
+        assert not (xs.min() <= x <= xs.max() and ys.min() <= y <= ys.max())
+    words = " ".join(p.text for p in sheet.primitives if isinstance(p, Text))
+    assert "ground|coupler off the view at (" in words
+    window.drawings.space_view.grab().save(f"{SHOTS}/window-centres-far.png")
