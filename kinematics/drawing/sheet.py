@@ -28,7 +28,7 @@ FRAME = Pen(ANNOTATION.colour, 0.7, "solid", "SHEET-FRAME", "sheet frame and tit
 class Ref(NamedTuple):
     """What a primitive draws: ``kind`` is "point", "link", "slide", "step", "driver",
     "image" (a link's image figure on a polygon), "path" (a point's path over the
-    cycle) or a part of the sheet ("scale bar",
+    cycle), "centre" (an instantaneous centre, named by its pair "a|b") or a part of the sheet ("scale bar",
     "frame", "title block", "results table", "legend", "note"); ``name`` names the
     point, link, slide or step id (the view's name for a scale bar, "" for the
     sheet's own parts). A backend keeps it with what it makes, so a window leads a
