@@ -29,6 +29,7 @@ from PySide6.QtGui import (
 )
 
 from kinematics.drawing import Arrow, Circle, Hatch, Line, Note, Polyline, Text, draw_sheet
+from kinematics.drawing.hatching import GroundHatch
 from kinematics.drawing.sheet import DASHES
 from kinematics.errors import StorageError, SweepCancelled
 from kinematics.files.storage import replace_atomically
@@ -98,6 +99,11 @@ class PainterBackend:
             self._fill(primitive.head, solid)
         elif isinstance(primitive, Hatch):
             self._fill(primitive.points, solid)
+        elif isinstance(primitive, GroundHatch):
+            p.setPen(self.pen(primitive.pen))
+            ends = primitive.strokes
+            for i in range(0, len(ends) - 1, 2):
+                p.drawLine(self.point(ends[i]), self.point(ends[i + 1]))
         elif isinstance(primitive, Circle):
             p.setPen(self.pen(primitive.pen))
             p.setBrush(solid if primitive.filled else Qt.BrushStyle.NoBrush)

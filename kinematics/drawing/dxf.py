@@ -21,12 +21,16 @@ from ezdxf.enums import TextEntityAlignment
 from ..files.storage import replace_atomically
 from . import Arrow, Circle, Hatch, Line, Note, Polyline, Text, draw_model
 from .dxf_styles import MONO_STYLE, TEXT_STYLE, add_linetypes, add_text_styles, layer, linetype_scale
+from .hatching import GroundHatch
 
 DXF_VERSION = "R2013"  # UTF-8 text (ω, α, ², ′) and true colour on layers
 INSUNITS_MILLIMETRES = 4
 # The opening view: the whole drawing with a twentieth to spare round it.
 FIT_MARGIN = 1.05
 APP_ID = "KINEPOLY"  # extended data naming the construction step or part an entity draws
+# The hatch pattern for ground: ANSI31, lines at 45° through the origin 1/8 in apart, which ezdxf
+# (as CAD programs do) scales by 25.4 in a metric drawing: 3.175 mm.  # common practice
+GROUND_PATTERN, GROUND_PATTERN_ANGLE_DEG, GROUND_PATTERN_SPACING_MM = "ANSI31", 45.0, 3.175
 # MTEXT's default line pitch is 5/3 of the text height (DXF reference).  # from memory
 MTEXT_PITCH = 5.0 / 3.0
 ALIGNMENTS = {
@@ -60,6 +64,15 @@ def new_document():
 def _solid(msp, points, attribs):
     hatch = msp.add_hatch(color=BYLAYER, dxfattribs=attribs)
     hatch.paths.add_polyline_path([tuple(p) for p in points], is_closed=True)
+    return hatch
+
+
+def _ground_hatch(msp, primitive, attribs):
+    """One HATCH entity with the general-purpose 45° pattern, turned and scaled to the strokes."""
+    hatch = msp.add_hatch(color=BYLAYER, dxfattribs=attribs)
+    hatch.set_pattern_fill(GROUND_PATTERN, color=BYLAYER, angle=primitive.angle_deg - GROUND_PATTERN_ANGLE_DEG,
+                           scale=primitive.spacing_mm / GROUND_PATTERN_SPACING_MM)
+    hatch.paths.add_polyline_path(primitive.boundary, is_closed=True)
     return hatch
 
 
@@ -98,6 +111,8 @@ def _add(msp, attribs, primitive) -> list:
         return [msp.add_line(primitive.start, primitive.end, dxfattribs=attribs), _solid(msp, primitive.head, attribs)]
     if isinstance(primitive, Hatch):
         return [_solid(msp, primitive.points, attribs)]
+    if isinstance(primitive, GroundHatch):
+        return [_ground_hatch(msp, primitive, attribs)]
     if isinstance(primitive, Circle):
         entities = [msp.add_circle(primitive.centre, primitive.radius, dxfattribs=attribs)]
         if primitive.filled:

@@ -19,7 +19,11 @@ from .sheet import DASHES
 # has all of them and ships on every Linux desktop.
 FONT_FILE = "DejaVuSans.ttf"
 MONO_FONT_FILE = "DejaVuSansMono.ttf"
-TEXT_STYLE = "KINEPOLY-SANS"
+# LibreCAD (2.2) reads no TrueType font: it sets a style's text in the LFF font of the style's *name*,
+# and in its "standard" font, which has no ′ or ₁, when there is none. Naming the style after its
+# ISO 3098-like technical lettering, which has every character the drawing writes, keeps the text
+# whole there; every other CAD program takes the style's TrueType font.
+TEXT_STYLE = "OpenGostTypeA-Regular"
 MONO_STYLE = "KINEPOLY-MONO"
 
 # Names CAD programs know for these patterns (so one that maps line types by name shows them too),

@@ -11,6 +11,7 @@ import numpy as np
 
 from ..model.mechanism import GROUND
 from . import symbols
+from .hatching import ground_hatch
 from .sheet import Line, Polyline, Recorder, Text, View
 from .style import ANNOTATION, SPACE_GROUND, SPACE_LINK
 from .symbols import Symbols
@@ -148,13 +149,13 @@ def _draw_slide(rec: Recorder, slide, at, size: Symbols, ids) -> None:
         reach = 4.0 * size.pin  # the guide runs a little past the block's travel shown
         lo, hi = min(along) - reach, max(along) + reach
         rec.add(Line(start=_point(e + lo * u), end=_point(e + hi * u), pen=SPACE_GROUND, part=slide.name, **ids))
-        # Hatching on the guide's right-hand side marks it as fixed.
+        # Hatching on the guide's right-hand side marks it as fixed: strokes at 45° back along it.
         below = np.array([u[1], -u[0]])
-        pitch = 3.0 * size.pin
-        for k in range(int((hi - lo) // pitch) + 1):
-            start = e + (lo + k * pitch) * u
-            end = start + 2.0 * size.pin * (0.7071 * below - 0.7071 * u)
-            rec.add(Line(start=_point(start), end=_point(end), pen=SPACE_GROUND, part=slide.name, **ids))
+        depth = 2.0 * size.pin * math.sqrt(0.5)
+        band = [_point(e + lo * u), _point(e + hi * u), _point(e + hi * u + depth * below),
+                _point(e + lo * u + depth * below)]
+        angle = math.degrees(math.atan2(below[1] - u[1], below[0] - u[0]))
+        rec.add(ground_hatch(band, angle, 3.0 * size.pin * math.sqrt(0.5), SPACE_GROUND, part=slide.name, **ids))
     symbols.slider_block(rec, _point(d), _point(u), SPACE_LINK, size, part=slide.name, **ids)
 
 

@@ -6,6 +6,7 @@ from __future__ import annotations
 import math
 from dataclasses import dataclass
 
+from .hatching import ground_hatch
 from .sheet import Arrow, Circle, Line, Polyline, Recorder, Text
 
 
@@ -48,9 +49,8 @@ def fixed_pivot(rec: Recorder, at, pen, size: Symbols, **ids) -> None:
     base = y - size.pin - h
     rec.add(Polyline(points=((x, y - size.pin), (x - w, base), (x + w, base)), pen=pen, closed=True, **ids))
     rec.add(Line(start=(x - 1.6 * w, base), end=(x + 1.6 * w, base), pen=pen, **ids))
-    for i in range(5):
-        left = x - 1.6 * w + i * 0.8 * w
-        rec.add(Line(start=(left + 0.6 * w, base), end=(left, base - 0.6 * w), pen=pen, **ids))
+    band = ((x - 1.6 * w, base - 0.6 * w), (x + 1.6 * w, base - 0.6 * w), (x + 1.6 * w, base), (x - 1.6 * w, base))
+    rec.add(ground_hatch(band, 45.0, 0.8 * w * math.sqrt(0.5), pen, **ids))
 
 
 def pin(rec: Recorder, at, pen, size: Symbols, joint: bool, **ids) -> None:

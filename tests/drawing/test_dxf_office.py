@@ -4,6 +4,8 @@ and opening view, and the polygons at the scale every other output uses.
 Read back with ezdxf's recovering reader."""
 
 import math
+import re
+from pathlib import Path
 
 import pytest
 from ezdxf import bbox, recover
@@ -15,6 +17,7 @@ from kinematics.drawing import draw_sheet, style
 from kinematics.drawing.dxf import write_dxf
 from kinematics.drawing.dxf_styles import FONT_FILE, MONO_FONT_FILE, TEXT_STYLE, nearest_aci
 from kinematics.drawing.sheet import DASHES
+from kinematics.model.mechanism import GROUND
 from tests.designs import SAMPLE_FILES
 
 PENS = (style.SPACE_LINK, style.SPACE_GROUND, style.SPACE_PATH, style.KNOWN, style.DIRECTION, style.RESULT,
@@ -140,3 +143,49 @@ def test_every_sample_polygon_fits_a4_at_the_construction_scale():
         views = draw_sheet(c, paper="A4").views
         for kind in ("velocity", "acceleration"):
             assert math.isclose(views[kind].mm_per_unit, 1.0 / getattr(c, kind).scale_per_mm), (path.stem, kind)
+
+
+def test_ground_hatching_is_one_patterned_hatch_per_pivot_and_guide(exported):
+    c, sheet, doc = exported
+    msp = doc.modelspace()
+    mech = c.solution.mechanism
+    pivots = [n for n in mech.points if GROUND in mech.bodies_of(n) and len(mech.bodies_of(n)) > 1]
+    guides = [s for s in mech.slides.values() if s.guide == GROUND]
+    hatched = list(msp.query(f"HATCH[layer=='{style.SPACE_GROUND.layer}']"))
+    assert len(hatched) == len(pivots) + len(guides) >= 1
+    # Left on the ground layer as lines: only each pivot mark's base line and each guide's line.
+    assert len(msp.query(f"LINE[layer=='{style.SPACE_GROUND.layer}']")) == len(pivots) + len(guides)
+    drawn = [p for p in sheet.primitives if type(p).__name__ == "GroundHatch"]
+    for hatch, primitive in zip(hatched, drawn, strict=True):
+        assert hatch.dxf.pattern_name == "ANSI31" and hatch.dxf.solid_fill == 0
+        assert hatch.dxf.color == 256  # BYLAYER
+        (line,) = hatch.pattern.lines
+        assert line.angle == pytest.approx(primitive.angle_deg, abs=1e-9)
+        assert math.hypot(*line.offset) == pytest.approx(primitive.spacing_mm, rel=1e-9)
+        # The strokes a painter draws lie on the pattern's lines (through the origin, a spacing apart).
+        theta = math.radians(line.angle)
+        for x, y in primitive.strokes:
+            across = (y * math.cos(theta) - x * math.sin(theta)) / primitive.spacing_mm
+            assert across == pytest.approx(round(across), abs=1e-9)
+        (path,) = hatch.paths
+        corners = [c for v in path.vertices for c in tuple(v)[:2]]
+        assert corners == pytest.approx([c for xy in primitive.boundary for c in xy], abs=1e-9)
+
+
+LIBRECAD_FONTS = Path("/usr/share/librecad/fonts")
+
+
+@pytest.mark.skipif(not LIBRECAD_FONTS.is_dir(),
+                    reason="LibreCAD not installed (Debian package librecad); the CI image installs it")
+def test_librecad_sets_the_text_in_a_font_that_has_every_character(exported):
+    # LibreCAD 2.2 sets a style's text in the LFF font named as the style (seen: a style named "cursive"
+    # came out in its cursive lettering, whatever font file the style gave). An LFF file lists each glyph
+    # under a "[hex code]" line (LibreCAD's font format).
+    _, _, doc = exported
+    lff = LIBRECAD_FONTS / f"{TEXT_STYLE}.lff"
+    codes = {int(code, 16) for code in re.findall(r"^\[#?([0-9A-Fa-f]{4,6})\]", lff.read_text("utf-8"), re.M)}
+    written = set()
+    for entity in doc.modelspace().query("TEXT MTEXT"):
+        written |= set(entity.dxf.text if entity.dxftype() == "TEXT" else entity.plain_text())
+    missing = sorted(ch for ch in written - {"\n", " "} if ord(ch) not in codes)
+    assert not missing

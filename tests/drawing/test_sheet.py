@@ -10,6 +10,7 @@ import pytest
 
 import kinematics
 from kinematics.drawing import PAPER, Arrow, Circle, Line, Polyline, Text, draw_model, draw_sheet, style
+from kinematics.drawing.hatching import GroundHatch
 from kinematics.drawing.layout import MARGIN, MARGIN_FILING
 from kinematics.drawing.scaling import iso5455_ratio, polygon_scale, ratio_text
 from kinematics.drawing.space import outline
@@ -128,6 +129,8 @@ def _extent(p):
         return [(x - r, y - r), (x + r, y + r)]
     if isinstance(p, (Line, Arrow)):
         return [p.start, p.end, *getattr(p, "head", ())]
+    if isinstance(p, GroundHatch):
+        return list(p.boundary)  # the strokes lie inside it
     return list(p.points)
 
 
