@@ -235,7 +235,7 @@ def draw_model(construction, file_name: str = "", date: str | None = None) -> Sh
     views = {"space": space}
     rec.add_view(space)
     draw_space(rec, solution, space, size)
-    left = x1 + 2 * pad
+    left = max(x1, x0 + 20 * size.text, x0 + text_width(_caption(space), size.text)) + 2 * pad
     for name in ("velocity", "acceleration"):
         polygon = getattr(construction, name)
         fit = _polygon_fit(polygon, polygon.scale_per_mm)
@@ -245,7 +245,10 @@ def draw_model(construction, file_name: str = "", date: str | None = None) -> Sh
         views[name] = View(name, box, origin, fit.mm_per_unit, polygon.unit, fit.scale_text)
         rec.add_view(views[name])
         draw_polygon(rec, polygon, solution, views[name], paper)
-        left = box[2] + 2 * pad
+        # The next view starts clear of this one's scale bar and caption too, which a small polygon
+        # (drawn at its paper scale beside a big machine) is narrower than.
+        caption = text_width(_caption(views[name]), paper.text)
+        left = max(box[2], left + 20 * paper.text, left + caption) + 2 * pad
     bar_y = y0 - 2 * pad - scale_bar_height(size)
     for name, view in views.items():
         per_value, unit, bar_size = (1.0, "mm", size) if name == "space" else (view.mm_per_unit, view.unit, paper)

@@ -189,3 +189,14 @@ def test_librecad_sets_the_text_in_a_font_that_has_every_character(exported):
         written |= set(entity.dxf.text if entity.dxftype() == "TEXT" else entity.plain_text())
     missing = sorted(ch for ch in written - {"\n", " "} if ord(ch) not in codes)
     assert not missing
+
+
+def test_scale_captions_keep_clear_of_each_other(exported):
+    _, sheet, _ = exported
+    # Each caption by the widest estimate of the sheet's text (0.8 of the height per character).
+    captions = sorted((p for p in sheet.primitives if type(p).__name__ == "Text" and " polygon 1 mm" in p.text
+                       or type(p).__name__ == "Text" and p.text.startswith("Space diagram")),
+                      key=lambda p: p.position[0])
+    assert len(captions) == 3
+    for left, right in zip(captions, captions[1:], strict=False):
+        assert left.position[0] + 0.8 * left.height * len(left.text) < right.position[0], (left.text, right.text)
