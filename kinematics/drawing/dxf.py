@@ -19,9 +19,8 @@ from ezdxf.colors import BYLAYER
 from ezdxf.enums import TextEntityAlignment
 
 from ..files.storage import replace_atomically
-from . import Arrow, Circle, Hatch, Line, Note, Polyline, Text, draw_model
+from . import Arrow, Circle, Hatch, Line, Note, Polyline, Strokes, Text, draw_model
 from .dxf_styles import MONO_STYLE, TEXT_STYLE, add_linetypes, add_text_styles, layer, linetype_scale
-from .hatching import GroundHatch
 
 DXF_VERSION = "R2013"  # UTF-8 text (ω, α, ², ′) and true colour on layers
 INSUNITS_MILLIMETRES = 4
@@ -67,12 +66,13 @@ def _solid(msp, points, attribs):
     return hatch
 
 
-def _ground_hatch(msp, primitive, attribs):
-    """One HATCH entity with the general-purpose 45° pattern, turned and scaled to the strokes."""
+def _pattern_hatch(msp, pattern, attribs):
+    """One HATCH entity for hatching strokes: the general-purpose 45° pattern turned and
+    scaled onto the strokes' :class:`~kinematics.drawing.hatching.Pattern`."""
     hatch = msp.add_hatch(color=BYLAYER, dxfattribs=attribs)
-    hatch.set_pattern_fill(GROUND_PATTERN, color=BYLAYER, angle=primitive.angle_deg - GROUND_PATTERN_ANGLE_DEG,
-                           scale=primitive.spacing_mm / GROUND_PATTERN_SPACING_MM)
-    hatch.paths.add_polyline_path(primitive.boundary, is_closed=True)
+    hatch.set_pattern_fill(GROUND_PATTERN, color=BYLAYER, angle=pattern.angle_deg - GROUND_PATTERN_ANGLE_DEG,
+                           scale=pattern.spacing_mm / GROUND_PATTERN_SPACING_MM)
+    hatch.paths.add_polyline_path(pattern.boundary, is_closed=True)
     return hatch
 
 
@@ -83,9 +83,11 @@ def _mtext(lines) -> str:
 
 
 def _tag(entities, primitive) -> None:
-    """Extended data: which construction step or part of the mechanism the entity draws."""
-    tags = [(1000, f"{key} {value}") for key, value in (("step", primitive.step), ("part", primitive.part),
-                                                        ("view", primitive.view)) if value]
+    """Extended data: what the entity draws ("step 3", "point B", "link crank", "scale bar velocity")
+    and its view."""
+    ref = primitive.ref
+    tags = [(1000, f"{key} {value}") for key, value in ((ref.kind, ref.name) if ref else ("", ""),
+                                                        ("view", primitive.view)) if key and value]
     if tags:
         for entity in entities:
             entity.set_xdata(APP_ID, tags)
@@ -105,14 +107,17 @@ def _add(msp, attribs, primitive) -> list:
     """The entities drawing one primitive."""
     if isinstance(primitive, Line):
         return [msp.add_line(primitive.start, primitive.end, dxfattribs=attribs)]
+    if isinstance(primitive, Strokes):
+        if primitive.pattern is not None:
+            return [_pattern_hatch(msp, primitive.pattern, attribs)]
+        ends = primitive.points
+        return [msp.add_line(ends[i], ends[i + 1], dxfattribs=attribs) for i in range(0, len(ends) - 1, 2)]
     if isinstance(primitive, Polyline):
         return [msp.add_lwpolyline(primitive.points, close=primitive.closed, dxfattribs=attribs)]
     if isinstance(primitive, Arrow):
         return [msp.add_line(primitive.start, primitive.end, dxfattribs=attribs), _solid(msp, primitive.head, attribs)]
     if isinstance(primitive, Hatch):
         return [_solid(msp, primitive.points, attribs)]
-    if isinstance(primitive, GroundHatch):
-        return [_ground_hatch(msp, primitive, attribs)]
     if isinstance(primitive, Circle):
         entities = [msp.add_circle(primitive.centre, primitive.radius, dxfattribs=attribs)]
         if primitive.filled:

@@ -13,9 +13,10 @@ from ezdxf.colors import aci2rgb
 from ezdxf.fonts import fonts
 
 import kinematics
-from kinematics.drawing import draw_sheet, style
+from kinematics.drawing import Strokes, Text, draw_sheet, style
 from kinematics.drawing.dxf import write_dxf
 from kinematics.drawing.dxf_styles import FONT_FILE, MONO_FONT_FILE, TEXT_STYLE, nearest_aci
+from kinematics.drawing.hatching import ground_hatch
 from kinematics.drawing.sheet import DASHES
 from kinematics.model.mechanism import GROUND
 from tests.designs import SAMPLE_FILES
@@ -155,21 +156,23 @@ def test_ground_hatching_is_one_patterned_hatch_per_pivot_and_guide(exported):
     assert len(hatched) == len(pivots) + len(guides) >= 1
     # Left on the ground layer as lines: only each pivot mark's base line and each guide's line.
     assert len(msp.query(f"LINE[layer=='{style.SPACE_GROUND.layer}']")) == len(pivots) + len(guides)
-    drawn = [p for p in sheet.primitives if type(p).__name__ == "GroundHatch"]
+    drawn = [p for p in sheet.primitives if isinstance(p, Strokes) and p.pattern is not None]
     for hatch, primitive in zip(hatched, drawn, strict=True):
         assert hatch.dxf.pattern_name == "ANSI31" and hatch.dxf.solid_fill == 0
         assert hatch.dxf.color == 256  # BYLAYER
         (line,) = hatch.pattern.lines
-        assert line.angle == pytest.approx(primitive.angle_deg, abs=1e-9)
-        assert math.hypot(*line.offset) == pytest.approx(primitive.spacing_mm, rel=1e-9)
+        pattern = primitive.pattern
+        assert line.angle == pytest.approx(pattern.angle_deg, abs=1e-9)
+        assert math.hypot(*line.offset) == pytest.approx(pattern.spacing_mm, rel=1e-9)
         # The strokes a painter draws lie on the pattern's lines (through the origin, a spacing apart).
         theta = math.radians(line.angle)
-        for x, y in primitive.strokes:
-            across = (y * math.cos(theta) - x * math.sin(theta)) / primitive.spacing_mm
+        assert primitive.points
+        for x, y in primitive.points:
+            across = (y * math.cos(theta) - x * math.sin(theta)) / pattern.spacing_mm
             assert across == pytest.approx(round(across), abs=1e-9)
         (path,) = hatch.paths
         corners = [c for v in path.vertices for c in tuple(v)[:2]]
-        assert corners == pytest.approx([c for xy in primitive.boundary for c in xy], abs=1e-9)
+        assert corners == pytest.approx([c for xy in pattern.boundary for c in xy], abs=1e-9)
 
 
 LIBRECAD_FONTS = Path("/usr/share/librecad/fonts")
@@ -194,9 +197,25 @@ def test_librecad_sets_the_text_in_a_font_that_has_every_character(exported):
 def test_scale_captions_keep_clear_of_each_other(exported):
     _, sheet, _ = exported
     # Each caption by the widest estimate of the sheet's text (0.8 of the height per character).
-    captions = sorted((p for p in sheet.primitives if type(p).__name__ == "Text" and " polygon 1 mm" in p.text
-                       or type(p).__name__ == "Text" and p.text.startswith("Space diagram")),
-                      key=lambda p: p.position[0])
+    captions = [p for p in sheet.primitives if isinstance(p, Text)
+                and (" polygon 1 mm" in p.text or p.text.startswith("Space diagram"))]
+    captions.sort(key=lambda p: p.position[0])
     assert len(captions) == 3
     for left, right in zip(captions, captions[1:], strict=False):
         assert left.position[0] + 0.8 * left.height * len(left.text) < right.position[0], (left.text, right.text)
+
+
+def test_hatching_strokes_fill_a_parallelogram_as_counted_by_hand():
+    # A 10 × 2 mm band hatched at 45° with 1 mm spacing: the band spans (10 + 2)·sin 45° = 8.49 mm across the
+    # strokes, so the lines 1 … 8 mm off the origin cross it (the one through the origin touches its corner
+    # only, and draws nothing); each stroke ends on the band's outline.
+    band = ((0.0, -2.0), (10.0, -2.0), (10.0, 0.0), (0.0, 0.0))
+    strokes = ground_hatch(band, 45.0, 1.0, style.SPACE_GROUND).points
+    assert len(strokes) == 2 * 8
+    for x, y in strokes:
+        assert min(abs(x), abs(x - 10.0), abs(y), abs(y + 2.0)) < 1e-9
+    # The same band given clockwise, and the strokes' direction turned half round: the same strokes.
+    again = ground_hatch(band[::-1], 225.0, 1.0, style.SPACE_GROUND)
+    flat = [c for xy in sorted(again.points) for c in xy]
+    assert flat == pytest.approx([c for xy in sorted(strokes) for c in xy], abs=1e-12)
+    assert again.pattern.angle_deg == 45.0
