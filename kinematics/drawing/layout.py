@@ -64,10 +64,18 @@ def _fit_space(solution, width: float, height: float, places=()) -> _Fit:
     return _Fit(1000.0 * float(ratio), ratio_text(ratio), (x0, y0, x1, y1))
 
 
+def _polygon_fit(polygon, scale: float) -> _Fit:
+    return _Fit(1.0 / scale, f"1 mm = {plain(scale)} {printed_unit(polygon.unit)}", polygon_bounds(polygon))
+
+
 def _fit_polygon(polygon, width: float, height: float) -> _Fit:
+    """A polygon in a ``width`` × ``height`` mm box: at its construction's scale
+    (``polygon.scale_per_mm``, the scale the window shows and the DXF draws) when it
+    fits there, else at the finest round scale that fits."""
     x0, y0, x1, y1 = polygon_bounds(polygon)
-    scale = polygon_scale(max((x1 - x0) / width, (y1 - y0) / height))
-    return _Fit(1.0 / scale, f"1 mm = {plain(scale)} {printed_unit(polygon.unit)}", (x0, y0, x1, y1))
+    needed = max((x1 - x0) / width, (y1 - y0) / height)
+    chosen = polygon.scale_per_mm
+    return _polygon_fit(polygon, chosen if chosen >= needed * (1 - 1e-12) else polygon_scale(needed))
 
 
 def _centred_view(name, fit: _Fit, box, unit) -> View:
@@ -212,8 +220,11 @@ def draw_model(construction, file_name: str = "", date: str | None = None, with_
     """The model drawing for CAD.
 
     The space diagram at true size in millimetres (sheet mm = model mm, the
-    mechanism's origin kept), the two polygons to its right at round scales,
-    scale bars under each, and a note (title, driver, scales, caution) below.
+    mechanism's origin kept), the two polygons to its right at their
+    construction's scales (those the window shows), scale bars under each
+    stating them, and a note (title, driver, scales, caution) below. The
+    polygons' symbols keep their paper size (they are drawn at a paper scale);
+    the space diagram's grow with a big machine.
 
     Parameters
     ----------
@@ -233,7 +244,8 @@ def draw_model(construction, file_name: str = "", date: str | None = None, with_
     extent = max(x1 - x0, y1 - y0)
     # Symbols grow with a big machine so a plotted drawing keeps readable text.
     size = Symbols().scaled(max(1.0, bar_value(extent / 150.0, 1.0)) if extent > 0 else 1.0)
-    side, pad = max(extent, 30 * size.text), 3 * size.text
+    pad = 3 * size.text
+    paper = Symbols()
     rec = Recorder()
     space = View("space", (x0, y0, x1, y1), (0.0, 0.0), 1000.0, "m", "1:1", significant=TRUE_SIZE_DIGITS)
     views = {"space": space}
@@ -241,22 +253,25 @@ def draw_model(construction, file_name: str = "", date: str | None = None, with_
     draw_space(rec, solution, space, size)
     if found is not None:
         draw_centres(rec, found, space, size, places)
-    left = x1 + 2 * pad
+    left = max(x1, x0 + 20 * size.text, x0 + text_width(_caption(space), size.text)) + 2 * pad
     for name in ("velocity", "acceleration"):
         polygon = getattr(construction, name)
-        fit = _fit_polygon(polygon, side, side)
+        fit = _polygon_fit(polygon, polygon.scale_per_mm)
         px0, py0, px1, py1 = fit.bounds
         origin = (left - px0 * fit.mm_per_unit, y0 - py0 * fit.mm_per_unit)
         box = (left, y0, left + (px1 - px0) * fit.mm_per_unit, y0 + (py1 - py0) * fit.mm_per_unit)
         views[name] = View(name, box, origin, fit.mm_per_unit, polygon.unit, fit.scale_text)
         rec.add_view(views[name])
-        draw_polygon(rec, polygon, solution, views[name], size)
-        left = box[2] + 2 * pad
+        draw_polygon(rec, polygon, solution, views[name], paper)
+        # The next view starts clear of this one's scale bar and caption too, which a small polygon
+        # (drawn at its paper scale beside a big machine) is narrower than.
+        caption = text_width(_caption(views[name]), paper.text)
+        left = max(box[2], left + 20 * paper.text, left + caption) + 2 * pad
     bar_y = y0 - 2 * pad - scale_bar_height(size)
     for name, view in views.items():
-        per_value, unit = (1.0, "mm") if name == "space" else (view.mm_per_unit, view.unit)
-        scale_bar(rec, (view.box[0], bar_y), per_value, unit, max(20 * size.text, 0.5 * (view.box[2] - view.box[0])),
-                  _caption(view), size, name)
+        per_value, unit, bar_size = (1.0, "mm", size) if name == "space" else (view.mm_per_unit, view.unit, paper)
+        scale_bar(rec, (view.box[0], bar_y), per_value, unit,
+                  max(20 * bar_size.text, 0.5 * (view.box[2] - view.box[0])), _caption(view), bar_size, name)
     lines = description(construction, _scales(views), file_name, date or datetime.date.today().isoformat())
     texts = [f"{label}: {text}" for label, text in lines] + caution_lines(left - x0, size.text)
     rec.add(Note(position=(x0, bar_y - 2 * pad), lines=tuple(texts), height=size.text, pitch=1.8 * size.text,

@@ -12,9 +12,12 @@ scenes) replay the primitives and compute no geometry of their own.
 from __future__ import annotations
 
 from dataclasses import dataclass, field
-from typing import NamedTuple
+from typing import TYPE_CHECKING, NamedTuple
 
 from .style import ANNOTATION, Pen
+
+if TYPE_CHECKING:  # hatching builds Strokes: a run-time import would go round in a circle
+    from .hatching import Pattern
 
 # Dash patterns of ISO 128 line types in multiples of the line width: dashed
 # (type 02: 12 dash, 3 gap), dotted (type 07 as dots 0.5, gap 3), long
@@ -62,12 +65,14 @@ class Polyline(NamedTuple):
 
 class Strokes(NamedTuple):
     """Separate straight strokes in one pen (hatching, ticks): ``points`` taken in pairs,
-    each pair one stroke."""
+    each pair one stroke. Hatching says its :class:`~kinematics.drawing.hatching.Pattern`
+    (a CAD file writes it as one hatch); a painter draws the strokes alike."""
 
     points: tuple
     pen: Pen
     view: str = ""
     ref: Ref | None = None
+    pattern: Pattern | None = None
 
 
 class Arrow(NamedTuple):
