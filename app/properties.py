@@ -161,8 +161,10 @@ class PropertiesPanel(QWidget):
         self.link_points.setText(f"joins {', '.join(points)}" if points else "no links yet (Link tool)")
 
     def show_link(self, name: str):
-        """Show link ``name`` (chosen in the list)."""
+        """Show link ``name`` (chosen in the list, clicked or just made in the space diagram)."""
         with self._quiet():
+            if self.link.currentText() != name:
+                self.link.setCurrentText(name)
             self.link_name.setModified(False)
             self._fill_link(name)
 

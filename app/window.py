@@ -28,13 +28,15 @@ from kinematics.files.storage import remove_stale_temporaries
 from .angle_control import AngleControl
 from .build_tools import HINTS, Builder
 from .building import empty
+from .design_actions import DesignActions, grid_step_mm
 from .document import Document
-from .drawing_kit import preferred_length
 from .editing import JointDrag
 from .exports import SheetOutputs
 from .files import recent_files, remember, save_asking
 from .icons import icon
-from .panels import EMPTY_VIEW_MM, DrawingsPanel
+from .menus import about_text, add_help_menu, add_tool_menu
+from .pane_events import PaneEvents
+from .panels import DrawingsPanel
 from .properties import PropertiesPanel
 from .recovery import Autosave, offer_recovery
 from .results import ResultsTable
@@ -96,8 +98,12 @@ class MainWindow(SheetOutputs, QMainWindow):
         self.length_units.addItems(["mm", "m", "in"])
         self.speed_units = QComboBox()
         self.speed_units.addItems(["rad/s", "rpm"])
+        self.design_actions = DesignActions(self)
         self._build_toolbar()
         self._build_menus()
+        self.pane_events = PaneEvents(self)
+        self.builder.made.connect(self.design_actions.select)
+        self.design_actions.selection_changed.connect(lambda: self._show_readouts(live=self.live))
         self.setAcceptDrops(True)
         self.setWindowIcon(icon("kinepoly"))
         self.document.changed.connect(self.refresh)
@@ -178,6 +184,10 @@ class MainWindow(SheetOutputs, QMainWindow):
         undo.setShortcut(QKeySequence.StandardKey.Undo)
         redo.setShortcut(QKeySequence.StandardKey.Redo)
         edit.addActions([undo, redo])
+        edit.addSeparator()
+        self._action(edit, "&Delete the selected joint or link", self.design_actions.delete_selected,
+                     QKeySequence.StandardKey.Delete)
+        add_tool_menu(self, self.menuBar().addMenu("&Tools"))
         view = self.menuBar().addMenu("&View")
         space = self.drawings.space_view
         self._action(view, "Zoom &in", lambda: space.zoom(1.25), QKeySequence.StandardKey.ZoomIn)
@@ -189,8 +199,7 @@ class MainWindow(SheetOutputs, QMainWindow):
         self.snapping.setShortcut(QKeySequence("Ctrl+G"))
         self.snapping.toggled.connect(self._snapping_changed)
         view.addAction(self.snapping)
-        helps = self.menuBar().addMenu("&Help")
-        self._action(helps, "&About Kinepoly", self.about)
+        add_help_menu(self, self.menuBar().addMenu("&Help"))
         self._fill_recent()
 
     def _fill_recent(self):
@@ -272,7 +281,7 @@ class MainWindow(SheetOutputs, QMainWindow):
         and the last frame's always."""
         self.angle.show_angle(self.document.shown_angle_deg)
         self.steps.show_construction(self.document.construction)
-        text = status_text(self.document.analysis, self.note)
+        text = status_text(self.document.analysis, self.note or self.design_actions.describe())
         self.status.setText(text)
         self.status.setToolTip(text)
 
@@ -288,13 +297,16 @@ class MainWindow(SheetOutputs, QMainWindow):
         self.drawings.space_view.building = tool != "select"
         self.builder.set_tool(tool)
 
+    def back_to_select(self):
+        """Escape: drop a chain half built and return to the Select tool."""
+        dropped = bool(self.builder.picks)
+        self.use_tool("select")
+        if dropped:
+            self.say("cancelled — back to Select")
+
     def grid_mm(self) -> float:
-        """The snapping step in mm: a 1-2-5 length near a twentieth of the design, at least 10 mm
-        (a small or new design is laid out on a 200 mm sheet)."""
-        if not self.snapping.isChecked():
-            return 0.0
-        mech = self.document.mechanism
-        return preferred_length(max(1e3 * mech.size * mech.metres_per_unit, EMPTY_VIEW_MM) / 20.0)
+        """The snapping step in mm (0 while snapping is off): see :func:`design_actions.grid_step_mm`."""
+        return grid_step_mm(self.document.mechanism) if self.snapping.isChecked() else 0.0
 
     def _snapping_changed(self, *_):
         self.drawings.space_view.grid_mm = self.grid_mm()
@@ -400,10 +412,7 @@ class MainWindow(SheetOutputs, QMainWindow):
         QMessageBox.warning(self, title, text)
 
     def about(self):
-        QMessageBox.about(self, "About Kinepoly",
-                          "<b>Kinepoly</b> — velocity and acceleration polygons of planar linkages, built by "
-                          "exact graphical construction and checked against a numeric solver.<br><br>"
-                          f"{kinematics.CAUTION}")
+        QMessageBox.about(self, "About Kinepoly", about_text())
 
     # Qt overrides ---------------------------------------------------------------
     def dragEnterEvent(self, event):

@@ -1,0 +1,73 @@
+"""What a first-time user meets when building and opening designs: a new joint or link becomes the
+current one in the Design tab, and a file dropped on any of the three drawings opens."""
+
+import json
+
+import pytest
+from PySide6.QtCore import QMimeData, QPoint, QPointF, Qt, QUrl
+from PySide6.QtGui import QDragEnterEvent, QDropEvent
+from PySide6.QtTest import QTest
+from PySide6.QtWidgets import QApplication
+
+from tests.designs import CARTON_PUSHER, CLAW_FEED
+
+
+def click_at(window, x_mm, y_mm):
+    view = window.drawings.space_view
+    QTest.mouseClick(view.viewport(), Qt.LeftButton, Qt.NoModifier, view.mapFromScene(QPointF(x_mm, -y_mm)))
+
+
+def test_a_new_joint_and_a_new_link_become_the_current_ones_in_the_design_tab(make_window):
+    window = make_window(CLAW_FEED)
+    window.side_tabs.setCurrentWidget(window.properties)
+    window.use_tool("joint")
+    click_at(window, 100.0, 20.0)
+    new = (set(window.document.mechanism.points) - set(CLAW_FEED["points"])).pop()
+    assert window.properties.point.currentText() == new
+    assert window.properties.point_name.text() == new
+    window.use_tool("link")
+    click_at(window, 100.0, 20.0)
+    view = window.drawings.space_view
+    at = view.mapFromScene(window.drawings.space_scene.joints["P"].dot.pos())
+    QTest.mouseClick(view.viewport(), Qt.LeftButton, Qt.NoModifier, at)
+    QTest.keyClick(view, Qt.Key_Return)
+    link = (set(window.document.mechanism.links) - set(CLAW_FEED["links"])).pop()
+    assert window.properties.link.currentText() == link
+    assert window.properties.link_name.text() == link
+
+
+@pytest.mark.parametrize("pane", ["space_view", "velocity_view", "acceleration_view"])
+def test_a_file_dropped_on_a_drawing_opens(make_window, tmp_path, pane):
+    window = make_window(CLAW_FEED)
+    path = tmp_path / "dropped.json"
+    path.write_text(json.dumps(CARTON_PUSHER), encoding="utf-8")
+    viewport = getattr(window.drawings, pane).viewport()
+    data = QMimeData()
+    data.setUrls([QUrl.fromLocalFile(str(path))])
+    enter = QDragEnterEvent(QPoint(60, 60), Qt.CopyAction, data, Qt.LeftButton, Qt.NoModifier)
+    QApplication.sendEvent(viewport, enter)
+    assert enter.isAccepted(), "the drawing takes the file"
+    drop = QDropEvent(QPointF(60, 60), Qt.CopyAction, data, Qt.LeftButton, Qt.NoModifier)
+    QApplication.sendEvent(viewport, drop)
+    assert window.document.path == str(path)
+
+
+def test_help_gives_the_version_the_caution_the_guide_and_the_shortcuts(make_window, monkeypatch):
+    from importlib import metadata
+
+    import kinematics
+    from app import menus
+
+    window = make_window(CLAW_FEED)
+    shown = []
+    monkeypatch.setattr("PySide6.QtWidgets.QMessageBox.about", lambda parent, title, text: shown.append(text))
+    window.about()
+    assert metadata.version("kinepoly") in shown[0] and kinematics.CAUTION in shown[0]
+    guide = menus.show_guide(window)
+    text = guide.findChild(menus.QTextBrowser).toPlainText()
+    assert "Build one from nothing" in text and "Caution" in text
+    page = menus.show_shortcuts(window).findChild(menus.QTextBrowser).toPlainText()
+    assert "Ctrl+Z" in page and "nudge" in page
+    help_menu = next(a.menu() for a in window.menuBar().actions() if a.text() == "&Help")
+    assert [a.text() for a in help_menu.actions() if not a.isSeparator()] == [
+        "&User guide", "&Keyboard shortcuts", "&About Kinepoly"]
