@@ -11,7 +11,6 @@ from PySide6.QtGui import QAction, QActionGroup, QFont, QKeySequence
 from PySide6.QtWidgets import (
     QApplication,
     QComboBox,
-    QFileDialog,
     QLabel,
     QMainWindow,
     QMessageBox,
@@ -21,9 +20,7 @@ from PySide6.QtWidgets import (
     QWidget,
 )
 
-import kinematics
-from kinematics import KinematicsError, Mechanism
-from kinematics.files.storage import remove_stale_temporaries
+from kinematics import Mechanism
 
 from .angle_control import AngleControl
 from .build_tools import HINTS, Builder
@@ -32,7 +29,7 @@ from .design_actions import DesignActions, grid_step_mm
 from .document import Document
 from .editing import JointDrag
 from .exports import SheetOutputs
-from .files import recent_files, remember, save_asking
+from .file_actions import FileActions
 from .icons import icon
 from .menus import about_text, add_help_menu, add_tool_menu
 from .pane_events import PaneEvents
@@ -44,13 +41,12 @@ from .status import status_text
 from .steps_panel import StepsPanel
 from .throttle import Throttle
 
-FILE_FILTER = "Kinepoly mechanism (*.json);;All files (*)"
 CYCLE_TAB = "Cycle"
 TOOL_NAMES = {"select": "Select", "pivot": "Pivot", "joint": "Joint", "link": "Link", "slide": "Slide",
               "driver": "Driver", "delete": "Delete"}
 
 
-class MainWindow(SheetOutputs, QMainWindow):
+class MainWindow(FileActions, SheetOutputs, QMainWindow):
     """One window drafting one Document."""
 
     def __init__(self, mechanism: Mechanism | None = None, path=None):
@@ -202,12 +198,6 @@ class MainWindow(SheetOutputs, QMainWindow):
         add_help_menu(self, self.menuBar().addMenu("&Help"))
         self._fill_recent()
 
-    def _fill_recent(self):
-        self.recent_menu.clear()
-        for path in recent_files():
-            self.recent_menu.addAction(path, lambda p=path: self.open_path(p, ask=True))
-        self.recent_menu.setEnabled(bool(self.recent_menu.actions()))
-
     # showing ------------------------------------------------------------
     def refresh(self):
         doc = self.document
@@ -343,74 +333,7 @@ class MainWindow(SheetOutputs, QMainWindow):
         self.properties.refresh()
         self.drawings.set_draft(False)
 
-    # files ----------------------------------------------------------------
-    def ask_to_save(self) -> bool:
-        """True when it is fine to drop the current design (saved, discarded, or unchanged)."""
-        if self.document.undo_stack.isClean():
-            return True
-        button = QMessageBox.StandardButton
-        answer = QMessageBox.question(self, "Unsaved changes", "The design has changes that are not saved. "
-                                      "Save them first?", button.Save | button.Discard | button.Cancel, button.Save)
-        if answer == button.Save:
-            return self.save()
-        return answer == button.Discard
-
-    def new_design(self):
-        if self.ask_to_save():
-            self.note = ""
-            self.document.replace(empty())
-            self.drawings.fit_all()
-
-    def open_dialog(self):
-        path, _ = QFileDialog.getOpenFileName(self, "Open a mechanism", "", FILE_FILTER)
-        if path:
-            self.open_path(path, ask=True)
-
-    def open_path(self, path, ask: bool = False) -> bool:
-        """Load ``path``; a bad file shows its message and leaves the current design as it is."""
-        if ask and not self.ask_to_save():
-            return False
-        try:
-            mechanism = kinematics.load_mechanism(path)
-        except (KinematicsError, OSError) as error:
-            self.show_error("Cannot open the file", f"{path}:\n{error}")
-            return False
-        remove_stale_temporaries(path)  # what saves of this design cut short left beside it
-        self.note = "; ".join(mechanism.warnings)
-        self.document.replace(mechanism, path)
-        self.drawings.fit_all()
-        remember(path)
-        self._fill_recent()
-        return True
-
-    def save(self) -> bool:
-        if not self.document.path:
-            return self.save_as()
-        return self.save_to(self.document.path)
-
-    def save_as(self) -> bool:
-        path, _ = QFileDialog.getSaveFileName(self, "Save the mechanism", self.document.path or "", FILE_FILTER)
-        return bool(path) and self.save_to(path)
-
-    def save_to(self, path) -> bool:
-        try:
-            if not save_asking(self, self.document.mechanism, path):
-                self.say(f"not saved: {path} was left as it was")
-                return False
-        except (KinematicsError, OSError) as error:
-            self.show_error("Cannot save", f"{path}:\n{error}")
-            return False
-        self.document.path = str(path)
-        self.document.undo_stack.setClean()
-        remember(path)
-        self._fill_recent()
-        self._update_title()
-        return True
-
-    def show_error(self, title: str, text: str):
-        self.say(text.replace("\n", " "))
-        QMessageBox.warning(self, title, text)
-
+    # help ----------------------------------------------------------------
     def about(self):
         QMessageBox.about(self, "About Kinepoly", about_text())
 
