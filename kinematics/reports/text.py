@@ -5,7 +5,7 @@ from __future__ import annotations
 import math
 
 from ..construction.components import acceleration_components
-from ..groups.steps import Construction
+from ..groups.steps import ROUNDING_FLOOR, Construction, agreement
 from ..solver.solve import Solution
 
 # Below this fraction of the pose's largest value of its kind a number is the solver's rounding
@@ -75,8 +75,8 @@ def construction_text(construction: Construction) -> str:
             lines.append(f"  {c.title:<38}{0.0 if zero else c.magnitude:>12.4f}"
                          f"{'—' if zero else format(direction_deg(*c.vector), '.1f'):>9}")
         lines.append("")
-    lines.append(f"cross-check against the numeric solver: largest relative difference "
-                 f"{construction.max_relative_difference:.2e} at {construction.where}")
+    lines.append(f"cross-check against the numeric solver: {agreement(construction.max_relative_difference, 2)}"
+                 f"{'' if construction.max_relative_difference < ROUNDING_FLOOR else f' at {construction.where}'}")
     for warning in construction.warnings:
         lines.append(f"warning: {warning}")
     return "\n".join(lines)

@@ -71,3 +71,17 @@ def test_help_gives_the_version_the_caution_the_guide_and_the_shortcuts(make_win
     help_menu = next(a.menu() for a in window.menuBar().actions() if a.text() == "&Help")
     assert [a.text() for a in help_menu.actions() if not a.isSeparator()] == [
         "&User guide", "&Keyboard shortcuts", "&About Kinepoly"]
+
+
+def test_the_status_line_says_agrees_to_rounding_for_a_figure_doubles_cannot_resolve(qtbot):
+    from app.window import MainWindow
+    from kinematics.groups.steps import ROUNDING_FLOOR
+    from tests.designs import SAMPLE_FILES
+
+    quick = next(p for p in SAMPLE_FILES if "quick-return" in p.name)
+    window = MainWindow()
+    qtbot.addWidget(window)
+    assert window.open_path(quick)
+    assert window.document.construction.max_relative_difference < ROUNDING_FLOOR
+    text = window.status.text()
+    assert "agrees to rounding" in text and "e-" not in text
