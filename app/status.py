@@ -21,4 +21,5 @@ def status_text(analysis, note: str = "") -> str:
     parts.append(f"driver at {construction.solution.driver_angle_deg:.1f}° · cross-check against the numeric solver: "
                  f"{agreement(difference)}{where}")
     parts += [f"warning: {w}" for w in construction.warnings]
+    parts += [f"note: {f}" for f in analysis.held]
     return " · ".join(parts)

@@ -85,3 +85,34 @@ def test_the_status_line_says_agrees_to_rounding_for_a_figure_doubles_cannot_res
     assert window.document.construction.max_relative_difference < ROUNDING_FLOOR
     text = window.status.text()
     assert "agrees to rounding" in text and "e-" not in text
+
+
+def test_one_loose_joint_leaves_the_polygons_table_and_steps_and_is_named(make_window):
+    window = make_window(CLAW_FEED)
+    steps_before = window.steps.count()
+    window.use_tool("joint")
+    click_at(window, 100.0, 20.0)
+    doc = window.document
+    loose = (set(doc.mechanism.points) - set(CLAW_FEED["points"])).pop()
+    assert doc.construction is not None and doc.solution is not None
+    assert window.steps.count() == steps_before, "the loose joint adds no step and takes none away"
+    assert window.table.model().rowCount() > 0
+    assert window.drawings.velocity_scene.items() and window.drawings.acceleration_scene.items()
+    text = window.status.text()
+    assert f"point {loose} is on no link" in text and "holds it where it is" in text
+    # The rest moves as before: the coupler point's velocity equals the design's without the loose joint.
+    from app.document import analyse
+    from tests.designs import load
+
+    alone = analyse(load(CLAW_FEED), None).solution
+    assert doc.solution.velocity("P") == pytest.approx(alone.velocity("P"), rel=1e-12)  # same arithmetic
+
+
+def test_a_loose_joint_with_something_else_missing_still_says_both(make_window):
+    from tests.designs import UNFINISHED
+
+    window = make_window(UNFINISHED)
+    window.use_tool("joint")
+    click_at(window, 100.0, 20.0)
+    text = window.status.text()
+    assert "not ready to analyse" in text and "no driver" in text and "is on no link" in text
