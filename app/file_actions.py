@@ -77,8 +77,8 @@ class FileActions:
             self.show_error("Cannot open the file", file_message(path, error))
             return False
         remove_stale_temporaries(path)  # what saves of this design cut short left beside it
-        self.note = "; ".join(mechanism.warnings)
         self.document.replace(mechanism, path)
+        self.note = "; ".join(mechanism.warnings)  # after the history is cleared, which clears the note
         self.drawings.fit_all()
         remember(path)
         self._fill_recent()

@@ -105,6 +105,9 @@ class MainWindow(FileActions, SheetOutputs, QMainWindow):
         self.document.changed.connect(self.refresh)
         self.document.swept.connect(self._show_sweep)
         self.document.undo_stack.cleanChanged.connect(self._update_title)
+        # A sentence about an edit goes when the history moves (undo, redo, the next edit): the status
+        # line then says the state of the design as it is, never of one undone.
+        self.document.undo_stack.indexChanged.connect(self._forget_note)
         self.angle.angle_requested.connect(self.turn_driver)
         self.angle.playing_changed.connect(lambda _playing: self._settle())
         self.length_units.currentTextChanged.connect(self._units_changed)
@@ -254,6 +257,10 @@ class MainWindow(FileActions, SheetOutputs, QMainWindow):
         doc = self.document
         name = Path(doc.path).name if doc.path else (doc.mechanism.title or "untitled")
         self.setWindowTitle(f"{name}{' *' if not doc.undo_stack.isClean() else ''} — Kinepoly")
+
+    def _forget_note(self, *_):
+        self.note = ""
+        self._show_readouts(live=self.live)
 
     def say(self, note: str):
         """Put a plain sentence at the head of the status line."""

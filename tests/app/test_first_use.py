@@ -116,3 +116,15 @@ def test_a_loose_joint_with_something_else_missing_still_says_both(make_window):
     click_at(window, 100.0, 20.0)
     text = window.status.text()
     assert "not ready to analyse" in text and "no driver" in text and "is on no link" in text
+
+
+def test_the_status_line_forgets_an_undone_edit_and_says_the_state(make_window):
+    window = make_window(CLAW_FEED)
+    window.use_tool("joint")
+    click_at(window, 100.0, 20.0)
+    new = (set(window.document.mechanism.points) - set(CLAW_FEED["points"])).pop()
+    assert f"joint {new} placed" in window.status.text()
+    window.document.undo_stack.undo()
+    window._show_readouts.flush()
+    text = window.status.text()
+    assert "placed" not in text and text.startswith("driver at"), text
