@@ -84,6 +84,18 @@ class PropertiesPanel(QWidget):
         self.speed_unit.addItems(["rpm", "rad/s"])
         self.alpha = _spin(-MAX_RATE, MAX_RATE, 3)
         self.alpha.setSuffix(" rad/s²")
+        for widget, tip in ((self.title, "The design's title (printed on the sheet)"),
+                            (self.point, "The joint shown below (or click one in the space diagram)"),
+                            (self.point_name, "Type a new name and press Enter to rename the joint everywhere"),
+                            (self.x, "The joint's x in the reference pose, in the file's unit"),
+                            (self.y, "The joint's y in the reference pose, in the file's unit"),
+                            (self.fixed, "Fix the joint to the frame (a fixed pivot), or free it"),
+                            (self.link, "The link shown below (or click one in the space diagram)"),
+                            (self.link_name, "Type a new name and press Enter to rename the link everywhere"),
+                            (self.speed, "The driver's speed, counter-clockwise positive"),
+                            (self.speed_unit, "The unit of the driver's speed"),
+                            (self.alpha, "The driver's angular acceleration, counter-clockwise positive")):
+            widget.setToolTip(tip)
         # A refusal is said beside the field it is about, and stays until the next edit or choice.
         self.point_refusal, self.link_refusal = _refusal_label(), _refusal_label()
         form = QFormLayout(self)

@@ -29,7 +29,8 @@ from .design_actions import DesignActions, grid_step_mm
 from .document import Document
 from .editing import JointDrag
 from .exports import SheetOutputs
-from .file_actions import FileActions
+from .file_actions import FileActions, save_path
+from .file_names import suggested_name
 from .icons import icon
 from .menus import about_text, add_help_menu, add_tool_menu
 from .pane_events import PaneEvents
@@ -39,9 +40,11 @@ from .recovery import Autosave, offer_recovery
 from .results import ResultsTable
 from .status import status_text
 from .steps_panel import StepsPanel
+from .table_csv import export_table
 from .throttle import Throttle
 
 CYCLE_TAB = "Cycle"
+CSV_FILTER = "Comma-separated values (*.csv);;All files (*)"
 TOOL_NAMES = {"select": "Select", "pivot": "Pivot", "joint": "Joint", "link": "Link", "slide": "Slide",
               "driver": "Driver", "delete": "Delete"}
 
@@ -94,6 +97,8 @@ class MainWindow(FileActions, SheetOutputs, QMainWindow):
         self.length_units.addItems(["mm", "m", "in"])
         self.speed_units = QComboBox()
         self.speed_units.addItems(["rad/s", "rpm"])
+        self.length_units.setToolTip("The length system of the results table (velocities in it per second)")
+        self.speed_units.setToolTip("The unit of ω in the results table")
         self.design_actions = DesignActions(self)
         self._build_toolbar()
         self._build_menus()
@@ -175,6 +180,7 @@ class MainWindow(FileActions, SheetOutputs, QMainWindow):
         self._action(files, "Export sheet as P&DF…", lambda: self._export("PDF sheet (*.pdf)", self.export_pdf))
         self._action(files, "Export drawing as D&XF…", lambda: self._export("DXF drawing (*.dxf)", self.export_dxf))
         self.review_action = self._action(files, "Re&view report…", self.review_dialog)
+        self._action(files, "Export results table as &CSV…", self.export_table_dialog)
         files.addSeparator()
         self._action(files, "&Quit", self.close, QKeySequence.StandardKey.Quit)
         edit = self.menuBar().addMenu("&Edit")
@@ -339,6 +345,13 @@ class MainWindow(FileActions, SheetOutputs, QMainWindow):
         self._show_readouts.flush()
         self.properties.refresh()
         self.drawings.set_draft(False)
+
+    def export_table_dialog(self):
+        doc = self.document
+        path = save_path(self, "Export the results table", suggested_name(doc.path, doc.mechanism.title, ".csv"),
+                         CSV_FILTER)
+        if path:
+            export_table(self, path)
 
     # help ----------------------------------------------------------------
     def about(self):

@@ -128,3 +128,50 @@ def test_the_status_line_forgets_an_undone_edit_and_says_the_state(make_window):
     window._show_readouts.flush()
     text = window.status.text()
     assert "placed" not in text and text.startswith("driver at"), text
+
+
+def test_every_control_has_a_tooltip(make_window):
+    from PySide6.QtWidgets import QAbstractButton, QAbstractSpinBox, QComboBox, QLineEdit, QSlider
+
+    window = make_window(CLAW_FEED)
+    bare = []
+    for kind in (QAbstractButton, QAbstractSpinBox, QComboBox, QLineEdit, QSlider):
+        for widget in window.findChildren(kind):
+            inner = isinstance(widget, QLineEdit) and isinstance(widget.parent(), (QComboBox, QAbstractSpinBox))
+            if not inner and not widget.toolTip() and widget.isVisibleTo(window):
+                bare.append(f"{type(widget).__name__} {getattr(widget, 'text', lambda: '')()}")
+    assert bare == []
+
+
+def test_the_results_table_exports_as_csv_in_si_at_full_precision(make_window, tmp_path, monkeypatch):
+    import csv
+
+    from PySide6.QtWidgets import QFileDialog
+
+    window = make_window(CLAW_FEED)
+    window.length_units.setCurrentText("in")  # the window's units never reach the file
+    target = tmp_path / "table"
+    monkeypatch.setattr(QFileDialog, "getSaveFileName", lambda *a: (str(target), a[3].split(";;")[0]))
+    file_menu = next(a.menu() for a in window.menuBar().actions() if a.text() == "&File")
+    next(a for a in file_menu.actions() if a.text() == "Export results table as &CSV…").trigger()
+    rows = list(csv.reader((tmp_path / "table.csv").open(encoding="utf-8")))
+    assert rows[0][:4] == ["row", "vx [m/s]", "vy [m/s]", "|v| [m/s]"]
+    solution = window.document.solution
+    by_name = {r[0]: r for r in rows[1:]}
+    vx, vy = solution.velocity("P").tolist()
+    assert float(by_name["point P"][1]) == vx and float(by_name["point P"][2]) == vy, "every digit kept"
+    assert float(by_name["link crank"][7]) == solution.angular_velocity["crank"]
+    assert any(r[0].startswith("radial") for r in rows), "the acceleration components too"
+
+
+def test_the_play_speed_scales_the_turn_of_each_frame(make_window):
+    from app.angle_control import ANIMATION_STEP_DEG
+
+    window = make_window(CLAW_FEED)
+    angle = window.angle
+    angle.play_speed.setCurrentText("4×")
+    asked = []
+    angle.angle_requested.connect(asked.append)
+    start = angle.angle_deg
+    angle.advance()
+    assert asked[-1] == pytest.approx((start + 4 * ANIMATION_STEP_DEG) % 360.0, abs=1e-12)
