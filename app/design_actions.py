@@ -8,10 +8,10 @@ from PySide6.QtCore import QObject, Signal
 from PySide6.QtWidgets import QInputDialog, QMenu, QMessageBox
 
 from kinematics import KinematicsError, move_point, rename_link, rename_point
+from kinematics.groups.scales import series_at_most
 
 from . import building
 from .building import BuildError
-from .drawing_kit import preferred_length
 from .panels import EMPTY_VIEW_MM
 
 FINE_STEPS_PER_GRID = 10  # Shift + arrow moves a tenth of a grid step
@@ -20,7 +20,7 @@ FINE_STEPS_PER_GRID = 10  # Shift + arrow moves a tenth of a grid step
 def grid_step_mm(mechanism) -> float:
     """The grid's step in mm: a 1-2-5 length near a twentieth of the design, at least 10 mm (a small or
     new design is laid out on a 200 mm sheet). Snapping lands on it; an arrow key moves a joint by it."""
-    return preferred_length(max(1e3 * mechanism.size * mechanism.metres_per_unit, EMPTY_VIEW_MM) / 20.0)
+    return series_at_most(max(1e3 * mechanism.size * mechanism.metres_per_unit, EMPTY_VIEW_MM) / 20.0)
 
 
 def driver_choices(mechanism, link_names) -> list[tuple[str, str, str]]:

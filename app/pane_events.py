@@ -7,6 +7,10 @@ from __future__ import annotations
 
 from PySide6.QtCore import QEvent, QObject, QPoint, Qt
 
+from kinematics.drawing import Ref
+
+from .scene_backend import ITEM_REF
+
 WATCHED = frozenset((QEvent.Type.DragEnter, QEvent.Type.DragMove, QEvent.Type.Drop, QEvent.Type.KeyPress,
                      QEvent.Type.MouseButtonPress, QEvent.Type.MouseMove, QEvent.Type.MouseButtonRelease,
                      QEvent.Type.ContextMenu))
@@ -15,11 +19,13 @@ ARROWS = {Qt.Key.Key_Left: (-1, 0), Qt.Key.Key_Right: (1, 0), Qt.Key.Key_Up: (0,
 
 def item_under(view, pos: QPoint) -> tuple[str | None, str | None]:
     """(kind, name) of the joint or link drawn at view pixel ``pos`` (joints first), or (None, None)."""
-    found = [item.data(0) for item in view.items(pos)]
-    for kind in ("point", "link"):
-        for data in found:
-            if isinstance(data, tuple) and data[0] == kind:
-                return kind, data[1]
+    joint = view.joint_at(pos)
+    if joint is not None:
+        return "point", joint
+    for item in view.items(pos):
+        ref = item.data(ITEM_REF)
+        if isinstance(ref, Ref) and ref.kind == "link":
+            return "link", ref.name
     return None, None
 
 

@@ -14,6 +14,8 @@ from ..groups.steps import Component, Role, Step
 
 @dataclass(frozen=True)
 class Pen:
+    """How a role is drawn: its colour, ISO 128 line weight, dash, DXF layer and legend words."""
+
     colour: str        # "#rrggbb"
     weight_mm: float   # ISO 128 line weight
     dash: str          # "solid", "dashed", "dotted", "dashdot"

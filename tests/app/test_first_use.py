@@ -28,7 +28,7 @@ def test_a_new_joint_and_a_new_link_become_the_current_ones_in_the_design_tab(ma
     window.use_tool("link")
     click_at(window, 100.0, 20.0)
     view = window.drawings.space_view
-    at = view.mapFromScene(window.drawings.space_scene.joints["P"].dot.pos())
+    at = view.mapFromScene(window.drawings.space_scene.joint_pos("P"))
     QTest.mouseClick(view.viewport(), Qt.LeftButton, Qt.NoModifier, at)
     QTest.keyClick(view, Qt.Key_Return)
     link = (set(window.document.mechanism.links) - set(CLAW_FEED["links"])).pop()

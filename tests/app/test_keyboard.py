@@ -19,7 +19,7 @@ def pixel(window, x_mm, y_mm) -> QPoint:
 
 
 def joint_pixel(window, name) -> QPoint:
-    return window.drawings.space_view.mapFromScene(window.drawings.space_scene.joints[name].dot.pos())
+    return window.drawings.space_view.mapFromScene(window.drawings.space_scene.joint_pos(name))
 
 
 def click(window, at: QPoint, button=Qt.LeftButton):
