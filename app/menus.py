@@ -7,6 +7,7 @@ from __future__ import annotations
 from importlib import metadata
 from importlib.resources import files
 
+from PySide6.QtCore import Qt
 from PySide6.QtGui import QAction, QKeySequence
 from PySide6.QtWidgets import QDialog, QTextBrowser, QVBoxLayout
 
@@ -42,14 +43,22 @@ def add_tool_menu(window, menu):
     leaves any tool for Select (dropping a chain half built)."""
     for tool, action in window.tool_actions.items():
         action.setShortcut(QKeySequence(TOOL_KEYS[tool]))
+        drawing_key(window, action)
         menu.addAction(action)
     menu.addSeparator()
     back = QAction("Back to &Select", window)
     back.setShortcut(QKeySequence(QKeySequence.StandardKey.Cancel))
     back.setToolTip("Escape: drop what the tool was building and return to Select")
     back.triggered.connect(window.back_to_select)
+    drawing_key(window, back)
     menu.addAction(back)
-    window.addAction(back)
+
+
+def drawing_key(window, action):
+    """Let ``action``'s key act while the drawings have the focus only: a letter or Delete typed in a
+    table or field is that widget's (a grid starts editing on a letter), not a tool's."""
+    action.setShortcutContext(Qt.ShortcutContext.WidgetWithChildrenShortcut)
+    window.drawings.addAction(action)
 
 
 def shortcut_rows(window) -> list[tuple[str, str]]:

@@ -34,7 +34,7 @@ from .file_names import suggested_name
 from .forces_table import ForcesTable
 from .icons import icon
 from .mass_editor import MassEditor
-from .menus import about_text, add_help_menu, add_tool_menu
+from .menus import about_text, add_help_menu, add_tool_menu, drawing_key
 from .pane_events import PaneEvents
 from .panels import DrawingsPanel
 from .properties import PropertiesPanel
@@ -201,8 +201,8 @@ class MainWindow(FileActions, SheetOutputs, QMainWindow):
         redo.setShortcut(QKeySequence.StandardKey.Redo)
         edit.addActions([undo, redo])
         edit.addSeparator()
-        self._action(edit, "&Delete the selected joint or link", self.design_actions.delete_selected,
-                     QKeySequence.StandardKey.Delete)
+        drawing_key(self, self._action(edit, "&Delete the selected joint or link", self.design_actions.delete_selected,
+                                       QKeySequence.StandardKey.Delete))
         add_tool_menu(self, self.menuBar().addMenu("&Tools"))
         view = self.menuBar().addMenu("&View")
         space = self.drawings.space_view
