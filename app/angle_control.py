@@ -1,15 +1,16 @@
-"""The driver-angle control: a typed value, a slider and play/pause."""
+"""The driver-angle control: a typed value, a slider, play/pause and the play speed."""
 
 from __future__ import annotations
 
 from PySide6.QtCore import Qt, QTimer, Signal
-from PySide6.QtWidgets import QDoubleSpinBox, QHBoxLayout, QLabel, QSlider, QToolButton, QWidget
+from PySide6.QtWidgets import QComboBox, QDoubleSpinBox, QHBoxLayout, QLabel, QSlider, QToolButton, QWidget
 
 from .icons import icon
 
 SLIDER_STEPS_PER_DEGREE = 10
 ANIMATION_STEP_DEG = 2.0
 ANIMATION_INTERVAL_MS = 33  # about 30 frames a second
+PLAY_SPEEDS = {"¼×": 0.25, "½×": 0.5, "1×": 1.0, "2×": 2.0, "4×": 4.0}  # times ANIMATION_STEP_DEG a frame
 
 
 class AngleControl(QWidget):
@@ -32,6 +33,13 @@ class AngleControl(QWidget):
         self.play.setCheckable(True)
         self.play.setIcon(icon("play"))
         self.play.setToolTip("Play / pause the driver turning")
+        self.play_speed = QComboBox()
+        self.play_speed.addItems(list(PLAY_SPEEDS))
+        self.play_speed.setCurrentText("1×")
+        self.play_speed.setToolTip("How fast play turns the driver (1×: one turn in "
+                                   f"{360.0 / ANIMATION_STEP_DEG * ANIMATION_INTERVAL_MS / 1000.0:g} s)")
+        self.spin.setToolTip("The driver angle, degrees counter-clockwise from +x: type a value")
+        self.slider.setToolTip("The driver angle: drag to turn the driver")
         self.rocking = None  # (low, high) dead points of a driver that cannot turn fully
         self.angle_deg = 0.0  # the pose's angle, [0, 360)
         self.direction = 1.0
@@ -43,6 +51,7 @@ class AngleControl(QWidget):
         layout.addWidget(self.spin)
         layout.addWidget(self.slider, 1)
         layout.addWidget(self.play)
+        layout.addWidget(self.play_speed)
         self.spin.valueChanged.connect(self.angle_requested.emit)
         self.slider.valueChanged.connect(lambda v: self.angle_requested.emit(v / SLIDER_STEPS_PER_DEGREE))
         self.play.toggled.connect(self._play)
@@ -79,15 +88,20 @@ class AngleControl(QWidget):
         else:
             self.timer.stop()
 
+    @property
+    def step_deg(self) -> float:
+        """The turn of one animation frame at the chosen play speed."""
+        return ANIMATION_STEP_DEG * PLAY_SPEEDS[self.play_speed.currentText()]
+
     def advance(self):
-        """One animation frame: the driver turns on by a fixed step, or rocks between its dead points."""
+        """One animation frame: the driver turns on by a step, or rocks between its dead points."""
         if self.rocking is None:
-            self.angle_requested.emit((self.angle_deg + ANIMATION_STEP_DEG) % 360.0)
+            self.angle_requested.emit((self.angle_deg + self.step_deg) % 360.0)
             return
         low, high = self.rocking
         # The shown angle unwrapped into the range, so a range across 0° rocks the right way.
         angle = low + (self.angle_deg - low) % 360.0
-        step = self.direction * ANIMATION_STEP_DEG
+        step = self.direction * self.step_deg
         if not low <= angle + step <= high:
             self.direction = -self.direction
             step = -step

@@ -4,7 +4,7 @@ undoable edit; an unfinished design is allowed while building."""
 
 from __future__ import annotations
 
-from PySide6.QtCore import QObject
+from PySide6.QtCore import QObject, Signal
 
 from . import building
 from .building import BuildError
@@ -25,8 +25,10 @@ class Builder(QObject):
     """Turns the space view's picks into building edits of a Document.
 
     ``say`` shows a sentence in the status line; ``grid_mm`` returns the snapping step
-    in millimetres (0 for no snapping).
+    in millimetres (0 for no snapping). ``made(kind, name)`` announces each new joint ("point") or link.
     """
+
+    made = Signal(str, str)
 
     def __init__(self, document, say, grid_mm, parent=None):
         super().__init__(parent)
@@ -60,8 +62,13 @@ class Builder(QObject):
             raise BuildError(f"{name} is already there")
         mech, new = building.add_point(self.document.mechanism, self.file_xy(at_mm), fixed=fixed)
         self._apply(mech, f"add {'pivot' if fixed else 'joint'} {new}")
+        self.made.emit("point", new)
         self.say(f"{'fixed pivot' if fixed else 'joint'} {new} placed — {HINTS[self.tool]}")
         return new
+
+    def place_at(self, at_mm, fixed: bool):
+        """Add a fixed pivot or a joint at ``at_mm`` whatever the tool (the right-click menu)."""
+        self._place(None, at_mm, fixed)
 
     def _pivot(self, name, at_mm):
         self._place(name, at_mm, fixed=True)
@@ -121,6 +128,7 @@ class Builder(QObject):
                 self.say(f"{error} — {HINTS['link']}")
                 return
             self._apply(mech, f"add {link}")
+            self.made.emit("link", link)
             self.say(f"{link} joins {' – '.join(picks)} — {HINTS['link']}")
 
     def cancel(self):

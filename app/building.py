@@ -151,15 +151,28 @@ def delete_point(mech: Mechanism, name: str) -> Mechanism:
         kept = tuple(p for p in members if p != name)
         if len(kept) >= 2:
             links[link] = kept
+    return _standing(mech, points, links, tuple(g for g in mech.ground if g != name))
+
+
+def delete_link(mech: Mechanism, name: str) -> Mechanism:
+    """Remove link ``name`` (its joints stay) and whatever cannot stand without it (slides on it, the driver)."""
+    if name not in mech.links:
+        raise BuildError(f"there is no link {name}")
+    return _standing(mech, mech.points, {n: p for n, p in mech.links.items() if n != name}, mech.ground)
+
+
+def _standing(mech: Mechanism, points: dict, links: dict, ground: tuple) -> Mechanism:
+    """``mech`` left with ``points``, ``links`` and ``ground``, and only the slides, driver, output and
+    mass data that still have all they name."""
     slides = {n: s for n, s in mech.slides.items()
-              if name not in (s.point, *s.line) and (s.guide == GROUND or s.guide in links)}
+              if all(p in points for p in (s.point, *s.line)) and (s.guide == GROUND or s.guide in links)}
     driver = mech.driver
-    if driver is not None and (driver.link not in links or driver.pivot == name):
+    if driver is not None and (driver.link not in links or driver.pivot not in ground):
         driver = None
     output = mech.output
-    if output is not None and (output.get("point") == name or output.get("link", "") not in (*links, "")):
+    if output is not None and (output.get("point", "") not in (*points, "")
+                               or output.get("link", "") not in (*links, "")):
         output = None
-    ground = tuple(g for g in mech.ground if g != name)
     return replace(mech, points=points, links=links, slides=slides, driver=driver, output=output, ground=ground,
                    mass_data=mass_data_kept(mech.mass_data, points, links, ground), warnings=())
 

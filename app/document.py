@@ -18,6 +18,7 @@ from PySide6.QtGui import QUndoCommand, QUndoStack
 
 import kinematics
 from kinematics import KinematicsError, Mechanism
+from kinematics.solver.mobility import hold_loose_points
 
 from .forces_data import CycleForces, cycle_forces, pose_forces
 from .throttle import Throttle
@@ -38,31 +39,37 @@ class Analysis:
     problem: str = ""
     forces: object = None
     forces_problem: str = ""
+    held: tuple = ()  # findings about loose points the analysis held where they are (it went on without them)
 
 
 def cycle(mechanism: Mechanism):
     """The core's sweep of one driver cycle (paths, driver range), or None where it has none.
 
-    Sweeps are for dyad chains only; anything else is drawn without paths.
+    Sweeps are for dyad chains only; anything else is drawn without paths. Loose points are held
+    where they are, as in :func:`analyse`.
     """
     try:
-        return kinematics.sweep(mechanism, steps=SWEEP_STEPS)
+        return kinematics.sweep(hold_loose_points(mechanism)[0], steps=SWEEP_STEPS)
     except KinematicsError:
         return None
 
 
 def analyse(mechanism: Mechanism, angle_deg: float | None) -> Analysis:
-    """Solve and construct, turning every refusal of the core into words."""
-    findings = tuple(kinematics.diagnose(mechanism))
-    if findings:
+    """Solve and construct, turning every refusal of the core into words. A joint on no link yet (a
+    design being built) stops nothing: it is held where it is, and ``held`` says so."""
+    held_mechanism, held = hold_loose_points(mechanism)
+    held = tuple(held)
+    if kinematics.diagnose(held_mechanism):
+        findings = tuple(kinematics.diagnose(mechanism))  # the rest is not ready either: say all as it is
         return Analysis(findings=findings, problem="; ".join(str(f) for f in findings))
     try:
-        solution = kinematics.solve(mechanism, angle_deg)
+        solution = kinematics.solve(held_mechanism, angle_deg)
         construction = kinematics.construct(solution)
     except KinematicsError as error:
-        return Analysis(problem=str(error))
+        return Analysis(problem=str(error), held=held)
     forces, forces_problem = pose_forces(solution)
-    return Analysis(solution=solution, construction=construction, forces=forces, forces_problem=forces_problem)
+    return Analysis(solution=solution, construction=construction, forces=forces, forces_problem=forces_problem,
+                    held=held)
 
 
 class Sweeper(QObject):

@@ -8,9 +8,12 @@ from pathlib import Path
 
 from PySide6.QtCore import Qt
 from PySide6.QtPrintSupport import QPrintDialog, QPrinter
-from PySide6.QtWidgets import QApplication, QDialog, QFileDialog, QProgressDialog
+from PySide6.QtWidgets import QApplication, QDialog, QProgressDialog
 
 from kinematics import KinematicsError, SweepCancelled, dumps
+
+from .file_actions import file_message, save_path
+from .file_names import filter_extensions, suggested_name
 
 
 class SheetOutputs:
@@ -23,9 +26,12 @@ class SheetOutputs:
         return construction
 
     def _export(self, file_filter: str, write):
+        """Ask where (the design's name suggested, the filter's extension added), then ``write`` there."""
         if self._ready_construction() is None:
             return
-        path, _ = QFileDialog.getSaveFileName(self, "Export", "", file_filter)
+        extension = filter_extensions(file_filter)[0]
+        doc = self.document
+        path = save_path(self, "Export", suggested_name(doc.path, doc.mechanism.title, extension), file_filter)
         if path:
             write(path)
 
@@ -42,7 +48,7 @@ class SheetOutputs:
         try:
             print_construction(construction, str(path), file_name=self._file_name())
         except (KinematicsError, OSError) as error:
-            self.show_error("Cannot export", f"{path}:\n{error}")
+            self.show_error("Cannot export", file_message(path, error))
             return False
         self.say(f"sheet written to {path}")
         return True
@@ -57,7 +63,7 @@ class SheetOutputs:
         try:
             write_dxf(construction, str(path), file_name=self._file_name())
         except (KinematicsError, OSError) as error:
-            self.show_error("Cannot export", f"{path}:\n{error}")
+            self.show_error("Cannot export", file_message(path, error))
             return False
         self.say(f"drawing written to {path}")
         return True
@@ -79,7 +85,9 @@ class SheetOutputs:
         """File > Review report…: ask where, then write the design-review report."""
         if self._ready_construction() is None:
             return
-        path, _ = QFileDialog.getSaveFileName(self, "Review report", "", "PDF report (*.pdf)")
+        doc = self.document
+        path = save_path(self, "Review report", suggested_name(doc.path, doc.mechanism.title, ".pdf"),
+                         "PDF report (*.pdf)")
         if path:
             self.export_review(path)
 
@@ -117,7 +125,7 @@ class SheetOutputs:
             self.say("review report cancelled: no file written")
             return False
         except (KinematicsError, OSError) as error:
-            self.show_error("Cannot write the review report", f"{path}:\n{error}")
+            self.show_error("Cannot write the review report", file_message(path, error))
             return False
         finally:
             dialog.reset()

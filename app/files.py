@@ -33,6 +33,10 @@ def remember(path) -> list[str]:
     return files[:RECENT_COUNT]
 
 
+def clear_recent():
+    settings().setValue(RECENT_KEY, [])
+
+
 def save_asking(parent, mechanism, path) -> bool:
     """Save ``mechanism`` to ``path``; a read-only or another user's file is replaced only when the
     user says so. False when the user declined; refusals raise as :func:`save_mechanism` does."""

@@ -7,6 +7,7 @@ import math
 from contextlib import contextmanager
 from dataclasses import replace
 
+from PySide6.QtCore import Qt
 from PySide6.QtWidgets import QCheckBox, QComboBox, QDoubleSpinBox, QFormLayout, QLabel, QLineEdit, QWidget
 
 from kinematics import KinematicsError, move_point, rename_link, rename_point
@@ -43,6 +44,20 @@ def _refill(combo: QComboBox, names: list):
         combo.setCurrentIndex(index)  # a rename keeps its place in the file's order
 
 
+def _refusal_label() -> QLabel:
+    label = QLabel()
+    label.setWordWrap(True)
+    label.setStyleSheet("color: #b00020")
+    label.setTextInteractionFlags(Qt.TextInteractionFlag.TextSelectableByMouse)
+    label.hide()
+    return label
+
+
+def _say_beside(label: QLabel, text: str):
+    label.setText(text)
+    label.setVisible(bool(text))
+
+
 def _show_text(field: QLineEdit, text: str):
     """Show ``text`` unless the user is typing in ``field`` (a driver turning refreshes the tab)."""
     if not field.isModified():
@@ -69,6 +84,20 @@ class PropertiesPanel(QWidget):
         self.speed_unit.addItems(["rpm", "rad/s"])
         self.alpha = _spin(-MAX_RATE, MAX_RATE, 3)
         self.alpha.setSuffix(" rad/s²")
+        for widget, tip in ((self.title, "The design's title (printed on the sheet)"),
+                            (self.point, "The joint shown below (or click one in the space diagram)"),
+                            (self.point_name, "Type a new name and press Enter to rename the joint everywhere"),
+                            (self.x, "The joint's x in the reference pose, in the file's unit"),
+                            (self.y, "The joint's y in the reference pose, in the file's unit"),
+                            (self.fixed, "Fix the joint to the frame (a fixed pivot), or free it"),
+                            (self.link, "The link shown below (or click one in the space diagram)"),
+                            (self.link_name, "Type a new name and press Enter to rename the link everywhere"),
+                            (self.speed, "The driver's speed, counter-clockwise positive"),
+                            (self.speed_unit, "The unit of the driver's speed"),
+                            (self.alpha, "The driver's angular acceleration, counter-clockwise positive")):
+            widget.setToolTip(tip)
+        # A refusal is said beside the field it is about, and stays until the next edit or choice.
+        self.point_refusal, self.link_refusal = _refusal_label(), _refusal_label()
         form = QFormLayout(self)
         form.addRow("title", self.title)
         form.addRow("joint", self.point)
@@ -76,9 +105,11 @@ class PropertiesPanel(QWidget):
         form.addRow("x", self.x)
         form.addRow("y", self.y)
         form.addRow("", self.fixed)
+        form.addRow("", self.point_refusal)
         form.addRow("link", self.link)
         form.addRow("link name", self.link_name)
         form.addRow("", self.link_points)
+        form.addRow("", self.link_refusal)
         form.addRow("driver", self.driver)
         form.addRow("speed", self.speed)
         form.addRow("speed unit", self.speed_unit)
@@ -152,6 +183,7 @@ class PropertiesPanel(QWidget):
             if self.point.currentText() != name:
                 self.point.setCurrentText(name)
             self.point_name.setModified(False)  # a name typed for another joint is not this one's
+            _say_beside(self.point_refusal, "")
             self._fill_point(name)
 
     def _fill_link(self, name: str):
@@ -161,12 +193,17 @@ class PropertiesPanel(QWidget):
         self.link_points.setText(f"joins {', '.join(points)}" if points else "no links yet (Link tool)")
 
     def show_link(self, name: str):
-        """Show link ``name`` (chosen in the list)."""
+        """Show link ``name`` (chosen in the list, clicked or just made in the space diagram)."""
         with self._quiet():
+            if self.link.currentText() != name:
+                self.link.setCurrentText(name)
             self.link_name.setModified(False)
+            _say_beside(self.link_refusal, "")
             self._fill_link(name)
 
     def _edit(self, mechanism, text):
+        _say_beside(self.point_refusal, "")
+        _say_beside(self.link_refusal, "")
         self.document.edit(mechanism, text, check=False)
 
     def apply_title(self):
@@ -175,12 +212,12 @@ class PropertiesPanel(QWidget):
             self._edit(replace(self.document.mechanism, title=self.title.text()), "rename the design")
 
     def apply_point_name(self):
-        self._apply_name(self.point_name, self.point.currentText(), "joint", rename_point)
+        self._apply_name(self.point_name, self.point.currentText(), "joint", rename_point, self.point_refusal)
 
     def apply_link_name(self):
-        self._apply_name(self.link_name, self.link.currentText(), "link", rename_link)
+        self._apply_name(self.link_name, self.link.currentText(), "link", rename_link, self.link_refusal)
 
-    def _apply_name(self, field: QLineEdit, old: str, kind: str, rename):
+    def _apply_name(self, field: QLineEdit, old: str, kind: str, rename, refusal: QLabel):
         """Rename ``kind`` ``old`` to the text of ``field``; a name the core refuses is said and not kept."""
         new = field.text().strip()
         field.setModified(False)
@@ -191,9 +228,8 @@ class PropertiesPanel(QWidget):
             renamed = rename(self.document.mechanism, old, new)
         except KinematicsError as error:
             field.setText(old)
-            self.say(str(error))
+            _say_beside(refusal, str(error))
             return
-        self.say("")
         self._edit(renamed, f"rename {kind} {old} to {new}")
 
     def apply_place(self, axis: int, value: float):
@@ -207,8 +243,8 @@ class PropertiesPanel(QWidget):
         try:
             moved = building.keep_slides_on_guides(move_point(mech, name, xy))
         except KinematicsError as error:
-            self.say(str(error))
             self.refresh()
+            _say_beside(self.point_refusal, str(error))
             return
         self._edit(moved, f"place {name}")
 

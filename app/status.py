@@ -3,6 +3,8 @@ stops analysis."""
 
 from __future__ import annotations
 
+from kinematics.groups.steps import ROUNDING_FLOOR, agreement
+
 
 def status_text(analysis, note: str = "") -> str:
     """One line for the window's status bar, ``note`` first (the latest drag or turn message)."""
@@ -14,8 +16,10 @@ def status_text(analysis, note: str = "") -> str:
         elif analysis.problem:
             parts.append(f"cannot analyse: {analysis.problem}")
         return " · ".join(parts)
-    parts.append(f"driver at {construction.solution.driver_angle_deg:.1f}° · cross-check: the polygons agree with "
-                 f"the numeric solver to {construction.max_relative_difference:.1e} (relative, largest at "
-                 f"{construction.where or 'no moving point'})")
+    difference = construction.max_relative_difference
+    where = "" if difference < ROUNDING_FLOOR else f", at {construction.where or 'no moving point'}"
+    parts.append(f"driver at {construction.solution.driver_angle_deg:.1f}° · cross-check against the numeric solver: "
+                 f"{agreement(difference)}{where}")
     parts += [f"warning: {w}" for w in construction.warnings]
+    parts += [f"note: {f}" for f in analysis.held]
     return " · ".join(parts)

@@ -11,7 +11,6 @@ from PySide6.QtGui import QAction, QActionGroup, QFont, QKeySequence
 from PySide6.QtWidgets import (
     QApplication,
     QComboBox,
-    QFileDialog,
     QLabel,
     QMainWindow,
     QMessageBox,
@@ -21,37 +20,39 @@ from PySide6.QtWidgets import (
     QWidget,
 )
 
-import kinematics
-from kinematics import KinematicsError, Mechanism
-from kinematics.files.storage import remove_stale_temporaries
-from kinematics.groups.scales import series_at_most
+from kinematics import Mechanism
 
 from .angle_control import AngleControl
 from .build_tools import HINTS, Builder
 from .building import empty
+from .design_actions import DesignActions, grid_step_mm
 from .document import Document
 from .editing import JointDrag
 from .exports import SheetOutputs
-from .files import recent_files, remember, save_asking
+from .file_actions import FileActions, save_path
+from .file_names import suggested_name
 from .forces_table import ForcesTable
 from .icons import icon
 from .mass_editor import MassEditor
-from .panels import EMPTY_VIEW_MM, DrawingsPanel
+from .menus import about_text, add_help_menu, add_tool_menu, drawing_key
+from .pane_events import PaneEvents
+from .panels import DrawingsPanel
 from .properties import PropertiesPanel
 from .recovery import Autosave, offer_recovery
 from .results import ResultsTable
 from .status import status_text
 from .steps_panel import StepsPanel
+from .table_csv import export_table
 from .throttle import Throttle
 
-FILE_FILTER = "Kinepoly mechanism (*.json);;All files (*)"
 CYCLE_TAB = "Cycle"
+CSV_FILTER = "Comma-separated values (*.csv);;All files (*)"
 MASSES_TAB = "Masses and loads"
 TOOL_NAMES = {"select": "Select", "pivot": "Pivot", "joint": "Joint", "link": "Link", "slide": "Slide",
               "driver": "Driver", "delete": "Delete"}
 
 
-class MainWindow(SheetOutputs, QMainWindow):
+class MainWindow(FileActions, SheetOutputs, QMainWindow):
     """One window drafting one Document."""
 
     def __init__(self, mechanism: Mechanism | None = None, path=None):
@@ -107,13 +108,22 @@ class MainWindow(SheetOutputs, QMainWindow):
         self.length_units.addItems(["mm", "m", "in"])
         self.speed_units = QComboBox()
         self.speed_units.addItems(["rad/s", "rpm"])
+        self.length_units.setToolTip("The length system of the results table (velocities in it per second)")
+        self.speed_units.setToolTip("The unit of ω in the results table")
+        self.design_actions = DesignActions(self)
         self._build_toolbar()
         self._build_menus()
+        self.pane_events = PaneEvents(self)
+        self.builder.made.connect(self.design_actions.select)
+        self.design_actions.selection_changed.connect(lambda: self._show_readouts(live=self.live))
         self.setAcceptDrops(True)
         self.setWindowIcon(icon("kinepoly"))
         self.document.changed.connect(self.refresh)
         self.document.swept.connect(self._show_sweep)
         self.document.undo_stack.cleanChanged.connect(self._update_title)
+        # A sentence about an edit goes when the history moves (undo, redo, the next edit): the status
+        # line then says the state of the design as it is, never of one undone.
+        self.document.undo_stack.indexChanged.connect(self._forget_note)
         self.angle.angle_requested.connect(self.turn_driver)
         self.angle.playing_changed.connect(lambda _playing: self._settle())
         self.length_units.currentTextChanged.connect(self._units_changed)
@@ -181,6 +191,7 @@ class MainWindow(SheetOutputs, QMainWindow):
         self._action(files, "Export sheet as P&DF…", lambda: self._export("PDF sheet (*.pdf)", self.export_pdf))
         self._action(files, "Export drawing as D&XF…", lambda: self._export("DXF drawing (*.dxf)", self.export_dxf))
         self.review_action = self._action(files, "Re&view report…", self.review_dialog)
+        self._action(files, "Export results table as &CSV…", self.export_table_dialog)
         files.addSeparator()
         self._action(files, "&Quit", self.close, QKeySequence.StandardKey.Quit)
         edit = self.menuBar().addMenu("&Edit")
@@ -189,6 +200,10 @@ class MainWindow(SheetOutputs, QMainWindow):
         undo.setShortcut(QKeySequence.StandardKey.Undo)
         redo.setShortcut(QKeySequence.StandardKey.Redo)
         edit.addActions([undo, redo])
+        edit.addSeparator()
+        drawing_key(self, self._action(edit, "&Delete the selected joint or link", self.design_actions.delete_selected,
+                                       QKeySequence.StandardKey.Delete))
+        add_tool_menu(self, self.menuBar().addMenu("&Tools"))
         view = self.menuBar().addMenu("&View")
         space = self.drawings.space_view
         self._action(view, "Zoom &in", lambda: space.zoom(1.25), QKeySequence.StandardKey.ZoomIn)
@@ -206,15 +221,8 @@ class MainWindow(SheetOutputs, QMainWindow):
         self.centres_action.setToolTip("the instantaneous centres over the space diagram, each named by its two bodies")
         self.centres_action.toggled.connect(self.drawings.show_centres)
         view.addAction(self.centres_action)
-        helps = self.menuBar().addMenu("&Help")
-        self._action(helps, "&About Kinepoly", self.about)
+        add_help_menu(self, self.menuBar().addMenu("&Help"))
         self._fill_recent()
-
-    def _fill_recent(self):
-        self.recent_menu.clear()
-        for path in recent_files():
-            self.recent_menu.addAction(path, lambda p=path: self.open_path(p, ask=True))
-        self.recent_menu.setEnabled(bool(self.recent_menu.actions()))
 
     # showing ------------------------------------------------------------
     def refresh(self):
@@ -284,6 +292,10 @@ class MainWindow(SheetOutputs, QMainWindow):
         name = Path(doc.path).name if doc.path else (doc.mechanism.title or "untitled")
         self.setWindowTitle(f"{name}{' *' if not doc.undo_stack.isClean() else ''} — Kinepoly")
 
+    def _forget_note(self, *_):
+        self.note = ""
+        self._show_readouts(live=self.live)
+
     def say(self, note: str):
         """Put a plain sentence at the head of the status line."""
         self.note = note
@@ -300,7 +312,7 @@ class MainWindow(SheetOutputs, QMainWindow):
         and the last frame's always."""
         self.angle.show_angle(self.document.shown_angle_deg)
         self.steps.show_construction(self.document.construction)
-        text = status_text(self.document.analysis, self.note)
+        text = status_text(self.document.analysis, self.note or self.design_actions.describe())
         self.status.setText(text)
         self.status.setToolTip(text)
 
@@ -316,13 +328,16 @@ class MainWindow(SheetOutputs, QMainWindow):
         self.drawings.space_view.building = tool != "select"
         self.builder.set_tool(tool)
 
+    def back_to_select(self):
+        """Escape: drop a chain half built and return to the Select tool."""
+        dropped = bool(self.builder.picks)
+        self.use_tool("select")
+        if dropped:
+            self.say("cancelled — back to Select")
+
     def grid_mm(self) -> float:
-        """The snapping step in mm: a 1-2-5 length near a twentieth of the design, at least 10 mm
-        (a small or new design is laid out on a 200 mm sheet)."""
-        if not self.snapping.isChecked():
-            return 0.0
-        mech = self.document.mechanism
-        return series_at_most(max(1e3 * mech.size * mech.metres_per_unit, EMPTY_VIEW_MM) / 20.0)
+        """The snapping step in mm (0 while snapping is off): see :func:`design_actions.grid_step_mm`."""
+        return grid_step_mm(self.document.mechanism) if self.snapping.isChecked() else 0.0
 
     def _snapping_changed(self, *_):
         self.drawings.space_view.grid_mm = self.grid_mm()
@@ -359,79 +374,16 @@ class MainWindow(SheetOutputs, QMainWindow):
         self.properties.refresh()
         self.drawings.set_draft(False)
 
-    # files ----------------------------------------------------------------
-    def ask_to_save(self) -> bool:
-        """True when it is fine to drop the current design (saved, discarded, or unchanged)."""
-        if self.document.undo_stack.isClean():
-            return True
-        button = QMessageBox.StandardButton
-        answer = QMessageBox.question(self, "Unsaved changes", "The design has changes that are not saved. "
-                                      "Save them first?", button.Save | button.Discard | button.Cancel, button.Save)
-        if answer == button.Save:
-            return self.save()
-        return answer == button.Discard
-
-    def new_design(self):
-        if self.ask_to_save():
-            self.note = ""
-            self.document.replace(empty())
-            self.drawings.fit_all()
-
-    def open_dialog(self):
-        path, _ = QFileDialog.getOpenFileName(self, "Open a mechanism", "", FILE_FILTER)
+    def export_table_dialog(self):
+        doc = self.document
+        path = save_path(self, "Export the results table", suggested_name(doc.path, doc.mechanism.title, ".csv"),
+                         CSV_FILTER)
         if path:
-            self.open_path(path, ask=True)
+            export_table(self, path)
 
-    def open_path(self, path, ask: bool = False) -> bool:
-        """Load ``path``; a bad file shows its message and leaves the current design as it is."""
-        if ask and not self.ask_to_save():
-            return False
-        try:
-            mechanism = kinematics.load_mechanism(path)
-        except (KinematicsError, OSError) as error:
-            self.show_error("Cannot open the file", f"{path}:\n{error}")
-            return False
-        remove_stale_temporaries(path)  # what saves of this design cut short left beside it
-        self.note = "; ".join(mechanism.warnings)
-        self.document.replace(mechanism, path)
-        self.drawings.fit_all()
-        remember(path)
-        self._fill_recent()
-        return True
-
-    def save(self) -> bool:
-        if not self.document.path:
-            return self.save_as()
-        return self.save_to(self.document.path)
-
-    def save_as(self) -> bool:
-        path, _ = QFileDialog.getSaveFileName(self, "Save the mechanism", self.document.path or "", FILE_FILTER)
-        return bool(path) and self.save_to(path)
-
-    def save_to(self, path) -> bool:
-        try:
-            if not save_asking(self, self.document.mechanism, path):
-                self.say(f"not saved: {path} was left as it was")
-                return False
-        except (KinematicsError, OSError) as error:
-            self.show_error("Cannot save", f"{path}:\n{error}")
-            return False
-        self.document.path = str(path)
-        self.document.undo_stack.setClean()
-        remember(path)
-        self._fill_recent()
-        self._update_title()
-        return True
-
-    def show_error(self, title: str, text: str):
-        self.say(text.replace("\n", " "))
-        QMessageBox.warning(self, title, text)
-
+    # help ----------------------------------------------------------------
     def about(self):
-        QMessageBox.about(self, "About Kinepoly",
-                          "<b>Kinepoly</b> — velocity and acceleration polygons of planar linkages, built by "
-                          "exact graphical construction and checked against a numeric solver.<br><br>"
-                          f"{kinematics.CAUTION}")
+        QMessageBox.about(self, "About Kinepoly", about_text())
 
     # Qt overrides ---------------------------------------------------------------
     def dragEnterEvent(self, event):

@@ -72,6 +72,19 @@ def _line_column(text: str, index: int) -> str:
     return f"line {line} column {index - (text.rfind(chr(10), 0, index) + 1) + 1}"
 
 
+def _json_refusal(text: str, where: str, err: json.JSONDecodeError) -> FileFormatError:
+    """Words for text that is not JSON. Parsing that stopped at the very end, or in a string still open
+    there (a string cannot hold a raw line break, so only the end can leave it open), met no wrong
+    character: the text ends too soon, and the place given is where it ends."""
+    end = len(text.rstrip())
+    if not end:
+        return FileFormatError("the file is empty", where, "text")
+    if err.pos >= end or err.msg.startswith("Unterminated string"):
+        return FileFormatError(f"the file ends early, before its JSON is complete (was it cut short?): {err.msg}",
+                               f"{where} {_line_column(text, end)}", "text")
+    return FileFormatError(f"not valid JSON: {err.msg}", f"{where} line {err.lineno} column {err.colno}", "text")
+
+
 def parse_text(text: str, where: str) -> dict:
     """Parse JSON text strictly: no repeated keys, no NaN or Infinity, no endless whole numbers."""
     try:
@@ -85,8 +98,7 @@ def parse_text(text: str, where: str) -> dict:
     except _Duplicate as dup:
         raise FileFormatError(f'the key "{dup.args[0]}" appears twice in one object', where, "text") from None
     except json.JSONDecodeError as err:
-        raise FileFormatError(f"not valid JSON: {err.msg}", f"{where} line {err.lineno} column {err.colno}",
-                              "text") from None
+        raise _json_refusal(text, where, err) from None
     except ValueError as err:
         raise FileFormatError(str(err), where, "text") from None
     except RecursionError:

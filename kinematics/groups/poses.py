@@ -40,8 +40,11 @@ def toggle_warnings(mech: Mechanism, links: tuple, xy: dict, pins: tuple) -> lis
             base = next((p for p in others if p in mech.ground), others[0] if others else None)
             in_line = angle_between_lines(vector(xy, base, pin), vector(xy, pin, other))
             if in_line < IN_LINE_DEG:
-                warnings.append(f"toggle: links {carrier} and {link} are {in_line:.2f}° from being in line at "
-                                f"{pin}; the links it drives are momentarily at rest")
+                # Only exactly in line does what they drive stop; this near, its speed for a given
+                # driver speed (the velocity ratio) is small, and it is said so, no more.
+                warnings.append(f"near toggle: links {carrier} and {link} are {in_line:.2f}° from being in line at "
+                                f"{pin} (within {IN_LINE_DEG:g}°); the links they drive move slowly for the "
+                                "driver's speed here (a small velocity ratio), and stop only exactly in line")
     return warnings
 
 

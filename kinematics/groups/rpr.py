@@ -151,9 +151,9 @@ class RPRGroup(Group):
         vb.direction(Component.SLIDING, frame.vel[d], u, f"v_slide ∥ slot of {link}",
                      f"line through {vb.label(d)} parallel to the slot of {link}", points=(d,), links=(link,))
         meet = self.velocity(frame)
-        label = vb.mark(meet.point, f"image of the point of {link} under {d}",
-                        f"v_{d} = v_{d}/{link} + v_slide", points=(d,), links=(link,))
-        vb.intersection(meet, label, f"velocity image of the point of {link} under {d}", self, points=(d,))
+        # One step finds and names the point of the lever under the pin: where the two lines meet.
+        vb.intersection(meet, vb.mark_label(meet.point), f"velocity image of the point of {link} under {d}", self,
+                        points=(d,), equation=f"v_{d} = v_{d}/{link} + v_slide")
         vb.vector(Component.SLIDING, meet.point, frame.vel[d], "", "v_slide ∥ slot",
                   f"sliding velocity of {d} in the slot of {link}: {figure(float(frame.sliding_velocity[slide.name]))} "
                   f"m/s from {slide.line[0]} towards {slide.line[1]}; ω_{link} = {figure(float(frame.omega[link]))} "
@@ -176,9 +176,8 @@ class RPRGroup(Group):
         coriolis_step(ab, Laid("coriolis", coriolis_laid.end, coriolis_laid.start, d, link), slide.guide)
         ab.direction(Component.SLIDING, coriolis_laid.end, u, "a_slide ∥ slot",
                      f"line through {back} parallel to the slot of {link}", points=(d,), links=(link,))
-        label = ab.mark(meet.point, f"image of the point of {link} under {d}", f"a_{d} = a_{d}/{link} + a_slide + a_c",
-                        points=(d,), links=(link,))
-        ab.intersection(meet, label, f"acceleration image of the point of {link} under {d}", self, points=(d,))
+        ab.intersection(meet, ab.mark_label(meet.point), f"acceleration image of the point of {link} under {d}", self,
+                        points=(d,), equation=f"a_{d} = a_{d}/{link} + a_slide + a_c")
         ab.vector(Component.TANGENTIAL, radial_laid.end, meet.point, "", f"a_{d}/{link}^t = α_{link} × r_{c}{d}",
                   f"tangential component: {figure(abs(meet.point - radial_laid.end))} m/s², so α_{link} = "
                   f"{figure(float(frame.alpha[link]))} rad/s²", role=Role.RESULT, points=(d,), links=(link,), about=c)

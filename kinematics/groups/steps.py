@@ -141,6 +141,20 @@ def figure(value: float) -> str:
     return f"{value:.4g}"
 
 
+# A relative difference of two double-precision results cannot be told from rounding below a few
+# units in the last place (machine epsilon 2.2e-16; IEEE 754 binary64): below this it says "rounding".
+ROUNDING_FLOOR = 1e-15
+
+
+def agreement(relative_difference: float, digits: int = 1) -> str:
+    """A cross-check's largest relative difference in words: "agrees to rounding" below
+    ROUNDING_FLOOR, else "to 3.2e-12" (``digits`` after the point). The number itself stays in
+    machine-readable output."""
+    if relative_difference < ROUNDING_FLOOR:
+        return "agrees to rounding"
+    return f"agrees to {relative_difference:.{digits}e} (largest relative difference)"
+
+
 def as_xy(z) -> tuple:
     """A complex number as an (x, y) pair of floats."""
     z = complex(z)
@@ -190,10 +204,16 @@ class PolygonBuilder:
         """Lay a vector from ``start`` to ``end`` (complex, polygon units)."""
         self.add(role, component, label, (start, end), equation, text, **extra)
 
-    def mark(self, z, text, equation, **extra) -> str:
-        """Mark an intermediate construction point at ``z`` with the next label n₁, n₂, …; returns the label."""
+    def mark_label(self, z) -> str:
+        """The next construction point's label (n₁, n₂, …), kept with its place, drawn by the step
+        that finds it."""
         label = f"n{len(self.marks) + 1}".translate(SUBSCRIPTS) + self.prime
         self.marks[label] = as_xy(z)
+        return label
+
+    def mark(self, z, text, equation, **extra) -> str:
+        """Mark an intermediate construction point at ``z`` with the next label n₁, n₂, …; returns the label."""
+        label = self.mark_label(z)
         self.add(Role.IMAGE, None, label, (z,), equation, f"{label}: {text}", **extra)
         return label
 

@@ -5,7 +5,7 @@ from __future__ import annotations
 import math
 
 from ..construction.components import acceleration_components
-from ..groups.steps import Construction
+from ..groups.steps import ROUNDING_FLOOR, Construction, agreement
 from ..groups.vectors import direction_deg, negligible
 from ..solver.solve import Solution
 
@@ -79,8 +79,8 @@ def construction_text(construction: Construction) -> str:
             lines.append(f"  {c.title:<38}{0.0 if negligible(c.magnitude, largest) else c.magnitude:>12.4f}"
                          f"{direction_text(*c.vector, largest):>9}")
         lines.append("")
-    lines.append(f"cross-check against the numeric solver: largest relative difference "
-                 f"{construction.max_relative_difference:.2e} at {construction.where}")
+    lines.append(f"cross-check against the numeric solver: {agreement(construction.max_relative_difference, 2)}"
+                 f"{'' if construction.max_relative_difference < ROUNDING_FLOOR else f' at {construction.where}'}")
     for warning in construction.warnings:
         lines.append(f"warning: {warning}")
     return "\n".join(lines)

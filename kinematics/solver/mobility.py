@@ -4,7 +4,7 @@ from the rank of the constraint Jacobian, and what stops analysis."""
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 
 import numpy as np
 
@@ -35,6 +35,24 @@ def gruebler_count(mech: Mechanism) -> int:
 
 def loose_points(mech: Mechanism) -> list:
     return [p for p in mech.points if not mech.bodies_of(p)]
+
+
+def hold_loose_points(mech: Mechanism) -> tuple[Mechanism, list]:
+    """The design with each loose point (on no link, not fixed) held where it is, and a finding naming
+    each. A loose point touches no link, so holding it moves nothing else: the rest of a design being
+    built can be analysed while one joint waits for its link. The findings say it was held.
+
+    >>> m = Mechanism(points={"O": (0, 0), "A": (1, 0), "P": (5, 5)}, links={"bar": ("O", "A")}, ground=("O",))
+    >>> held, findings = hold_loose_points(m)
+    >>> held.ground, findings[0].location
+    (('O', 'P'), 'points.P')
+    """
+    loose = loose_points(mech)
+    if not loose:
+        return mech, []
+    findings = [Finding(f"points.{p}", f"point {p} is on no link and not on ground: the analysis holds it where it "
+                                       "is (it moves nothing)") for p in loose]
+    return replace(mech, ground=(*mech.ground, *loose)), findings
 
 
 RANK_RELATIVE = 1e-9  # singular values below this share of the largest count as zero

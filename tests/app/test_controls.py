@@ -6,6 +6,7 @@ from PySide6.QtTest import QTest
 
 from app.document import Analysis
 from app.status import status_text
+from kinematics.groups.steps import agreement
 from tests.designs import CLAW_FEED, TRIPLE_ROCKER
 
 
@@ -61,7 +62,11 @@ def test_the_status_line_lists_every_warning_and_the_cross_check(make_window):
     construction = window.document.construction
     text = status_text(Analysis(solution=construction.solution, construction=construction), "note first")
     assert text.startswith("note first")
-    assert f"{construction.max_relative_difference:.1e}" in text and construction.where in text
+    # Below the rounding floor the figure is said as rounding (no place: nothing differs).
+    assert agreement(construction.max_relative_difference) in text
+    shown = type(construction)(**{**construction.__dict__, "max_relative_difference": 3.2e-12})
+    text = status_text(Analysis(solution=construction.solution, construction=shown))
+    assert "3.2e-12" in text and construction.where in text
     warned = Analysis(solution=construction.solution, construction=type(construction)(
         **{**construction.__dict__, "warnings": ("near a dead point", "group G is not a dyad")}))
     text = status_text(warned)

@@ -82,7 +82,7 @@ def test_open_replaces_the_design_and_remembers_the_file(make_window, tmp_path):
     assert set(window.document.mechanism.slides) == {"guide"}
     assert window.document.undo_stack.count() == 0 and window.document.undo_stack.isClean()
     assert files.recent_files()[0] == str(path.resolve())
-    assert [a.text() for a in window.recent_menu.actions()] == [str(path.resolve())]
+    assert [a.text() for a in window.recent_menu.actions()] == [f"&1  {path.resolve()}", "", "&Clear list"]
     assert "pusher.json" in window.windowTitle()
 
 

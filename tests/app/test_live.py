@@ -14,6 +14,7 @@ from app.document import SWEEP_STEPS
 from app.steps_panel import step_text
 from app.throttle import Throttle
 from kinematics.drawing import Ref
+from kinematics.groups.steps import agreement
 from tests.app.drawn import outline
 from tests.designs import CLAW_FEED
 
@@ -81,7 +82,7 @@ def test_everything_held_back_during_a_drag_is_of_the_final_design_when_it_ends(
         assert (x, -y) == pytest.approx(tuple(track[k]), abs=1e-9)
     steps = [*doc.construction.velocity.steps, *doc.construction.acceleration.steps]
     assert [window.steps.item(i).text() for i in range(window.steps.count())] == [step_text(s) for s in steps]
-    assert f"{doc.construction.max_relative_difference:.1e}" in window.status.text()
+    assert agreement(doc.construction.max_relative_difference) in window.status.text()
     assert _antialiased(window) == [True] * 3
 
 

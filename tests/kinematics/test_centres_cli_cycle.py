@@ -28,16 +28,19 @@ def test_cli_json_is_si_and_names_pairs_in_the_file_order(tmp_path, capsys):
 
 
 def test_cli_json_states_an_undetermined_centre_with_its_reason(capsys):
-    assert main(["centres", str(QUICK_RETURN), "--json"]) == 0
+    # At 90° crank, lever and rod lie on one vertical line (the sample opens at 45°).
+    assert main(["centres", str(QUICK_RETURN), "--angle", "90", "--json"]) == 0
     data = json.loads(capsys.readouterr().out)
-    assert data["centres"]["crank|rod"] == {"undetermined": (
-        "the lines through I ground|crank, I ground|rod and through I crank|lever, I lever|rod coincide "
-        "(Kennedy's theorem for crank, rod with ground and with lever)")}
-    assert data["centres"]["ground|rod"] == {"direction": [0.0, 1.0]}
+    # Which two coinciding lines are named depends on the last digits of the pose (the sample opens at
+    # 45° and is turned to 90°): the reason's form is what is checked.
+    reason = data["centres"]["crank|rod"]["undetermined"]
+    assert reason.startswith("the lines through I ") and " coincide (Kennedy's theorem for crank, rod with " in reason
+    # Tolerance: the pose turned from 45° carries rounding of a few 1e-17 into the direction.
+    assert data["centres"]["ground|rod"]["direction"] == pytest.approx([0.0, 1.0], abs=1e-12)
 
 
 def test_cli_table_in_mm_with_how_each_was_found(capsys):
-    assert main(["centres", str(QUICK_RETURN)]) == 0
+    assert main(["centres", str(QUICK_RETURN), "--angle", "90"]) == 0
     out = capsys.readouterr().out
     assert "ground|crank        0.000    150.000  primary: the pin O2" in out
     assert "ground|rod    at infinity, direction 90.00°  the lines through I ground|lever, I lever|rod and " \
