@@ -217,6 +217,9 @@ class SceneBackend:
             # A pin or a dot is a symbol: drawn in screen pixels about its centre, which costs a
             # tenth of an ellipse the view's transform must flatten at every paint.
             items[0].setFlag(QGraphicsItem.GraphicsItemFlag.ItemIgnoresTransformations)
+            # Kept as a pixmap until its size or fill changes: a pin moves with every pose, and an
+            # ellipse is outlined and filled as a path at every paint (twice the cost of a blit).
+            items[0].setCacheMode(QGraphicsItem.CacheMode.DeviceCoordinateCache)
             items[0].setZValue(Z_PIN)
             if ref is not None and ref.kind == "point":
                 items[0].setData(ITEM_HANDLE, True)
