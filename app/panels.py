@@ -73,21 +73,14 @@ class DrawingsPanel(QSplitter):
             self.fit_space()
 
     def _draw_polygon(self, view, fit: bool = False):
-        """Draw the polygon of ``view``; ``fit`` lets the view refit it first (and draws it again for
-        the new zoom when it did)."""
+        """Draw the polygon of ``view``; ``fit`` lets the view refit it first, so that it is drawn
+        once, with its symbols for the zoom the fit makes."""
         doc, scene = self.document, view.scene()
         construction = doc.construction
         polygon = construction and getattr(construction, scene.kind)
-        zoom = self._mm_per_pixel(view)
-        scene.show(polygon, doc.solution, zoom, self.draft)
-        # A refit changes the zoom, and with it how much room the symbols take: drawn again at the
-        # new zoom and fitted again, a few times at most (it settles at once in practice).
-        for _ in range(REFITS if fit and polygon is not None else 0):
-            view.show_rect(scene.content_rect)
-            if self._mm_per_pixel(view) == zoom:
-                break
-            zoom = self._mm_per_pixel(view)
-            scene.show(polygon, doc.solution, zoom, self.draft)
+        if fit and polygon is not None:
+            view.show_rect(scene.rect_for(polygon))
+        scene.show(polygon, doc.solution, self._mm_per_pixel(view), self.draft)
 
     def set_draft(self, on: bool):
         """Draw without antialiasing, and labels as a draft (see kinematics.drawing.Recorder), while

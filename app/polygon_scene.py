@@ -12,7 +12,7 @@ from PySide6.QtGui import QColor, QPen
 from PySide6.QtWidgets import QGraphicsEllipseItem, QGraphicsItem, QGraphicsScene
 
 from kinematics.drawing import Arrow, Circle, Line, Ref
-from kinematics.drawing.panes import polygon_pane
+from kinematics.drawing.panes import polygon_box, polygon_pane
 from kinematics.drawing.style import pen_for
 
 from .scene_backend import HOVER_COLOUR, SceneBackend
@@ -67,8 +67,13 @@ class PolygonScene(QGraphicsScene):
                 self.select_step(None)
         self.sheet = polygon_pane(polygon, solution, screen_symbols(mm_per_pixel), draft)
         self.drawing.show(self.sheet, 1.0 / mm_per_pixel)
-        self.content_rect = scene_rect(self.sheet.views[self.kind].box).adjusted(-MARGIN_MM, -MARGIN_MM,
-                                                                                 MARGIN_MM, MARGIN_MM)
+        self.content_rect = self.rect_for(polygon)
+
+    @staticmethod
+    def rect_for(polygon) -> QRectF:
+        """The scene area a view fits for ``polygon`` (its drawing to scale, with a margin): known
+        before it is drawn, as the symbols it leaves out are drawn for the zoom the fit makes."""
+        return scene_rect(polygon_box(polygon)).adjusted(-MARGIN_MM, -MARGIN_MM, MARGIN_MM, MARGIN_MM)
 
     def has_step(self, step_id: str) -> bool:
         return step_id in self._steps

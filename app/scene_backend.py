@@ -18,6 +18,7 @@ text in screen pixels at the height the sheet asks for.
 from __future__ import annotations
 
 from functools import cache
+from operator import attrgetter
 
 from PySide6.QtCore import QPointF, Qt
 from PySide6.QtGui import QBrush, QColor, QPainterPath, QPen, QPolygonF, QTransform
@@ -87,6 +88,7 @@ def _fill(primitive) -> QBrush | None:
     return None
 
 
+_REF = attrgetter("ref")
 # The field that decides a primitive's item kind or fill, for the kinds that have one.
 _SHAPE = {Polyline: Polyline._fields.index("closed"), Circle: Circle._fields.index("filled")}
 
@@ -111,15 +113,43 @@ class SceneBackend:
         self.by_ref: dict = {}
         self.emphasised: frozenset = frozenset()
         self.pixels_per_mm = 1.0
+        # What the last show drew, in its order: each primitive's entry, kind and Ref.
+        self._order: list = []
+        self._kinds: list = []
+        self._refs: list = []
 
     # showing ------------------------------------------------------------
     def show(self, sheet, pixels_per_mm: float) -> None:
         """Show ``sheet``'s primitives; ``pixels_per_mm`` is the view's zoom (for text)."""
+        primitives = sheet.primitives
+        # From pose to pose of a drag the sheet usually draws the same things in the same order:
+        # then each primitive keeps the entry of the one in its place last time, and only those
+        # that changed are looked at (the lists are compared by C code, not primitive by primitive).
+        if pixels_per_mm == self.pixels_per_mm and len(primitives) == len(self._order):
+            kinds, refs = list(map(type, primitives)), list(map(_REF, primitives))
+            if kinds == self._kinds and refs == self._refs:
+                self._follow(primitives)
+                return
+        self._show(primitives, pixels_per_mm)
+
+    def _follow(self, primitives) -> None:
+        """Update the entries of the primitives that changed, each in the place it had last time."""
+        order = self._order
+        for entry, primitive in zip(order, primitives, strict=True):
+            if entry.primitive != primitive:
+                kind = type(primitive)
+                if kind in _SHAPE and primitive[_SHAPE[kind]] != entry.primitive[_SHAPE[kind]]:
+                    self._show(primitives, self.pixels_per_mm)  # an outline closed or a dot became a pin
+                    return
+                self._update(entry, primitive)
+
+    def _show(self, primitives, pixels_per_mm: float) -> None:
         self.pixels_per_mm = pixels_per_mm
         counts: dict = {}
         keys = []
+        order = []
         drawn = self.drawn
-        for primitive in sheet.primitives:
+        for primitive in primitives:
             kind = type(primitive)
             # An open and a closed outline, a dot and a pin, take items of different kinds.
             base = (primitive.ref, kind, primitive[_SHAPE[kind]]) if kind in _SHAPE else (primitive.ref, kind)
@@ -131,14 +161,18 @@ class SceneBackend:
             if entry is None:
                 entry = drawn[key] = self._make(primitive)
                 self.by_ref.setdefault(primitive.ref, []).append(entry)
-            elif entry.primitive == primitive and entry.zoom == pixels_per_mm:
+            order.append(entry)
+            if entry.primitive == primitive and entry.zoom == pixels_per_mm:
                 continue
             self._update(entry, primitive)
         if len(keys) != len(drawn):
             self._drop(drawn.keys() - set(keys))
+        self._order = order
+        self._kinds, self._refs = list(map(type, primitives)), list(map(_REF, primitives))
 
     def clear(self) -> None:
         self._drop(list(self.drawn))
+        self._order, self._kinds, self._refs = [], [], []
 
     def _drop(self, keys) -> None:
         for key in keys:
@@ -185,6 +219,9 @@ class SceneBackend:
             # A pin or a dot is a symbol: drawn in screen pixels about its centre, which costs a
             # tenth of an ellipse the view's transform must flatten at every paint.
             items[0].setFlag(QGraphicsItem.GraphicsItemFlag.ItemIgnoresTransformations)
+            # Kept as a pixmap until its size or fill changes: a pin moves with every pose, and an
+            # ellipse is outlined and filled as a path at every paint (twice the cost of a blit).
+            items[0].setCacheMode(QGraphicsItem.CacheMode.DeviceCoordinateCache)
             items[0].setZValue(Z_PIN)
             if ref is not None and ref.kind == "point":
                 items[0].setData(ITEM_HANDLE, True)

@@ -89,6 +89,13 @@ def paths_pane(mech, sweep) -> Sheet:
     return rec.sheet(0.0, 0.0, title=mech.title)
 
 
+def polygon_box(polygon) -> tuple:
+    """The box (x0, y0, x1, y1) a :func:`polygon_pane` view fits: the drawing to scale, in sheet mm,
+    without the symbols (so a pane can be fitted before it is recorded at the zoom it fits)."""
+    scale = polygon.scale_per_mm
+    return tuple(v / scale for v in polygon_bounds(polygon))
+
+
 def polygon_pane(polygon, solution, size: Symbols, draft: bool = False) -> Sheet:
     """``polygon`` of ``solution`` at its construction's scale (``polygon.scale_per_mm``), with
     its scale bar under it; a ``draft`` as :class:`~kinematics.drawing.sheet.Recorder` says."""
@@ -97,7 +104,7 @@ def polygon_pane(polygon, solution, size: Symbols, draft: bool = False) -> Sheet
     view = View(polygon.kind, (0.0, 0.0, 0.0, 0.0), (0.0, 0.0), 1.0 / scale, polygon.unit,
                 f"1 mm = {plain(scale)} {unit}")
     rec = Recorder(draft=draft)
-    x0, y0, x1, y1 = (v / scale for v in polygon_bounds(polygon))
+    x0, y0, x1, y1 = polygon_box(polygon)
     width = max(x1 - x0, y1 - y0, 1.0)
     longest = POLYGON_BAR_LENGTH * width
     # Just under the drawing, on a grid of half the bar's length: the bar stays put while the

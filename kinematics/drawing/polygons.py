@@ -11,7 +11,7 @@ import math
 from ..groups.steps import Role
 from . import symbols
 from .declutter import declutter
-from .sheet import Circle, Line, Polyline, Recorder, Ref, View
+from .sheet import Circle, Line, Polyline, Recorder, View, ref_of
 from .space import outline, positions
 from .style import IMAGE, pen_for
 from .symbols import Symbols
@@ -41,7 +41,7 @@ def draw_polygon(rec: Recorder, polygon, solution, view: View, size: Symbols, xy
     segments = _draw_image_figures(rec, polygon, solution, view, positions(solution) if xy is None else xy)
     # Construction lines first, vectors over them, points and labels on top: the order a reader needs.
     for step in sorted(polygon.steps, key=_layer):
-        pen, ref = pen_for(step), Ref("step", step.id)
+        pen, ref = pen_for(step), ref_of("step", step.id)
         if step.role is Role.DIRECTION:
             ends = place(step.coords[0]), place(step.coords[-1])
             rec.add(Line(*ends, pen, name, ref))
@@ -60,7 +60,7 @@ def draw_polygon(rec: Recorder, polygon, solution, view: View, size: Symbols, xy
     lines = [] if rec.draft else symbols.lines_near(segments, size.dot)
     for where, text, step_id in labels:
         symbols.label(rec, where, text, centre, IMAGE, size, gap=size.dot, avoid=symbols.directions_at(where, lines),
-                      view=name, ref=Ref("step", step_id))
+                      view=name, ref=ref_of("step", step_id))
     declutter(rec, view.name)
 
 
@@ -90,9 +90,9 @@ def _draw_image_figures(rec: Recorder, polygon, solution, view: View, xy: dict) 
             continue
         if len(names) == 2:
             points = (place(images[names[0]]), place(images[names[1]]))
-            rec.add(Line(points[0], points[1], IMAGE, name, Ref("image", link)))
+            rec.add(Line(points[0], points[1], IMAGE, name, ref_of("image", link)))
             segments.append(points)
             continue
         order, closed = outline(names, xy)
-        rec.add(Polyline(tuple(place(images[n]) for n in order), IMAGE, closed, name, Ref("image", link)))
+        rec.add(Polyline(tuple(place(images[n]) for n in order), IMAGE, closed, name, ref_of("image", link)))
     return segments

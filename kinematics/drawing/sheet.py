@@ -12,6 +12,7 @@ scenes) replay the primitives and compute no geometry of their own.
 from __future__ import annotations
 
 from dataclasses import dataclass, field
+from functools import lru_cache
 from typing import TYPE_CHECKING, NamedTuple
 
 from .style import ANNOTATION, Pen
@@ -39,6 +40,11 @@ class Ref(NamedTuple):
 
     kind: str
     name: str = ""
+
+
+# A view records a Ref for every step, point and link at every frame of a drag: the same ones
+# each time, so they are made once (one object per Ref, which also makes comparing them cheap).
+ref_of = lru_cache(maxsize=4096)(Ref)
 
 
 # The primitives are named tuples, not dataclasses: a window records its views at every frame

@@ -13,7 +13,7 @@ from ..model.mechanism import GROUND
 from . import symbols
 from .declutter import declutter
 from .hatching import ground_hatch
-from .sheet import Line, Polyline, Recorder, Ref, Text, View
+from .sheet import Line, Polyline, Recorder, Text, View, ref_of
 from .style import ANNOTATION, SPACE_GROUND, SPACE_LINK, SPACE_PATH
 from .symbols import Symbols
 
@@ -86,19 +86,19 @@ def draw_linkage(rec: Recorder, mech, xy: dict, view: View, size: Symbols) -> No
         return
     orders = {link: outline(names, xy) for link, names in mech.links.items()}
     for link, (order, closed) in orders.items():
-        ids = {"view": view.name, "ref": Ref("link", link)}
+        ids = {"view": view.name, "ref": ref_of("link", link)}
         if len(order) == 2:
             rec.add(Line(start=at[order[0]], end=at[order[1]], pen=SPACE_LINK, **ids))
         elif len(order) > 2:
             rec.add(Polyline(points=tuple(at[n] for n in order), pen=SPACE_LINK, closed=closed, **ids))
     for slide in mech.slides.values():
-        _draw_slide(rec, slide, at, size, {"view": view.name, "ref": Ref("slide", slide.name)})
+        _draw_slide(rec, slide, at, size, {"view": view.name, "ref": ref_of("slide", slide.name)})
     xs, ys = [x for x, _ in at.values()], [y for _, y in at.values()]
     centre = (sum(xs) / len(xs), sum(ys) / len(ys))
     _draw_joints(rec, mech, at, centre, size, view.name)
     _draw_link_names(rec, orders, at, centre, size, view.name)
     if mech.driver is not None:
-        _draw_driver_sense(rec, mech, at, centre, size, {"view": view.name, "ref": Ref("driver", mech.driver.link)})
+        _draw_driver_sense(rec, mech, at, centre, size, {"view": view.name, "ref": ref_of("driver", mech.driver.link)})
     declutter(rec, view.name)
 
 
@@ -107,7 +107,7 @@ def draw_paths(rec: Recorder, sweep, view: View, names) -> None:
     for name in names:
         track = sweep.positions[:, sweep.point_names.index(name)].tolist()
         rec.add(Polyline(points=tuple(view.place(p) for p in track), pen=SPACE_PATH, closed=sweep.closes,
-                         view=view.name, ref=Ref("path", name)))
+                         view=view.name, ref=ref_of("path", name)))
 
 
 def _segments(primitives, view: str) -> list:
@@ -130,7 +130,7 @@ def _draw_link_names(rec: Recorder, orders: dict, at, centre, size: Symbols, vie
     middle), at a plate's centre. ``orders`` is each link's :func:`outline`."""
     small = Symbols(text=size.small_text)
     for link, (order, closed) in orders.items():
-        ids = {"view": view, "ref": Ref("link", link)}
+        ids = {"view": view, "ref": ref_of("link", link)}
         if closed:
             where = (sum(at[n][0] for n in order) / len(order), sum(at[n][1] for n in order) / len(order))
             rec.add(Text(position=where, text=link, height=size.small_text, pen=ANNOTATION, align="centre",
@@ -168,7 +168,7 @@ def _draw_joints(rec: Recorder, mech, at, centre, size: Symbols, view: str) -> N
     sides = _guide_sides(mech, at)
     lines = [] if rec.draft else symbols.lines_near(_segments(rec.primitives, view), size.dot)
     for name, where in at.items():
-        ids = {"view": view, "ref": Ref("point", name)}
+        ids = {"view": view, "ref": ref_of("point", name)}
         bodies = mech.bodies_of(name)
         # A fixed point on no link only marks where a guide runs: no pivot symbol for it.
         pivot = GROUND in bodies and len(bodies) > 1

@@ -168,15 +168,18 @@ def label(rec: Recorder, at, text: str, away_from, pen, size: Symbols, gap: floa
     away = math.atan2(dy, dx) if math.hypot(dx, dy) > 1e-9 else math.pi / 4.0
     direction = _label_direction(away, avoid)
     rec.labels.append((len(rec.primitives), at, gap, direction))
-    rec.add(text_beside(at, direction, gap, Text(position=at, text=text, height=size.text, pen=pen, **ids)))
+    rec.add(_beside(at, direction, gap, text, size.text, pen, ids.get("view", ""), ids.get("ref")))
 
 
 def text_beside(at, direction: float, gap: float, text: Text) -> Text:
     """``text`` set beside ``at`` towards ``direction`` (radians), clear of a mark ``gap`` mm
     wide: aligned and anchored on the side facing the point."""
+    return _beside(at, direction, gap, text.text, text.height, text.pen, text.view, text.ref)
+
+
+def _beside(at, direction: float, gap: float, words: str, height: float, pen, view: str, ref) -> Text:
     ux, uy = math.cos(direction), math.sin(direction)
-    distance = gap + 0.6 * text.height
+    distance = gap + 0.6 * height
     align = "left" if ux > 0.38 else "right" if ux < -0.38 else "centre"
     anchor = "baseline" if uy > 0.38 else "top" if uy < -0.38 else "middle"
-    return Text((at[0] + distance * ux, at[1] + distance * uy), text.text, text.height, text.pen, align, anchor,
-                text.view, text.ref)
+    return Text((at[0] + distance * ux, at[1] + distance * uy), words, height, pen, align, anchor, view, ref)

@@ -10,6 +10,7 @@ polygon scales, scale bars and the window's grid step are rounded.
 from __future__ import annotations
 
 import math
+from functools import cache
 
 MANTISSAS = (1, 2, 5)
 # A hair of tolerance so an exact fit (0.5 from 1 / 2.0) is not lost to rounding.
@@ -22,12 +23,20 @@ def series_term(value: float, at_least: bool) -> tuple:
     if not math.isfinite(value) or value <= 0.0:
         raise ValueError(f"no value of the series 1, 2, 5 × 10ⁿ stands for {value}")
     exponent = math.floor(math.log10(value))
-    terms = [(m, p) for p in (exponent - 1, exponent, exponent + 1) for m in MANTISSAS]
+    # The terms of the decades round ``value`` in order (a scale bar asks at every frame of a drag).
     if at_least:
-        return next(t for t in terms if _float(t) >= value * (1 - FIT))
-    return next(t for t in reversed(terms) if _float(t) <= value * (1 + FIT))
+        bound = value * (1 - FIT)
+        return next(t for t in _terms(exponent) if _float(t) >= bound)
+    bound = value * (1 + FIT)
+    return next(t for t in reversed(_terms(exponent)) if _float(t) <= bound)
 
 
+@cache
+def _terms(exponent: int) -> tuple:
+    return tuple((m, p) for p in (exponent - 1, exponent, exponent + 1) for m in MANTISSAS)
+
+
+@cache
 def _float(term: tuple) -> float:
     # The double nearest m × 10ⁿ, as the literal "me n" reads (5 * 10.0 ** -2 is not quite 0.05).
     return float(f"{term[0]}e{term[1]}")
