@@ -48,6 +48,8 @@ class Sweep:
     full_turn : the driver turns fully; otherwise ``range_deg`` gives its dead points.
     closes : one turn brings the linkage back to its first pose.
     time_s : (N,) time from the first pose at constant speed, or None when the driver accelerates.
+    driver_length_m : (N,) a cylinder driver's lengths (m), the swept parameter, or None for a rotary
+        driver; ``driver_angle_deg`` is then the direction of the cylinder's axis.
 
     The arrays are read-only and the dictionaries read-only mappings: a Sweep is a value.
     """
@@ -71,6 +73,7 @@ class Sweep:
     closes: bool
     time_s: np.ndarray | None
     warnings: tuple = ()
+    driver_length_m: np.ndarray | None = None
 
     def __post_init__(self):
         frozen_fields(self)
@@ -225,6 +228,8 @@ def sweep(mechanism: Mechanism, steps: int = 360, progress=None) -> Sweep:
     if not decomposition.all_dyads:
         raise KinematicsError("the linkage has a group that is no dyad; sweep it pose by pose with solve()",
                               next(g.name for g in decomposition.groups if not g.is_dyad))
+    if mechanism.driver.is_actuator:
+        return _stroke_sweep(mechanism, decomposition, steps)
     omega = mechanism.driver.speed_rad_s
     sense = 1.0 if omega >= 0 else -1.0
     start = reference_angle_deg(mechanism)
@@ -278,6 +283,32 @@ def sweep(mechanism: Mechanism, steps: int = 360, progress=None) -> Sweep:
                  jerks=columns["jerks"], angular_jerk={k: columns[("jerk", k)] for k in mechanism.links},
                  sliding_jerk={k: columns[("slide_j", k)] for k in mechanism.slides},
                  full_turn=full, range_deg=(low, high), closes=full, time_s=time_s, warnings=tuple(warnings))
+
+
+def _stroke_sweep(mechanism: Mechanism, decomposition, steps: int) -> Sweep:
+    """The cycle over the cylinder's stroke (see :mod:`kinematics.cycle.stroke`)."""
+    from .stroke import stroke_frame
+
+    lengths, frame, warnings = stroke_frame(mechanism, decomposition, steps)
+    columns = _columns(mechanism, _move(frame, decomposition))
+    head = decomposition.driver
+    axis = frame.pos[head.roles["B"]] - frame.pos[head.roles["C"]]
+    driver = mechanism.driver
+    time_s = None
+    if driver.linear_acceleration_m_s2 == 0.0 and driver.linear_speed_m_s != 0.0:
+        time_s = np.abs(lengths - lengths[0]) / abs(driver.linear_speed_m_s)
+    return Sweep(mechanism=mechanism, driver_angle_deg=np.degrees(np.angle(axis)), point_names=tuple(mechanism.points),
+                 positions=columns["positions"], velocities=columns["velocities"],
+                 accelerations=columns["accelerations"],
+                 link_angle_deg={k: columns[("angle", k)] for k in mechanism.links},
+                 angular_velocity={k: columns[("omega", k)] for k in mechanism.links},
+                 angular_acceleration={k: columns[("alpha", k)] for k in mechanism.links},
+                 sliding_velocity={k: columns[("slide_v", k)] for k in mechanism.slides},
+                 sliding_acceleration={k: columns[("slide_a", k)] for k in mechanism.slides},
+                 jerks=columns["jerks"], angular_jerk={k: columns[("jerk", k)] for k in mechanism.links},
+                 sliding_jerk={k: columns[("slide_j", k)] for k in mechanism.slides},
+                 full_turn=False, range_deg=(float(lengths.min()), float(lengths.max())), closes=False, time_s=time_s,
+                 warnings=tuple(warnings), driver_length_m=lengths)
 
 
 def verify_sweep(result: Sweep, branch_step_deg: float = 10.0) -> dict:
@@ -335,8 +366,8 @@ def verify_sweep(result: Sweep, branch_step_deg: float = 10.0) -> dict:
 def sweep_csv(result: Sweep) -> str:
     """One row per swept pose, SI units in the headers, numbers at full double precision."""
     mech = result.mechanism
-    header = ["driver_angle_deg"]
-    columns = [result.driver_angle_deg]
+    header = ["driver_angle_deg"] if result.driver_length_m is None else ["driver.length [m]"]
+    columns = [result.driver_angle_deg if result.driver_length_m is None else result.driver_length_m]
     for i, name in enumerate(result.point_names):
         for quantity, unit, values in (("", "m", result.positions), ("v", "m/s", result.velocities),
                                        ("a", "m/s^2", result.accelerations), ("j", "m/s^3", result.jerks)):
