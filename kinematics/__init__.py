@@ -50,10 +50,13 @@ def solve(mechanism: Mechanism, angle_deg: float | None = None, length: float | 
                                       and abs(angle_deg) <= MAX_ANGLE_DEG):
         raise KinematicsError(f"the driver angle must be a finite number of degrees within ±{MAX_ANGLE_DEG:g}, "
                               f"not {angle_deg!r}", "angle")
-    require_ready(mechanism)
-    if mechanism.driver.is_actuator:
+    if mechanism.driver is not None and mechanism.driver.is_actuator:
+        from .groups.decompose import cylinder_group
         from .solver.cylinder import solve_length
 
+        cylinder_group(mechanism)  # what the cylinder must be is said before any other finding
+    require_ready(mechanism)
+    if mechanism.driver.is_actuator:
         if angle_deg is not None:
             raise KinematicsError("a cylinder-driven design is solved at a cylinder length, not a driver angle",
                                   "angle")

@@ -60,7 +60,7 @@ def decompose(mech: Mechanism) -> Decomposition:
 
 def _decompose(mech: Mechanism) -> Decomposition:
     if mech.driver.is_actuator:
-        head = _cylinder(mech)
+        head = cylinder_group(mech)
         known = head.links
     else:
         head, known = DriverGroup(links=(mech.driver.link,), roles=MappingProxyType({"O": mech.driver.pivot})), (
@@ -70,7 +70,7 @@ def _decompose(mech: Mechanism) -> Decomposition:
     return Decomposition(driver_link=head.link, groups=groups, driver=replace(head, sign=head.branch_sign(mech)))
 
 
-def _cylinder(mech: Mechanism) -> ActuatorGroup:
+def cylinder_group(mech: Mechanism) -> ActuatorGroup:
     """The cylinder's group: its slide must be a link's point on another link's line, the barrel pivoted
     on the ground at the line's first point, the rod's end on a link with one more ground pin."""
     slide = mech.slides.get(mech.driver.slide)
