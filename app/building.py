@@ -16,6 +16,7 @@ import string
 from dataclasses import replace
 
 from kinematics import Driver, Mechanism, Slide, move_point
+from kinematics.edits.masses import mass_data_kept
 from kinematics.model.mechanism import GROUND, slide_offset
 
 DEFAULT_SPEED_RPM = 60.0
@@ -125,7 +126,8 @@ def set_fixed(mech: Mechanism, name: str, fixed: bool) -> Mechanism:
     """Fix joint ``name`` to the frame, or free it."""
     ground = tuple(dict.fromkeys((*mech.ground, name))) if fixed else tuple(g for g in mech.ground if g != name)
     driver = mech.driver if fixed or mech.driver is None or mech.driver.pivot != name else None
-    return replace(mech, ground=ground, driver=driver, warnings=())
+    return replace(mech, ground=ground, driver=driver, warnings=(),
+                   mass_data=mass_data_kept(mech.mass_data, mech.points, mech.links, ground))
 
 
 def delete_point(mech: Mechanism, name: str) -> Mechanism:
@@ -144,8 +146,9 @@ def delete_point(mech: Mechanism, name: str) -> Mechanism:
     output = mech.output
     if output is not None and (output.get("point") == name or output.get("link", "") not in (*links, "")):
         output = None
-    return replace(mech, points=points, links=links, slides=slides, driver=driver, output=output,
-                   ground=tuple(g for g in mech.ground if g != name), warnings=())
+    ground = tuple(g for g in mech.ground if g != name)
+    return replace(mech, points=points, links=links, slides=slides, driver=driver, output=output, ground=ground,
+                   mass_data=mass_data_kept(mech.mass_data, points, links, ground), warnings=())
 
 
 def keep_slides_on_guides(mechanism: Mechanism) -> Mechanism:

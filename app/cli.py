@@ -1,5 +1,5 @@
 """The ``kinepoly`` command line: one parser for every verb, and the verbs that need no Qt
-(check, solve, construct, centres, sweep, export). ``render``, ``print`` and ``report`` run in
+(check, solve, construct, centres, sweep, forces, export). ``render``, ``print`` and ``report`` run in
 :mod:`app.render`, :mod:`app.printing` and :mod:`app.review`, imported only when asked for.
 
 Exit codes: 0 ok; 1 the output could not be written; 2 a bad file or a
@@ -70,6 +70,24 @@ def construction_json(construction) -> dict:
             "warnings": list(construction.warnings)}
 
 
+def force_polygon_json(made) -> dict:
+    """The force polygon in the kinematic polygons' structure (``unit`` "N", ``scale_per_mm``), each
+    step with its place in the space diagram (m), and the forces it finds, SI."""
+    polygon = _polygon_json(made.polygon)
+    for entry, step in zip(polygon["steps"], made.polygon.steps, strict=True):
+        entry["space"] = [list(xy) for xy in step.space]
+    return {"kinepoly_force_polygon": 1, "driver_angle_deg": made.construction.solution.driver_angle_deg,
+            "notation": "F(a→b) is the force of a on b",
+            "centre_images": [{"id": s.id, "label": s.label, "link": s.links[0], "acceleration": list(s.coords[0]),
+                               "text": s.text} for s in made.centre_images],
+            "angular_acceleration_rad_s2": dict(made.angular_accelerations),
+            "force": polygon,
+            "joints_n": {p: {k: list(f) for k, f in by.items()} for p, by in made.joints_n.items()},
+            "slides_normal_n": dict(made.normals_n), "drive_torque_n_m": made.drive_torque_n_m,
+            "crosscheck": {"max_relative_difference": made.max_relative_difference, "where": made.where},
+            "warnings": list(made.warnings)}
+
+
 def _non_finite(value, path: str = "") -> str:
     """The JSON path of the first NaN or infinite number in ``value`` ("" when there is none)."""
     if isinstance(value, (float, np.floating)):
@@ -128,6 +146,16 @@ def _solve(args) -> int:
 
 def _construct(args) -> int:
     construction = construct(solve(load_mechanism(args.file), args.angle))
+    if args.forces:
+        from kinematics.forcepolygon import force_polygon
+        from kinematics.reports.force_text import force_polygon_text
+
+        made = force_polygon(construction)
+        result = force_polygon_json(made)
+        _require_finite(result, args.file)
+        _emit(json.dumps(result, indent=1, ensure_ascii=False) if args.json else force_polygon_text(made),
+              args.output)
+        return 0
     _require_finite(construction_json(construction), args.file)
     if args.json:
         _emit(json.dumps(construction_json(construction), indent=1), args.output)
@@ -149,18 +177,57 @@ def _sweep(args) -> int:
     from kinematics.cycle.peaks import peaks
     from kinematics.cycle.sweep import sweep, sweep_csv
 
+    if args.forces and args.peaks:
+        raise KinematicsError("--forces adds the force columns to the CSV; --peaks prints the peaks table "
+                              "without it: choose one")
     result = sweep(load_mechanism(args.file), args.steps)
     _require_finite({k: v for k, v in vars(result).items() if k != "mechanism"}, args.file)
+    extra = ((), ())
+    if args.forces:
+        from kinematics.dynamics import sweep_forces
+        from kinematics.reports.forces_tables import force_columns
+
+        extra = force_columns(sweep_forces(result))
+        _require_finite(dict(zip(*extra, strict=True)), args.file)
     if args.json:
         stream = io.StringIO()
-        json.dump({"kinepoly_sweep": 1, "peaks": peaks(result), "csv": sweep_csv(result)}, stream, indent=1)
+        json.dump({"kinepoly_sweep": 1, "peaks": peaks(result), "csv": sweep_csv(result, extra)}, stream, indent=1)
         _emit(stream.getvalue(), args.output)
     elif args.peaks:
         _emit(peaks_text(peaks(result)), args.output)
     else:
-        _emit(sweep_csv(result), args.output)
+        _emit(sweep_csv(result, extra), args.output)
     for warning in result.warnings:
         print(f"warning: {warning}", file=sys.stderr)
+    return 0
+
+
+def _forces(args) -> int:
+    from kinematics.dynamics import forces, sweep_forces
+    from kinematics.reports import forces_tables
+
+    if args.cycle and args.angle is not None:
+        raise KinematicsError("--angle is for one pose; --cycle sweeps the whole turn: choose one")
+    if not args.cycle and (args.fluctuation is not None or args.steps is not None):
+        option = "--fluctuation" if args.fluctuation is not None else "--steps"
+        raise KinematicsError(f"{option} is for the summary of a cycle: add --cycle")
+    mech = load_mechanism(args.file)
+    if args.cycle:
+        from kinematics.cycle.sweep import sweep
+        from kinematics.dynamics import DEFAULT_FLUCTUATION, drive_summary
+
+        result = sweep_forces(sweep(mech, 360 if args.steps is None else args.steps))
+        summary = drive_summary(result, DEFAULT_FLUCTUATION if args.fluctuation is None else args.fluctuation)
+        document = forces_tables.summary_json(summary, result)
+        _require_finite(document, args.file)
+        text = json.dumps(document, indent=1) if args.json else \
+            forces_tables.summary_text(summary, result) + f"\n\n{CAUTION}"
+    else:
+        result = forces(solve(mech, args.angle))
+        document = forces_tables.forces_json(result)
+        _require_finite(document, args.file)
+        text = json.dumps(document, indent=1) if args.json else forces_tables.forces_table(result) + f"\n\n{CAUTION}"
+    _emit(text, args.output)
     return 0
 
 
@@ -203,14 +270,29 @@ def parser() -> argparse.ArgumentParser:
         p.add_argument("-o", "--output", type=output_name, help="write to this file instead of the screen")
         if name == "solve":
             p.add_argument("--csv", action="store_true", help="the results table as CSV (SI units)")
+        if name == "construct":
+            p.add_argument("--forces", action="store_true",
+                           help="the force polygon instead: joint forces and drive torque from the mass data")
         p.set_defaults(handler=handler)
     sw = sub.add_parser("sweep", help="one driver turn: CSV of every pose, or the peaks table")
     sw.add_argument("file", help="mechanism file (JSON)")
     sw.add_argument("--steps", type=int, default=360, help="poses in the turn (default 360)")
     sw.add_argument("--peaks", action="store_true", help="print the peaks table")
     sw.add_argument("--json", action="store_true", help="peaks and CSV as JSON")
+    sw.add_argument("--forces", action="store_true", help="add the drive torque, joint, slide and shaking forces "
+                    "to the CSV (needs mass data; frictionless joints)")
     sw.add_argument("-o", "--output", type=output_name, help="write to this file instead of the screen")
     sw.set_defaults(handler=_sweep)
+    fo = sub.add_parser("forces", help="drive torque, joint and slide forces, inertia and shaking at one pose, or "
+                        "the drive and bearing summary of a cycle (frictionless rigid joints; needs mass data)")
+    _file_and_angle(fo)
+    fo.add_argument("--cycle", action="store_true", help="the drive and bearing summary of one turn at constant speed")
+    fo.add_argument("--fluctuation", type=float, default=None, metavar="C_S",
+                    help="coefficient of speed fluctuation for the flywheel (with --cycle; default 0.02)")
+    fo.add_argument("--steps", type=int, default=None, help="poses in the turn (with --cycle; default 360)")
+    fo.add_argument("--json", action="store_true", help="machine-readable output in SI units")
+    fo.add_argument("-o", "--output", type=output_name, help="write to this file instead of the screen")
+    fo.set_defaults(handler=_forces)
     ex = sub.add_parser("export", help="the space diagram (true size, mm) and both polygons as DXF")
     _file_and_angle(ex, "the reference pose")
     ex.add_argument("-o", "--output", type=output_name, required=True, help="DXF file to write")
@@ -238,14 +320,16 @@ def parser() -> argparse.ArgumentParser:
     return top
 
 
-VERBS = ("check", "solve", "construct", "centres", "sweep", "export", "render", "print", "report")
+VERBS = ("check", "solve", "construct", "centres", "sweep", "forces", "export", "render", "print", "report")
 # What ``kinepoly --help`` shows: one line a verb (a test keeps it in step with the parser).
 USAGE = """usage: kinepoly [FILE]                 open the drafting window (on FILE)
        kinepoly check FILE              mobility, Grashof, transmission angle, limit positions
        kinepoly solve FILE [--angle DEG] [--json | --csv]
-       kinepoly construct FILE [--angle DEG] [--json]
+       kinepoly construct FILE [--angle DEG] [--forces] [--json]
        kinepoly centres FILE [--angle DEG] [--json]
-       kinepoly sweep FILE [--steps N] [-o cycle.csv] [--peaks] [--json]
+       kinepoly sweep FILE [--steps N] [-o cycle.csv] [--peaks] [--json] [--forces]
+       kinepoly forces FILE [--angle DEG] [--json]
+       kinepoly forces FILE --cycle [--fluctuation 0.02] [--steps N] [--json]
        kinepoly render FILE [--angle DEG] -o view.png [--size 1600x1000]
        kinepoly print FILE [--angle DEG] [--paper A3] [--landscape] -o sheet.pdf
        kinepoly export FILE [--angle DEG] -o drawing.dxf
@@ -260,7 +344,7 @@ def main(argv) -> int:
         args = parser().parse_args(joined_numbers(argv))
     except SystemExit as stop:  # argparse has said what is wrong (or printed --help)
         return stop.code if isinstance(stop.code, int) else 2
-    if args.handler in (_check, _solve, _construct, _centres, _sweep, _export):
+    if args.handler in (_check, _solve, _construct, _centres, _sweep, _forces, _export):
         outcome = []
         code = run_reporting(lambda: outcome.append(args.handler(args)))
         return code or outcome[0]

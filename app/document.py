@@ -8,6 +8,8 @@ nothing else recomputes kinematics.
 from __future__ import annotations
 
 import weakref
+from concurrent.futures import Future, ThreadPoolExecutor
+from concurrent.futures import TimeoutError as NotYet
 from dataclasses import dataclass
 
 from PySide6.QtCore import QObject, Signal
@@ -19,6 +21,9 @@ from kinematics import KinematicsError, Mechanism
 from .throttle import Throttle
 
 SWEEP_STEPS = 180  # 2° apart: smooth paths at drawing size, about 2 ms for a six-bar
+# A sweep asked for outside a drag (opening, undo, the drag's end) is waited for this long, so that a
+# quick one is on screen with its design; a slower one is shown when it is done (``Document.swept``).
+SWEEP_WAIT_S = 0.2
 
 
 @dataclass(frozen=True)
@@ -53,6 +58,44 @@ def analyse(mechanism: Mechanism, angle_deg: float | None) -> Analysis:
     except KinematicsError as error:
         return Analysis(problem=str(error))
     return Analysis(solution=solution, construction=construction)
+
+
+class Sweeper(QObject):
+    """Cycle sweeps on one worker thread, off the window's; only the latest request's result counts.
+
+    :meth:`request` returns a Future of ``(ticket, sweep)``; every result is also sent back to the
+    window's thread by ``arrived(ticket, sweep)``. A request overtaken before its turn is not swept.
+    """
+
+    arrived = Signal(int, object)
+
+    def __init__(self, parent=None):
+        super().__init__(parent)
+        pool = self._pool = ThreadPoolExecutor(max_workers=1, thread_name_prefix="kinepoly-sweep")
+        # Queued requests go with the document; one already running ends on its own.
+        self.destroyed.connect(lambda *_: pool.shutdown(wait=False, cancel_futures=True))
+        self.latest = 0
+
+    def request(self, mechanism: Mechanism) -> Future:
+        self.latest += 1
+        future = self._pool.submit(self._run, self.latest, mechanism)
+        future.add_done_callback(self._send)
+        return future
+
+    def drop(self):
+        """Make every request so far stale (the design has nothing to sweep)."""
+        self.latest += 1
+
+    def _run(self, ticket: int, mechanism: Mechanism):
+        return ticket, cycle(mechanism) if ticket == self.latest else None
+
+    def _send(self, future: Future):
+        if future.cancelled() or future.exception() is not None:
+            return
+        try:
+            self.arrived.emit(*future.result())
+        except RuntimeError:  # the document, and this object with it, is gone
+            pass
 
 
 class EditCommand(QUndoCommand):
@@ -108,6 +151,11 @@ class Document(QObject):
         self.path = path
         self.analysis = analyse(mechanism, None)
         self.sweep = None
+        self._sweeper = Sweeper(self)
+        self._sweeper.arrived.connect(self._arrived)
+        self._shown = 0  # the ticket of the sweep in ``sweep``
+        self._pending: Future | None = None
+        self._dragging = False
         self._sweeps = Throttle(self._sweep, parent=self)
         self._sweeps.ran_late.connect(self.swept)
         self._sweep()
@@ -139,20 +187,50 @@ class Document(QObject):
             reference = analyse(mechanism, None)
             if reference.solution is not None:
                 self.angle_deg, self.analysis = None, reference
+        self._dragging = live
         self._sweeps(live)
         self.changed.emit()
 
     @property
     def sweep_behind(self) -> bool:
-        """True while a drag has left :attr:`sweep` behind the design."""
-        return self._sweeps.held
+        """True while :attr:`sweep` is behind the design (a drag held it back, or it is being made)."""
+        return self._sweeps.held or self._shown != self._sweeper.latest
 
     def _sweep(self):
-        self.sweep = cycle(self.mechanism) if self.analysis.solution is not None else None
+        """Ask for the design's sweep on the worker thread; outside a drag, wait a moment for it."""
+        if self.analysis.solution is None:
+            self._sweeper.drop()
+            self._shown, self.sweep, self._pending = self._sweeper.latest, None, None
+            return
+        self._pending = self._sweeper.request(self.mechanism)
+        if not self._dragging:
+            self._settle()
+
+    def _settle(self) -> bool:
+        """Show the pending sweep if it comes within SWEEP_WAIT_S; True if it was shown."""
+        try:
+            ticket, result = self._pending.result(timeout=SWEEP_WAIT_S)
+        except NotYet:
+            return False
+        return self._show(ticket, result)
+
+    def _show(self, ticket: int, result) -> bool:
+        if ticket != self._sweeper.latest or ticket == self._shown:
+            return False  # stale (a newer design was asked for) or already shown
+        self._shown, self.sweep = ticket, result
+        return True
+
+    def _arrived(self, ticket: int, result):
+        if self._show(ticket, result):
+            self.swept.emit()
 
     def catch_up_sweep(self):
         """Bring a sweep that a drag left behind up to the design (the drag ended)."""
-        self._sweeps.flush()
+        self._dragging = False
+        if self._sweeps.held:
+            self._sweeps.flush()
+        elif self._pending is not None and self._settle():
+            self.swept.emit()
 
     def replace(self, mechanism: Mechanism, path=None):
         """Start over with another design (New, Open): the history is cleared."""

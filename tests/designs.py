@@ -183,3 +183,41 @@ def block_on_rotating_guide(theta_deg, rpm=100.0, alpha=0.0, share=0.6):
     base["links"]["rod"] = ["A", "D"]
     base["slides"] = {"block": {"point": "D", "guide": "rocker", "line": ["O4", "G"]}}
     return base
+
+
+def _crank_rocker_60():
+    """The base of the designs of any size (bench/bench_sizes.py, the size limit's tests): crank 20,
+    coupler 60, rocker 45, frame 55 (mm), crank at 60°, a crank-rocker (20 + 60 < 45 + 55)."""
+    a, b, c, d, t = 20.0, 60.0, 45.0, 55.0, math.radians(60.0)
+    ax, ay = a * math.cos(t), a * math.sin(t)
+    ex, ey = d - ax, -ay
+    dist = math.hypot(ex, ey)
+    phi = math.atan2(ey, ex) + math.acos((b * b + dist * dist - c * c) / (2 * b * dist))
+    points = {"O2": [0.0, 0.0], "A": [ax, ay], "B": [ax + b * math.cos(phi), ay + b * math.sin(phi)], "O4": [d, 0.0]}
+    return {"kinepoly": 1, "length_unit": "mm", "points": points, "ground": ["O2", "O4"],
+            "links": {"crank": ["O2", "A"], "coupler": ["A", "B"], "rocker": ["O4", "B"]},
+            "driver": {"link": "crank", "pivot": "O2", "speed": {"value": 60, "unit": "rpm"}}}
+
+
+def one_link(size: int) -> dict:
+    design = _crank_rocker_60()
+    for i in range(size - 4):
+        angle = 2 * math.pi * i / max(size - 4, 1)
+        design["points"][f"P{i}"] = [30 + 15 * math.cos(angle), 60 + 15 * math.sin(angle)]
+        design["links"]["coupler"].append(f"P{i}")
+    return design
+
+
+def many_links(size: int) -> dict:
+    design = _crank_rocker_60()
+    last = "B"
+    for i in range((size - 4) // 2):
+        lx, ly = design["points"][last]
+        # A long binary link to the right and a long one down to a pivot: the chain assembles all turn.
+        design["points"][f"D{i}"] = [lx + 200.0, ly]
+        design["points"][f"G{i}"] = [lx + 200.0, ly - 200.0]
+        design["ground"].append(f"G{i}")
+        design["links"][f"r{i}"] = [last, f"D{i}"]
+        design["links"][f"s{i}"] = [f"G{i}", f"D{i}"]
+        last = f"D{i}"
+    return design

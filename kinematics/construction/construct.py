@@ -39,6 +39,40 @@ def _crosscheck(solution: Solution, velocity_images: dict, acceleration_images: 
     return worst, where
 
 
+# The construction and the solver agree to this in a well-posed design (relative to the polygon).
+CROSS_CHECK_LIMIT = 1e-9
+# A design farther than this many times its own size from the origin loses digits to its offset ...
+FAR_FROM_ORIGIN = 1e3
+# ... and a pose whose constraint Jacobian's condition figure is above this loses them to the pose.
+ILL_CONDITIONED = 1e6
+
+
+def _crosscheck_warning(solution: Solution, worst: float, where: str) -> str:
+    """Why the cross-check figure is above CROSS_CHECK_LIMIT, in words ("" when it is not).
+
+    Both formulations work in coordinates from the origin, whose rounding is about 1e-16 of the
+    distance from the origin; the solver's velocities carry that rounding times the condition figure."""
+    if not worst > CROSS_CHECK_LIMIT:
+        return ""
+    mech = solution.mechanism
+    unit = mech.length_unit
+    far = max(math.hypot(x, y) for x, y in mech.points.values())
+    ratio = far / mech.size if mech.size > 0 else math.inf
+    reasons = []
+    if ratio > FAR_FROM_ORIGIN:
+        reasons.append(f"the design lies {far:.3g} {unit} from the origin, {ratio:.3g} times its own size "
+                       f"({mech.size:.3g} {unit}), so its coordinates keep about {math.log10(ratio):.0f} fewer "
+                       "digits of its lengths (move it nearer the origin)")
+    if solution.condition > ILL_CONDITIONED:
+        reasons.append(f"the constraint Jacobian's condition figure here is {solution.condition:.3g} (the pose is "
+                       "near a dead point or a toggle, where small rounding gives large differences)")
+    if not reasons:
+        reasons.append(f"neither the conditioning (condition figure {solution.condition:.3g}) nor the distance from "
+                       f"the origin ({ratio:.3g} times the design's size) explains it")
+    return (f"cross-check: the polygons differ from the numeric solver by {worst:.2e} (relative) at {where}, above "
+            f"the {CROSS_CHECK_LIMIT:g} a well-posed design agrees to: " + "; and ".join(reasons))
+
+
 def construct(solution: Solution, box_mm: float = 120.0, velocity_scale: float | None = None,
               acceleration_scale: float | None = None) -> Construction:
     """Build both polygons of ``solution`` by graphical construction.
@@ -78,6 +112,8 @@ def construct(solution: Solution, box_mm: float = 120.0, velocity_scale: float |
     velocity_images = {n: frame.vel[n] for n in mech.points if n in frame.vel}
     acceleration_images = {n: frame.acc[n] for n in mech.points if n in frame.acc}
     worst, where = _crosscheck(solution, velocity_images, acceleration_images)
+    if _crosscheck_warning(solution, worst, where):
+        warnings.append(_crosscheck_warning(solution, worst, where))
     velocity = vb.finish(velocity_images, box_mm, velocity_scale)
     acceleration = ab.finish(acceleration_images, box_mm, acceleration_scale)
     for step in velocity.steps + acceleration.steps:

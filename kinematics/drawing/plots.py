@@ -53,7 +53,9 @@ class Curve:
 class Plot:
     """What one plot shows. ``marks``: (x, label) abscissae drawn as vertical lines (the
     analysis angles); ``limits``: (y, label) ordinates drawn as limit lines; ``x_range``
-    fixes the abscissa's ends (the ticks then start at its lower end)."""
+    fixes the abscissa's ends (the ticks then start at its lower end); ``polar`` draws a
+    vector's tip (a force's x against its y) at one scale on both axes, both through the
+    origin, with both zero lines."""
 
     title: str
     x_label: str
@@ -62,6 +64,7 @@ class Plot:
     marks: tuple = ()
     limits: tuple = ()
     x_range: tuple | None = None
+    polar: bool = False
 
 
 def _decimals(step: float) -> int:
@@ -86,10 +89,11 @@ def ticks(low: float, high: float, most: int, inside: bool = False) -> tuple:
     return tuple(round(k * step, _decimals(step) + 2) for k in range(first, last + 1))
 
 
-def _value_range(plot: Plot) -> tuple:
-    values = [np.asarray(c.y, dtype=float) for c in plot.curves]
+def _value_range(plot: Plot, axis: str = "y") -> tuple:
+    values = [np.asarray(getattr(c, axis), dtype=float) for c in plot.curves]
     values = [v[np.isfinite(v)] for v in values]
-    finite = np.concatenate(values + [np.array([y for y, _ in plot.limits], dtype=float)])
+    origin = [np.zeros(1)] if plot.polar else []
+    finite = np.concatenate(values + origin + [np.array([y for y, _ in plot.limits], dtype=float)])
     if finite.size == 0:
         return -1.0, 1.0
     low, high = float(finite.min()), float(finite.max())
@@ -99,8 +103,9 @@ def _value_range(plot: Plot) -> tuple:
         half = 0.1 * largest if largest > 1e-9 else 1.0
         return low - half, high + half
     room = MARGIN_SHARE * (high - low)
-    # A quantity that is never negative (a size |v|, an angle) keeps its axis from zero up.
-    bottom = low - room if low < 0.0 else max(0.0, low - room)
+    # A quantity that is never negative (a size |v|, an angle) keeps its axis from zero up; a polar
+    # plot has room around its origin, so that its zero lines clear the frame.
+    bottom = low - room if low < 0.0 or plot.polar else max(0.0, low - room)
     return bottom, high + room
 
 
@@ -147,11 +152,12 @@ def draw_plot(rec: Recorder, box, plot: Plot, view: str = "plot") -> None:
     y_step = y_ticks[1] - y_ticks[0]
     y_labels = [tick_label(v, y_step) for v in y_ticks]
     left = x0 + max(text_width(t, SMALL) for t in y_labels) + TICK + 1.5
-    rec.add(Text(position=(x0, top - SMALL), text=plot.y_label, height=SMALL, pen=ANNOTATION, **ids))
     area_top, area_bottom = top - 2.2 * SMALL, y0 + 4.6 * SMALL
     right = x1 - 0.5 * text_width(tick_label(0, 1), SMALL) - 2.0
     if plot.x_range is not None:
         low_x, high_x = plot.x_range
+    elif plot.polar:
+        low_x, high_x = _value_range(plot, "x")
     else:
         xs = np.concatenate([np.asarray(c.x, dtype=float) for c in plot.curves])
         low_x, high_x = float(np.nanmin(xs)), float(np.nanmax(xs))
@@ -160,6 +166,17 @@ def draw_plot(rec: Recorder, box, plot: Plot, view: str = "plot") -> None:
     x_step = x_ticks[1] - x_ticks[0]
     xa, xb = (low_x, high_x) if fixed else (x_ticks[0], x_ticks[-1])
     ya, yb = y_ticks[0], y_ticks[-1]
+    if plot.polar:  # one scale: the area shrinks along the axis that needs fewer units per mm
+        per_mm = max((xb - xa) / (right - left), (yb - ya) / (area_top - area_bottom))
+        middle_x, middle_y = 0.5 * (left + right), 0.5 * (area_top + area_bottom)
+        left, right = middle_x - 0.5 * (xb - xa) / per_mm, middle_x + 0.5 * (xb - xa) / per_mm
+        area_bottom, area_top = middle_y - 0.5 * (yb - ya) / per_mm, middle_y + 0.5 * (yb - ya) / per_mm
+        # Ticks again for the area as it now is, within the same ends, so that their labels stay apart.
+        x_ticks = ticks(xa, xb, max(2, int((right - left) / TICK_SPACING_MM)), inside=True)
+        y_ticks = ticks(ya, yb, max(2, int((area_top - area_bottom) / TICK_SPACING_MM)), inside=True)
+        x_step, y_step = x_ticks[1] - x_ticks[0], y_ticks[1] - y_ticks[0]
+        y_labels = [tick_label(v, y_step) for v in y_ticks]
+    rec.add(Text(position=(x0, area_top + 1.2 * SMALL), text=plot.y_label, height=SMALL, pen=ANNOTATION, **ids))
 
     def to_sheet(x, y):
         return (left + (x - xa) * (right - left) / (xb - xa),
@@ -177,11 +194,15 @@ def draw_plot(rec: Recorder, box, plot: Plot, view: str = "plot") -> None:
         rec.add(Line(start=(x, area_bottom - TICK), end=(x, area_bottom), pen=ANNOTATION, **ids))
         rec.add(Text(position=(x, area_bottom - TICK - 1.0), text=tick_label(v, x_step), height=SMALL,
                      pen=ANNOTATION, align="centre", anchor="top", **ids))
-    rec.add(Text(position=(0.5 * (left + right), y0), text=plot.x_label, height=SMALL, pen=ANNOTATION,
+    label_y = area_bottom - TICK - 3.2 * SMALL if plot.polar else y0  # under the ticks of an area that shrank
+    rec.add(Text(position=(0.5 * (left + right), label_y), text=plot.x_label, height=SMALL, pen=ANNOTATION,
                  align="centre", **ids))
     if ya < 0.0 < yb:  # the zero line, heavier than the grid, so signs read at a glance
         _, y = to_sheet(xa, 0.0)
         rec.add(Line(start=(left, y), end=(right, y), pen=ANNOTATION, **ids))
+    if plot.polar and xa < 0.0 < xb:
+        x, _ = to_sheet(0.0, ya)
+        rec.add(Line(start=(x, area_bottom), end=(x, area_top), pen=ANNOTATION, **ids))
     for value, label in plot.marks:
         if xa <= value <= xb:
             x, _ = to_sheet(value, ya)

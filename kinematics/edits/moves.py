@@ -10,9 +10,34 @@ from ..files.fileschema import MAX_COORDINATE
 from ..model.mechanism import Mechanism
 
 
+def _carried_centres(mechanism: Mechanism, name: str, points: dict):
+    """The mass data with the centre of mass of every link whose first two points include ``name``
+    kept where it was relative to those two points (moved, turned and scaled with them), as a
+    practitioner expects a link's centre to follow its shape; masses and inertias stay as stated."""
+    data = mechanism.mass_data
+    if data is None:
+        return None
+    masses = dict(data.masses)
+    for link, entry in data.masses.items():
+        first, second = mechanism.links[link][:2]
+        if name not in (first, second):
+            continue
+        (a, b), (a2, b2) = ((complex(*pts[first]), complex(*pts[second])) for pts in (mechanism.points, points))
+        if a == b or a2 == b2:
+            continue  # no frame to carry it in (the loader refuses such a link; a drag may pass through one)
+        centre = a2 + (complex(*entry.centre) - a) * (b2 - a2) / (b - a)
+        if max(abs(centre.real), abs(centre.imag)) > MAX_COORDINATE:
+            raise KinematicsError(f"moving point {name} would carry the centre of mass of link {link} to "
+                                  f"({centre.real:.6g}, {centre.imag:.6g}), beyond ±{MAX_COORDINATE:g} length units "
+                                  "(the file format's limit)", f"points.{name}")
+        masses[link] = replace(entry, centre=(centre.real, centre.imag))
+    return replace(data, masses=masses)
+
+
 def move_point(mechanism: Mechanism, name: str, xy) -> Mechanism:
     """A new Mechanism with point ``name`` at ``xy`` (in ``length_unit``) in the
-    reference pose; link shapes follow.
+    reference pose; link shapes follow, and so do the centres of mass (kept where they were
+    relative to their link's first two points; see :func:`_carried_centres`).
 
     >>> m = Mechanism(points={"A": (0, 0), "B": (1, 0)}, links={"bar": ("A", "B")})
     >>> move_point(m, "B", (2.0, 0.0)).points["B"]
@@ -28,4 +53,4 @@ def move_point(mechanism: Mechanism, name: str, xy) -> Mechanism:
         raise KinematicsError(f"point {name} cannot go to ({x:.6g}, {y:.6g}): coordinates are limited to "
                               f"±{MAX_COORDINATE:g} length units (the file format's limit)", f"points.{name}")
     points[name] = (x, y)
-    return replace(mechanism, points=points, warnings=())
+    return replace(mechanism, points=points, mass_data=_carried_centres(mechanism, name, points), warnings=())

@@ -1,5 +1,6 @@
 """Renaming a design's joints and links: edits that return a new Mechanism in which
-every reference to the old name (links, ground, slides, driver, output) carries the new one.
+every reference to the old name (links, ground, slides, driver, output, mass data: masses keyed by
+link, point masses and load points by point, a load's link) carries the new one.
 
 A new name follows the file format (``docs/file-format.md``): a letter, then letters, digits
 or ``_``; points, links and slides share one set of names that differ ignoring case (image
@@ -18,6 +19,7 @@ from dataclasses import replace
 
 from ..errors import KinematicsError
 from ..files.fileschema import NAME_PATTERN, RESERVED_NAME
+from ..model.mass import MassData
 from ..model.mechanism import Mechanism
 
 
@@ -56,6 +58,19 @@ def _output(mechanism: Mechanism, kind: str, carried):
     return None if output is None else {k: carried(v) if k == kind else v for k, v in output.items()}
 
 
+def _mass_data(mechanism: Mechanism, kind: str, carried) -> MassData | None:
+    """The mass data with ``kind`` ("point" or "link") names carried over."""
+    data = mechanism.mass_data
+    if data is None:
+        return None
+    if kind == "point":
+        return replace(data,
+                       point_masses={carried(p): replace(m, point=carried(p)) for p, m in data.point_masses.items()},
+                       loads={n: replace(ld, point=ld.point and carried(ld.point)) for n, ld in data.loads.items()})
+    return replace(data, masses={carried(k): replace(m, link=carried(k)) for k, m in data.masses.items()},
+                   loads={n: replace(ld, link=ld.link and carried(ld.link)) for n, ld in data.loads.items()})
+
+
 def rename_point(mechanism: Mechanism, old: str, new: str) -> Mechanism:
     """A new Mechanism in which point ``old`` is called ``new``, everywhere it is named.
 
@@ -77,6 +92,7 @@ def rename_point(mechanism: Mechanism, old: str, new: str) -> Mechanism:
                 for n, s in mechanism.slides.items()},
         driver=None if driver is None else replace(driver, pivot=carried(driver.pivot)),
         output=_output(mechanism, "point", carried),
+        mass_data=_mass_data(mechanism, "point", carried),
         warnings=(),  # they name points as they were
     )
 
@@ -99,5 +115,6 @@ def rename_link(mechanism: Mechanism, old: str, new: str) -> Mechanism:
         slides={n: replace(s, guide=carried(s.guide)) for n, s in mechanism.slides.items()},
         driver=None if driver is None else replace(driver, link=carried(driver.link)),
         output=_output(mechanism, "link", carried),
+        mass_data=_mass_data(mechanism, "link", carried),
         warnings=(),
     )

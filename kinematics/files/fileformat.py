@@ -1,4 +1,4 @@
-"""Reading and writing mechanism files (format version 1, JSON).
+"""Reading and writing mechanism files (format versions 1 and 2, JSON).
 
 ``load_mechanism`` accepts every well-formed file, unfinished designs
 included, and refuses everything else with a :class:`FileFormatError` whose
@@ -7,6 +7,9 @@ The format is described in ``docs/file-format.md``; its structure is the JSON
 Schema of the file's version (:mod:`kinematics.files.fileschema`), and what a schema
 cannot say is checked here: names that exist and differ ignoring case, a driver
 pivot on ground, the reference pose (points on their slide lines ...).
+
+A save writes format 1 for a design without mass data (a format-1 file saves as it was)
+and format 2, with ``masses``, ``point_masses``, ``loads`` and ``gravity``, for one with it.
 """
 
 from __future__ import annotations
@@ -21,9 +24,11 @@ from dataclasses import replace
 from pathlib import Path
 
 from ..errors import FileFormatError
+from ..model.limits import beyond_limits
 from ..model.mechanism import GROUND, Driver, Mechanism, Slide, slide_offset
 from ..model.units import METRES_PER_LENGTH_UNIT
-from .fileschema import FORMAT_VERSION, check_structure, format_version
+from .fileschema import check_structure, format_version, written_version
+from .massformat import mass_data_document, mass_data_from_document
 
 MAX_FILE_BYTES = 10 * 1024 * 1024
 # Farther than this from its line (in mm) a slide point is refused, nearer it is moved.
@@ -312,6 +317,10 @@ def mechanism_from_document(doc: dict, where: str = "") -> Mechanism:
         _refuse("a mechanism file holds one JSON object", where, "structure")
     _refuse_lone_surrogates(doc)
     check_structure(doc, format_version(doc))
+    # Before any check that grows with the design, so that a huge one is refused at once.
+    place, why = beyond_limits(len(doc["points"]), len(doc["links"]), len(doc.get("slides", {})))
+    if why:
+        _refuse(why, place, "size")
     _check_names_differ(doc)
     points = {k: tuple(v) for k, v in doc["points"].items()}
     ground = doc.get("ground", [])
@@ -325,6 +334,7 @@ def mechanism_from_document(doc: dict, where: str = "") -> Mechanism:
         analysis_angles_deg=doc.get("analysis_angles_deg", ()), title=doc.get("title", ""),
         notes=doc.get("notes", ""), length_unit=doc.get("length_unit", "mm"),
         extensions={k: v for k, v in doc.items() if k.startswith("x-")},
+        mass_data=mass_data_from_document(doc),
     )
     return _snap_slide_points(mechanism)
 
@@ -354,7 +364,7 @@ def load_mechanism(source) -> Mechanism:
 
 def document_from_mechanism(mechanism: Mechanism) -> dict:
     """The JSON document of a Mechanism, in the canonical key order."""
-    doc = {"kinepoly": FORMAT_VERSION}
+    doc = {"kinepoly": written_version(mechanism)}
     if mechanism.title:
         doc["title"] = mechanism.title
     if mechanism.notes:
@@ -377,6 +387,8 @@ def document_from_mechanism(mechanism: Mechanism) -> dict:
         doc["output"] = dict(mechanism.output)
     if mechanism.analysis_angles_deg:
         doc["analysis_angles_deg"] = list(mechanism.analysis_angles_deg)
+    if mechanism.mass_data is not None:
+        doc.update(mass_data_document(mechanism.mass_data))
     doc.update(mechanism.extensions)
     return doc
 

@@ -16,12 +16,17 @@ from functools import cache
 from pathlib import Path
 
 from ..errors import FileFormatError
+from .masswords import FRAME_WORDS, MASS_SECTIONS, listed, mass_words, names_the_frame
 
 SCHEMA_FOLDER = Path(__file__).with_name("schema")
 # One line per format version, numbered from 1 without gaps; a newer number than the last is refused.
-SCHEMA_FILES = {1: "mechanism-1.schema.json"}
-FORMAT_VERSION = max(SCHEMA_FILES)  # what a save writes
+SCHEMA_FILES = {1: "mechanism-1.schema.json", 2: "mechanism-2.schema.json"}
+# The newest version this Kinepoly reads. A save writes the lowest version that holds the design
+# (:func:`written_version`): a design without mass data stays format 1.
+FORMAT_VERSION = max(SCHEMA_FILES)
 SCHEMA_PATH = SCHEMA_FOLDER / SCHEMA_FILES[FORMAT_VERSION]
+# The top-level keys each version after the first brings (a file of an older version naming one is told so).
+ADDED_KEYS = {2: ("masses", "point_masses", "loads", "gravity")}
 
 
 @cache
@@ -39,6 +44,16 @@ MAX_RATE = schema(FORMAT_VERSION)["$defs"]["quantity"]["properties"]["value"]["m
 NAME_PATTERN = re.compile(_NAME["pattern"])
 RESERVED_NAME = re.compile(_NAME["not"]["pattern"])
 NAME_RULE = "a letter, then letters, digits or _"
+
+
+def written_version(mechanism) -> int:
+    """The format version a save of ``mechanism`` writes: 2 with mass data or loads, else 1.
+
+    >>> from kinematics.model.mechanism import Mechanism
+    >>> written_version(Mechanism(points={"A": (0, 0), "B": (1, 0)}, links={"bar": ("A", "B")}))
+    1
+    """
+    return 2 if mechanism.mass_data is not None else 1
 
 
 def name_problem(name) -> str | None:
@@ -67,8 +82,8 @@ def format_version(doc: dict) -> int:
     if not isinstance(version, int) or isinstance(version, bool) or version < 1:
         raise FileFormatError("kinepoly must be the format version, a whole number", "kinepoly", "version")
     if version not in SCHEMA_FILES:
-        raise FileFormatError(f"this file is format version {version}; this Kinepoly reads version {FORMAT_VERSION} "
-                              "(a newer Kinepoly wrote it)", "kinepoly", "version")
+        raise FileFormatError(f"this file is format version {version}; this Kinepoly reads versions 1 to "
+                              f"{FORMAT_VERSION} (a newer Kinepoly wrote it)", "kinepoly", "version")
     return version
 
 
@@ -99,10 +114,6 @@ def _shown(value) -> str:
     return f'"{value}"' if isinstance(value, str) else json.dumps(value, ensure_ascii=False)
 
 
-def _choices(options) -> str:
-    return " or ".join(options) if len(options) < 3 else ", ".join(options[:-1]) + " or " + options[-1]
-
-
 def _nesting_levels(root: dict) -> int:
     """How deep the schema lets a document nest: the document itself, and the chain of ``x-`` values."""
     node, levels = root["patternProperties"]["^x-"], 1
@@ -119,13 +130,17 @@ def _in_words(err, root: dict) -> tuple[str, str]:
     below = f"{where}." if where else ""
     if rule == "propertyNames":
         key = next(k for k in value if name_problem(k))
-        return name_problem(key), below + key
+        return (FRAME_WORDS if names_the_frame(section, below + key, key) else name_problem(key)), below + key
     if rule == "required":
         missing = next(k for k in err.rule_definition if k not in value)
         return f'missing "{missing}"', where or missing
     if rule == "additionalProperties":
         known, patterns = definition.get("properties", {}), definition.get("patternProperties", {})
         key = next(k for k in value if k not in known and not any(re.search(p, k) for p in patterns))
+        newer = next((v for v, keys in ADDED_KEYS.items() if not where and key in keys), None)
+        if newer is not None:
+            return (f'"{key}" needs format version {newer} or later: write "kinepoly": {newer} '
+                    f"(this file says {value.get('kinepoly')})"), key
         return f'unknown key "{key}"' + ("" if where else ' (own additions start with "x-")'), below + key
     if rule == "uniqueItems":
         seen = []
@@ -134,7 +149,7 @@ def _in_words(err, root: dict) -> tuple[str, str]:
                 return f"point {_shown(item)} is listed twice", f"{where}[{i}]"
             seen.append(item)
     if definition.get("pattern") == NAME_PATTERN.pattern:
-        return name_problem(value), where
+        return (FRAME_WORDS if names_the_frame(section, where, value) else name_problem(value)), where
     if section.startswith("x-"):
         return f"nested deeper than the format allows ({_nesting_levels(root)} levels)", where
     return _section_words(err, section, where)
@@ -149,7 +164,7 @@ def _section_words(err, section: str, where: str) -> tuple[str, str]:
     if section in ("title", "notes"):
         return f"{section} must be text", where
     if section == "length_unit":
-        return f"unknown length unit {_shown(value)} (use {_choices(definition['enum'])})", where
+        return f"unknown length unit {_shown(value)} (use {listed(definition['enum'])})", where
     if section == "points":
         if where == "points":
             return "points must be an object of name: [x, y]", where
@@ -179,7 +194,7 @@ def _section_words(err, section: str, where: str) -> tuple[str, str]:
         if rule == "const":
             return f"driver kind {_shown(value)} is not supported by this version (rotary only)", where
         if rule == "enum":
-            return f"unknown unit {_shown(value)} (use {_choices(definition['enum'])})", where
+            return f"unknown unit {_shown(value)} (use {listed(definition['enum'])})", where
         if json_type == "number":
             if rule in ("minimum", "maximum"):
                 return f"value is beyond ±{definition['maximum']:g}", where
@@ -187,6 +202,8 @@ def _section_words(err, section: str, where: str) -> tuple[str, str]:
         return '{"value": number, "unit": ...} expected', where
     if section == "output":
         return 'output is {"link": name} or {"point": name}', where
+    if section in MASS_SECTIONS:
+        return mass_words(err, section, where)
     if section == "analysis_angles_deg":
         return "analysis_angles_deg is a list of finite numbers", section
     # A key no message is written for yet: the validator's own words.

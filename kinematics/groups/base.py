@@ -286,6 +286,12 @@ class Group(ABC):
     def acceleration_steps(self, builder, frame: Frame, placed: set):
         """Work out the accelerations and draw their construction steps on ``builder``."""
 
+    @abstractmethod
+    def force_steps(self, builder, state):
+        """Find the forces at the group's joints from the known loads on its links (``state``, a
+        :class:`~kinematics.groups.force_steps.ForceState`), lay their steps on the force polygon
+        ``builder`` and pass their reactions on to the bodies found earlier."""
+
     def branch_sign(self, mech: Mechanism) -> float:
         """The branch of the reference pose, kept by every later pose (+1 or −1)."""
         return 1.0

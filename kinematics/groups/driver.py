@@ -9,7 +9,8 @@ from dataclasses import dataclass
 import numpy as np
 
 from .base import Frame, Group
-from .steps import Component, PolygonBuilder, direction_deg, figure
+from .force_steps import FRAME, ForceState, as_pair, every, force_label, gather, lay, moment, pins_carried, result
+from .steps import Component, PolygonBuilder, Role, direction_deg, figure
 
 
 @dataclass(frozen=True)
@@ -94,3 +95,29 @@ class DriverGroup(Group):
                                f"tangential component of {q} about {pivot}: r·α = {figure(abs(alpha * r))} m/s², "
                                f"perpendicular to {pivot}{q}", points=(q,), links=(link,), about=pivot)
         placed.update(frame.mech.links[link])
+
+    def force_steps(self, builder: PolygonBuilder, state: ForceState):
+        """Last: the loads on the driver laid, the frame's force at the pivot closes its polygon, and
+        the drive torque balances their moment about the pivot (the arm of their resultant drawn)."""
+        link, pivot = self.link, self.pivot
+        runs = gather(state, link, state.owned_by(self))
+        end, ends = lay(builder, 0j, runs)
+        state.joints.setdefault(pivot, {})[link] = result(builder, end, 0j, force_label(FRAME, link),
+                                                          f"the frame's force on {link} at the pivot {pivot}",
+                                                          points=(pivot,), links=(link,))
+        pins_carried(builder, state, link, runs, ends)
+        o = complex(state.pos[pivot])
+        turning = moment(every(runs), o)
+        torque = -turning
+        state.torque_n_m = torque
+        if abs(end) > 0.0:
+            # The point of the resultant's line nearest the pivot: cross(r, R) = ΣM with r ⊥ R.
+            foot = o - 1j * turning * end / abs(end) ** 2
+            arm = f"the resultant {figure(abs(end))} N of the loads on {link} acts at {figure(abs(foot - o))} m " \
+                  f"from {pivot}"
+            space = (as_pair(o), as_pair(foot))
+        else:
+            arm, space = f"the loads on {link} are a pure couple", (as_pair(o),)
+        builder.add(Role.RESULT, Component.TORQUE, "T", (0j,), f"T + ΣM_{pivot}({link}) = 0",
+                    f"T: the drive torque on {link}, {figure(torque)} N·m (counter-clockwise positive): {arm}, "
+                    f"its moment about {pivot} is {figure(turning)} N·m", points=(pivot,), links=(link,), space=space)

@@ -8,6 +8,7 @@ from dataclasses import dataclass
 
 from ..errors import KinematicsError
 from .base import Frame, Group
+from .force_steps import ForceState, by_name, force_label, result
 from .steps import PolygonBuilder, Role
 
 
@@ -65,3 +66,25 @@ class NumericGroup(Group):
             builder.add(Role.IMAGE, None, builder.label(name), (values[name],), "from the numeric solver",
                         f"{builder.label(name)}: taken from the numeric solver ({self.name} is not a dyad; "
                         "no intersection construction)", points=(name,), links=(link,), numeric=True)
+
+    def force_steps(self, builder: PolygonBuilder, state: ForceState):
+        """No intersection construction: the group's joint and guide forces are the numeric forces'
+        (``state.numeric``), drawn from the pole and marked numeric; their reactions are passed on."""
+        numeric = state.numeric
+        if numeric is None:
+            raise KinematicsError(f"the {self.name} is not a dyad: its forces need the numeric forces", self.name)
+        owned = state.owned_by(self)
+        for link in self.links:
+            for point in dict.fromkeys(state.mech.links[link]):
+                force = complex(*numeric.joints_n[point][link])
+                result(builder, 0j, force, force_label(by_name(state, point, link), link),
+                       f"the force at {point}, taken from the numeric forces ({self.name} is not a dyad)",
+                       points=(point,), links=(link,), numeric=True)
+                if point in owned:
+                    state.joints.setdefault(point, {})[link] = force
+                else:
+                    state.react(point, link, force, numeric=True)
+        for slide in state.mech.slides.values():
+            if slide.guide in self.links or slide.point in owned:
+                state.guide_reaction(slide, float(numeric.slides[slide.name].normal_n),
+                                     block_known=slide.point not in owned, guide_known=slide.guide not in self.links)

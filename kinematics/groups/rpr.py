@@ -26,6 +26,19 @@ from .base import (
     sliding_jerk_terms,
     unit,
 )
+from .force_steps import (
+    ForceState,
+    by_name,
+    every,
+    force_label,
+    gather,
+    intersect_lines,
+    lay,
+    left_normal,
+    perpendicular,
+    pins_carried,
+    result,
+)
 from .loops import LoopCheck, distance_from_line, driving_crank, length
 from .polygon_steps import coriolis_step, image_steps, radial_step
 from .steps import Component, PolygonBuilder, Role, figure
@@ -165,6 +178,32 @@ class RPRGroup(Group):
                   f"{figure(float(frame.sliding_acceleration[slide.name]))} m/s² from {slide.line[0]} towards "
                   f"{slide.line[1]}", role=Role.RESULT, points=(d,), links=(link,))
         image_steps(ab, frame, link, placed, "acc")
+
+    def force_steps(self, builder: PolygonBuilder, state: ForceState):
+        """The lever alone: the block's force on the slot acts through D, normal to the slot, so the
+        moments about D give the part of the force at C across CD (laid); the slot's normal and the
+        line along CD close the polygon."""
+        pos = state.pos
+        slide = state.mech.slides[self.slide]
+        c, d = self.roles["C"], self.roles["D"]
+        lever = self.links[0]
+        runs = gather(state, lever, state.owned_by(self))
+        by_c = by_name(state, c, lever)
+        block = state.body_name(("pin", d)) if d in state.elements else "frame"
+        start = perpendicular(builder, 0j, every(runs), c, d, lever, by_c, pos, self.name)
+        end, ends = lay(builder, start, runs)
+        normal = left_normal(pos, slide)
+        meet = intersect_lines(
+            builder, self, (end, normal, Component.NORMAL, f"line through the end normal to the slot of {lever}: "
+                            f"{force_label(block, lever)}, acting through {d}"),
+            (0j, pos[d] - pos[c], Component.ALONG_LINK, f"line along {c}{d} through the start: the part of "
+             f"{force_label(by_c, lever)} along {c}{d}"), f"the close of the polygon of {lever}")
+        push = result(builder, end, meet, force_label(block, lever), f"the block's force on the slot at {d}, normal "
+                      "to the slot", Component.NORMAL, points=(d,), links=(lever,))
+        state.react(c, lever, result(builder, meet, start, force_label(by_c, lever), f"the force at {c}",
+                                     points=(c,), links=(lever,)))
+        pins_carried(builder, state, lever, runs, ends)
+        state.guide_reaction(slide, -dot(normal, push), block_known=True, guide_known=False)
 
     def loop_check(self, mech: Mechanism):
         """The crank and slotted lever's verdict, for a lever pivoted on the ground."""

@@ -25,6 +25,19 @@ from .base import (
     refuse,
     sliding_jerk_terms,
 )
+from .force_steps import (
+    ForceState,
+    by_name,
+    every,
+    force_label,
+    gather,
+    intersect_lines,
+    lay,
+    left_normal,
+    perpendicular,
+    pins_carried,
+    result,
+)
 from .loops import LoopCheck, distance_from_line, driving_crank, length
 from .polygon_steps import coriolis_step, image_steps, radial_step
 from .poses import IN_LINE_DEG, angle_between_lines, toggle_warnings, vector
@@ -176,6 +189,36 @@ class RRPGroup(Group):
                   f"{slide.line[0]} towards {slide.line[1]}", role=Role.RESULT, points=(d,))
         placed.add(d)
         image_steps(ab, frame, link, placed, "acc")
+
+    def force_steps(self, builder: PolygonBuilder, state: ForceState):
+        """The rod and its block together: the moments about D give the part of the force at A across
+        AD (laid); the guide's force, normal to the guide, and the line along AD close the polygon.
+        The guide's force acts through D: the block is a pin on the guide line, so the moment
+        condition of rod and block puts its line of action there."""
+        pos = state.pos
+        slide = state.mech.slides[self.slide]
+        a, d = self.roles["A"], self.roles["D"]
+        rod = self.links[0]
+        runs = gather(state, rod, state.owned_by(self), last=(d,))
+        by_a = by_name(state, a, rod)
+        guide = "frame" if slide.guide == GROUND else slide.guide
+        block = state.body_name(("pin", d))
+        start = perpendicular(builder, 0j, every(runs), a, d, rod, by_a, pos, self.name)
+        end, ends = lay(builder, start, runs)
+        normal = left_normal(pos, slide)
+        meet = intersect_lines(
+            builder, self, (end, normal, Component.NORMAL, f"line through the end normal to the guide "
+                            f"{slide.line[0]}{slide.line[1]}: {force_label(guide, block)}, acting through {d}"),
+            (0j, pos[d] - pos[a], Component.ALONG_LINK, f"line along {a}{d} through the start: the part of "
+             f"{force_label(by_a, rod)} along {rod}"), f"the close of the polygon of {rod} and its block")
+        push = result(builder, end, meet, force_label(guide, block), f"the guide's force on the block at {d}, normal "
+                      "to the guide", Component.NORMAL, points=(d,), links=(rod,))
+        state.react(a, rod, result(builder, meet, start, force_label(by_a, rod), f"the force at {a}", points=(a,),
+                                   links=(rod,)))
+        state.joints.setdefault(d, {})[rod] = result(builder, ends[("pin", d)][0], meet, force_label(block, rod),
+                                                     f"the force at {d} on {rod}", points=(d,), links=(rod,))
+        pins_carried(builder, state, rod, runs[:-1], ends)
+        state.guide_reaction(slide, dot(normal, push), block_known=False, guide_known=True)
 
     def pose_warnings(self, mech: Mechanism, xy: dict) -> list:
         a, d = self.roles["A"], self.roles["D"]

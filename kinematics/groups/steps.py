@@ -45,6 +45,15 @@ class Component(Enum):
     TANGENTIAL = "tangential"
     SLIDING = "sliding"
     CORIOLIS = "coriolis"
+    # The force polygon's (kinematics.groups.force_steps):
+    INERTIA = "inertia"
+    LOAD = "load"
+    GRAVITY = "gravity"
+    PERPENDICULAR = "perpendicular"
+    ALONG_LINK = "along-link"
+    NORMAL = "normal"
+    REACTION = "reaction"
+    TORQUE = "torque"
 
 
 @dataclass(frozen=True)
@@ -56,7 +65,8 @@ class Step:
     shapely Point or LineString, made when first asked for (a drag frame draws from ``coords``
     alone). ``points`` and ``links`` name what the step concerns; a radial, tangential or
     Coriolis vector names in ``about`` the point its point's motion is taken relative to (for a
-    Coriolis component, the link that carries the slide).
+    Coriolis component, the link that carries the slide). A force step may also locate itself in
+    the space diagram, in metres (``space``): its line of action, or the arm of the drive torque.
     """
 
     id: str
@@ -74,6 +84,7 @@ class Step:
     angle_between_deg: float | None = None
     flagged: bool = False
     numeric: bool = False
+    space: tuple = ()
 
     @cached_property
     def geometry(self):
@@ -191,9 +202,11 @@ class PolygonBuilder:
         self.add(Role.INTERSECTION, None, label, (point,), extra.pop("equation", ""), text,
                  condition=condition, angle_between_deg=angle, flagged=flagged, links=tuple(group.links), **extra)
 
-    def finish(self, images: dict, box_mm: float, scale: float | None) -> Polygon:
+    def finish(self, images: dict, box_mm: float, scale: float | None, also: tuple = ()) -> Polygon:
+        """The finished polygon; ``also`` lists further points (complex) its extent must take in (the
+        force polygon's vertices, which are no images)."""
         images = {k: as_xy(v) for k, v in images.items()}
-        everything = list(images.values()) + list(self.marks.values()) + [(0.0, 0.0)]
+        everything = list(images.values()) + list(self.marks.values()) + [(0.0, 0.0)] + [as_xy(z) for z in also]
         extent = max(math.hypot(*xy) for xy in everything)
         margin = 0.12 * max(extent, 1e-12)
         for index, fields, through, direction, *meet in self.lines:

@@ -39,7 +39,8 @@ def _unit(unit: str, table: dict, what: str, where: str) -> float:
 def _number(value, what: str, where: str) -> float:
     if isinstance(value, bool) or not isinstance(value, (int, float)) or not math.isfinite(value):
         raise FileFormatError(f"{what} must be a finite number, not {value!r}", where)
-    return float(value)
+    # A whole number stays one, so that a file saves as it was written.
+    return value if isinstance(value, int) else float(value)
 
 
 def _vector(value, what: str, where: str) -> tuple[float, float]:
@@ -152,7 +153,7 @@ class Load:
         start, end = (_number(v, "over_deg", where) for v in value)
         if math.isclose(math.remainder(end - start, 360.0), 0.0, abs_tol=1e-9):
             raise FileFormatError(f"over_deg [{start:g}, {end:g}] starts and ends at the same angle; leave "
-                                  "over_deg out for a load that acts at every angle", where)
+                                  "over_deg out for a load that acts at every angle", where, "geometry")
         return (start, end)
 
     @property
@@ -229,7 +230,7 @@ class MassData:
                     or any(p.mass_kg > 0 for p in self.point_masses.values()) or self.loads)
 
     def check(self, mechanism) -> None:
-        """Refuse what does not fit ``mechanism``: an unknown link or point, a load on the
+        """Refuse (``kind="reference"``) what does not fit ``mechanism``: an unknown link or point, a load on the
         frame, a point mass on a fixed point, a load's link that does not hold its point."""
         for link in self.masses:
             _moving_link(mechanism, link, f"masses.{link}")
@@ -237,7 +238,7 @@ class MassData:
             _known_point(mechanism, point, f"point_masses.{point}")
             if point in mechanism.ground:
                 raise FileFormatError(f"point {point} is fixed: a mass there is part of the frame and takes "
-                                      "no part in the motion", f"point_masses.{point}")
+                                      "no part in the motion", f"point_masses.{point}", "reference")
         for load in self.loads.values():
             where = f"loads.{load.name}"
             if load.link is not None:
@@ -246,19 +247,20 @@ class MassData:
                 continue
             _known_point(mechanism, load.point, f"{where}.point")
             if load.link is not None and load.point not in mechanism.links[load.link]:
-                raise FileFormatError(f"link {load.link} does not hold point {load.point}", f"{where}.link")
+                raise FileFormatError(f"link {load.link} does not hold point {load.point}", f"{where}.link",
+                                      "reference")
             if load.link is None and load.point in mechanism.ground:
                 raise FileFormatError(f"point {load.point} is fixed: a force there acts on the frame; name the "
-                                      "link it acts on", f"{where}.point")
+                                      "link it acts on", f"{where}.point", "reference")
 
 
 def _known_point(mechanism, point: str, where: str) -> None:
     if point not in mechanism.points:
-        raise FileFormatError(f'unknown point "{point}"', where)
+        raise FileFormatError(f'unknown point "{point}"', where, "reference")
 
 
 def _moving_link(mechanism, link: str, where: str) -> None:
     if link == GROUND:
-        raise FileFormatError("the frame does not move: masses and loads go on moving links", where)
+        raise FileFormatError("the frame does not move: masses and loads go on moving links", where, "reference")
     if link not in mechanism.links:
-        raise FileFormatError(f'unknown link "{link}"', where)
+        raise FileFormatError(f'unknown link "{link}"', where, "reference")

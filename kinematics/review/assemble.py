@@ -17,18 +17,18 @@ from ..solver.mobility import require_ready
 from .appendix import appendix_section
 from .base import OutlineEntry, Progress, Report, Review, SectionBuilder, fingerprint
 from .cycle import cycle_section
+from .forces import forces_section
 from .front import checks_section, cover_section
 from .poses import poses_section
 
-# The report's sections, in order. The force pages (turning-moment diagram with its mean, joint
-# forces, the drive and flywheel summary, the polar diagram of the most loaded pin) plug in as one
-# more SectionBuilder after "cycle": its build(review, progress) reads the mass data and returns a
-# Section, or None for a file without mass data. Nothing else in the report needs to change.
+# The report's sections, in order; a builder returning None leaves its section out (the force pages
+# of a file without mass data).
 SECTION_BUILDERS = (
     SectionBuilder("cover", cover_section, 1.0),
     SectionBuilder("checks", checks_section, 2.0),
     SectionBuilder("analysis angles", poses_section, 3.0),
     SectionBuilder("cycle", cycle_section, 4.0),
+    SectionBuilder("forces", forces_section, 3.0),
     SectionBuilder("appendix", appendix_section, 0.5),
 )
 
@@ -88,6 +88,7 @@ def build_report(mechanism: Mechanism, source: bytes, file_name: str = "", paper
     furnished = tuple(furnish(sheet, review.title, header_right, footer_left, i + 1, len(sheets))
                       for i, sheet in enumerate(sheets))
     subject = (f"Design review of {file_name or review.title}: checks, constructions at the analysis angles, "
-               f"the cycle in {steps:,} steps, the mechanism's data")
+               f"the cycle in {steps:,} steps, {'the forces, ' if any(s.title == 'Forces' for s in built) else ''}"
+               "the mechanism's data")
     return Report(title=f"{review.title}: design review", subject=subject, fingerprint=review.fingerprint,
                   sheets=furnished, outline=tuple(outline))

@@ -23,7 +23,7 @@ PLOT_GAP = 8.0  # mm between plots on a page
 ANGLE = "driver angle θ [°]"
 
 
-def _abscissa(result):
+def abscissa(result):
     """(driver angles as plotted, order of the poses, fixed x range): a full turn wrapped to
     [0°, 360°) and read from 0°, a rocking driver's range in increasing angle less its outer
     DEAD_POINT_SHARE at each end, where speeds grow without bound (as the peaks leave it out)."""
@@ -37,7 +37,7 @@ def _abscissa(result):
     return angles[order], order, None
 
 
-def _marks(review: Review, result) -> tuple:
+def analysis_marks(review: Review, result) -> tuple:
     marks = []
     for angle in review.angles_deg:
         if angle is not None:
@@ -45,7 +45,7 @@ def _marks(review: Review, result) -> tuple:
     return tuple(marks)
 
 
-def _page(review: Review, heading: str, plots: list, note: str) -> object:
+def plot_page(review: Review, heading: str, plots: list, note: str) -> object:
     """One page: the heading and a note under it, then the plots stacked in the body."""
     x0, y0, x1, y1 = body_box(review.paper)
     rec = Recorder()
@@ -123,8 +123,8 @@ def cycle_section(review: Review, progress: Progress) -> Section:
         pages = paginate([Heading("The cycle"), Paragraph(f"The cycle was not swept: {err}.")],
                          review.paper, review.title)
         return Section("Cycle", tuple(pages))
-    x, order, x_range = _abscissa(result)
-    marks = _marks(review, result)
+    x, order, x_range = abscissa(result)
+    marks = analysis_marks(review, result)
     note = "" if result.full_turn else (
         f"The driver rocks between its dead points {result.range_deg[0]:.2f}° and {result.range_deg[1]:.2f}°; "
         f"the outer {100 * DEAD_POINT_SHARE:g} % of that range at each end is left out, where speeds grow "
@@ -141,7 +141,7 @@ def cycle_section(review: Review, progress: Progress) -> Section:
             heading = " and ".join(kinds).capitalize()
         for start in range(0, len(plots), 3):
             entries.append((heading, len(pages)) if start == 0 else (f"{heading} (continued)", len(pages)))
-            pages.append(_page(review, heading, plots[start:start + 3], note))
+            pages.append(plot_page(review, heading, plots[start:start + 3], note))
         progress.check(0.6 + 0.3 * (i + 1) / len(groups))
     rocking = "" if result.full_turn else (f" The driver rocks between its dead points {result.range_deg[0]:.2f}° "
                                            f"and {result.range_deg[1]:.2f}°.")

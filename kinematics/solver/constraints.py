@@ -32,8 +32,7 @@ class ConstraintSystem:
 
     ``names`` orders the points; ``x0`` is the reference pose (n, 2);
     ``free`` marks the points that move; rows a, b, c, d index points;
-    ``owner`` says, per row, which link or slide it comes from; ``selectors`` are the (m, 2, 2n)
-    arrays saying which coordinate each row's first and second difference moves.
+    ``owner`` says, per row, which link or slide it comes from.
     """
 
     names: tuple
@@ -47,7 +46,6 @@ class ConstraintSystem:
     k: np.ndarray
     weight: np.ndarray
     owner: tuple
-    selectors: tuple
     driver_pivot: int
     driver_point: int
 
@@ -61,16 +59,26 @@ class ConstraintSystem:
         return (_product(self.kind, x[..., self.a, :] - x[..., self.b, :],
                          x[..., self.c, :] - x[..., self.d, :]) - self.k) * self.weight
 
-    def jacobian(self, x: np.ndarray) -> np.ndarray:
-        """d(values)/d(flattened coordinates of all points), shape (..., m, 2n)."""
-        u = x[..., self.a, :] - x[..., self.b, :]
-        v = x[..., self.c, :] - x[..., self.d, :]
-        keep, turn_first, turn_second = self.factors
+    def jacobian(self, x: np.ndarray, rows: np.ndarray | None = None) -> np.ndarray:
+        """d(values)/d(flattened coordinates of all points), shape (..., m, 2n); only ``rows`` if given."""
+        rows = np.arange(len(self.kind)) if rows is None else np.asarray(rows, dtype=int)
+        a, b, c, d = self.a[rows], self.b[rows], self.c[rows], self.d[rows]
+        u = x[..., a, :] - x[..., b, :]
+        v = x[..., c, :] - x[..., d, :]
+        keep, turn_first, turn_second = (f[rows] for f in self.factors)
         # dot: d/du = v, d/dv = u; cross: d/du = (v_y, −v_x), d/dv = (−u_y, u_x).
         du = v * keep + v[..., ::-1] * turn_first
         dv = u * keep + u[..., ::-1] * turn_second
-        first, second = self.selectors
-        return np.einsum("...ik,ikj->...ij", du, first) + np.einsum("...ik,ikj->...ij", dv, second)
+        # Each row touches at most four points: its derivatives are placed, not multiplied out of
+        # dense selectors (which took (m, 2, 2n) memory, gigabytes for a link of ten thousand points).
+        # Within one assignment every row appears once, so no placement overwrites another.
+        place = np.arange(len(rows))
+        jac = np.zeros(x.shape[:-2] + (len(rows), 2 * len(self.names)))
+        for gradient, plus, minus in ((du, a, b), (dv, c, d)):
+            for k in (0, 1):
+                jac[..., place, 2 * plus + k] += gradient[..., k]
+                jac[..., place, 2 * minus + k] -= gradient[..., k]
+        return jac
 
     @cached_property
     def factors(self):
@@ -102,7 +110,7 @@ def _product(kind, u, v):
 def build_system(mechanism: Mechanism) -> ConstraintSystem:
     """The constraint rows of the links and slides of ``mechanism``."""
     names = tuple(mechanism.points)
-    free, (kind, a, b, c, d), owner, selectors = _rows(names, tuple(mechanism.links.items()),
+    free, (kind, a, b, c, d), owner = _rows(names, tuple(mechanism.links.items()),
                                                        tuple(mechanism.slides.values()), mechanism.ground)
     k_m = mechanism.metres_per_unit
     x0 = np.array([mechanism.points[n] for n in names], dtype=float).reshape(-1, 2) * k_m
@@ -117,13 +125,13 @@ def build_system(mechanism: Mechanism) -> ConstraintSystem:
         pivot = names.index(mechanism.driver.pivot)
         point = names.index(next(p for p in mechanism.links[mechanism.driver.link] if p != mechanism.driver.pivot))
     return ConstraintSystem(names=names, x0=x0, free=free, kind=kind, a=a, b=b, c=c, d=d, k=k,
-                            weight=weight, owner=owner, selectors=selectors, driver_pivot=pivot, driver_point=point)
+                            weight=weight, owner=owner, driver_pivot=pivot, driver_point=point)
 
 
 @lru_cache(maxsize=64)
 def _rows(names: tuple, links: tuple, slides: tuple, ground: tuple):
-    """(free, (kind, a, b, c, d), owner, selectors) of a topology: which points move, each constraint
-    row's kind, point indices and owning link or slide, and the rows' selectors. They follow from the
+    """(free, (kind, a, b, c, d), owner) of a topology: which points move, and each constraint
+    row's kind, point indices and owning link or slide. They follow from the
     names alone, so a drag, which makes a new mechanism each frame, works them out once (the arrays
     are read-only)."""
     index = {name: i for i, name in enumerate(names)}
@@ -143,18 +151,9 @@ def _rows(names: tuple, links: tuple, slides: tuple, ground: tuple):
     # Rows that touch no moving point hold by themselves.
     moving = free[table[:, 1:]].any(axis=1)
     table = np.ascontiguousarray(table[moving].T)
-    m = table.shape[1]
-    row, k = np.arange(m)[:, None], np.arange(2)[None, :]
-    selectors = []
-    for plus, minus in ((table[1], table[2]), (table[3], table[4])):
-        chosen = np.zeros((m, 2, 2 * len(names)))
-        np.add.at(chosen, (row, k, 2 * plus[:, None] + k), 1.0)  # add.at: plus and minus may be one point
-        np.add.at(chosen, (row, k, 2 * minus[:, None] + k), -1.0)
-        selectors.append(chosen)
-    for array in (free, table, *selectors):
+    for array in (free, table):
         array.flags.writeable = False
-    return (free, tuple(table), tuple(r[5] for r, keep in zip(rows, moving.tolist(), strict=True) if keep),
-            tuple(selectors))
+    return free, tuple(table), tuple(r[5] for r, keep in zip(rows, moving.tolist(), strict=True) if keep)
 
 
 def constraint_system(mechanism: Mechanism) -> ConstraintSystem:

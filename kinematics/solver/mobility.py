@@ -9,6 +9,7 @@ from dataclasses import dataclass
 import numpy as np
 
 from ..errors import MechanismFindings
+from ..model.limits import beyond_limits
 from ..model.mechanism import GROUND, Mechanism
 from ..model.memo import remembered
 from .constraints import constraint_system
@@ -66,12 +67,30 @@ def redundancy(mech: Mechanism) -> Redundancy:
     return remembered(mech, "redundancy", lambda: _redundancy(mech))
 
 
+def _private_points(mech: Mechanism) -> set:
+    """Moving points past the first two of exactly one link and on no slide.
+
+    Such a point's two rows (dot and cross with its link's first two points, which lie apart) are
+    the only rows that move it, and are independent on its own two coordinates: each adds exactly
+    2 to the rank and 2 unknowns, and takes part in no dependency. The rank test leaves them out,
+    so a link of ten thousand points costs what a link of two does."""
+    on_slides = {p for slide in mech.slides.values() for p in (slide.point, *slide.line)}
+    links_of = {}
+    for pts in mech.links.values():
+        for p in pts:
+            links_of[p] = links_of.get(p, 0) + 1
+    return {p for pts in mech.links.values() for p in pts[2:]
+            if links_of[p] == 1 and p not in on_slides and p not in mech.ground}
+
+
 def _redundancy(mech: Mechanism) -> Redundancy:
     system = constraint_system(mech)
-    loose = set(loose_points(mech))
-    keep = [i for i, n in enumerate(system.names) if system.free[i] and n not in loose]
+    skipped = set(loose_points(mech)) | _private_points(mech)
+    keep = [i for i, n in enumerate(system.names) if system.free[i] and n not in skipped]
     columns = np.array([2 * i + k for i in keep for k in (0, 1)], dtype=int)
-    jac = system.jacobian(system.x0)[:, columns] if len(system.kind) else np.zeros((0, len(columns)))
+    private = [i for i, n in enumerate(system.names) if n in skipped]
+    rows = np.flatnonzero(~np.isin(system.c, private))
+    jac = system.jacobian(system.x0, rows)[:, columns] if len(rows) else np.zeros((0, len(columns)))
     rank = _rank(jac)
     mobility = len(columns) - rank
     if rank == len(jac):
@@ -79,7 +98,7 @@ def _redundancy(mech: Mechanism) -> Redundancy:
     # The left null space holds the dependencies among the rows: a row with weight in it repeats others.
     left, singular, _ = np.linalg.svd(jac, full_matrices=True)
     weight = np.linalg.norm(left[:, rank:], axis=1)
-    owners = np.array(system.owner, dtype=object)
+    owners = np.array(system.owner, dtype=object)[rows]
     order = [*mech.links, *mech.slides]
     involved = tuple(o for o in order if (weight[owners == o] > INVOLVED).any())
     removable = tuple(o for o in involved if _rank(jac[owners != o]) == rank)
@@ -130,6 +149,9 @@ def _too_small(mech: Mechanism) -> list:
 
 
 def _diagnose(mech: Mechanism) -> list:
+    place, why = beyond_limits(len(mech.points), len(mech.links), len(mech.slides))
+    if why:  # a design built in code, past the limits the file format keeps
+        return [Finding(place, why)]
     findings = _too_small(mech)
     if findings:
         return findings

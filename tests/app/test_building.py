@@ -1,5 +1,6 @@
 """Building a mechanism from nothing with real clicks, and the pure building edits."""
 
+import copy
 import json
 import math
 
@@ -11,6 +12,7 @@ import kinematics
 from app import building
 from app.building import BuildError
 from tests.designs import CARTON_PUSHER, CLAW_FEED, load
+from tests.kinematics.test_schema_agreement import FORMAT_2
 
 
 def click_at(window, x_mm, y_mm):
@@ -188,3 +190,14 @@ def test_random_building_never_fails(make_window):
     while doc.undo_stack.canUndo():
         doc.undo_stack.undo()
     assert not doc.mechanism.points
+
+
+def test_deleting_or_fixing_a_joint_drops_the_mass_data_it_leaves_without_a_place():
+    # A slider-crank with steel links, a block and a cutting force at D and a brake on the rod.
+    mech = kinematics.load_mechanism(copy.deepcopy(FORMAT_2[0]))
+    gone = building.delete_point(mech, "D")  # the rod goes with D, and so do the block and the cutting force
+    assert set(gone.mass_data.masses) == {"crank"} and not gone.mass_data.point_masses
+    assert set(gone.mass_data.loads) == set()  # the brake acted on the rod
+    fixed = building.set_fixed(mech, "D", True)
+    assert not fixed.mass_data.point_masses and "cutting" not in fixed.mass_data.loads
+    assert "brake" in fixed.mass_data.loads

@@ -56,7 +56,7 @@ def test_outline_has_each_section_and_each_analysis_angle(qapp, stephenson_repor
     reader = PdfReader(stephenson_report)
     outline = _outline(reader)
     assert [title for title, _, _ in outline] == ["Cover", "Checks", "Construction at the analysis angles", "Cycle",
-                                                  "Appendix: mechanism data"]
+                                                  "Forces", "Appendix: mechanism data"]
     angles = outline[2][2]
     assert [title for title, _ in angles] == ["θ = 30°", "θ = 150°", "θ = 270°"]
     # Each angle's entry leads to its construction sheet; the pages are in order and all in the file.
@@ -116,6 +116,42 @@ def test_plots_are_vector_paths_not_images(qapp, stephenson_report):
             # A curve of the 720-pose cycle is one path of hundreds of points.
             assert max(len(c["pts"]) for c in page.curves) >= 700, title
         assert "driver angle θ [°]" in _flat(pdf.pages[cycle[0][1] - 1].extract_text())
+
+
+def test_the_force_pages_say_what_kinepoly_forces_cycle_prints(qapp, stephenson_report, capsys):
+    """The Stephenson sample carries steel links, a product at P and gravity (samples/README.md)."""
+    forces = dict((title, (page, children)) for title, page, children in _outline(PdfReader(stephenson_report)))
+    assert [title for title, _ in forces["Forces"][1]] == ["Turning-moment diagram and joint forces",
+                                                           "Drive, flywheel and bearings",
+                                                           "Polar diagram of the most loaded pin"]
+    pages = dict(forces["Forces"][1])
+    assert core_main(["forces", str(STEPHENSON), "--cycle", "--steps", "720"]) == 0
+    printed = capsys.readouterr().out
+    with pdfplumber.open(stephenson_report) as pdf:
+        plots = pdf.pages[pages["Turning-moment diagram and joint forces"] - 1]
+        words = _flat(plots.extract_text())
+        assert "Turning-moment diagram: drive torque on crank (CCW positive)" in words
+        assert "Forces of frictionless rigid joints (no friction is modelled)" in words
+        # Gravity alone does no work over a turn: the mean drive torque is 0 (to rounding, shown as 0).
+        assert "mean 0 N·m" in words and "mean drive torque 0 N·m" in _flat(printed)
+        assert "Joint force magnitudes" in words and "T [N·m]" in words
+        assert plots.images == [] and max(len(c["pts"]) for c in plots.curves) >= 700
+        summary = _flat(pdf.pages[pages["Drive, flywheel and bearings"] - 1].extract_text())
+        for line in printed.split("\n\nCaution")[0].splitlines():
+            if line.strip():
+                assert _flat(line) in summary, line
+        assert _flat(kinematics.CAUTION) in summary
+        polar = pdf.pages[pages["Polar diagram of the most loaded pin"] - 1]
+        assert "Polar diagram of the force on " in _flat(polar.extract_text())
+        assert "Fx [N]" in _flat(polar.extract_text()) and "Fy [N]" in _flat(polar.extract_text())
+        # The vector's tip over the 720 poses, closed: one path of 721 points.
+        assert max(len(c["pts"]) for c in polar.curves) >= 721
+
+
+def test_a_design_without_mass_data_has_no_force_pages(qapp, tmp_path):
+    out = tmp_path / "r.pdf"
+    assert kinepoly(["report", str(SAMPLES / "label-swing-arm.json"), "--steps", "360", "-o", str(out)]) == 0
+    assert "Forces" not in [title for title, _, _ in _outline(PdfReader(out))]
 
 
 @pytest.mark.parametrize("sample", SAMPLE_FILES, ids=lambda p: p.stem)

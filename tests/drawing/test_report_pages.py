@@ -55,14 +55,16 @@ def test_report_has_a_sheet_and_steps_per_angle_and_every_page_furnished():
     report = build_report(load_file(STEPHENSON), STEPHENSON.read_bytes(), "arm.json", steps=360,
                           angles_deg=(30.0, 150.0))
     titles = [e.title for e in report.outline]
-    assert titles == ["Cover", "Checks", "Construction at the analysis angles", "Cycle", "Appendix: mechanism data"]
+    # The sample carries mass data (samples/README.md), so its forces have their section.
+    assert titles == ["Cover", "Checks", "Construction at the analysis angles", "Cycle", "Forces",
+                      "Appendix: mechanism data"]
     assert [c.title for c in report.outline[2].children] == ["θ = 30°", "θ = 150°"]
     for sheet in report.sheets:
         assert sheet.width == pytest.approx(210.0) and sheet.height == pytest.approx(297.0)
     n = len(report.sheets)
     assert all(any(isinstance(p, Text) and p.text == f"page {i} of {n}" for p in s.primitives)
                for i, s in enumerate(report.sheets, start=1))
-    assert [b.name for b in SECTION_BUILDERS] == ["cover", "checks", "analysis angles", "cycle", "appendix"]
+    assert [b.name for b in SECTION_BUILDERS] == ["cover", "checks", "analysis angles", "cycle", "forces", "appendix"]
 
 
 def test_report_of_a_rocking_driver_marks_an_angle_that_cannot_assemble():
@@ -82,3 +84,15 @@ def load_file(path):
     import kinematics
 
     return kinematics.load_mechanism(path)
+
+
+def test_the_appendix_states_the_masses_and_loads_as_the_file_does():
+    # A sample with mass data (format 2): the appendix lists every link mass, point mass and load,
+    # so the report stands alone.
+    path = SAMPLES / "cap-press-feeder.json"
+    mech = load(path)
+    report = build_report(mech, path.read_bytes(), file_name=path.name, steps=36)
+    words = " ".join(p.text for sheet in report.sheets for p in sheet.primitives if isinstance(p, Text))
+    assert "Masses and loads" in words and "Frictionless joints." in words
+    for name in (*mech.mass_data.masses, *mech.mass_data.point_masses, *mech.mass_data.loads):
+        assert name in words

@@ -10,7 +10,7 @@ import jsonschema
 import pytest
 
 import kinematics
-from kinematics.files.fileschema import SCHEMA_PATH
+from kinematics.files.fileschema import SCHEMA_FILES, schema
 from tests.designs import SAMPLE_FILES, SAMPLES, four_bar, slider_crank
 
 
@@ -23,13 +23,14 @@ def refusal(doc) -> str:
 @pytest.mark.parametrize("path", SAMPLE_FILES, ids=lambda p: p.name)
 def test_every_sample_loads_passes_the_schema_and_saves_identical(path):
     doc = json.loads(path.read_text())
-    jsonschema.Draft202012Validator(json.loads(SCHEMA_PATH.read_text())).validate(doc)
+    jsonschema.Draft202012Validator(schema(doc["kinepoly"])).validate(doc)
     mech = kinematics.load_mechanism(path)
     assert json.loads(kinematics.dumps(mech)) == doc
 
 
-def test_schema_is_a_valid_draft_2020_12_schema():
-    jsonschema.Draft202012Validator.check_schema(json.loads(SCHEMA_PATH.read_text()))
+@pytest.mark.parametrize("version", sorted(SCHEMA_FILES))
+def test_schema_is_a_valid_draft_2020_12_schema(version):
+    jsonschema.Draft202012Validator.check_schema(schema(version))
 
 
 def test_extensions_are_kept_and_unfinished_designs_load():
@@ -44,7 +45,7 @@ def test_extensions_are_kept_and_unfinished_designs_load():
 MESSAGES = [
     (lambda d: d["links"]["coupler"].append("Q"), 'links.coupler[2]: unknown point "Q"'),
     (lambda d: d["links"].update(rod=["A"]), "links.rod: a link needs at least two points"),
-    (lambda d: d.update(kinepoly=2), "kinepoly: this file is format version 2; this Kinepoly reads version 1 "
+    (lambda d: d.update(kinepoly=3), "kinepoly: this file is format version 3; this Kinepoly reads versions 1 to 2 "
                                       "(a newer Kinepoly wrote it)"),
     (lambda d: d["points"].update(a=[1, 2]), 'points.a: name "a" clashes with "A" (names must differ ignoring case)'),
     (lambda d: d["points"].update(ground=[1, 2]), 'points.ground: "ground" is reserved'),

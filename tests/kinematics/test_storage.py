@@ -14,17 +14,22 @@ import pytest
 import kinematics
 from kinematics.errors import StorageError
 from kinematics.files.storage import read_recovery, save_mechanism, write_recovery
+from kinematics.model.limits import MAX_LINKS_AND_SLIDES
 from tests.designs import SAMPLES
 
 KILLS = 200 if os.environ.get("KINEPOLY_FULL") else 20
 
 
 def big_design(offset: float) -> dict:
-    """A long chain of links (about 300 kB of JSON): a save takes milliseconds, long enough to be cut."""
-    points = {f"P{i}": [i * 1.0 + offset, (i % 7) * 1.0] for i in range(6000)}
-    links = {f"bar{i}": [f"P{i}", f"P{i + 1}"] for i in range(5999)}
+    """A chain of links as long as the format allows, and a shop's 300 kB of own data (an ``x-`` key kept
+    as it is): a save takes milliseconds, long enough to be cut."""
+    points = {f"P{i}": [i * 1.0 + offset, (i % 7) * 1.0] for i in range(CHAIN)}
+    links = {f"bar{i}": [f"P{i}", f"P{i + 1}"] for i in range(CHAIN - 1)}
     return {"kinepoly": 1, "title": f"chain {offset}", "length_unit": "mm", "points": points,
-            "ground": ["P0"], "links": links}
+            "ground": ["P0"], "links": links, "x-shop": {"log": ["cut and welded, batch 7"] * 12000}}
+
+
+CHAIN = MAX_LINKS_AND_SLIDES + 1  # points; one link fewer
 
 
 def test_save_keeps_one_backup_and_saves_identical(tmp_path):
@@ -119,5 +124,5 @@ def test_killed_while_saving_leaves_the_old_or_the_new_design(tmp_path):
         process.wait()
         loaded = kinematics.load_mechanism(target)
         assert loaded.title in titles
-        assert len(loaded.points) == 6000
-        assert loaded.points["P5999"][0] in (5999.0, 5999.5)
+        assert len(loaded.points) == CHAIN and len(loaded.extensions["x-shop"]["log"]) == 12000
+        assert loaded.points[f"P{CHAIN - 1}"][0] in (CHAIN - 1.0, CHAIN - 0.5)
