@@ -15,6 +15,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
+from ..errors import KinematicsError
 from ..model.mechanism import Mechanism
 from .base import (
     REACH_TOLERANCE,
@@ -219,6 +220,11 @@ class ActuatorGroup(Group):
         placed.update((c, b))
         for link in self.links:
             image_steps(ab, frame, link, placed, "acc")
+
+    def force_steps(self, builder, state):
+        """The cylinder's force polygon is not drawn yet: refused in words, naming the cylinder."""
+        raise KinematicsError(f"the force polygon of a cylinder-driven design is not drawn yet ({self.name})",
+                              self.name)
 
     def pose_warnings(self, mech: Mechanism, xy: dict) -> list:
         c, b, a = (self.roles[k] for k in "CBA")
