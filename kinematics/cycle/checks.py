@@ -7,13 +7,11 @@ from __future__ import annotations
 
 from ..errors import KinematicsError
 from ..groups.decompose import decompose
-from ..groups.loops import LoopCheck, grashof_class
 from ..model.mechanism import Mechanism
-from .measures import output_motion, transmission_angles
 from .peaks import peaks
 from .sweep import sweep
 
-__all__ = ["LoopCheck", "grashof_class", "loop_checks", "output_motion", "report", "transmission_angles"]
+__all__ = ["loop_checks", "report"]
 
 
 def loop_checks(mech: Mechanism) -> list:

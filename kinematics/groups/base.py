@@ -207,6 +207,14 @@ class Frame:
         return unit(self.pos[f] - self.pos[e]), self.pos[e]
 
 
+def sign_along_slide(mech: Mechanism, slide: str, start: str, end: str) -> float:
+    """+1 when the vector from point ``start`` to ``end`` runs the way of the slide's line (from its
+    first point towards its second) in the reference pose, else −1: the branch a slide group keeps."""
+    (sx, sy), (px, py) = mech.position_m(start), mech.position_m(end)
+    (ex, ey), (fx, fy) = (mech.position_m(p) for p in mech.slides[slide].line)
+    return 1.0 if (px - sx) * (fx - ex) + (py - sy) * (fy - ey) >= 0 else -1.0
+
+
 def refuse(frame: Frame, where: str, message: str, bad):
     """Mark (or, strictly, refuse with CannotAssemble) the poses where ``bad``."""
     if not frame.strict:

@@ -23,6 +23,7 @@ from .base import (
     known_jerk,
     radial,
     refuse,
+    sign_along_slide,
     sliding_jerk_terms,
     unit,
 )
@@ -51,9 +52,7 @@ class RPRGroup(Group):
     notation = "RPR"
 
     def branch_sign(self, mech: Mechanism) -> float:
-        (cx, cy), (dx, dy) = mech.position_m(self.roles["C"]), mech.position_m(self.roles["D"])
-        (ex, ey), (fx, fy) = (mech.position_m(p) for p in mech.slides[self.slide].line)
-        return 1.0 if (dx - cx) * (fx - ex) + (dy - cy) * (fy - ey) >= 0 else -1.0
+        return sign_along_slide(mech, self.slide, self.roles["C"], self.roles["D"])
 
     def reach_message(self, mech: Mechanism) -> str:
         return f"the slot of link {self.links[0]} cannot pass through point {self.roles['D']}"

@@ -23,6 +23,7 @@ from .base import (
     known_jerk,
     radial,
     refuse,
+    sign_along_slide,
     sliding_jerk_terms,
 )
 from .force_steps import (
@@ -51,9 +52,7 @@ class RRPGroup(Group):
     notation = "RRP"
 
     def branch_sign(self, mech: Mechanism) -> float:
-        (ax, ay), (dx, dy) = mech.position_m(self.roles["A"]), mech.position_m(self.roles["D"])
-        (ex, ey), (fx, fy) = (mech.position_m(p) for p in mech.slides[self.slide].line)
-        return 1.0 if (dx - ax) * (fx - ex) + (dy - ay) * (fy - ey) >= 0 else -1.0
+        return sign_along_slide(mech, self.slide, self.roles["A"], self.roles["D"])
 
     def reach_message(self, mech: Mechanism) -> str:
         carriers = [b for b in mech.bodies_of(self.roles["A"]) if b not in self.links and b != GROUND]

@@ -8,7 +8,7 @@ import pytest
 import kinematics
 from app.cli import main
 from kinematics.cycle.advantage import advantage_over_cycle, centrodes
-from kinematics.cycle.checks import output_motion
+from kinematics.cycle.measures import output_motion
 from tests.designs import CARTON_PUSHER, SAMPLE_FILES, four_bar, load, slider_crank
 
 QUICK_RETURN = next(p for p in SAMPLE_FILES if p.name.startswith("tile-trimmer"))

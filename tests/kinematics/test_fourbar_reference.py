@@ -71,7 +71,7 @@ def test_swing_angle_equals_law_of_cosines():
     """Crank-rocker swing from its two limit positions, where crank and coupler are in line:
     O2B = b − a and O2B = b + a; the rocker angle at O4 by the law of cosines  # common practice
     (e.g. Norton, Design of Machinery, 5th ed., §3.3, toggle positions  # from memory)."""
-    from kinematics.cycle.checks import output_motion
+    from kinematics.cycle.measures import output_motion
     from kinematics.cycle.sweep import sweep
 
     a, b, c, d = 40.0, 120.0, 100.0, 140.0

@@ -8,8 +8,9 @@ from hypothesis import given, settings
 from hypothesis import strategies as st
 
 import kinematics
-from kinematics.cycle.checks import grashof_class, output_motion
+from kinematics.cycle.measures import output_motion
 from kinematics.cycle.sweep import sweep, sweep_csv, verify_sweep
+from kinematics.groups.loops import grashof_class
 from tests import CASE_FACTOR
 from tests.designs import SAMPLE_FILES, SAMPLES, four_bar, slider_crank
 
