@@ -33,6 +33,7 @@ from kinematics.drawing.sheet import DASHES
 from kinematics.errors import StorageError, SweepCancelled
 from kinematics.files.storage import replace_atomically
 
+from .arguments import pose_length_m
 from .outcomes import construction_from_file, run_reporting
 
 FONT_FAMILY = "DejaVu Sans"  # Debian fonts-dejavu-core: has ω α ° ² ′ and subscripts
@@ -227,7 +228,7 @@ def run(args) -> int:
         application = QGuiApplication.instance()
 
     def action():
-        construction = construction_from_file(args.file, args.angle)
+        construction = construction_from_file(args.file, args.angle, pose_length_m(args))
         print_construction(construction, args.output, paper=args.paper, landscape=args.landscape,
                            file_name=Path(args.file).name)
 

@@ -32,8 +32,14 @@ def direction_deg(vx: float, vy: float) -> float:
 
 def solution_table(solution: Solution) -> str:
     mech = solution.mechanism
-    lines = [f"{mech.title or 'Mechanism'} — driver {mech.driver.link} at {solution.driver_angle_deg:.2f}°, "
-             f"{mech.driver.speed_rad_s:.4g} rad/s ({mech.driver.speed_value} {mech.driver.speed_unit})",
+    driver = mech.driver
+    if solution.driver_length_m is None:
+        driven = (f"driver {driver.link} at {solution.driver_angle_deg:.2f}°, {driver.speed_rad_s:.4g} rad/s "
+                  f"({driver.speed_value} {driver.speed_unit})")
+    else:
+        driven = (f"cylinder {driver.slide} at length {solution.driver_length_m * 1000:.2f} mm, extending at "
+                  f"{driver.linear_speed_m_s:.4g} m/s ({driver.linear_speed_value} {driver.linear_speed_unit})")
+    lines = [f"{mech.title or 'Mechanism'} — {driven}",
              "",
              f"{'point':<8}{'x [mm]':>10}{'y [mm]':>10}{'|v| [m/s]':>12}{'dir [°]':>9}"
              f"{'|a| [m/s²]':>13}{'dir [°]':>9}"]
