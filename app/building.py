@@ -17,6 +17,7 @@ from dataclasses import replace
 
 from kinematics import Driver, Mechanism, Slide, move_point
 from kinematics.edits.masses import mass_data_kept
+from kinematics.model.limits import MAX_LINKS_AND_SLIDES, MAX_POINTS, limit_sentence
 from kinematics.model.mechanism import GROUND, slide_offset
 
 DEFAULT_SPEED_RPM = 60.0
@@ -49,8 +50,18 @@ def _numbered(prefix):
         n += 1
 
 
+def _room_for(mech: Mechanism, what: str, bodies: int = 0) -> None:
+    """Refuse ``what`` (a joint with ``bodies`` 0, else a link or slide) where it would make a design
+    larger than Kinepoly analyses: its own loader would refuse the saved file."""
+    if not bodies and len(mech.points) >= MAX_POINTS:
+        raise BuildError(f"no room for {what}: {limit_sentence('points')}")
+    if bodies and len(mech.links) + len(mech.slides) >= MAX_LINKS_AND_SLIDES:
+        raise BuildError(f"no room for {what}: {limit_sentence('links')}")
+
+
 def add_point(mech: Mechanism, xy, fixed: bool = False) -> tuple[Mechanism, str]:
     """A new joint (or fixed pivot) at ``xy`` in the file's length unit."""
+    _room_for(mech, "another pivot" if fixed else "another joint")
     name = _fresh(mech.points, _numbered("O") if fixed else _joint_names())
     points = {**mech.points, name: (float(xy[0]), float(xy[1]))}
     ground = (*mech.ground, name) if fixed else mech.ground
@@ -70,6 +81,7 @@ def join(mech: Mechanism, names) -> tuple[Mechanism, str]:
     for existing, points in mech.links.items():
         if set(points) == set(names):
             raise BuildError(f"link {existing} already joins {', '.join(names)}")
+    _room_for(mech, "another link", bodies=1)
     name = _fresh(mech.links, _numbered("link"))
     return replace(mech, links={**mech.links, name: tuple(names)}, warnings=()), name
 
@@ -93,6 +105,7 @@ def add_slide(mech: Mechanism, point: str, e: str, f: str) -> tuple[Mechanism, s
     guide = guide_of(mech, e, f)
     if point in mech.body_points(guide):
         raise BuildError(f"{point} is on {guide} itself: it cannot slide on it")
+    _room_for(mech, "another slide", bodies=1)
     name = _fresh(mech.slides, _numbered("slide"))
     slides = {**mech.slides, name: Slide(name, point, guide, (e, f))}
     return keep_slides_on_guides(replace(mech, slides=slides, warnings=())), name

@@ -6,7 +6,6 @@
 
 from __future__ import annotations
 
-import math
 from dataclasses import dataclass
 
 from kinematics.model.units import METRES_PER_LENGTH_UNIT, rpm_from_rad_s
@@ -51,10 +50,3 @@ def sense(value: float, zero: str = "at rest") -> str:
     if value == 0.0:
         return zero
     return "CCW" if value > 0 else "CW"
-
-
-def direction_deg(x: float, y: float) -> float | None:
-    """Direction of a vector, degrees CCW from +x in [0, 360), None for a null vector."""
-    if x == 0.0 and y == 0.0:
-        return None
-    return math.degrees(math.atan2(y, x)) % 360.0

@@ -7,6 +7,7 @@ nothing else recomputes kinematics.
 
 from __future__ import annotations
 
+import threading
 import weakref
 from concurrent.futures import Future, ThreadPoolExecutor
 from concurrent.futures import TimeoutError as NotYet
@@ -18,6 +19,7 @@ from PySide6.QtGui import QUndoCommand, QUndoStack
 import kinematics
 from kinematics import KinematicsError, Mechanism
 
+from .forces_data import CycleForces, cycle_forces, pose_forces
 from .throttle import Throttle
 
 SWEEP_STEPS = 180  # 2° apart: smooth paths at drawing size, about 2 ms for a six-bar
@@ -34,6 +36,8 @@ class Analysis:
     construction: object = None
     findings: tuple = ()
     problem: str = ""
+    forces: object = None
+    forces_problem: str = ""
 
 
 def cycle(mechanism: Mechanism):
@@ -57,13 +61,14 @@ def analyse(mechanism: Mechanism, angle_deg: float | None) -> Analysis:
         construction = kinematics.construct(solution)
     except KinematicsError as error:
         return Analysis(problem=str(error))
-    return Analysis(solution=solution, construction=construction)
+    forces, forces_problem = pose_forces(solution)
+    return Analysis(solution=solution, construction=construction, forces=forces, forces_problem=forces_problem)
 
 
 class Sweeper(QObject):
     """Cycle sweeps on one worker thread, off the window's; only the latest request's result counts.
 
-    :meth:`request` returns a Future of ``(ticket, sweep)``; every result is also sent back to the
+    :meth:`request` returns a Future of ``(ticket, (sweep, cycle forces))``; every result is also sent back to the
     window's thread by ``arrived(ticket, sweep)``. A request overtaken before its turn is not swept.
     """
 
@@ -72,8 +77,16 @@ class Sweeper(QObject):
     def __init__(self, parent=None):
         super().__init__(parent)
         pool = self._pool = ThreadPoolExecutor(max_workers=1, thread_name_prefix="kinepoly-sweep")
-        # Queued requests go with the document; one already running ends on its own.
-        self.destroyed.connect(lambda *_: pool.shutdown(wait=False, cancel_futures=True))
+        gate = self._gate = _Gate()
+
+        def close(*_):
+            # Queued requests go with the document; one already running ends on its own, and its result
+            # is not sent: the worker must never emit on an object the window's thread is deleting.
+            with gate.lock:
+                gate.open = False
+            pool.shutdown(wait=False, cancel_futures=True)
+
+        self.destroyed.connect(close)
         self.latest = 0
 
     def request(self, mechanism: Mechanism) -> Future:
@@ -87,15 +100,30 @@ class Sweeper(QObject):
         self.latest += 1
 
     def _run(self, ticket: int, mechanism: Mechanism):
-        return ticket, cycle(mechanism) if ticket == self.latest else None
+        if ticket != self.latest:
+            return ticket, None
+        # The cycle's forces ride with its sweep, on the same thread: the window never waits for them.
+        result = cycle(mechanism)
+        return ticket, (result, cycle_forces(result))
 
     def _send(self, future: Future):
         if future.cancelled() or future.exception() is not None:
             return
-        try:
-            self.arrived.emit(*future.result())
-        except RuntimeError:  # the document, and this object with it, is gone
-            pass
+        with self._gate.lock:
+            if not self._gate.open:
+                return
+            try:
+                self.arrived.emit(*future.result())
+            except RuntimeError:  # the document, and this object with it, is gone
+                pass
+
+
+class _Gate:
+    """Whether a sweeper may still send, and the lock that makes closing wait for a send under way."""
+
+    def __init__(self):
+        self.lock = threading.Lock()
+        self.open = True
 
 
 class EditCommand(QUndoCommand):
@@ -136,6 +164,7 @@ class Document(QObject):
     sweep : the core's :class:`kinematics.Sweep` of one cycle, or None (unfinished, no dyad chain);
         during a drag it may be up to a tenth of a second behind ``mechanism`` (see
         :attr:`sweep_behind`); ``swept`` says it has caught up.
+    cycle_forces : :class:`app.forces_data.CycleForces` of that sweep (made with it, on the worker thread).
     path : the file it was read from or saved to, or None.
     undo_stack : QUndoStack of :class:`EditCommand`.
     """
@@ -151,6 +180,7 @@ class Document(QObject):
         self.path = path
         self.analysis = analyse(mechanism, None)
         self.sweep = None
+        self.cycle_forces = CycleForces()
         self._sweeper = Sweeper(self)
         self._sweeper.arrived.connect(self._arrived)
         self._shown = 0  # the ticket of the sweep in ``sweep``
@@ -201,6 +231,7 @@ class Document(QObject):
         if self.analysis.solution is None:
             self._sweeper.drop()
             self._shown, self.sweep, self._pending = self._sweeper.latest, None, None
+            self.cycle_forces = CycleForces()
             return
         self._pending = self._sweeper.request(self.mechanism)
         if not self._dragging:
@@ -217,7 +248,8 @@ class Document(QObject):
     def _show(self, ticket: int, result) -> bool:
         if ticket != self._sweeper.latest or ticket == self._shown:
             return False  # stale (a newer design was asked for) or already shown
-        self._shown, self.sweep = ticket, result
+        self._shown = ticket
+        self.sweep, self.cycle_forces = result if result is not None else (None, CycleForces())
         return True
 
     def _arrived(self, ticket: int, result):

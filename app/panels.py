@@ -7,11 +7,14 @@ from PySide6.QtCore import QRectF, Qt
 from PySide6.QtGui import QPainter
 from PySide6.QtWidgets import QSplitter
 
+from kinematics.drawing.panes import BAR_ROOM
+
 from .polygon_scene import PolygonScene
-from .space_scene import SpaceScene
+from .space_scene import PIXELS_PER_SYMBOL_MM, SCREEN_SYMBOLS, SpaceScene
 from .views import PolygonView, SpaceView
 
 EMPTY_VIEW_MM = 200.0
+REFITS = 3
 
 
 class DrawingsPanel(QSplitter):
@@ -20,6 +23,7 @@ class DrawingsPanel(QSplitter):
     def __init__(self, document, parent=None):
         super().__init__(Qt.Orientation.Horizontal, parent)
         self.document = document
+        self.draft = False
         self.space_scene = SpaceScene()
         self.velocity_scene = PolygonScene("velocity")
         self.acceleration_scene = PolygonScene("acceleration")
@@ -28,43 +32,67 @@ class DrawingsPanel(QSplitter):
         self.acceleration_view = PolygonView(self.acceleration_scene, "acceleration polygon")
         for view in (self.space_view, self.velocity_view, self.acceleration_view):
             self.addWidget(view)
+            view.bottom_pixels = BAR_ROOM * SCREEN_SYMBOLS.small_text * PIXELS_PER_SYMBOL_MM  # the bar's words
         self.setSizes([620, 490, 490])
         self.space_view.hovered.connect(self.mark_point)
-        for scene, view in self._pairs():
-            view.rescaled.connect(lambda scene=scene, view=view: scene.declutter(self._mm_per_pixel(view)))
+        # A zoom changes the size the symbols must be drawn at to keep their size on screen, and so
+        # the room they take: a view that fits its drawing (it was resized) fits it again.
+        self.space_view.rescaled.connect(self._space_rescaled)
+        for view in (self.velocity_view, self.acceleration_view):
+            view.rescaled.connect(lambda view=view: self._draw_polygon(view, fit=view.auto_fit))
         self.refresh()
         self.fit_space()
 
     def refresh(self):
-        doc = self.document
         topology = self.space_scene.topology
-        self.space_scene.show(doc.mechanism, doc.solution, doc.sweep)
+        self._draw_space()
+        self.show_paths()
         if self.space_scene.topology != topology and self.space_view.auto_fit:
             self.fit_space()  # a joint or link was added or removed: keep the whole design in view
-        self.space_scene.declutter(self._mm_per_pixel(self.space_view))
+        for view in (self.velocity_view, self.acceleration_view):
+            self._draw_polygon(view, fit=True)
+
+    def _space_rescaled(self):
+        self._draw_space()
+        if self.space_view.auto_fit:
+            self.fit_space()
+
+    def _draw_space(self):
+        doc = self.document
+        self.space_scene.show(doc.mechanism, doc.solution, self._mm_per_pixel(self.space_view), self.draft)
+
+    def _draw_polygon(self, view, fit: bool = False):
+        """Draw the polygon of ``view``; ``fit`` lets the view refit it first (and draws it again for
+        the new zoom when it did)."""
+        doc, scene = self.document, view.scene()
         construction = doc.construction
-        plates = {n: pts for n, pts in doc.mechanism.links.items() if len(pts) > 2}
-        for scene, view, polygon in (
-                (self.velocity_scene, self.velocity_view, construction and construction.velocity),
-                (self.acceleration_scene, self.acceleration_view, construction and construction.acceleration)):
-            scene.show(polygon, plates)
+        polygon = construction and getattr(construction, scene.kind)
+        zoom = self._mm_per_pixel(view)
+        scene.show(polygon, doc.solution, zoom, self.draft)
+        # A refit changes the zoom, and with it how much room the symbols take: drawn again at the
+        # new zoom and fitted again, a few times at most (it settles at once in practice).
+        for _ in range(REFITS if fit and polygon is not None else 0):
             view.show_rect(scene.content_rect)
-            scene.declutter(self._mm_per_pixel(view))
+            if self._mm_per_pixel(view) == zoom:
+                break
+            zoom = self._mm_per_pixel(view)
+            scene.show(polygon, doc.solution, zoom, self.draft)
 
     def set_draft(self, on: bool):
-        """Draw without antialiasing while the pose follows the mouse (nearly half the cost of a
-        repaint); the finished pose is drawn smooth again."""
+        """Draw without antialiasing, and labels as a draft (see kinematics.drawing.Recorder), while
+        the pose follows the mouse (nearly half the cost of a repaint, a third of the recording);
+        the finished pose is drawn in full again."""
+        if on == self.draft:
+            return
+        self.draft = on
         for view in (self.space_view, self.velocity_view, self.acceleration_view):
-            if bool(view.renderHints() & QPainter.RenderHint.Antialiasing) == on:
-                view.setRenderHint(QPainter.RenderHint.Antialiasing, not on)
+            view.setRenderHint(QPainter.RenderHint.Antialiasing, not on)
+        if not on:
+            self.refresh()
 
     def show_paths(self):
         """Redraw the coupler paths alone (the document's sweep caught up with a drag)."""
-        self.space_scene.show_paths(self.document.sweep)
-
-    def _pairs(self):
-        return ((self.space_scene, self.space_view), (self.velocity_scene, self.velocity_view),
-                (self.acceleration_scene, self.acceleration_view))
+        self.space_scene.show_paths(self.document.mechanism, self.document.sweep)
 
     @staticmethod
     def _mm_per_pixel(view) -> float:
@@ -72,6 +100,16 @@ class DrawingsPanel(QSplitter):
 
     def fit_space(self):
         """Fit the space diagram, with room for the links to turn."""
+        self.space_view.auto_fit = True
+        # As for a polygon: a refit changes the room the symbols take, so fitted again at the new zoom.
+        for _ in range(REFITS):
+            zoom = self._mm_per_pixel(self.space_view)
+            self.space_view.show_rect(self._space_rect())
+            if self._mm_per_pixel(self.space_view) == zoom:
+                break
+            self._draw_space()
+
+    def _space_rect(self) -> QRectF:
         rect = self.space_scene.drawing_rect()
         mech = self.document.mechanism
         # At least the design's own size across (a 200 mm sheet for one point or none), so a
@@ -84,9 +122,7 @@ class DrawingsPanel(QSplitter):
         if rect.width() < least and rect.height() < least:
             centre = rect.center()
             rect = QRectF(centre.x() - 0.5 * least, centre.y() - 0.5 * least, least, least)
-        self.space_view.auto_fit = True
-        self.space_view.show_rect(rect)
-        self.space_scene.declutter(self._mm_per_pixel(self.space_view))
+        return rect
 
     def fit_all(self):
         self.fit_space()
@@ -110,5 +146,5 @@ class DrawingsPanel(QSplitter):
     def select_step(self, step_id: str):
         """Emphasise step ``step_id`` in its polygon and the links it concerns ("" clears)."""
         for scene in (self.velocity_scene, self.acceleration_scene):
-            scene.select_step(step_id if step_id in scene.step_items else None)
+            scene.select_step(step_id if scene.has_step(step_id) else None)
         self.space_scene.emphasise(links=self._selected_links())

@@ -17,8 +17,6 @@ from PySide6.QtCore import QMarginsF, QPointF, Qt
 from PySide6.QtGui import (
     QBrush,
     QColor,
-    QFont,
-    QFontMetricsF,
     QGuiApplication,
     QPageLayout,
     QPageSize,
@@ -28,16 +26,15 @@ from PySide6.QtGui import (
     QPolygonF,
 )
 
-from kinematics.drawing import Arrow, Circle, Hatch, Line, Note, Polyline, Text, draw_sheet
+from kinematics.drawing import Arrow, Circle, Hatch, Line, Note, Polyline, Strokes, Text, draw_sheet
 from kinematics.drawing.sheet import DASHES
 from kinematics.errors import StorageError, SweepCancelled
 from kinematics.files.storage import replace_atomically
 
 from .arguments import pose_length_m
+from .drawing_kit import FONT_FAMILY, MONO_FAMILY, font_for_capitals
 from .outcomes import construction_from_file, run_reporting
 
-FONT_FAMILY = "DejaVu Sans"  # Debian fonts-dejavu-core: has ω α ° ² ′ and subscripts
-MONO_FAMILY = "DejaVu Sans Mono"  # the same package's fixed-pitch face, for text in character columns
 PDF_RESOLUTION_DPI = 1200
 PAGE_SIZES = {"A0": QPageSize.PageSizeId.A0, "A1": QPageSize.PageSizeId.A1, "A2": QPageSize.PageSizeId.A2,
               "A3": QPageSize.PageSizeId.A3, "A4": QPageSize.PageSizeId.A4}
@@ -50,7 +47,6 @@ class PainterBackend:
         self.painter = painter
         self.height = sheet_height_mm
         self.k = pixels_per_mm
-        self._fonts = {}
 
     def point(self, xy) -> QPointF:
         return QPointF(xy[0] * self.k, (self.height - xy[1]) * self.k)
@@ -67,17 +63,7 @@ class PainterBackend:
 
     def font(self, height_mm: float, mono: bool = False) -> tuple:
         """A font whose capitals are ``height_mm`` tall on the device, and its metrics."""
-        pixels = max(1, round(height_mm * self.k))
-        family = MONO_FAMILY if mono else FONT_FAMILY
-        if (pixels, family) not in self._fonts:
-            probe = QFont(family)
-            probe.setPixelSize(1000)
-            # A font without a cap-height entry reports 0; 0.73 em is typical of sans faces.  # common practice
-            cap_ratio = QFontMetricsF(probe).capHeight() / 1000.0 or 0.73
-            font = QFont(family)
-            font.setPixelSize(max(1, round(pixels / cap_ratio)))
-            self._fonts[pixels, family] = (font, QFontMetricsF(font))
-        return self._fonts[pixels, family]
+        return font_for_capitals(max(1, round(height_mm * self.k)), MONO_FAMILY if mono else FONT_FAMILY)
 
     def draw(self, primitive) -> None:
         p = self.painter
@@ -85,6 +71,11 @@ class PainterBackend:
         if isinstance(primitive, Line):
             p.setPen(self.pen(primitive.pen))
             p.drawLine(self.point(primitive.start), self.point(primitive.end))
+        elif isinstance(primitive, Strokes):
+            p.setPen(self.pen(primitive.pen))
+            ends = primitive.points
+            for i in range(0, len(ends) - 1, 2):
+                p.drawLine(self.point(ends[i]), self.point(ends[i + 1]))
         elif isinstance(primitive, Polyline):
             p.setPen(self.pen(primitive.pen))
             polygon = QPolygonF([self.point(xy) for xy in primitive.points])

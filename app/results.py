@@ -17,14 +17,14 @@ from PySide6.QtGui import QStandardItem, QStandardItemModel
 from PySide6.QtWidgets import QAbstractItemView, QHeaderView, QTableView
 
 from kinematics import acceleration_components
-from kinematics.reports.text import NEGLIGIBLE
+from kinematics.groups.vectors import direction_deg, negligible
 
-from .display_units import LENGTH_SYSTEMS, angular_speed, direction_deg, sense
+from .display_units import LENGTH_SYSTEMS, angular_speed, sense
 
 
 def _clean(value: float, scale: float) -> float:
-    """``value`` set to 0 when it is below NEGLIGIBLE × ``scale``."""
-    return 0.0 if abs(value) < NEGLIGIBLE * scale else value
+    """``value`` set to 0 when it is negligible against ``scale`` (see :mod:`kinematics.groups.vectors`)."""
+    return 0.0 if negligible(value, scale) else value
 
 
 def _number(value: float) -> str:

@@ -9,7 +9,10 @@ from PySide6.QtCore import QPointF, QRect, QRectF, Qt, Signal
 from PySide6.QtGui import QColor, QPainter, QPen, QPixmap
 from PySide6.QtWidgets import QGraphicsView
 
+from kinematics.drawing import Ref
+
 from .drawing_kit import DASHES, label_font
+from .scene_backend import ITEM_HANDLE, ITEM_REF
 
 ZOOM_PER_WHEEL_STEP = 1.15
 # Panning needs room beyond the drawing; the scene rect is the drawing grown by this factor.
@@ -45,11 +48,21 @@ class DrawingView(QGraphicsView):
         self.viewport().setAttribute(Qt.WidgetAttribute.WA_OpaquePaintEvent)
         self.auto_fit = True
         self.fit_rect = QRectF(-100, -100, 200, 200)
+        self.bottom_pixels = 0.0  # room kept under the drawing for what keeps its screen size (a scale bar)
+
+    def room_pixels(self) -> tuple:
+        """Screen pixels kept free above and under the drawing when it is fitted."""
+        return 0.0, self.bottom_pixels
 
     def show_rect(self, rect: QRectF):
-        """The area to fit; refits unless the user has zoomed or panned, or the drawing is still
-        in view and fills at least REFIT_BELOW of it (a drawing that rescaled on every frame of a
-        drag would be hard to follow, and each refit repaints the whole view once more)."""
+        """The area to fit, with :meth:`room_pixels` above and under it; refits unless the user has
+        zoomed or panned, or the drawing is still in view and fills at least REFIT_BELOW of it (a
+        drawing that rescaled on every frame of a drag would be hard to follow, and each refit
+        repaints the whole view once more)."""
+        top, bottom = self.room_pixels()
+        height = self.viewport().height()
+        free = max(height - top - bottom, 0.3 * height)
+        rect = rect.adjusted(0, -rect.height() * top / free, 0, rect.height() * bottom / free)
         self.fit_rect = QRectF(rect)
         visible = self.mapToScene(self.viewport().rect()).boundingRect()
         if self.auto_fit and visible.contains(rect) and max(rect.width() / max(visible.width(), 1e-12),
@@ -112,8 +125,9 @@ class PolygonView(DrawingView):
         """The step drawn within a few pixels of ``pos`` (lines are thin: aim need not be exact)."""
         near = QRect(pos.x() - PICK_PIXELS, pos.y() - PICK_PIXELS, 2 * PICK_PIXELS, 2 * PICK_PIXELS)
         for item in self.items(near):
-            if isinstance(item.data(0), str):
-                return item.data(0)
+            ref = item.data(ITEM_REF)
+            if isinstance(ref, Ref) and ref.kind == "step":
+                return ref.name
         return None
 
     def mousePressEvent(self, event):
@@ -128,11 +142,9 @@ class PolygonView(DrawingView):
         """Pixels the title and legend take at the top of the view."""
         return LEGEND_TOP + LEGEND_LINE * len(self.scene().used_pens())
 
-    def show_rect(self, rect: QRectF):
+    def room_pixels(self) -> tuple:
         # Room above the drawing for the legend, so it never covers a vector.
-        free = max(self.viewport().height() - self.legend_height(), 0.3 * self.viewport().height())
-        extra = rect.height() * self.legend_height() / free
-        super().show_rect(rect.adjusted(0, -extra, 0, 0))
+        return self.legend_height(), self.bottom_pixels
 
     def drawForeground(self, painter: QPainter, rect):
         painter.save()
@@ -221,10 +233,10 @@ class SpaceView(DrawingView):
             super().keyPressEvent(event)
 
     def joint_at(self, pos) -> str | None:
+        """The joint whose pin is under ``pos`` (view pixels), if any."""
         for item in self.items(pos):
-            data = item.data(0)
-            if isinstance(data, tuple) and data[0] == "point":
-                return data[1]
+            if item.data(ITEM_HANDLE):
+                return item.data(ITEM_REF).name
         return None
 
     def _machine_mm(self, pos) -> tuple:

@@ -24,16 +24,18 @@ from PySide6.QtWidgets import (
 import kinematics
 from kinematics import KinematicsError, Mechanism
 from kinematics.files.storage import remove_stale_temporaries
+from kinematics.groups.scales import series_at_most
 
 from .angle_control import AngleControl
 from .build_tools import HINTS, Builder
 from .building import empty
 from .document import Document
-from .drawing_kit import preferred_length
 from .editing import JointDrag
 from .exports import SheetOutputs
 from .files import recent_files, remember, save_asking
+from .forces_table import ForcesTable
 from .icons import icon
+from .mass_editor import MassEditor
 from .panels import EMPTY_VIEW_MM, DrawingsPanel
 from .properties import PropertiesPanel
 from .recovery import Autosave, offer_recovery
@@ -44,6 +46,7 @@ from .throttle import Throttle
 
 FILE_FILTER = "Kinepoly mechanism (*.json);;All files (*)"
 CYCLE_TAB = "Cycle"
+MASSES_TAB = "Masses and loads"
 TOOL_NAMES = {"select": "Select", "pivot": "Pivot", "joint": "Joint", "link": "Link", "slide": "Slide",
               "driver": "Driver", "delete": "Delete"}
 
@@ -65,19 +68,27 @@ class MainWindow(SheetOutputs, QMainWindow):
         self._show_readouts = Throttle(self._readouts, parent=self)
         self.drawings = DrawingsPanel(self.document)
         self.table = ResultsTable()
+        self.forces_table = ForcesTable()
         self.steps = StepsPanel()
         self.properties = PropertiesPanel(self.document, self.say)
+        self.masses = MassEditor(self.document, self.say)
         self.builder = Builder(self.document, self.say, self.grid_mm)
         # The results stay in sight beside the steps or the design fields.
         side = QTabWidget()
         side.addTab(self.steps, "Construction steps")
         side.addTab(self.properties, "Design")
-        self.cycle = None  # made when its tab is first opened: pyqtgraph takes most of a second to import
+        side.addTab(self.masses, MASSES_TAB)
+        # Made when their tab is first opened: pyqtgraph takes most of a second to import.
+        self.cycle = self.cycle_forces = None
         side.addTab(QWidget(), CYCLE_TAB)
         side.currentChanged.connect(self._open_cycle_tab)
         self.side_tabs = side
+        results = QSplitter(Qt.Orientation.Vertical)
+        results.addWidget(self.table)
+        results.addWidget(self.forces_table)
+        results.setSizes([600, 400])
         lower = QSplitter(Qt.Orientation.Horizontal)
-        lower.addWidget(self.table)
+        lower.addWidget(results)
         lower.addWidget(side)
         lower.setSizes([800, 800])
         splitter = QSplitter(Qt.Orientation.Vertical)
@@ -205,6 +216,8 @@ class MainWindow(SheetOutputs, QMainWindow):
         self.drawings.set_draft(self.live)
         self.drawings.refresh()
         self.table.show_pose(doc.solution, doc.construction)
+        self.forces_table.show_forces(doc.analysis.forces, doc.analysis.forces_problem or doc.analysis.problem)
+        self.masses.refresh()
         if self.properties.isVisible() or not self.live:  # a hidden Design tab catches up when the drag ends
             self.properties.refresh()
         if self.cycle is not None:
@@ -231,12 +244,19 @@ class MainWindow(SheetOutputs, QMainWindow):
     def _open_cycle_tab(self, index: int):
         if self.cycle is not None or self.side_tabs.tabText(index) != CYCLE_TAB:
             return
+        from .cycle_forces_panel import CycleForcesPanel
         from .cycle_panel import CyclePanel  # pyqtgraph loads here, when the plot is first wanted
 
         self.cycle = CyclePanel()
         self.cycle.angle_picked.connect(self.turn_driver)
+        self.cycle_forces = CycleForcesPanel()
+        self.cycle_forces.angle_picked.connect(self.turn_driver)
+        pages = self.cycle_pages = QTabWidget()
+        pages.setTabPosition(QTabWidget.TabPosition.South)
+        pages.addTab(self.cycle, "Motion")
+        pages.addTab(self.cycle_forces, "Forces and drive")
         self.side_tabs.removeTab(index)
-        self.side_tabs.insertTab(index, self.cycle, CYCLE_TAB)
+        self.side_tabs.insertTab(index, pages, CYCLE_TAB)
         self.side_tabs.setCurrentIndex(index)
         self.cycle.set_units(self.length_units.currentText(), self.speed_units.currentText())
         self._update_cycle()
@@ -250,6 +270,8 @@ class MainWindow(SheetOutputs, QMainWindow):
         else:
             self.cycle.set_sweep(doc.sweep)
             self.cycle.set_angle(doc.shown_angle_deg)
+        self.cycle_forces.show_cycle(doc.sweep, doc.cycle_forces)
+        self.cycle_forces.set_angle(doc.shown_angle_deg if doc.solution is not None else None)
 
     def _update_title(self, *_):
         doc = self.document
@@ -294,7 +316,7 @@ class MainWindow(SheetOutputs, QMainWindow):
         if not self.snapping.isChecked():
             return 0.0
         mech = self.document.mechanism
-        return preferred_length(max(1e3 * mech.size * mech.metres_per_unit, EMPTY_VIEW_MM) / 20.0)
+        return series_at_most(max(1e3 * mech.size * mech.metres_per_unit, EMPTY_VIEW_MM) / 20.0)
 
     def _snapping_changed(self, *_):
         self.drawings.space_view.grid_mm = self.grid_mm()

@@ -81,7 +81,7 @@ def timed_drag(window, name, frames, radius_mm, counter):
     and the share of frames whose move was refused (the linkage could not assemble there)."""
     qt = QApplication.instance()
     view = window.drawings.space_view
-    start = window.drawings.space_scene.joints[name].dot.pos()
+    start = window.drawings.space_scene.joint_pos(name)
     QTest.mousePress(view.viewport(), LEFT, NONE, view.mapFromScene(start))
     qt.processEvents()
     for values in PHASES.values():
@@ -120,7 +120,7 @@ def drag_for(window, name, seconds, radius_mm):
     """Keep dragging joint ``name`` for ``seconds`` (the memory test)."""
     qt = QApplication.instance()
     view = window.drawings.space_view
-    start = window.drawings.space_scene.joints[name].dot.pos()
+    start = window.drawings.space_scene.joint_pos(name)
     QTest.mousePress(view.viewport(), LEFT, NONE, view.mapFromScene(start))
     ends, i = time.perf_counter() + seconds, 0
     while time.perf_counter() < ends:

@@ -16,7 +16,9 @@ class KinematicsError(Exception):
 
 
 class FileFormatError(KinematicsError):
-    """A mechanism file that is not well-formed. ``kind`` names the rule it breaks:
+    """A mechanism file that is not well-formed.
+
+    ``kind`` names the rule it breaks:
 
     - ``"text"``: not JSON text, or (a document given as Python objects) not JSON data;
     - ``"version"``: the ``kinepoly`` format version is missing, not a whole number, or newer;

@@ -36,6 +36,7 @@ class RelativeComponent:
 
     @property
     def magnitude(self) -> float:
+        """The component's size, m/s²."""
         return math.hypot(*self.vector)
 
     @property

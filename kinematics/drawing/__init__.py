@@ -1,5 +1,5 @@
 """Drawing a construction: the Sheet of recorded primitives that the printer,
-the DXF writer and (later) the window replay. No Qt here.
+the DXF writer and the window replay. No Qt here.
 
 >>> import kinematics
 >>> from kinematics.drawing import draw_sheet
@@ -12,8 +12,8 @@ the DXF writer and (later) the window replay. No Qt here.
 """
 
 from .layout import PAPER, draw_model, draw_sheet
-from .sheet import Arrow, Circle, Hatch, Line, Note, Polyline, Recorder, Sheet, Text, View
+from .sheet import Arrow, Circle, Hatch, Line, Note, Polyline, Recorder, Ref, Sheet, Strokes, Text, View
 from .table import results_csv
 
-__all__ = ["PAPER", "Arrow", "Circle", "Hatch", "Line", "Note", "Polyline", "Recorder", "Sheet", "Text", "View",
-           "draw_model", "draw_sheet", "results_csv"]
+__all__ = ["PAPER", "Arrow", "Circle", "Hatch", "Line", "Note", "Polyline", "Recorder", "Ref", "Sheet", "Strokes",
+           "Text", "View", "draw_model", "draw_sheet", "results_csv"]

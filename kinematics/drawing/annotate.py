@@ -5,10 +5,11 @@ from __future__ import annotations
 
 import math
 import textwrap
+from functools import lru_cache
 
 from ..reports.caution import CAUTION
 from .scaling import bar_value, plain
-from .sheet import FRAME, Hatch, Line, Polyline, Recorder, Text
+from .sheet import FRAME, Hatch, Line, Polyline, Recorder, Ref, Strokes, Text
 from .style import ANNOTATION
 from .symbols import Symbols
 
@@ -43,27 +44,37 @@ def scale_bar(rec: Recorder, at, mm_per_value: float, unit: str, longest: float,
 
     Returns the value the whole bar stands for (in ``unit``).
     """
+    primitives, value = _scale_bar(tuple(at), mm_per_value, unit, longest, caption, size, view)
+    rec.primitives.extend(primitives)
+    return value
+
+
+@lru_cache(maxsize=64)
+def _scale_bar(at, mm_per_value: float, unit: str, longest: float, caption: str, size: Symbols, view: str) -> tuple:
+    """The primitives of a scale bar and its value: kept for the same arguments, as a window's bars
+    stay put frame after frame."""
     value = bar_value(longest, mm_per_value)
     length = value * mm_per_value
     x, y = at
     thick = 0.5 * size.text
-    ids = {"view": view, "part": "scale bar"}
-    rec.add(Line(start=(x, y), end=(x + length, y), pen=ANNOTATION, **ids))
-    rec.add(Line(start=(x, y + thick), end=(x + length, y + thick), pen=ANNOTATION, **ids))
+    ids = {"view": view, "ref": Ref("scale bar", view)}
     step = length / BAR_DIVISIONS
+    strokes = [(x, y), (x + length, y), (x, y + thick), (x + length, y + thick)]  # its edges, then its ticks
     for i in range(BAR_DIVISIONS + 1):
-        rec.add(Line(start=(x + i * step, y), end=(x + i * step, y + thick), pen=ANNOTATION, **ids))
-        if i % 2 == 0 and i < BAR_DIVISIONS:
-            corners = ((x + i * step, y), (x + (i + 1) * step, y), (x + (i + 1) * step, y + thick),
-                       (x + i * step, y + thick))
-            rec.add(Hatch(points=corners, pen=ANNOTATION, **ids))
+        strokes += [(x + i * step, y), (x + i * step, y + thick)]
+    out = [Strokes(points=tuple(strokes), pen=ANNOTATION, **ids)]
+    for i in range(0, BAR_DIVISIONS, 2):
+        corners = ((x + i * step, y), (x + (i + 1) * step, y), (x + (i + 1) * step, y + thick),
+                   (x + i * step, y + thick))
+        out.append(Hatch(points=corners, pen=ANNOTATION, **ids))
     below = y - 0.8 * size.text
-    rec.add(Text(position=(x, below), text="0", height=size.text, pen=ANNOTATION, align="centre", anchor="top", **ids))
-    rec.add(Text(position=(x + length, below), text=f"{plain(value)} {printed_unit(unit)}", height=size.text,
-                 pen=ANNOTATION, align="centre", anchor="top", **ids))
-    rec.add(Text(position=(x, y + thick + 0.8 * size.text), text=caption, height=size.text, pen=ANNOTATION,
-                 align="left", anchor="baseline", **ids))
-    return value
+    out.append(Text(position=(x, below), text="0", height=size.text, pen=ANNOTATION, align="centre", anchor="top",
+                    **ids))
+    out.append(Text(position=(x + length, below), text=f"{plain(value)} {printed_unit(unit)}", height=size.text,
+                    pen=ANNOTATION, align="centre", anchor="top", **ids))
+    out.append(Text(position=(x, y + thick + 0.8 * size.text), text=caption, height=size.text, pen=ANNOTATION,
+                    align="left", anchor="baseline", **ids))
+    return tuple(out), value
 
 
 def scale_bar_height(size: Symbols) -> float:
@@ -110,7 +121,7 @@ def title_block(rec: Recorder, box, lines: list, size: Symbols) -> None:
     x0, y0, x1, y1 = box
     pitch = ROW * size.text
     pad = size.text
-    ids = {"part": "title block"}
+    ids = {"ref": Ref("title block")}
     outline_box(rec, x0, y0, x1, y1, FRAME, **ids)
     (_, title), *rest = lines
     y = y1 - 1.6 * pitch

@@ -15,7 +15,7 @@ from ezdxf import bbox
 from ezdxf.enums import TextEntityAlignment
 
 from ..files.storage import replace_atomically
-from . import Arrow, Circle, Hatch, Line, Note, Polyline, Text, draw_model
+from . import Arrow, Circle, Hatch, Line, Note, Polyline, Strokes, Text, draw_model
 from .sheet import DASHES
 
 DXF_VERSION = "R2013"  # UTF-8 text (ω, α, ², ′) and true colour on layers
@@ -84,9 +84,11 @@ def _mtext(lines) -> str:
 
 
 def _tag(entities, primitive) -> None:
-    """Extended data: which construction step or part of the mechanism the entity draws."""
-    tags = [(1000, f"{key} {value}") for key, value in (("step", primitive.step), ("part", primitive.part),
-                                                        ("view", primitive.view)) if value]
+    """Extended data: what the entity draws ("step 3", "point B", "link crank", "scale bar velocity")
+    and its view."""
+    ref = primitive.ref
+    tags = [(1000, f"{key} {value}") for key, value in ((ref.kind, ref.name) if ref else ("", ""),
+                                                        ("view", primitive.view)) if key and value]
     if tags:
         for entity in entities:
             entity.set_xdata(APP_ID, tags)
@@ -105,6 +107,9 @@ def _add(msp, attribs, primitive) -> list:
     """The entities drawing one primitive."""
     if isinstance(primitive, Line):
         return [msp.add_line(primitive.start, primitive.end, dxfattribs=attribs)]
+    if isinstance(primitive, Strokes):
+        ends = primitive.points
+        return [msp.add_line(ends[i], ends[i + 1], dxfattribs=attribs) for i in range(0, len(ends) - 1, 2)]
     if isinstance(primitive, Polyline):
         return [msp.add_lwpolyline(primitive.points, close=primitive.closed, dxfattribs=attribs)]
     if isinstance(primitive, Arrow):

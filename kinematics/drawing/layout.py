@@ -22,7 +22,7 @@ from .annotate import (
 from .polygons import draw_polygon, polygon_bounds
 from .results import results_band, results_height
 from .scaling import bar_value, iso5455_ratio, plain, polygon_scale, ratio_text
-from .sheet import FRAME, Note, Recorder, Sheet, View
+from .sheet import FRAME, Note, Recorder, Ref, Sheet, View
 from .space import draw_space, positions
 from .style import ANNOTATION
 from .symbols import Symbols
@@ -34,6 +34,8 @@ PAPER = {"A0": (841.0, 1189.0), "A1": (594.0, 841.0), "A2": (420.0, 594.0), "A3"
 MARGIN_FILING, MARGIN = 20.0, 10.0
 # Room round a view's drawing for labels and pivot marks, and between views, mm on paper.
 VIEW_PAD, GAP = 7.0, 4.0
+# A true-size drawing's coordinates to this many significant digits: the file's own numbers (see View.place).
+TRUE_SIZE_DIGITS = 15
 NAMES = {"space": "Space diagram", "velocity": "Velocity polygon", "acceleration": "Acceleration polygon"}
 
 
@@ -179,7 +181,7 @@ def draw_sheet(construction, paper: str = "A4", landscape: bool = False, file_na
     size = Symbols()
     rec = Recorder()
     frame = (MARGIN_FILING, MARGIN, width - MARGIN, height - MARGIN)
-    outline_box(rec, *frame, FRAME, part="frame")
+    outline_box(rec, *frame, FRAME, ref=Ref("frame"))
     date = date or datetime.date.today().isoformat()
     # The scales are not known before the views are fitted; the block's height does not depend on them.
     block_height = title_block_height(description(construction, {}, file_name, date), frame[2] - frame[0], size)
@@ -219,7 +221,7 @@ def draw_model(construction, file_name: str = "", date: str | None = None) -> Sh
     size = Symbols().scaled(max(1.0, bar_value(extent / 150.0, 1.0)) if extent > 0 else 1.0)
     side, pad = max(extent, 30 * size.text), 3 * size.text
     rec = Recorder()
-    space = View("space", (x0, y0, x1, y1), (0.0, 0.0), 1000.0, "m", "1:1")
+    space = View("space", (x0, y0, x1, y1), (0.0, 0.0), 1000.0, "m", "1:1", significant=TRUE_SIZE_DIGITS)
     views = {"space": space}
     rec.add_view(space)
     draw_space(rec, solution, space, size)
@@ -242,7 +244,7 @@ def draw_model(construction, file_name: str = "", date: str | None = None) -> Sh
     lines = description(construction, _scales(views), file_name, date or datetime.date.today().isoformat())
     texts = [f"{label}: {text}" for label, text in lines] + caution_lines(left - x0, size.text)
     rec.add(Note(position=(x0, bar_y - 2 * pad), lines=tuple(texts), height=size.text, pitch=1.8 * size.text,
-                 pen=ANNOTATION, part="note"))
+                 pen=ANNOTATION, ref=Ref("note")))
     return rec.sheet(0.0, 0.0, title=solution.mechanism.title)
 
 

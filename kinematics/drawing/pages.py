@@ -14,7 +14,7 @@ from dataclasses import dataclass, replace
 
 from .annotate import text_width
 from .layout import MARGIN, MARGIN_FILING, PAPER
-from .sheet import Line, Recorder, Sheet, Text
+from .sheet import Line, Recorder, Ref, Sheet, Text
 from .style import ANNOTATION
 
 BODY_TEXT, SMALL_TEXT, HEADING_TEXT = 2.5, 1.8, 3.5  # ISO 3098 capital heights, mm
@@ -96,7 +96,7 @@ def furnish(sheet: Sheet, header_left: str, header_right: str, footer_left: str,
     width, height = sheet.width, sheet.height
     x0, x1 = MARGIN_FILING, width - MARGIN
     head, foot = height - 0.5 * MARGIN - 0.5 * RUNNING_TEXT, 0.5 * MARGIN - 0.5 * RUNNING_TEXT
-    ids = {"part": "running header"}
+    ids = {"ref": Ref("running header")}
     extra = (Text(position=(x0, head), text=header_left, height=RUNNING_TEXT, pen=ANNOTATION, **ids),
              Text(position=(x1, head), text=header_right, height=RUNNING_TEXT, pen=ANNOTATION, align="right", **ids),
              Text(position=(x0, foot), text=footer_left, height=RUNNING_TEXT, pen=ANNOTATION, **ids),
@@ -130,7 +130,7 @@ class _Pages:
         self.room(PITCH * height)
         self.y -= PITCH * height
         self.rec.add(Text(position=(self.x0 if x is None else x, self.y), text=text, height=height,
-                          pen=ANNOTATION, mono=mono, align=align, part="text"))
+                          pen=ANNOTATION, mono=mono, align=align, ref=Ref("text")))
 
     def finish(self) -> list:
         if self.rec.primitives or not self.sheets:
@@ -165,11 +165,11 @@ def _table(pages: _Pages, table: Table) -> None:
         for c, cell in enumerate(cells):
             x = lefts[c] if align[c] == "left" else lefts[c] + widths[c] * share - 4.0
             pages.rec.add(Text(position=(x, pages.y), text=str(cell), height=height, pen=ANNOTATION, align=align[c],
-                               part="table header" if header else "table"))
+                               ref=Ref("table header" if header else "table")))
         if header:
             rule = pages.y - 0.5 * height
             pages.rec.add(Line(start=(pages.x0, rule), end=(lefts[-1] + widths[-1] * share, rule), pen=ANNOTATION,
-                               part="table header"))
+                               ref=Ref("table header")))
             pages.y -= 0.4 * height
 
     row(table.header, header=True)

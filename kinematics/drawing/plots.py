@@ -19,7 +19,7 @@ import numpy as np
 
 from ..groups.scales import preferred_scale
 from .annotate import outline_box, text_width
-from .sheet import Line, Polyline, Recorder, Text
+from .sheet import Line, Polyline, Recorder, Ref, Text
 from .style import ANNOTATION, Pen
 
 # Curves in colours that stay apart on screen and print; past the eighth they repeat dashed.
@@ -143,7 +143,7 @@ def draw_plot(rec: Recorder, box, plot: Plot, view: str = "plot") -> None:
     y label above the plot area, tick labels left of it and under it, the x label
     under those."""
     x0, y0, x1, y1 = box
-    ids = {"view": view, "part": plot.title}
+    ids = {"view": view, "ref": Ref("plot", plot.title)}
     rec.add(Text(position=(x0, y1), text=plot.title, height=TEXT, pen=ANNOTATION, anchor="top", **ids))
     top = _legend(rec, plot, x0, x1, y1 - 2.2 * TEXT, ids)
     low_y, high_y = _value_range(plot)

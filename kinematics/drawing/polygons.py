@@ -8,47 +8,60 @@ from __future__ import annotations
 
 import math
 
-import numpy as np
-
 from ..groups.steps import Role
 from . import symbols
-from .sheet import Arrow, Circle, Line, Polyline, Recorder, View
+from .declutter import declutter
+from .sheet import Circle, Line, Polyline, Recorder, Ref, View
 from .space import outline, positions
 from .style import IMAGE, pen_for
 from .symbols import Symbols
 
-_LAYER_ORDER = {Role.DIRECTION: 0, Role.KNOWN: 1, Role.RESULT: 1, Role.INTERSECTION: 2, Role.IMAGE: 2}
+
+def _layer(step) -> int:
+    """Where a step is drawn in the stack: construction lines, then vectors, then points (by
+    identity: an Enum's hash is a Python call, and this runs for every step of every frame)."""
+    role = step.role
+    return 0 if role is Role.DIRECTION else 1 if role is Role.KNOWN or role is Role.RESULT else 2
 
 
 def polygon_bounds(polygon) -> tuple:
     """(x0, y0, x1, y1) of everything a polygon draws, in its units, pole included."""
     coords = [(0.0, 0.0)]
     for step in polygon.steps:
-        coords.extend(step.geometry.coords)
+        coords.extend(step.coords)
     xs, ys = zip(*coords, strict=True)
     return (min(xs), min(ys), max(xs), max(ys))
 
 
-def draw_polygon(rec: Recorder, polygon, solution, view: View, size: Symbols) -> None:
-    """Record ``polygon`` (a :class:`kinematics.Polygon` of ``solution``) into ``view``."""
-    ids = {"view": view.name}
-    _draw_image_figures(rec, polygon, solution, view, ids)
+def draw_polygon(rec: Recorder, polygon, solution, view: View, size: Symbols, xy: dict | None = None) -> None:
+    """Record ``polygon`` (a :class:`kinematics.Polygon` of ``solution``) into ``view``; ``xy``
+    is the pose's point positions (:func:`~kinematics.drawing.space.positions`) if already at hand."""
+    name, place = view.name, view.place
+    # The lines a label must not sit along: the image segments, construction lines and vectors.
+    segments = _draw_image_figures(rec, polygon, solution, view, positions(solution) if xy is None else xy)
     # Construction lines first, vectors over them, points and labels on top: the order a reader needs.
-    for step in sorted(polygon.steps, key=lambda s: _LAYER_ORDER[s.role]):
-        pen = pen_for(step)
-        coords = [view.place(c) for c in step.geometry.coords]
+    for step in sorted(polygon.steps, key=_layer):
+        pen, ref = pen_for(step), Ref("step", step.id)
         if step.role is Role.DIRECTION:
-            rec.add(Line(start=coords[0], end=coords[-1], pen=pen, step=step.id, **ids))
+            ends = place(step.coords[0]), place(step.coords[-1])
+            rec.add(Line(*ends, pen, name, ref))
+            segments.append(ends)
         elif step.is_vector:
-            symbols.arrow(rec, coords[0], coords[-1], pen, size, step=step.id, **ids)
+            ends = place(step.coords[0]), place(step.coords[-1])
+            if symbols.arrow(rec, *ends, pen, size, view=name, ref=ref):
+                segments.append(ends)
         else:
-            rec.add(Circle(centre=coords[0], radius=size.dot, pen=pen, filled=True, step=step.id, **ids))
+            at = place(step.coords[0])
+            rec.add(Circle(at, size.dot, pen, True, name, ref))
+            symbols.dot_mark(rec, at, size.dot, name)
     labels = _labels(polygon, view, size)
-    centre = tuple(np.mean([where for where, _, _ in labels], axis=0)) if labels else view.origin
-    segments = [(p.start, p.end) for p in rec.primitives if p.view == view.name and isinstance(p, (Line, Arrow))]
+    centre = (sum(where[0] for where, _, _ in labels) / len(labels),
+              sum(where[1] for where, _, _ in labels) / len(labels)) if labels else view.origin
+    lines = [] if rec.draft else symbols.lines_near(segments, size.dot)
     for where, text, step_id in labels:
-        avoid = symbols.directions_at(where, segments, tolerance=size.dot)
-        symbols.label(rec, where, text, centre, IMAGE, size, gap=size.dot, avoid=avoid, step=step_id, **ids)
+        symbols.label(rec, where, text, centre, IMAGE, size, gap=size.dot, avoid=symbols.directions_at(where, lines),
+                      view=name, ref=Ref("step", step_id))
+    declutter(rec, view.name)
 
 
 def _labels(polygon, view: View, size: Symbols) -> list:
@@ -57,7 +70,7 @@ def _labels(polygon, view: View, size: Symbols) -> list:
     for step in polygon.steps:
         if not step.label:
             continue
-        where = view.place(step.geometry.coords[-1])  # a point, or the end of a vector, carries the label
+        where = view.place(step.coords[-1])  # a point, or the end of a vector, carries the label
         same = next((i for i, (at, _, _) in enumerate(merged) if math.dist(at, where) < 0.5 * size.text), None)
         if same is None:
             merged.append((where, step.label, step.id))
@@ -67,17 +80,19 @@ def _labels(polygon, view: View, size: Symbols) -> list:
     return merged
 
 
-def _draw_image_figures(rec: Recorder, polygon, solution, view: View, ids) -> None:
-    """The image of each link, directly similar to it: a segment for a bar, a figure for a plate."""
-    image_steps = {name: step.id for step in polygon.steps if step.role is Role.IMAGE for name in step.points}
-    xy = positions(solution)
+def _draw_image_figures(rec: Recorder, polygon, solution, view: View, xy: dict) -> list:
+    """The image of each link, directly similar to it: a segment for a bar, a figure for a plate;
+    returns the segments' ends."""
+    segments = []
+    images, place, name = polygon.images, view.place, view.name
     for link, names in solution.mechanism.links.items():
-        if len(names) < 2 or not all(n in polygon.images for n in names):
+        if len(names) < 2 or not images.keys() >= set(names):
+            continue
+        if len(names) == 2:
+            points = (place(images[names[0]]), place(images[names[1]]))
+            rec.add(Line(points[0], points[1], IMAGE, name, Ref("image", link)))
+            segments.append(points)
             continue
         order, closed = outline(names, xy)
-        points = tuple(view.place(polygon.images[n]) for n in order)
-        step_id = next((image_steps[n] for n in order if n in image_steps), "")
-        if len(points) == 2:
-            rec.add(Line(start=points[0], end=points[1], pen=IMAGE, step=step_id, part=link, **ids))
-        else:
-            rec.add(Polyline(points=points, pen=IMAGE, closed=closed, step=step_id, part=link, **ids))
+        rec.add(Polyline(tuple(place(images[n]) for n in order), IMAGE, closed, name, Ref("image", link)))
+    return segments

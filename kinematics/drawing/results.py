@@ -5,7 +5,7 @@ legend of the pens the polygons use."""
 from __future__ import annotations
 
 from .annotate import ROW, outline_box, text_width
-from .sheet import Line, Recorder, Text
+from .sheet import Line, Recorder, Ref, Text
 from .style import ANNOTATION, LEGEND, pen_for
 from .symbols import Symbols
 from .table import link_rows, point_rows, slide_rows
@@ -60,7 +60,7 @@ def results_band(rec: Recorder, box, construction, size: Symbols) -> None:
     """Draw the results tables and the legend in ``box`` (x0, y0, x1, y1), from its top."""
     x0, y0, x1, y1 = box
     pitch = ROW * size.text
-    ids = {"part": "results table"}
+    ids = {"ref": Ref("results table")}
     rec.add(Text(position=(x0, y1 - 0.7 * pitch), text=HEADING, height=size.small_text, pen=ANNOTATION, **ids))
     placed, height = _placements(construction.solution, x1 - x0, size)
     for header, rows, widths, dx, dtop in placed:
@@ -86,7 +86,7 @@ def _legend(rec: Recorder, across, construction, size: Symbols) -> None:
     entries, column, columns, _ = _legend_grid(construction, x1 - x0, size)
     pitch = ROW * size.small_text
     sample = 6 * size.small_text
-    ids = {"part": "legend"}
+    ids = {"ref": Ref("legend")}
     for i, pen in enumerate(entries):
         x = x0 + (i % columns) * column
         y = top - (i // columns + 0.5) * pitch

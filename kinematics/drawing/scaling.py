@@ -6,19 +6,7 @@ from __future__ import annotations
 import math
 from fractions import Fraction
 
-MANTISSAS = (1, 2, 5)
-
-
-def _candidates(near: float) -> list:
-    exponent = math.floor(math.log10(near))
-    return [mantissa * Fraction(10) ** power for power in (exponent - 1, exponent, exponent + 1)
-            for mantissa in MANTISSAS]
-
-
-def _series_below(limit: float) -> Fraction:
-    """The largest value 1, 2 or 5 × 10ⁿ not above ``limit`` (> 0), exact."""
-    # A hair of tolerance so an exact fit (limit 0.5 from 1/2.0) is not lost to rounding.
-    return max(c for c in _candidates(limit) if c <= limit * (1 + 1e-12))
+from ..groups.scales import series_at_least, series_at_most, series_term
 
 
 def iso5455_ratio(largest: float) -> Fraction:
@@ -34,7 +22,8 @@ def iso5455_ratio(largest: float) -> Fraction:
     """
     if not math.isfinite(largest) or largest <= 0.0:
         raise ValueError(f"no drawing scale fits a factor of {largest}")
-    return _series_below(largest)
+    mantissa, power = series_term(largest, at_least=False)
+    return Fraction(mantissa) * Fraction(10) ** power
 
 
 def ratio_text(ratio: Fraction) -> str:
@@ -49,12 +38,12 @@ def polygon_scale(needed_per_mm: float) -> float:
     """The smallest round scale 1, 2, 5 × 10ⁿ (units per mm of paper) not below ``needed_per_mm``."""
     if not math.isfinite(needed_per_mm) or needed_per_mm <= 0.0:
         return 1.0
-    return float(min(c for c in _candidates(needed_per_mm) if c >= needed_per_mm * (1 - 1e-12)))
+    return series_at_least(needed_per_mm)
 
 
 def bar_value(longest_mm: float, mm_per_value: float) -> float:
     """The largest round value (1, 2, 5 × 10ⁿ) whose bar is at most ``longest_mm`` long."""
-    return float(_series_below(longest_mm / mm_per_value))
+    return series_at_most(longest_mm / mm_per_value)
 
 
 def plain(value: float) -> str:

@@ -3,16 +3,16 @@
 Coordinates are millimetres on the sheet, x to the right and y up, origin at
 the lower-left corner of the sheet (or of the model, for a DXF drawing). Each
 primitive carries the pen (:mod:`kinematics.drawing.style`) that gives its role, the
-view it belongs to and the id of the construction step it draws ("" when it
-draws no step), so a backend can put it on a layer and a window can lead a
-click back to the step; ``part`` names the point or link a space-diagram
-primitive draws. Backends (DXF writer, Qt painter) replay the
-primitives and compute no geometry of their own.
+view it belongs to and a :class:`Ref` to what it draws (a point, a link, a
+construction step ...), so a backend can put it on a layer and a window can
+lead a click back to the model. Backends (DXF writer, Qt painter, the window's
+scenes) replay the primitives and compute no geometry of their own.
 """
 
 from __future__ import annotations
 
 from dataclasses import dataclass, field
+from typing import NamedTuple
 
 from .style import ANNOTATION, Pen
 
@@ -25,28 +25,48 @@ DASHES = {"dashed": (12.0, 3.0), "dotted": (0.5, 3.0), "dashdot": (24.0, 3.0, 0.
 FRAME = Pen(ANNOTATION.colour, 0.7, "solid", "SHEET-FRAME", "sheet frame and title block rules")
 
 
-@dataclass(frozen=True)
-class Line:
+class Ref(NamedTuple):
+    """What a primitive draws: ``kind`` is "point", "link", "slide", "step", "driver",
+    "image" (a link's image figure on a polygon), "path" (a point's path over the
+    cycle) or a part of the sheet ("scale bar",
+    "frame", "title block", "results table", "legend", "note"); ``name`` names the
+    point, link, slide or step id (the view's name for a scale bar, "" for the
+    sheet's own parts). A backend keeps it with what it makes, so a window leads a
+    click or a hover back to the model and moves the same item from pose to pose."""
+
+    kind: str
+    name: str = ""
+
+
+# The primitives are named tuples, not dataclasses: a window records its views at every frame
+# of a drag, and a tuple is made in two thirds of the time of a frozen dataclass.
+class Line(NamedTuple):
     start: tuple
     end: tuple
     pen: Pen
     view: str = ""
-    step: str = ""
-    part: str = ""
+    ref: Ref | None = None
 
 
-@dataclass(frozen=True)
-class Polyline:
+class Polyline(NamedTuple):
     points: tuple
     pen: Pen
     closed: bool = False
     view: str = ""
-    step: str = ""
-    part: str = ""
+    ref: Ref | None = None
 
 
-@dataclass(frozen=True)
-class Arrow:
+class Strokes(NamedTuple):
+    """Separate straight strokes in one pen (hatching, ticks): ``points`` taken in pairs,
+    each pair one stroke."""
+
+    points: tuple
+    pen: Pen
+    view: str = ""
+    ref: Ref | None = None
+
+
+class Arrow(NamedTuple):
     """A vector: shaft from ``start`` to ``end`` and a filled ``head`` triangle
     (its three corners, tip first) at ``end``."""
 
@@ -55,23 +75,19 @@ class Arrow:
     head: tuple
     pen: Pen
     view: str = ""
-    step: str = ""
-    part: str = ""
+    ref: Ref | None = None
 
 
-@dataclass(frozen=True)
-class Circle:
+class Circle(NamedTuple):
     centre: tuple
     radius: float
     pen: Pen
     filled: bool = False
     view: str = ""
-    step: str = ""
-    part: str = ""
+    ref: Ref | None = None
 
 
-@dataclass(frozen=True)
-class Text:
+class Text(NamedTuple):
     """One line of text. ``height`` is the capital height (ISO 3098 h) in mm;
     ``align`` is "left", "centre" or "right" and ``anchor`` is "baseline",
     "middle" (half the capital height) or "top" (top of the capitals).
@@ -84,24 +100,20 @@ class Text:
     align: str = "left"
     anchor: str = "baseline"
     view: str = ""
-    step: str = ""
-    part: str = ""
+    ref: Ref | None = None
     mono: bool = False
 
 
-@dataclass(frozen=True)
-class Hatch:
+class Hatch(NamedTuple):
     """A solid-filled closed outline."""
 
     points: tuple
     pen: Pen
     view: str = ""
-    step: str = ""
-    part: str = ""
+    ref: Ref | None = None
 
 
-@dataclass(frozen=True)
-class Note:
+class Note(NamedTuple):
     """A paragraph: ``lines`` from ``position`` (left end of the first line's
     capitals' top) downwards, ``pitch`` mm apart, capital height ``height``."""
 
@@ -111,8 +123,7 @@ class Note:
     pitch: float
     pen: Pen
     view: str = ""
-    step: str = ""
-    part: str = ""
+    ref: Ref | None = None
 
 
 @dataclass(frozen=True)
@@ -120,7 +131,8 @@ class View:
     """Where one view sits: ``box`` (x0, y0, x1, y1) in sheet mm, ``origin`` the
     sheet position of the model's zero, and ``mm_per_unit`` sheet mm per model
     unit (per metre for the space diagram, per m/s or m/s² for a polygon).
-    ``scale_text`` is the scale as printed ("1:2", "1 mm = 0.01 m/s")."""
+    ``scale_text`` is the scale as printed ("1:2", "1 mm = 0.01 m/s"); ``significant``
+    the digits a true-size view rounds its points to (0: none; see :meth:`place`)."""
 
     name: str
     box: tuple
@@ -129,9 +141,21 @@ class View:
     unit: str
     scale_text: str
 
+    significant: int = 0
+
     def place(self, xy) -> tuple:
-        """Sheet position of model point ``xy`` (model units)."""
-        return (self.origin[0] + float(xy[0]) * self.mm_per_unit, self.origin[1] + float(xy[1]) * self.mm_per_unit)
+        """Sheet position of model point ``xy`` (model units); to ``significant`` digits where set.
+
+        The solver works in metres: a joint at 470 mm in the file comes back as 0.47 m and would
+        be drawn at 470.00000000000006 mm. A true-size drawing rounds to 15 significant digits
+        (a double holds 15 to 17; the last are the noise of the unit conversions) and carries
+        the file's own numbers.
+        """
+        (ox, oy), k = self.origin, self.mm_per_unit
+        x, y = ox + xy[0] * k, oy + xy[1] * k  # plain floats in, plain floats out (every caller gives floats)
+        if self.significant:
+            x, y = float(f"{x:.{self.significant}g}"), float(f"{y:.{self.significant}g}")
+        return (x, y)
 
 
 @dataclass(frozen=True)
@@ -149,15 +173,29 @@ class Sheet:
         return tuple(p for p in self.primitives if p.view == name)
 
     def of_step(self, step_id: str) -> tuple:
-        return tuple(p for p in self.primitives if p.step == step_id)
+        return self.of_ref(Ref("step", step_id))
+
+    def of_ref(self, ref: Ref) -> tuple:
+        return tuple(p for p in self.primitives if p.ref == ref)
 
 
 @dataclass
 class Recorder:
-    """The collector backend the drawing code writes to; ``sheet()`` freezes it."""
+    """The collector backend the drawing code writes to; ``sheet()`` freezes it.
+
+    ``labels`` and ``marks`` are what :func:`~kinematics.drawing.declutter.declutter` works
+    from: each label placed so far (its primitive's index and how it was placed) and the boxes
+    of the marks a label must keep clear of, per view. A ``draft`` (a window's drawing while
+    the pose follows the mouse) sets labels where they face, without searching for the side
+    clearest of the lines through their point; they are still kept apart from each other and
+    from the marks.
+    """
 
     primitives: list = field(default_factory=list)
     views: dict = field(default_factory=dict)
+    labels: list = field(default_factory=list)
+    marks: list = field(default_factory=list)
+    draft: bool = False
 
     def add(self, primitive) -> None:
         self.primitives.append(primitive)

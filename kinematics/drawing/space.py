@@ -1,18 +1,19 @@
 """The space diagram as the trade draws it: link centre lines from joint
 centre to joint centre (a plate as its outline through its joints), so any
 length on paper measures true at the drawing scale; pins, fixed pivots,
-slider blocks and guides as symbols of constant paper size."""
+slider blocks and guides as symbols of constant paper size. Each primitive
+carries a :class:`~kinematics.drawing.sheet.Ref` to the point, link or slide
+it draws."""
 
 from __future__ import annotations
 
 import math
 
-import numpy as np
-
 from ..model.mechanism import GROUND
 from . import symbols
-from .sheet import Line, Polyline, Recorder, Text, View
-from .style import ANNOTATION, SPACE_GROUND, SPACE_LINK
+from .declutter import declutter
+from .sheet import Line, Polyline, Recorder, Ref, Strokes, Text, View
+from .style import ANNOTATION, SPACE_GROUND, SPACE_LINK, SPACE_PATH
 from .symbols import Symbols
 
 # Points this close to one line (relative to the link's size) make a straight bar, not a plate.
@@ -25,43 +26,87 @@ def outline(names, xy: dict) -> tuple:
     names = list(names)
     if len(names) <= 2:
         return tuple(names), False
-    pts = np.array([xy[n] for n in names], dtype=float)
-    centre = pts.mean(axis=0)
-    spread = pts - centre
-    size = float(np.max(np.hypot(*spread.T)))
-    _, singular, axes = np.linalg.svd(spread)
-    if size == 0.0 or singular[-1] <= COLLINEAR * size * math.sqrt(len(names)):
-        along = spread @ axes[0]
-        return tuple(names[i] for i in np.argsort(along, kind="stable")), False
-    angles = np.arctan2(spread[:, 1], spread[:, 0])
-    return tuple(names[i] for i in np.argsort(angles, kind="stable")), True
+    # Plain floats: a window orders every link at every frame of a drag, and numpy's overhead
+    # on three or four points costs ten times the arithmetic.
+    cx = sum(xy[n][0] for n in names) / len(names)
+    cy = sum(xy[n][1] for n in names) / len(names)
+    spread = [(xy[n][0] - cx, xy[n][1] - cy) for n in names]
+    far = max(spread, key=lambda d: math.hypot(*d))
+    size = math.hypot(*far)
+    if size == 0.0:
+        return tuple(names), False
+    # Every point's distance from the line through the centre and the farthest point: at
+    # rounding level for points in one line.
+    ux, uy = far[0] / size, far[1] / size
+    if max(abs(ux * dy - uy * dx) for dx, dy in spread) <= COLLINEAR * size * math.sqrt(len(names)):
+        along = [ux * dx + uy * dy for dx, dy in spread]
+        if along[0] > 0.0:
+            along = [-a for a in along]  # the bar runs from the end nearer the link's first point
+        return tuple(names[i] for i in sorted(range(len(names)), key=along.__getitem__)), False
+    angles = [math.atan2(dy, dx) for dx, dy in spread]
+    return tuple(names[i] for i in sorted(range(len(names)), key=angles.__getitem__)), True
 
 
 def positions(solution) -> dict:
     """Point name -> (x, y) in metres, straight from the solved pose."""
-    return {name: (float(solution.positions[i][0]), float(solution.positions[i][1]))
-            for i, name in enumerate(solution.point_names)}
+    return {name: (float(x), float(y)) for name, (x, y) in zip(solution.point_names, solution.positions.tolist(),
+                                                                strict=True)}
+
+
+def file_positions(mech) -> dict:
+    """Point name -> (x, y) in metres, as the file places them (a design not yet solvable)."""
+    return {name: mech.position_m(name) for name in mech.points}
+
+
+def traced_points(mech) -> tuple:
+    """The points whose paths over the cycle a space diagram shows: a point carried by one
+    link only, off every slide, other than the two joints the link lists first (a coupler point)."""
+    on_slides = {n for slide in mech.slides.values() for n in (slide.point, *slide.line)}
+    out = []
+    for name in mech.points:
+        bodies = mech.bodies_of(name)
+        if name in mech.ground or name in on_slides or len(bodies) != 1:
+            continue
+        points = mech.links[bodies[0]]
+        if len(points) > 2 and name not in points[:2]:
+            out.append(name)
+    return tuple(out)
 
 
 def draw_space(rec: Recorder, solution, view: View, size: Symbols) -> None:
     """Record the space diagram of ``solution`` into ``view``."""
-    mech = solution.mechanism
-    xy = positions(solution)
+    draw_linkage(rec, solution.mechanism, positions(solution), view, size)
+
+
+def draw_linkage(rec: Recorder, mech, xy: dict, view: View, size: Symbols) -> None:
+    """Record the space diagram of ``mech`` with its points at ``xy`` (name -> (x, y), metres)."""
     at = {name: view.place(p) for name, p in xy.items()}
-    ids = {"view": view.name}
-    for link, names in mech.links.items():
-        order, closed = outline(names, xy)
+    if not at:
+        return
+    orders = {link: outline(names, xy) for link, names in mech.links.items()}
+    for link, (order, closed) in orders.items():
+        ids = {"view": view.name, "ref": Ref("link", link)}
         if len(order) == 2:
-            rec.add(Line(start=at[order[0]], end=at[order[1]], pen=SPACE_LINK, part=link, **ids))
+            rec.add(Line(start=at[order[0]], end=at[order[1]], pen=SPACE_LINK, **ids))
         elif len(order) > 2:
-            rec.add(Polyline(points=tuple(at[n] for n in order), pen=SPACE_LINK, closed=closed, part=link, **ids))
+            rec.add(Polyline(points=tuple(at[n] for n in order), pen=SPACE_LINK, closed=closed, **ids))
     for slide in mech.slides.values():
-        _draw_slide(rec, slide, at, size, ids)
-    centre = tuple(np.mean(list(at.values()), axis=0))
-    _draw_joints(rec, mech, at, centre, size, ids)
-    _draw_link_names(rec, mech, xy, at, centre, size, ids)
+        _draw_slide(rec, slide, at, size, {"view": view.name, "ref": Ref("slide", slide.name)})
+    xs, ys = [x for x, _ in at.values()], [y for _, y in at.values()]
+    centre = (sum(xs) / len(xs), sum(ys) / len(ys))
+    _draw_joints(rec, mech, at, centre, size, view.name)
+    _draw_link_names(rec, orders, at, centre, size, view.name)
     if mech.driver is not None:
-        _draw_driver_sense(rec, mech, at, centre, size, ids)
+        _draw_driver_sense(rec, mech, at, centre, size, {"view": view.name, "ref": Ref("driver", mech.driver.link)})
+    declutter(rec, view.name)
+
+
+def draw_paths(rec: Recorder, sweep, view: View, names) -> None:
+    """The paths of points ``names`` over the cycle ``sweep`` (a :class:`kinematics.Sweep`)."""
+    for name in names:
+        track = sweep.positions[:, sweep.point_names.index(name)].tolist()
+        rec.add(Polyline(points=tuple(view.place(p) for p in track), pen=SPACE_PATH, closed=sweep.closes,
+                         view=view.name, ref=Ref("path", name)))
 
 
 def _segments(primitives, view: str) -> list:
@@ -78,16 +123,19 @@ def _segments(primitives, view: str) -> list:
     return out
 
 
-def _draw_link_names(rec: Recorder, mech, xy, at, centre, size: Symbols, ids) -> None:
+def _draw_link_names(rec: Recorder, orders: dict, at, centre, size: Symbols, view: str) -> None:
     """Each link's name in small text, so the results table reads against the
     drawing: beside a bar's middle (on the side away from the mechanism's
-    middle), at a plate's centre."""
-    for link, names in mech.links.items():
-        order, closed = outline(names, xy)
+    middle), at a plate's centre. ``orders`` is each link's :func:`outline`."""
+    small = Symbols(text=size.small_text)
+    for link, (order, closed) in orders.items():
+        ids = {"view": view, "ref": Ref("link", link)}
         if closed:
-            where = tuple(np.mean([at[n] for n in order], axis=0))
+            where = (sum(at[n][0] for n in order) / len(order), sum(at[n][1] for n in order) / len(order))
             rec.add(Text(position=where, text=link, height=size.small_text, pen=ANNOTATION, align="centre",
-                         anchor="middle", part=link, **ids))
+                         anchor="middle", **ids))
+            continue
+        if len(order) < 2:
             continue
         (x0, y0), (x1, y1) = at[order[0]], at[order[-1]]
         length = math.hypot(x1 - x0, y1 - y0)
@@ -97,8 +145,8 @@ def _draw_link_names(rec: Recorder, mech, xy, at, centre, size: Symbols, ids) ->
         nx, ny = -(y1 - y0) / length, (x1 - x0) / length
         if (middle[0] - centre[0]) * nx + (middle[1] - centre[1]) * ny < 0:
             nx, ny = -nx, -ny
-        symbols.label(rec, middle, link, (middle[0] - nx, middle[1] - ny), ANNOTATION,
-                      Symbols(text=size.small_text), gap=0.5 * size.small_text, part=link, **ids)
+        symbols.label(rec, middle, link, (middle[0] - nx, middle[1] - ny), ANNOTATION, small,
+                      gap=0.5 * size.small_text, **ids)
 
 
 def _guide_sides(mech, at) -> dict:
@@ -113,57 +161,56 @@ def _guide_sides(mech, at) -> dict:
     return sides
 
 
-def _draw_joints(rec: Recorder, mech, at, centre, size: Symbols, ids) -> None:
+def _draw_joints(rec: Recorder, mech, at, centre, size: Symbols, view: str) -> None:
     """Pins, fixed-pivot marks and point labels."""
     sliding = {slide.point for slide in mech.slides.values()}
     sides = _guide_sides(mech, at)
-    segments = _segments(rec.primitives, ids["view"])
+    lines = [] if rec.draft else symbols.lines_near(_segments(rec.primitives, view), size.dot)
     for name, where in at.items():
+        ids = {"view": view, "ref": Ref("point", name)}
         bodies = mech.bodies_of(name)
         # A fixed point on no link only marks where a guide runs: no pivot symbol for it.
         pivot = GROUND in bodies and len(bodies) > 1
         if pivot:
-            symbols.fixed_pivot(rec, where, SPACE_GROUND, size, part=name, **ids)
-        symbols.pin(rec, where, SPACE_LINK, size, joint=len(bodies) > 1, part=name, **ids)
+            symbols.fixed_pivot(rec, where, SPACE_GROUND, size, **ids)
+        symbols.pin(rec, where, SPACE_LINK, size, joint=len(bodies) > 1, **ids)
         # A label clears the fixed-pivot mark under its pin, or the slider block round it;
         # on a fixed guide it goes to the side without hatching, elsewhere away from the middle.
         gap = 5.0 * size.pin if pivot else 4.0 * size.pin if name in sliding else size.pin
         side = sides.get(name)
         away_from = (where[0] - side[0], where[1] - side[1]) if side is not None and not pivot else centre
-        avoid = symbols.directions_at(where, segments, tolerance=size.dot)
+        avoid = symbols.directions_at(where, lines)
         if pivot:
             avoid.append(-0.5 * math.pi)  # the fixed-pivot mark hangs below the pin
-        symbols.label(rec, where, name, away_from, SPACE_LINK, size, gap=gap, avoid=avoid, part=name, **ids)
+        symbols.label(rec, where, name, away_from, SPACE_LINK, size, gap=gap, avoid=avoid, **ids)
 
 
 def _draw_slide(rec: Recorder, slide, at, size: Symbols, ids) -> None:
     """The slider block on its line; a fixed guide also as a hatched line past the block's reach."""
-    e, f, d = (np.array(at[n]) for n in (*slide.line, slide.point))
-    length = float(np.hypot(*(f - e)))
+    (ex, ey), (fx, fy), (dx, dy) = (at[n] for n in (*slide.line, slide.point))
+    length = math.hypot(fx - ex, fy - ey)
     if length == 0.0:
         return
-    u = (f - e) / length
+    ux, uy = (fx - ex) / length, (fy - ey) / length
     if slide.guide == GROUND:
-        along = [0.0, length, float((d - e) @ u)]
+        along = (0.0, length, (dx - ex) * ux + (dy - ey) * uy)
         reach = 4.0 * size.pin  # the guide runs a little past the block's travel shown
         lo, hi = min(along) - reach, max(along) + reach
-        rec.add(Line(start=_point(e + lo * u), end=_point(e + hi * u), pen=SPACE_GROUND, part=slide.name, **ids))
-        # Hatching on the guide's right-hand side marks it as fixed.
-        below = np.array([u[1], -u[0]])
-        pitch = 3.0 * size.pin
+        rec.add(Line(start=(ex + lo * ux, ey + lo * uy), end=(ex + hi * ux, ey + hi * uy), pen=SPACE_GROUND, **ids))
+        # Hatching on the guide's right-hand side marks it as fixed: strokes at 45° back along it.
+        pitch, stroke = 3.0 * size.pin, 2.0 * size.pin * 0.7071
+        hx, hy = stroke * (uy - ux), stroke * (-ux - uy)
+        strokes = []
         for k in range(int((hi - lo) // pitch) + 1):
-            start = e + (lo + k * pitch) * u
-            end = start + 2.0 * size.pin * (0.7071 * below - 0.7071 * u)
-            rec.add(Line(start=_point(start), end=_point(end), pen=SPACE_GROUND, part=slide.name, **ids))
-    symbols.slider_block(rec, _point(d), _point(u), SPACE_LINK, size, part=slide.name, **ids)
+            sx, sy = ex + (lo + k * pitch) * ux, ey + (lo + k * pitch) * uy
+            strokes += [(sx, sy), (sx + hx, sy + hy)]
+        rec.add(Strokes(points=tuple(strokes), pen=SPACE_GROUND, **ids))
+    symbols.slider_block(rec, (dx, dy), (ux, uy), SPACE_LINK, size, **ids)
 
 
-def _point(array) -> tuple:
-    return (float(array[0]), float(array[1]))
-
-
-def _angle_gap(a: float, b: float) -> float:
-    return abs((a - b + math.pi) % (2.0 * math.pi) - math.pi)
+# Where the driver's sense arrow may sit round its pivot: every 10°.
+_ARC_STEP = math.radians(10.0)
+_TURN = 2.0 * math.pi
 
 
 def _draw_driver_sense(rec: Recorder, mech, at, centre, size: Symbols, ids) -> None:
@@ -177,10 +224,13 @@ def _draw_driver_sense(rec: Recorder, mech, at, centre, size: Symbols, ids) -> N
             for n in names if n != driver.pivot]
     busy.append(math.atan2(cy - centre[1], cx - centre[0]))  # the label sits away from the middle
     busy.append(-0.5 * math.pi)  # the fixed-pivot mark hangs below
-    middle = max((math.radians(d) for d in range(0, 360, 10)), key=lambda c: min(_angle_gap(c, b) for b in busy))
+    # In the middle of the widest gap between the busy directions, on the 10° grid.
+    busy = sorted(b % _TURN for b in busy)
+    widest, start = max(((busy[(i + 1) % len(busy)] - b) % _TURN or _TURN, b) for i, b in enumerate(busy))
+    middle = round((start + 0.5 * widest) / _ARC_STEP) * _ARC_STEP
     sense = 1.0 if driver.speed_rad_s > 0 else -1.0
     radius = 5.5 * size.pin
     angles = [middle + sense * math.radians(-45 + 5 * k) for k in range(19)]  # 90° of arc
     points = tuple((cx + radius * math.cos(a), cy + radius * math.sin(a)) for a in angles)
-    rec.add(Polyline(points=points[:-8], pen=ANNOTATION, part=driver.link, **ids))
-    symbols.arrow(rec, points[-9], points[-1], ANNOTATION, size, part=driver.link, **ids)
+    rec.add(Polyline(points=points[:-8], pen=ANNOTATION, **ids))
+    symbols.arrow(rec, points[-9], points[-1], ANNOTATION, size, **ids)

@@ -1,12 +1,17 @@
 """Symbol sizes and the small shapes every view draws (arrowheads, pins,
-fixed-pivot marks, slider blocks, labels), in sheet millimetres."""
+fixed-pivot marks, slider blocks, labels), in sheet millimetres.
+
+Each mark a label must keep clear of is noted in the recorder's ``marks``
+(view, box), and each label in its ``labels``, for
+:func:`~kinematics.drawing.declutter.declutter`.
+"""
 
 from __future__ import annotations
 
 import math
 from dataclasses import dataclass
 
-from .sheet import Arrow, Circle, Line, Polyline, Recorder, Text
+from .sheet import Arrow, Circle, Polyline, Recorder, Strokes, Text
 
 
 @dataclass(frozen=True)
@@ -38,7 +43,22 @@ def arrow(rec: Recorder, start, end, pen, size: Symbols, **ids) -> bool:
     half = 0.2 * head  # head width 1:2.5 of its length, a usual drafting proportion  # common practice
     corners = (end, (back[0] - half * uy, back[1] + half * ux), (back[0] + half * uy, back[1] - half * ux))
     rec.add(Arrow(start=start, end=end, head=corners, pen=pen, **ids))
+    mark(rec, corners, ids.get("view", ""))
     return True
+
+
+def mark(rec: Recorder, points, view: str) -> None:
+    """Note the box round ``points`` as one a label must keep clear of."""
+    (x0, y0), *rest = points
+    x1, y1 = x0, y0
+    for x, y in rest:  # written out: every arrowhead of every frame comes here
+        x0, x1, y0, y1 = min(x0, x), max(x1, x), min(y0, y), max(y1, y)
+    rec.marks.append((view, (x0, y0, x1, y1)))
+
+
+def dot_mark(rec: Recorder, at, radius: float, view: str) -> None:
+    """Note the box of a round mark of ``radius`` about ``at``."""
+    rec.marks.append((view, (at[0] - radius, at[1] - radius, at[0] + radius, at[1] + radius)))
 
 
 def fixed_pivot(rec: Recorder, at, pen, size: Symbols, **ids) -> None:
@@ -46,19 +66,21 @@ def fixed_pivot(rec: Recorder, at, pen, size: Symbols, **ids) -> None:
     x, y = at
     w, h = 2.4 * size.pin, 3.2 * size.pin
     base = y - size.pin - h
-    rec.add(Polyline(points=((x, y - size.pin), (x - w, base), (x + w, base)), pen=pen, closed=True, **ids))
-    rec.add(Line(start=(x - 1.6 * w, base), end=(x + 1.6 * w, base), pen=pen, **ids))
+    triangle = ((x, y - size.pin), (x - w, base), (x + w, base))
+    rec.add(Polyline(points=triangle, pen=pen, closed=True, **ids))
+    mark(rec, triangle, ids.get("view", ""))
+    strokes = [(x - 1.6 * w, base), (x + 1.6 * w, base)]  # the base line, then its hatching
     for i in range(5):
         left = x - 1.6 * w + i * 0.8 * w
-        rec.add(Line(start=(left + 0.6 * w, base), end=(left, base - 0.6 * w), pen=pen, **ids))
+        strokes += [(left + 0.6 * w, base), (left, base - 0.6 * w)]
+    rec.add(Strokes(points=tuple(strokes), pen=pen, **ids))
 
 
 def pin(rec: Recorder, at, pen, size: Symbols, joint: bool, **ids) -> None:
     """A pin joint (open circle) or a point on one body only (filled dot)."""
-    if joint:
-        rec.add(Circle(centre=at, radius=size.pin, pen=pen, **ids))
-    else:
-        rec.add(Circle(centre=at, radius=size.dot, pen=pen, filled=True, **ids))
+    radius = size.pin if joint else size.dot
+    rec.add(Circle(centre=at, radius=radius, pen=pen, filled=not joint, **ids))
+    dot_mark(rec, at, size.pin, ids.get("view", ""))  # a dot keeps a pin's room: it is picked with the mouse
 
 
 def slider_block(rec: Recorder, at, direction, pen, size: Symbols, **ids) -> None:
@@ -70,20 +92,34 @@ def slider_block(rec: Recorder, at, direction, pen, size: Symbols, **ids) -> Non
         corners.append((at[0] + a * half_long * ux - b * half_short * uy,
                         at[1] + a * half_long * uy + b * half_short * ux))
     rec.add(Polyline(points=tuple(corners), pen=pen, closed=True, **ids))
+    mark(rec, corners, ids.get("view", ""))
 
 
-def directions_at(point, segments, tolerance: float) -> list:
-    """Directions (radians) of the ``segments`` ((x0, y0), (x1, y1)) that pass within ``tolerance`` of ``point``."""
-    px, py = point
+def lines_near(segments, tolerance: float) -> list:
+    """``segments`` ((x0, y0), (x1, y1)) made ready for :func:`directions_at`: each with its box
+    grown by ``tolerance``, its direction and what the distance test needs (worked out once for
+    all the labels of a view)."""
     out = []
     for (x0, y0), (x1, y1) in segments:
         dx, dy = x1 - x0, y1 - y0
         length2 = dx * dx + dy * dy
-        if length2 == 0.0:
-            continue
-        t = min(1.0, max(0.0, ((px - x0) * dx + (py - y0) * dy) / length2))
-        if math.hypot(x0 + t * dx - px, y0 + t * dy - py) <= tolerance:
-            out.append(math.atan2(dy, dx))
+        if length2 > 0.0:
+            out.append((min(x0, x1) - tolerance, max(x0, x1) + tolerance, min(y0, y1) - tolerance,
+                        max(y0, y1) + tolerance, x0, y0, dx, dy, length2, math.atan2(dy, dx), tolerance))
+    return out
+
+
+def directions_at(point, lines: list) -> list:
+    """Directions (radians) of the ``lines`` (from :func:`lines_near`) that pass within their
+    tolerance of ``point``."""
+    px, py = point
+    out = []
+    for left, right, bottom, top, x0, y0, dx, dy, length2, direction, tolerance in lines:
+        # Most lines are far from the point: their box tells at once.
+        if left <= px <= right and bottom <= py <= top:
+            t = min(1.0, max(0.0, ((px - x0) * dx + (py - y0) * dy) / length2))
+            if math.hypot(x0 + t * dx - px, y0 + t * dy - py) <= tolerance:
+                out.append(direction)
     return out
 
 
@@ -91,17 +127,37 @@ def directions_at(point, segments, tolerance: float) -> list:
 CLEAR_ANGLE = math.radians(40.0)
 
 
+# The sixteen directions a label may take, as turns from its preferred one, with the bonus each
+# gets for staying near it; tried in the order of that bonus, so the search can stop as soon as
+# no direction left could score better (each keeps its place in the sixteen for ties).
+_TURNS = sorted(((k * math.pi / 8.0, 0.3 * math.cos(k * math.pi / 8.0), k) for k in range(16)),
+                key=lambda turn: (-turn[1], turn[2]))
+
+
 def _label_direction(away: float, avoid) -> float:
     """The direction to set a label in: clear of the lines through the point
-    (``avoid``, radians, either sense), and as near ``away`` as that allows."""
-    if not avoid:
-        return away
+    (``avoid``, radians, either sense), and as near ``away`` as that allows.
 
-    def clearance(c):
-        return min(abs((c - a + 0.5 * math.pi) % math.pi - 0.5 * math.pi) for a in avoid)
-
-    candidates = [away + k * math.pi / 8.0 for k in range(16)]
-    return max(candidates, key=lambda c: min(clearance(c), CLEAR_ANGLE) + 0.3 * math.cos(c - away))
+    Of the sixteen directions, the one with the best score, clearance (up to CLEAR_ANGLE) plus a
+    bonus for staying near ``away``; the first of the sixteen among equals.
+    """
+    # Written out in loops rather than min/max over generators: this runs for every label of
+    # every view at every frame of a drag.
+    half = 0.5 * math.pi
+    best, best_score, best_k = away, -math.inf, 16
+    for turn, bonus, k in _TURNS:
+        if CLEAR_ANGLE + bonus < best_score:
+            break  # no direction left can do better
+        candidate = away + turn
+        clearance = CLEAR_ANGLE  # clear enough: further does not count
+        for line in avoid:
+            gap = abs((candidate - line + half) % math.pi - half)
+            if gap < clearance:
+                clearance = gap
+        score = clearance + bonus
+        if score > best_score or (score == best_score and k < best_k):
+            best, best_score, best_k = candidate, score, k
+    return best
 
 
 def label(rec: Recorder, at, text: str, away_from, pen, size: Symbols, gap: float, avoid=(), **ids) -> None:
@@ -111,9 +167,16 @@ def label(rec: Recorder, at, text: str, away_from, pen, size: Symbols, gap: floa
     dx, dy = at[0] - away_from[0], at[1] - away_from[1]
     away = math.atan2(dy, dx) if math.hypot(dx, dy) > 1e-9 else math.pi / 4.0
     direction = _label_direction(away, avoid)
+    rec.labels.append((len(rec.primitives), at, gap, direction))
+    rec.add(text_beside(at, direction, gap, Text(position=at, text=text, height=size.text, pen=pen, **ids)))
+
+
+def text_beside(at, direction: float, gap: float, text: Text) -> Text:
+    """``text`` set beside ``at`` towards ``direction`` (radians), clear of a mark ``gap`` mm
+    wide: aligned and anchored on the side facing the point."""
     ux, uy = math.cos(direction), math.sin(direction)
-    distance = gap + 0.6 * size.text
-    position = (at[0] + distance * ux, at[1] + distance * uy)
+    distance = gap + 0.6 * text.height
     align = "left" if ux > 0.38 else "right" if ux < -0.38 else "centre"
     anchor = "baseline" if uy > 0.38 else "top" if uy < -0.38 else "middle"
-    rec.add(Text(position=position, text=text, height=size.text, pen=pen, align=align, anchor=anchor, **ids))
+    return Text((at[0] + distance * ux, at[1] + distance * uy), text.text, text.height, text.pen, align, anchor,
+                text.view, text.ref)

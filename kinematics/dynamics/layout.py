@@ -66,6 +66,7 @@ class Layout:
     size: int
 
     def element_row(self, e: int) -> int:
+        """The first of element ``e``'s two force rows."""
         return 3 * len(self.links) + 2 * e
 
 

@@ -1,4 +1,6 @@
-"""The drive and the bearings over a cycle at constant speed (common practice):
+"""The drive and the bearings over a cycle at constant speed (common practice).
+
+It works out:
 
 - mean torque T_m = (1/2π)∮T dθ, the mean of the equally spaced poses of the turn; RMS torque;
   peak torque (the largest |T|, with its sign) and its angle; mean and peak power T·ω;

@@ -15,7 +15,7 @@ from ..groups.steps import Component, Construction, Role, Step, as_xy, figure
 
 
 def angular_accelerations(construction: Construction, pos: dict, acc: dict) -> dict:
-    """link -> (α rad/s², how it was read): from the first tangential component the polygon draws
+    """Link -> (α rad/s², how it was read): from the first tangential component the polygon draws
     for the link, α = cross(r, a^t)/|r|²; a driver with none has α = 0; a link of a group that is
     no dyad (no components drawn) from two of its images, α = cross(r, a_Q − a_P)/|r|² (the radial
     part has no cross)."""
@@ -49,13 +49,14 @@ NO_FORCE_N = 1e-100
 
 
 def inertia_offset(force: complex, couple: float) -> complex:
-    """r with cross(r, F) = C, perpendicular to F: r = −i·C·F/|F|² (|r| = |C|/|F| = I·|α|/(m·|a_G|))."""
+    """The offset r of the inertia force's line from G: cross(r, F) = C with r perpendicular to F,
+    r = −i·C·F/|F|² (|r| = |C|/|F| = I·|α|/(m·|a_G|))."""
     size = abs(force)
     return -1j * couple * (force / size) / size
 
 
 def centre_images(construction: Construction, pos: dict, acc: dict) -> tuple:
-    """link -> (G, a_G) complex for every link with a mass entry, and the image steps g′ (on the
+    """Link -> (G, a_G) complex for every link with a mass entry, and the image steps g′ (on the
     acceleration polygon, numbered after its own steps)."""
     mech = construction.solution.mechanism
     k = mech.metres_per_unit

@@ -14,6 +14,7 @@ from __future__ import annotations
 from dataclasses import dataclass
 
 import numpy as np
+from typing_extensions import override
 
 from ..errors import KinematicsError
 from ..model.mechanism import Mechanism
@@ -40,27 +41,54 @@ from .steps import Component, PolygonBuilder, Role, figure
 
 @dataclass(frozen=True)
 class ActuatorGroup(Group):
-    """Roles C (the barrel's pivot), B (the rod's end) and A (the known pin of the link carrying B);
-    ``links`` is (the barrel, the link carrying B); ``slide`` names the cylinder's slide."""
+    """The cylinder heading a decomposition.
+
+    Attributes
+    ----------
+    roles : dict
+        ``C`` the barrel's pivot on the ground, ``B`` the rod's end, ``A`` the known pin of the
+        link carrying B.
+    links : tuple of str
+        (the barrel, the link carrying B).
+    slide : str
+        The cylinder's slide (its point the rod's end, its guide the barrel).
+    """
 
     notation = "cylinder"
 
     @property
     def link(self) -> str:
+        """The barrel: the link the cylinder's length is measured along.
+
+        Returns
+        -------
+        str
+            The barrel link's name.
+        """
         return self.links[0]
 
     @property
     def pivot(self) -> str:
+        """The barrel's ground pivot, where the cylinder's length is measured from.
+
+        Returns
+        -------
+        str
+            The pivot point's name.
+        """
         return self.roles["C"]
 
     @property
+    @override
     def name(self) -> str:
         return f"cylinder {self.slide}"
 
+    @override
     def branch_sign(self, mech: Mechanism) -> float:
         (cx, cy), (bx, by), (ax, ay) = (mech.position_m(self.roles[k]) for k in "CBA")
         return 1.0 if (ax - cx) * (by - cy) - (ay - cy) * (bx - cx) >= 0 else -1.0
 
+    @override
     def reach_message(self, mech: Mechanism) -> str:
         return f"the cylinder {self.slide} and link {self.links[1]} cannot reach"
 
@@ -69,6 +97,7 @@ class ActuatorGroup(Group):
         e, f = frame.mech.slides[self.slide].line
         return 1.0 if dot(frame.ref[f] - frame.ref[e], frame.ref[self.roles["B"]] - frame.ref[e]) >= 0 else -1.0
 
+    @override
     def position(self, frame: Frame, where: str = ""):
         ref, pos, r = frame.ref, frame.pos, self.roles
         c, a = pos[r["C"]], pos[r["A"]]
@@ -101,6 +130,7 @@ class ActuatorGroup(Group):
         """The rod's known velocity in the barrel, L̇·u, laid from c."""
         return frame.vel[self.roles["C"]] + frame.mech.driver.linear_speed_m_s * u
 
+    @override
     def velocity(self, frame: Frame):
         pos, vel = frame.pos, frame.vel
         c, b, a = (self.roles[k] for k in "CBA")
@@ -129,6 +159,7 @@ class ActuatorGroup(Group):
         turned = coriolis(omega, speed * u)
         return first, (first.end, first.end + turned), first.end + turned + accel * u
 
+    @override
     def acceleration(self, frame: Frame):
         pos, vel, acc = frame.pos, frame.vel, frame.acc
         c, b, a = (self.roles[k] for k in "CBA")
@@ -146,6 +177,7 @@ class ActuatorGroup(Group):
         frame.sliding_acceleration[self.slide] = self._line_sense(frame) * (np.zeros(np.shape(r)) + accel)
         return (first, second), meet
 
+    @override
     def jerk(self, frame: Frame):
         """j_B = j_Bg + L⃛·u + 3·L̇·(iα − ω²)·u + 3·L̈·iω·u (L⃛ = 0: constant sliding acceleration)."""
         pos = frame.pos
@@ -166,6 +198,7 @@ class ActuatorGroup(Group):
         frame.sliding_jerk[self.slide] = np.zeros(np.shape(r))
         return meet
 
+    @override
     def velocity_steps(self, builder: PolygonBuilder, frame: Frame, placed: set):
         vb, pos = builder, frame.pos
         c, b, a = (self.roles[k] for k in "CBA")
@@ -192,6 +225,7 @@ class ActuatorGroup(Group):
         for link in self.links:
             image_steps(vb, frame, link, placed, "vel")
 
+    @override
     def acceleration_steps(self, builder: PolygonBuilder, frame: Frame, placed: set):
         ab, pos = builder, frame.pos
         c, b, a = (self.roles[k] for k in "CBA")
@@ -221,11 +255,13 @@ class ActuatorGroup(Group):
         for link in self.links:
             image_steps(ab, frame, link, placed, "acc")
 
+    @override
     def force_steps(self, builder, state):
         """The cylinder's force polygon is not drawn yet: refused in words, naming the cylinder."""
         raise KinematicsError(f"the force polygon of a cylinder-driven design is not drawn yet ({self.name})",
                               self.name)
 
+    @override
     def pose_warnings(self, mech: Mechanism, xy: dict) -> list:
         c, b, a = (self.roles[k] for k in "CBA")
         off_line = angle_between_lines(vector(xy, b, c), vector(xy, b, a))
@@ -234,6 +270,7 @@ class ActuatorGroup(Group):
                     f"link {self.links[1]} at {b}"]
         return []
 
+    @override
     def transmission_angles(self, result) -> dict:
         """The cylinder's own: the angle at B between the cylinder's axis and the link it drives, 0–180°."""
         index = result.point_names.index

@@ -32,10 +32,12 @@ def cross(a, b):
 
 
 def dot(a, b):
+    """dot(a, b) = a_x b_x + a_y b_y for complex a, b."""
     return (np.conj(a) * b).real
 
 
 def unit(z):
+    """``z`` scaled to length 1 (complex; nan where ``z`` is zero)."""
     # Multiplying by the real reciprocal is several times faster than complex division.
     return z * (1.0 / np.abs(z))
 
@@ -162,6 +164,8 @@ class Frame:
                 self.vel[name] = self.vel[p] + 1j * self.omega[link] * (pos[name] - pos[p])
 
     def acceleration_images(self, link: str, p: str, pos: dict | None = None):
+        """Acceleration images of the points of ``link`` by similarity from image p′: a_Q = a_P + (iα − ω²)(z_Q − z_P)
+        (of the pose ``pos``, the frame's by default)."""
         pos = self.pos if pos is None else pos
         factor = -self.omega[link] ** 2 + 1j * self.alpha[link]
         for name in self.mech.links[link]:
@@ -182,6 +186,7 @@ class Frame:
                 self.jerk[name] = self.jerk[p] + factor * (pos[name] - pos[p])
 
     def angular_velocity(self, p: str, q: str):
+        """ω of the line p→q from the velocities of its ends: cross(r, v_q − v_p)/|r|²."""
         r = self.pos[q] - self.pos[p]
         return cross(r, self.vel[q] - self.vel[p]) / np.abs(r) ** 2
 
@@ -203,6 +208,7 @@ class Frame:
         return self.acc[base] + (-self.omega[guide] ** 2 + 1j * self.alpha[guide]) * r
 
     def slot(self, slide):
+        """The unit direction of ``slide``'s guide line and a point on it, at the frame's pose."""
         e, f = slide.line
         return unit(self.pos[f] - self.pos[e]), self.pos[e]
 
@@ -268,6 +274,7 @@ class Group(ABC):
 
     @property
     def name(self) -> str:
+        """The group in words, for messages and steps: "RRR group of coupler and rocker"."""
         return f"{self.notation} group of {' and '.join(self.links)}"
 
     @abstractmethod

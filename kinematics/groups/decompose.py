@@ -50,6 +50,7 @@ class Decomposition:
 
     @property
     def all_dyads(self) -> bool:
+        """Whether every group has a closed form (none falls back to the numeric solver)."""
         return all(g.is_dyad for g in self.groups)
 
 

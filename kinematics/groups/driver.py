@@ -7,10 +7,11 @@ from __future__ import annotations
 from dataclasses import dataclass
 
 import numpy as np
+from typing_extensions import override
 
 from .base import Frame, Group
-from .force_steps import FRAME, ForceState, as_pair, every, force_label, gather, lay, moment, pins_carried, result
-from .steps import Component, PolygonBuilder, Role, direction_deg, figure
+from .force_steps import FRAME, ForceState, every, force_label, gather, lay, moment, pins_carried, result
+from .steps import Component, PolygonBuilder, Role, as_xy, direction_words, figure
 
 
 @dataclass(frozen=True)
@@ -21,16 +22,20 @@ class DriverGroup(Group):
 
     @property
     def link(self) -> str:
+        """The driving link."""
         return self.links[0]
 
     @property
     def pivot(self) -> str:
+        """The ground pivot the driving link turns about."""
         return self.roles["O"]
 
     @property
+    @override
     def name(self) -> str:
         return f"driver {self.link}"
 
+    @override
     def position(self, frame: Frame, where: str = ""):
         """Place the driver link at ``frame.driver_angle_rad``."""
         mech, ref = frame.mech, frame.ref
@@ -42,6 +47,7 @@ class DriverGroup(Group):
             if name != self.pivot:
                 frame.pos[name] = frame.driver_pose[name] = o + (ref[name] - ref[self.pivot]) * turn
 
+    @override
     def velocity(self, frame: Frame):
         """ω as given; the images from the placement at the given angle (``frame.driver_pose``)."""
         omega = frame.mech.driver.speed_rad_s
@@ -49,12 +55,14 @@ class DriverGroup(Group):
         frame.velocity_images(self.link, self.pivot, frame.driver_pose)
         return None
 
+    @override
     def acceleration(self, frame: Frame):
         alpha = frame.mech.driver.angular_acceleration_rad_s2
         frame.alpha[self.link] = np.broadcast_to(np.asarray(alpha, float), np.shape(frame.pos[self.pivot])) + 0.0
         frame.acceleration_images(self.link, self.pivot, frame.driver_pose)
         return None
 
+    @override
     def jerk(self, frame: Frame):
         """α̇ as given (zero at constant angular acceleration); the images from the given placement."""
         jerk = frame.mech.driver.angular_jerk_rad_s3
@@ -62,6 +70,7 @@ class DriverGroup(Group):
         frame.jerk_images(self.link, self.pivot, frame.driver_pose)
         return None
 
+    @override
     def velocity_steps(self, builder: PolygonBuilder, frame: Frame, placed: set):
         self.velocity(frame)
         link, pivot, omega = self.link, self.pivot, frame.omega[self.link]
@@ -72,10 +81,11 @@ class DriverGroup(Group):
             v = frame.vel[q]
             builder.vector(Component.DRIVER, 0.0, v, builder.label(q), f"v_{q} = ω_{link} × r_{pivot}{q}",
                            f"velocity of {q}: ω·r = {figure(abs(omega))} rad/s × {figure(abs(r))} m = "
-                           f"{figure(abs(v))} m/s, perpendicular to {pivot}{q}, at {direction_deg(v):.1f}°",
+                           f"{figure(abs(v))} m/s, perpendicular to {pivot}{q}{direction_words(v)}",
                            points=(q,), links=(link,))
         placed.update(frame.mech.links[link])
 
+    @override
     def acceleration_steps(self, builder: PolygonBuilder, frame: Frame, placed: set):
         self.acceleration(frame)
         link, pivot = self.link, self.pivot
@@ -96,6 +106,7 @@ class DriverGroup(Group):
                                f"perpendicular to {pivot}{q}", points=(q,), links=(link,), about=pivot)
         placed.update(frame.mech.links[link])
 
+    @override
     def force_steps(self, builder: PolygonBuilder, state: ForceState):
         """Last: the loads on the driver laid, the frame's force at the pivot closes its polygon, and
         the drive torque balances their moment about the pivot (the arm of their resultant drawn)."""
@@ -115,9 +126,9 @@ class DriverGroup(Group):
             foot = o - 1j * turning * end / abs(end) ** 2
             arm = f"the resultant {figure(abs(end))} N of the loads on {link} acts at {figure(abs(foot - o))} m " \
                   f"from {pivot}"
-            space = (as_pair(o), as_pair(foot))
+            space = (as_xy(o), as_xy(foot))
         else:
-            arm, space = f"the loads on {link} are a pure couple", (as_pair(o),)
+            arm, space = f"the loads on {link} are a pure couple", (as_xy(o),)
         builder.add(Role.RESULT, Component.TORQUE, "T", (0j,), f"T + ΣM_{pivot}({link}) = 0",
                     f"T: the drive torque on {link}, {figure(torque)} N·m (counter-clockwise positive): {arm}, "
                     f"its moment about {pivot} is {figure(turning)} N·m", points=(pivot,), links=(link,), space=space)

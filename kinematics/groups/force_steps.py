@@ -22,7 +22,8 @@ import numpy as np
 from ..errors import ParallelLines
 from ..model.mechanism import GROUND
 from .base import Line, cross, intersect, unit
-from .steps import Component, PolygonBuilder, Role, direction_deg, figure
+from .steps import Component, PolygonBuilder, Role, as_xy, figure
+from .vectors import direction_deg
 
 FRAME = "frame"
 
@@ -69,15 +70,18 @@ class ForceState:
     torque_n_m: float = 0.0
 
     def body_name(self, body: tuple) -> str:
+        """A body in words: a link's name, "block B" for a slide's block, "pin P" for a point mass's pin."""
         kind, name = body
         if kind == "link":
             return name
         return f"{'block' if any(s.point == name for s in self.mech.slides.values()) else 'pin'} {name}"
 
     def add(self, body: tuple, load: Applied):
+        """Add ``load`` to the loads known on ``body``."""
         self.applied.setdefault(body, []).append(load)
 
     def holders(self, point: str) -> list:
+        """The links (not the frame) that hold ``point``."""
         return [k for k in self.mech.bodies_of(point) if k != GROUND]
 
     def other_side(self, point: str, link: str):
@@ -120,6 +124,7 @@ class ForceState:
                                                     f"the guide {guide}", links=(guide,), points=(slide.point,)))
 
     def owned_by(self, group) -> set:
+        """The points ``group`` places."""
         return self.owned[group.name]
 
 
@@ -144,6 +149,7 @@ def gather(state: ForceState, link: str, owned: set, last: tuple = ()) -> list:
 
 
 def every(runs: list) -> list:
+    """All the loads of ``runs`` [(body, loads)], in order."""
     return [load for _, loads in runs for load in loads]
 
 
@@ -158,15 +164,17 @@ def lay(builder: PolygonBuilder, start: complex, runs: list) -> tuple:
                 continue
             size = figure(abs(load.force))
             builder.vector(load.component, at, at + load.force, load.label, f"{load.label} = {size} N",
-                           f"{load.label}: {load.text}, {size} N at {direction_deg(load.force):.1f}°"
+                           f"{load.label}: {load.text}, {size} N at "
+                           f"{direction_deg(load.force.real, load.force.imag):.1f}°"
                            + (f", with a couple of {figure(load.couple)} N·m" if load.couple else ""),
-                           links=load.links, points=load.points, space=(as_pair(load.at),))
+                           links=load.links, points=load.points, space=(as_xy(load.at),))
             at += load.force
         ends[body] = (first, at)
     return at, ends
 
 
 def couples_text(loads) -> str:
+    """The pure couples among ``loads`` in words, for a step's sentence ("" if none)."""
     pure = [ld for ld in loads if ld.force == 0 and ld.couple]
     return "".join(f"; {ld.label}: a couple of {figure(ld.couple)} N·m" for ld in pure)
 
@@ -183,13 +191,9 @@ def pins_carried(builder: PolygonBuilder, state: ForceState, link: str, runs: li
 
 
 def by_name(state: ForceState, point: str, link: str) -> str:
+    """The name of what ``link`` is pinned to at ``point`` ("frame" for the ground)."""
     other = state.other_side(point, link)
     return FRAME if other is None else state.body_name(other)
-
-
-def as_pair(z) -> tuple:
-    z = complex(z)
-    return (z.real, z.imag)
 
 
 def perpendicular(builder: PolygonBuilder, start: complex, loads: list, pin: str, about: str, on: str, by: str,
@@ -217,7 +221,7 @@ def result(builder: PolygonBuilder, start: complex, end: complex, label: str, te
     """A force found on the polygon, from ``start`` to ``end``, with its value."""
     force = end - start
     builder.vector(component, start, end, label, f"{label} = {figure(abs(force))} N",
-                   f"{label}: {text}, {figure(abs(force))} N at {direction_deg(force):.1f}°"
+                   f"{label}: {text}, {figure(abs(force))} N at {direction_deg(force.real, force.imag):.1f}°"
                    if abs(force) else f"{label}: {text}, 0 N", role=Role.RESULT, **extra)
     return force
 

@@ -40,10 +40,12 @@ def grashof_class(frame: float, input_: float, coupler: float, output: float) ->
 
 
 def ground_pivot(mech, link):
+    """The ground pivot of ``link``, or None if it has none."""
     return next((p for p in mech.links[link] if p in mech.ground), None)
 
 
 def length(mech, p, q):
+    """The distance between points p and q of the file, in the file's length unit."""
     (x1, y1), (x2, y2) = mech.points[p], mech.points[q]
     return math.hypot(float(x2) - float(x1), float(y2) - float(y1))
 

@@ -6,6 +6,8 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 
+from typing_extensions import override
+
 from ..errors import KinematicsError
 from .base import Frame, Group
 from .force_steps import ForceState, by_name, force_label, result
@@ -20,9 +22,11 @@ class NumericGroup(Group):
     is_dyad = False
 
     @property
+    @override
     def construction_warning(self) -> str:
         return f"{self.name} is not a dyad: its polygon points come from the numeric solver"
 
+    @override
     def position(self, frame: Frame, where: str = ""):
         raise KinematicsError(f"the {self.name} is not a dyad: it has no closed form; solve it pose by pose",
                               where or self.name)
@@ -39,18 +43,23 @@ class NumericGroup(Group):
                 if name not in values:
                     values[name] = complex(*table[solution.point_names.index(name)])
 
+    @override
     def velocity(self, frame: Frame):
         self._take(frame, frame.vel, frame.omega, "velocities", "angular_velocity")
 
+    @override
     def acceleration(self, frame: Frame):
         self._take(frame, frame.acc, frame.alpha, "accelerations", "angular_acceleration")
 
+    @override
     def jerk(self, frame: Frame):
         self._take(frame, frame.jerk, frame.angular_jerk, "jerks", "angular_jerk")
 
+    @override
     def velocity_steps(self, builder: PolygonBuilder, frame: Frame, placed: set):
         self._steps(builder, frame, placed, self.velocity, frame.vel)
 
+    @override
     def acceleration_steps(self, builder: PolygonBuilder, frame: Frame, placed: set):
         self._steps(builder, frame, placed, self.acceleration, frame.acc)
 
@@ -67,6 +76,7 @@ class NumericGroup(Group):
                         f"{builder.label(name)}: taken from the numeric solver ({self.name} is not a dyad; "
                         "no intersection construction)", points=(name,), links=(link,), numeric=True)
 
+    @override
     def force_steps(self, builder: PolygonBuilder, state: ForceState):
         """No intersection construction: the group's joint and guide forces are the numeric forces'
         (``state.numeric``), drawn from the pole and marked numeric; their reactions are passed on."""

@@ -22,6 +22,7 @@ def angle_between_lines(u, v) -> float:
 
 
 def vector(xy, p, q):
+    """The vector from p to q in the pose ``xy`` (name -> (x, y))."""
     return (xy[q][0] - xy[p][0], xy[q][1] - xy[p][1])
 
 

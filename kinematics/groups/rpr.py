@@ -8,6 +8,7 @@ from __future__ import annotations
 from dataclasses import dataclass
 
 import numpy as np
+from typing_extensions import override
 
 from ..model.mechanism import Mechanism
 from .base import (
@@ -51,16 +52,20 @@ class RPRGroup(Group):
 
     notation = "RPR"
 
+    @override
     def branch_sign(self, mech: Mechanism) -> float:
         return sign_along_slide(mech, self.slide, self.roles["C"], self.roles["D"])
 
+    @override
     def reach_message(self, mech: Mechanism) -> str:
         return f"the slot of link {self.links[0]} cannot pass through point {self.roles['D']}"
 
     @property
+    @override
     def carried_points(self) -> frozenset:
         return frozenset({(self.links[0], self.roles["D"])})
 
+    @override
     def position(self, frame: Frame, where: str = ""):
         mech, ref, pos, r = frame.mech, frame.ref, frame.pos, self.roles
         slide = mech.slides[self.slide]
@@ -81,6 +86,7 @@ class RPRGroup(Group):
             if name != r["C"]:
                 pos[name] = pos[r["C"]] + (ref[name] - ref[r["C"]]) * turn
 
+    @override
     def velocity(self, frame: Frame):
         pos, vel = frame.pos, frame.vel
         slide = frame.mech.slides[self.slide]
@@ -94,6 +100,7 @@ class RPRGroup(Group):
         frame.sliding_velocity[slide.name] = dot(u, vel[d] - meet.point)
         return meet
 
+    @override
     def acceleration(self, frame: Frame):
         pos, vel, acc = frame.pos, frame.vel, frame.acc
         slide = frame.mech.slides[self.slide]
@@ -111,6 +118,7 @@ class RPRGroup(Group):
         frame.sliding_acceleration[slide.name] = dot(u, second.end - meet.point)
         return (first, second), meet
 
+    @override
     def jerk(self, frame: Frame):
         """The jerk of the slotted link's point under D (⊥ CD through its known part) meets the line
         parallel to the slot through j_D less the terms of D's sliding motion on the turning slot."""
@@ -130,6 +138,7 @@ class RPRGroup(Group):
         frame.sliding_jerk[slide.name] = dot(u, back - meet.point)
         return meet
 
+    @override
     def velocity_steps(self, builder: PolygonBuilder, frame: Frame, placed: set):
         vb, pos = builder, frame.pos
         slide = frame.mech.slides[self.slide]
@@ -151,6 +160,7 @@ class RPRGroup(Group):
                   "rad/s", role=Role.RESULT, points=(d,), links=(link,))
         image_steps(vb, frame, link, placed, "vel")
 
+    @override
     def acceleration_steps(self, builder: PolygonBuilder, frame: Frame, placed: set):
         ab, pos = builder, frame.pos
         slide = frame.mech.slides[self.slide]
@@ -178,6 +188,7 @@ class RPRGroup(Group):
                   f"{slide.line[1]}", role=Role.RESULT, points=(d,), links=(link,))
         image_steps(ab, frame, link, placed, "acc")
 
+    @override
     def force_steps(self, builder: PolygonBuilder, state: ForceState):
         """The lever alone: the block's force on the slot acts through D, normal to the slot, so the
         moments about D give the part of the force at C across CD (laid); the slot's normal and the
@@ -204,6 +215,7 @@ class RPRGroup(Group):
         pins_carried(builder, state, lever, runs, ends)
         state.guide_reaction(slide, -dot(normal, push), block_known=True, guide_known=False)
 
+    @override
     def loop_check(self, mech: Mechanism):
         """The crank and slotted lever's verdict, for a lever pivoted on the ground."""
         c, d = self.roles["C"], self.roles["D"]

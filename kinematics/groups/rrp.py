@@ -8,6 +8,7 @@ from __future__ import annotations
 from dataclasses import dataclass
 
 import numpy as np
+from typing_extensions import override
 
 from ..model.mechanism import GROUND, Mechanism
 from .base import (
@@ -51,15 +52,18 @@ class RRPGroup(Group):
 
     notation = "RRP"
 
+    @override
     def branch_sign(self, mech: Mechanism) -> float:
         return sign_along_slide(mech, self.slide, self.roles["A"], self.roles["D"])
 
+    @override
     def reach_message(self, mech: Mechanism) -> str:
         carriers = [b for b in mech.bodies_of(self.roles["A"]) if b not in self.links and b != GROUND]
         if carriers:
             return f"links {self.links[0]} and {carriers[0]} cannot reach"
         return f"link {self.links[0]} cannot reach the line of slide {mech.slides[self.slide].name}"
 
+    @override
     def position(self, frame: Frame, where: str = ""):
         ref, pos, r = frame.ref, frame.pos, self.roles
         u, e = frame.slot(frame.mech.slides[self.slide])
@@ -72,6 +76,7 @@ class RRPGroup(Group):
         pos[r["D"]] = e + s * u
         frame.place(self.links[0], r["A"], r["D"])
 
+    @override
     def velocity(self, frame: Frame):
         pos, vel = frame.pos, frame.vel
         slide = frame.mech.slides[self.slide]
@@ -86,6 +91,7 @@ class RRPGroup(Group):
         frame.sliding_velocity[slide.name] = dot(u, vel[d] - coincident)
         return meet
 
+    @override
     def acceleration(self, frame: Frame):
         pos, vel, acc = frame.pos, frame.vel, frame.acc
         slide = frame.mech.slides[self.slide]
@@ -104,6 +110,7 @@ class RRPGroup(Group):
         frame.sliding_acceleration[slide.name] = dot(u, acc[d] - coincident)
         return (first, second), meet
 
+    @override
     def jerk(self, frame: Frame):
         """The line of D's jerk on its link (⊥ AD) meets the line of the sliding jerk (∥ guide) laid
         from the guide's point under D plus the terms of the sliding motion on a turning guide."""
@@ -126,6 +133,7 @@ class RRPGroup(Group):
         frame.sliding_jerk[slide.name] = dot(u, meet.point - guided)
         return meet
 
+    @override
     def velocity_steps(self, builder: PolygonBuilder, frame: Frame, placed: set):
         vb, pos = builder, frame.pos
         slide = frame.mech.slides[self.slide]
@@ -155,6 +163,7 @@ class RRPGroup(Group):
         placed.add(d)
         image_steps(vb, frame, link, placed, "vel")
 
+    @override
     def acceleration_steps(self, builder: PolygonBuilder, frame: Frame, placed: set):
         ab, pos = builder, frame.pos
         slide = frame.mech.slides[self.slide]
@@ -189,6 +198,7 @@ class RRPGroup(Group):
         placed.add(d)
         image_steps(ab, frame, link, placed, "acc")
 
+    @override
     def force_steps(self, builder: PolygonBuilder, state: ForceState):
         """The rod and its block together: the moments about D give the part of the force at A across
         AD (laid); the guide's force, normal to the guide, and the line along AD close the polygon.
@@ -219,6 +229,7 @@ class RRPGroup(Group):
         pins_carried(builder, state, rod, runs[:-1], ends)
         state.guide_reaction(slide, dot(normal, push), block_known=False, guide_known=True)
 
+    @override
     def pose_warnings(self, mech: Mechanism, xy: dict) -> list:
         a, d = self.roles["A"], self.roles["D"]
         slide = mech.slides[self.slide]
@@ -229,6 +240,7 @@ class RRPGroup(Group):
                             f"square to the line of slide {slide.name}")
         return warnings + toggle_warnings(mech, self.links, xy, ((a, d),))
 
+    @override
     def loop_check(self, mech: Mechanism):
         """The slider-crank's r + |e| < l, for a slide on the ground driven by a crank."""
         a, d = self.roles["A"], self.roles["D"]

@@ -7,6 +7,7 @@ from __future__ import annotations
 from dataclasses import dataclass
 
 import numpy as np
+from typing_extensions import override
 
 from ..model.mechanism import Mechanism
 from .base import REACH_TOLERANCE, Frame, Group, Line, cross, intersect, known_jerk, radial, refuse, unit
@@ -34,13 +35,16 @@ class RRRGroup(Group):
 
     notation = "RRR"
 
+    @override
     def branch_sign(self, mech: Mechanism) -> float:
         (ax, ay), (bx, by), (cx, cy) = (mech.position_m(self.roles[k]) for k in "ABC")
         return 1.0 if (cx - ax) * (by - ay) - (cy - ay) * (bx - ax) >= 0 else -1.0
 
+    @override
     def reach_message(self, mech: Mechanism) -> str:
         return f"links {self.links[0]} and {self.links[1]} cannot reach"
 
+    @override
     def position(self, frame: Frame, where: str = ""):
         ref, pos, r = frame.ref, frame.pos, self.roles
         a, c = pos[r["A"]], pos[r["C"]]
@@ -57,6 +61,7 @@ class RRRGroup(Group):
         frame.place(self.links[0], r["A"], r["B"])
         frame.place(self.links[1], r["C"], r["B"])
 
+    @override
     def velocity(self, frame: Frame):
         pos, vel = frame.pos, frame.vel
         a, b, c = (self.roles[k] for k in "ABC")
@@ -67,6 +72,7 @@ class RRRGroup(Group):
             frame.velocity_images(link, pin)
         return meet
 
+    @override
     def acceleration(self, frame: Frame):
         pos, vel, acc = frame.pos, frame.vel, frame.acc
         a, b, c = (self.roles[k] for k in "ABC")
@@ -79,6 +85,7 @@ class RRRGroup(Group):
             frame.acceleration_images(link, pin)
         return (first, second), meet
 
+    @override
     def jerk(self, frame: Frame):
         """j_B = j_A + (i(α̇1 − ω1³) − 3ω1α1)·r_AB = j_C + (i(α̇2 − ω2³) − 3ω2α2)·r_CB: two lines again."""
         pos = frame.pos
@@ -92,6 +99,7 @@ class RRRGroup(Group):
             frame.jerk_images(link, pin)
         return meet
 
+    @override
     def velocity_steps(self, builder: PolygonBuilder, frame: Frame, placed: set):
         vb, pos = builder, frame.pos
         a, b, c = (self.roles[k] for k in "ABC")
@@ -114,6 +122,7 @@ class RRRGroup(Group):
         for link in self.links:
             image_steps(vb, frame, link, placed, "vel")
 
+    @override
     def acceleration_steps(self, builder: PolygonBuilder, frame: Frame, placed: set):
         ab, pos = builder, frame.pos
         a, b, c = (self.roles[k] for k in "ABC")
@@ -135,6 +144,7 @@ class RRRGroup(Group):
         for link in self.links:
             image_steps(ab, frame, link, placed, "acc")
 
+    @override
     def force_steps(self, builder: PolygonBuilder, state: ForceState):
         """Each outer pin force split along its link and across it: the moments about B of each link
         give the parts across (laid), the lines along AB and CB close the polygon; the force at B
@@ -169,6 +179,7 @@ class RRRGroup(Group):
         pins_carried(builder, state, l1, runs1[:-1] if at_b else runs1, ends1)
         pins_carried(builder, state, l2, runs2, ends2)
 
+    @override
     def pose_warnings(self, mech: Mechanism, xy: dict) -> list:
         a, b, c = (self.roles[k] for k in "ABC")
         warnings = []
@@ -179,6 +190,7 @@ class RRRGroup(Group):
                             f"from being in line at {b}; the polygon's construction lines are nearly parallel")
         return warnings + toggle_warnings(mech, self.links, xy, ((a, b), (c, b)))
 
+    @override
     def loop_check(self, mech: Mechanism):
         a, b, c = (self.roles[k] for k in "ABC")
         links = tuple(self.links)
@@ -196,6 +208,7 @@ class RRRGroup(Group):
         return LoopCheck(f"four-bar {carrier}-{links[0]}-{links[1]}", verdict, names.get(turns) if turns else None,
                          {"frame": frame, carrier: crank, links[0]: coupler, links[1]: output})
 
+    @override
     def transmission_angles(self, result) -> dict:
         """The angle at joint B between B-A and B-C, 0–180°."""
         index = result.point_names.index

@@ -19,6 +19,7 @@ from shapely.geometry import LineString, Point
 
 from ..errors import ParallelLines
 from .scales import preferred_scale
+from .vectors import direction_deg
 
 if TYPE_CHECKING:  # the groups draw their own steps here: these modules import this one
     from ..solver.solve import Solution
@@ -32,6 +33,9 @@ PRIME = "′"
 
 
 class Role(Enum):
+    """What a step is in its polygon: a known vector, a line of known direction, the intersection of two
+    such lines, an image point, or a vector found by the construction."""
+
     KNOWN = "known"
     DIRECTION = "direction"
     INTERSECTION = "intersection"
@@ -40,6 +44,9 @@ class Role(Enum):
 
 
 class Component(Enum):
+    """The kind of vector a step lays: the motion components of the velocity and acceleration polygons,
+    and the loads and reactions of the force polygon."""
+
     DRIVER = "driver"
     RADIAL = "radial"
     TANGENTIAL = "tangential"
@@ -88,10 +95,12 @@ class Step:
 
     @cached_property
     def geometry(self):
+        """The step as a shapely Point or LineString, in polygon units."""
         return Point(self.coords[0]) if len(self.coords) == 1 else LineString(self.coords)
 
     @property
     def is_vector(self) -> bool:
+        """Whether the step is drawn as a vector with an arrowhead."""
         return self.role in (Role.KNOWN, Role.RESULT) and len(self.coords) == 2
 
 
@@ -110,6 +119,7 @@ class Polygon:
     steps: tuple
 
     def image_label(self, point: str) -> str:
+        """The label of ``point``'s image on this polygon: "b" on the velocity polygon, "b′" on the acceleration one."""
         return point.lower() + (PRIME if self.kind == "acceleration" else "")
 
 
@@ -132,12 +142,16 @@ def figure(value: float) -> str:
 
 
 def as_xy(z) -> tuple:
+    """A complex number as an (x, y) pair of floats."""
     z = complex(z)
     return (z.real, z.imag)
 
 
-def direction_deg(z) -> float:
-    return math.degrees(math.atan2(complex(z).imag, complex(z).real)) % 360.0
+def direction_words(z) -> str:
+    """", at 150.0°" for a vector z (complex), "" for a zero one (see :mod:`kinematics.groups.vectors`)."""
+    z = complex(z)
+    direction = direction_deg(z.real, z.imag)
+    return "" if direction is None else f", at {direction:.1f}°"
 
 
 @dataclass
@@ -156,6 +170,7 @@ class PolygonBuilder:
 
     @property
     def prime(self):
+        """The prime that marks this polygon's labels: ′ on the acceleration polygon, none on the velocity one."""
         return PRIME if self.kind == "acceleration" else ""
 
     def label(self, point: str) -> str:
@@ -172,21 +187,26 @@ class PolygonBuilder:
                     label=label, equation=equation, text=text)
 
     def vector(self, component, start, end, label, equation, text, role=Role.KNOWN, **extra):
+        """Lay a vector from ``start`` to ``end`` (complex, polygon units)."""
         self.add(role, component, label, (start, end), equation, text, **extra)
 
     def mark(self, z, text, equation, **extra) -> str:
+        """Mark an intermediate construction point at ``z`` with the next label n₁, n₂, …; returns the label."""
         label = f"n{len(self.marks) + 1}".translate(SUBSCRIPTS) + self.prime
         self.marks[label] = as_xy(z)
         self.add(Role.IMAGE, None, label, (z,), equation, f"{label}: {text}", **extra)
         return label
 
     def direction(self, component, through, direction, equation, text, **extra):
+        """Draw the line of known ``direction`` through ``through``; its extent is fitted in :meth:`finish`."""
         # The segment is fitted to the finished polygon in finish().
         fields = {**self._fields(Role.DIRECTION, component, "", equation, text), **extra}
         self.lines.append((len(self.steps), fields, complex(through), complex(direction)))
         self.steps.append(None)
 
     def intersection(self, meet, label, what, group: Group, **extra):
+        """Mark where two construction lines meet (``meet``, an Intersection), flagging nearly parallel lines
+        by their condition figure; parallel lines raise :class:`~kinematics.errors.ParallelLines`."""
         point = complex(meet.point)
         sine = float(meet.sine)
         angle = math.degrees(math.asin(min(1.0, abs(sine))))

@@ -36,6 +36,7 @@ class Advantage:
     locked: bool
 
     def sentence(self) -> str:
+        """The velocity ratio and mechanical advantage in words, or that the output locks here."""
         if self.locked:
             return (f"{self.output}: velocity ratio 0 {self.unit}: the output locks here (toggle), the mechanical "
                     "advantage is infinite")

@@ -54,14 +54,17 @@ class Centre:
 
     @property
     def name(self) -> str:
+        """The pair's name, ``"a|b"``."""
         return "|".join(self.bodies)
 
     @property
     def at_m(self) -> tuple | None:
+        """(x, y) in metres for a finite centre, else None."""
         return self.place.xy() if self.kind == "point" else None
 
     @property
     def direction(self) -> tuple | None:
+        """The unit direction (x, y) of a centre at infinity, else None."""
         return self.place.xy() if self.kind == "direction" else None
 
 
@@ -98,22 +101,24 @@ class Centres:
 
     @property
     def angular_velocity(self) -> MappingProxyType:
-        """link -> rad/s, from the centres and the driver's speed."""
+        """Link -> rad/s, from the centres and the driver's speed."""
         omega = self.solution.mechanism.driver.speed_rad_s
         return MappingProxyType({k: v * omega for k, v in self.angular_velocity_ratio.items()})
 
     @property
     def velocities(self) -> MappingProxyType:
-        """point -> (vx, vy) m/s, from the centres and the driver's speed."""
+        """Point -> (vx, vy) m/s, from the centres and the driver's speed."""
         omega = self.solution.mechanism.driver.speed_rad_s
         return MappingProxyType({k: (x * omega, y * omega) for k, (x, y) in self.velocity_ratio.items()})
 
 
 def body_names(mech: Mechanism) -> tuple:
+    """The bodies whose centres are found: ``ground``, the links in the file's order, then the slides' blocks."""
     return (GROUND, *mech.links, *mech.slides)
 
 
 def pair_name(bodies: tuple, a: str, b: str) -> str:
+    """The name ``"a|b"`` of a pair of bodies, the one earlier in ``bodies`` first."""
     first, second = sorted((a, b), key=bodies.index)
     return f"{first}|{second}"
 

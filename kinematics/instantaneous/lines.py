@@ -36,6 +36,7 @@ class Place:
 
     @classmethod
     def at(cls, z) -> Place:
+        """The finite place ``z`` (complex, m)."""
         return cls(point=complex(z))
 
     @classmethod
@@ -47,6 +48,7 @@ class Place:
         return cls(direction=d, infinite=True)
 
     def xy(self) -> tuple[float, float]:
+        """The point (m), or for a place at infinity its direction, as (x, y)."""
         z = self.direction if self.infinite else self.point
         return (z.real, z.imag)
 
@@ -59,6 +61,7 @@ class KennedyLine:
 
     @property
     def at_infinity(self) -> bool:
+        """Whether this is the line at infinity (through two centres at infinity)."""
         return self.line is None
 
 
@@ -90,6 +93,8 @@ class Meeting:
 
 
 def meet(first: KennedyLine, second: KennedyLine, size_m: float) -> Meeting:
+    """Where two Kennedy lines meet: a point, a centre at infinity where they are parallel (or one is the line
+    at infinity), or no place where they coincide. ``size_m`` is the mechanism's size, for the tolerances."""
     if first.at_infinity and second.at_infinity:
         return Meeting(None, 0.0, float("inf"))
     if first.at_infinity or second.at_infinity:

@@ -22,6 +22,8 @@ def where_text(centre) -> str:
 
 
 def centres_table(centres: Centres) -> str:
+    """The table of centres for people (pair, x and y in mm or the direction at infinity, how found), the
+    velocity cross-check, the mechanical advantage where the file names an output, and the warnings."""
     solution = centres.solution
     mech = solution.mechanism
     pairs = list(centres.centres.values())
@@ -44,6 +46,7 @@ def centres_table(centres: Centres) -> str:
 
 
 def centre_json(centre) -> dict:
+    """One centre for JSON, in SI: ``{"at": [x, y]}``, ``{"direction": [ux, uy]}`` or ``{"undetermined": reason}``."""
     if centre.kind == "point":
         return {"at": list(centre.at_m)}
     if centre.kind == "direction":

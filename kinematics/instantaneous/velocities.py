@@ -34,13 +34,14 @@ class Motion:
     translation: complex = 0j
 
     def velocity(self, z: complex) -> complex:
+        """The velocity per unit driver speed (complex, m/rad) of the body's point at ``z``."""
         if self.pole is None:
             return self.translation
         return 1j * self.omega * (z - self.pole)
 
 
 def motions(finder) -> dict:
-    """body -> :class:`Motion` for every body the centres reach from the driver (the rest are left out)."""
+    """Body -> :class:`Motion` for every body the centres reach from the driver (the rest are left out)."""
     mech = finder.mech
     driver = mech.driver
     pivot = finder.known(GROUND, driver.link)
@@ -86,7 +87,7 @@ def _from_known(finder, body: str, known: dict) -> Motion | None:
 
 
 def point_ratios(finder, known: dict) -> dict:
-    """point -> velocity per unit driver speed (complex, m/rad), for every point a known body carries."""
+    """Point -> velocity per unit driver speed (complex, m/rad), for every point a known body carries."""
     mech = finder.mech
     ratios = {}
     for point in mech.points:

@@ -13,13 +13,19 @@ MAX_POINTS = 100
 MAX_LINKS_AND_SLIDES = 24
 
 
+def limit_sentence(place: str) -> str:
+    """The limit of ``place`` (``"points"`` or ``"links"``) in plain words, with why it is there."""
+    if place == "points":
+        return (f"Kinepoly analyses designs of at most {MAX_POINTS:,} points (beyond that its answers would "
+                "take more than a few seconds)")
+    return (f"Kinepoly analyses designs of at most {MAX_LINKS_AND_SLIDES} links and slides together (the "
+            "instantaneous centres of more bodies would take more than a few seconds)")
+
+
 def beyond_limits(points: int, links: int, slides: int) -> tuple:
     """("", "") within the limits, else (the place, why) in plain words."""
     if points > MAX_POINTS:
-        return "points", (f"the design has {points:,} points; Kinepoly analyses designs of at most {MAX_POINTS:,} "
-                          "points (beyond that its answers would take more than a few seconds)")
+        return "points", f"the design has {points:,} points; {limit_sentence('points')}"
     if links + slides > MAX_LINKS_AND_SLIDES:
-        return "links", (f"the design has {links:,} links and {slides:,} slides; Kinepoly analyses designs of at "
-                         f"most {MAX_LINKS_AND_SLIDES} links and slides together (the instantaneous centres of "
-                         "more bodies would take more than a few seconds)")
+        return "links", f"the design has {links:,} links and {slides:,} slides; {limit_sentence('links')}"
     return "", ""

@@ -80,10 +80,12 @@ class LinkMass:
 
     @property
     def mass_kg(self) -> float:
+        """The link's mass in kg."""
         return self.mass_value * KG_PER_MASS_UNIT[self.mass_unit]
 
     @property
     def inertia_kg_m2(self) -> float:
+        """The moment of inertia about the centre of mass, kg·m²."""
         return self.inertia_value * KG_M2_PER_INERTIA_UNIT[self.inertia_unit]
 
 
@@ -103,6 +105,7 @@ class PointMass:
 
     @property
     def mass_kg(self) -> float:
+        """The particle's mass in kg."""
         return self.value * KG_PER_MASS_UNIT[self.unit]
 
 
@@ -158,12 +161,14 @@ class Load:
 
     @property
     def force_n(self) -> np.ndarray | None:
+        """The force (x, y) in N, or None for a torque."""
         if self.force_value is None:
             return None
         return np.array(self.force_value) * N_PER_FORCE_UNIT[self.force_unit]
 
     @property
     def torque_n_m(self) -> float | None:
+        """The torque in N·m (counter-clockwise positive), or None for a force."""
         return None if self.torque_value is None else self.torque_value * N_M_PER_TORQUE_UNIT[self.torque_unit]
 
     def active(self, driver_angle_deg, turning_sense: float = 1.0):

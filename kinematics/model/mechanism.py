@@ -86,10 +86,12 @@ class Driver:
 
     @property
     def speed_rad_s(self) -> float:
+        """The driver's speed in rad/s (counter-clockwise positive)."""
         return float(self.speed_value) * RAD_S_PER_SPEED_UNIT[self.speed_unit]
 
     @property
     def angular_acceleration_rad_s2(self) -> float:
+        """The driver's angular acceleration in rad/s²."""
         return float(self.angular_acceleration_value) * RAD_S2_PER_ACCELERATION_UNIT[
             self.angular_acceleration_unit
         ]
@@ -145,9 +147,11 @@ class Mechanism:
 
     @property
     def metres_per_unit(self) -> float:
+        """Metres per unit of the file's lengths."""
         return metres_per(self.length_unit)
 
     def position_m(self, name: str) -> tuple[float, float]:
+        """Point ``name`` of the reference pose, in metres."""
         x, y = self.points[name]
         k = self.metres_per_unit
         return (float(x) * k, float(y) * k)
@@ -166,6 +170,7 @@ class Mechanism:
         return bodies
 
     def body_points(self, body: str) -> tuple:
+        """The points of ``body``: the fixed points for ``ground``, else the link's points."""
         return self.ground if body == GROUND else self.links[body]
 
     @cached_property

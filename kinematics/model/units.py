@@ -27,6 +27,7 @@ def metres_per(length_unit: str) -> float:
 
 
 def rpm_from_rad_s(speed_rad_s: float) -> float:
+    """A speed in rad/s as revolutions per minute."""
     return speed_rad_s * 60.0 / (2.0 * math.pi)
 
 # Mass data (see kinematics.model.mass): the units a file may state, and their SI factors.

@@ -13,7 +13,8 @@ import numpy as np
 from ..dynamics.layout import layout
 from ..dynamics.results import FRICTIONLESS, Forces, ForceSweep
 from ..dynamics.summary import DriveSummary
-from .text import NEGLIGIBLE, direction_deg, sense, turn
+from ..groups.vectors import NEGLIGIBLE
+from .text import direction_text, sense, turn
 
 
 def pinned_to(mechanism, point: str, link: str) -> str:
@@ -52,8 +53,9 @@ def forces_json(result: Forces) -> dict:
     }
 
 
-def _size(v) -> tuple[float, float]:
-    return math.hypot(v[0], v[1]), direction_deg(v[0], v[1])
+def _size(v, scale: float) -> tuple[float, str]:
+    """A force's size and its direction as the tables print it ("—" for a force at the rounding)."""
+    return math.hypot(v[0], v[1]), direction_text(v[0], v[1], scale)
 
 
 def shown_value(value: float, scale: float) -> float:
@@ -82,10 +84,10 @@ def forces_table(result: Forces) -> str:
              "", f"{'joint':<8}{'on link':<12}{'from':<12}{'Fx [N]':>11}{'Fy [N]':>11}{'|F| [N]':>11}{'dir [°]':>9}"]
     for point, by_link in result.joints_n.items():
         for link, f in by_link.items():
-            size, angle = _size(f)
+            size, angle = _size(f, force_scale)
             fx, fy = (shown_value(c, force_scale) for c in f)
             lines.append(f"{point:<8}{link:<12}{pinned_to(mech, point, link):<12}{fx:>11.2f}{fy:>11.2f}"
-                         f"{size:>11.2f}{angle:>9.1f}")
+                         f"{size:>11.2f}{angle:>9}")
     if result.slides:
         lines += ["", f"{'slide':<12}{'block':<8}{'normal [N]':>12}{'Fx [N]':>11}{'Fy [N]':>11}"]
         for name, s in result.slides.items():
@@ -95,12 +97,13 @@ def forces_table(result: Forces) -> str:
     if result.inertia:
         lines += ["", f"{'inertia of':<12}{'|F| [N]':>11}{'dir [°]':>9}{'couple [N·m]':>14}{'offset [mm]':>13}"]
         for link, i in result.inertia.items():
-            size, angle = _size(i.force_n)
+            size, angle = _size(i.force_n, force_scale)
             offset = f"{i.offset_m * 1e3:>13.2f}" if math.isfinite(i.offset_m) else f"{'(couple)':>13}"
             couple = shown_value(i.couple_n_m, couple_scale)
-            lines.append(f"{link:<12}{size:>11.2f}{angle:>9.1f}{couple:>14.4g}{offset}")
-    shaking, angle = _size(result.shaking_force_n)
-    lines += ["", f"shaking force {shaking:.2f} N at {angle:.1f}°, shaking moment "
+            lines.append(f"{link:<12}{size:>11.2f}{angle:>9}{couple:>14.4g}{offset}")
+    shaking, angle = _size(result.shaking_force_n, force_scale)
+    at = "" if angle == "—" else f" at {angle}°"
+    lines += ["", f"shaking force {shaking:.2f} N{at}, shaking moment "
               f"{shown_value(result.shaking_moment_n_m, couple_scale):.4g} N·m about {mech.driver.pivot}"]
     balance = result.power_balance
     lines.append(f"power balance: drive power {balance.drive_power_w:.4g} W; drive torque by virtual work "

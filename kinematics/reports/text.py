@@ -6,12 +6,8 @@ import math
 
 from ..construction.components import acceleration_components
 from ..groups.steps import Construction
+from ..groups.vectors import direction_deg, negligible
 from ..solver.solve import Solution
-
-# Below this fraction of the pose's largest value of its kind a number is the solver's rounding
-# (its residuals are near 1e-13 relative), far below anything a drawing or a bearing cares
-# about: it is shown as 0, so a crank at constant speed reads α 0, not 1.8e-13 CW.
-NEGLIGIBLE = 1e-9
 
 
 def sense(value: float) -> str:
@@ -26,11 +22,15 @@ def turn(angle_deg: float, digits: int) -> float:
     return round(angle_deg, digits) % 360.0
 
 
-def direction_deg(vx: float, vy: float) -> float:
-    return turn(math.degrees(math.atan2(vy, vx)), 1)
+def direction_text(x: float, y: float, scale: float) -> str:
+    """A vector's direction as the tables print it (one decimal), "—" for a zero vector."""
+    direction = direction_deg(x, y, scale)
+    return "—" if direction is None else f"{turn(direction, 1):.1f}"
 
 
 def solution_table(solution: Solution) -> str:
+    """The solved pose for people: each point's position (mm), speed and acceleration with their
+    directions, each link's angle, ω and α with their senses, the slides' rates, and the warnings."""
     mech = solution.mechanism
     driver = mech.driver
     if solution.driver_length_m is None:
@@ -43,10 +43,14 @@ def solution_table(solution: Solution) -> str:
              "",
              f"{'point':<8}{'x [mm]':>10}{'y [mm]':>10}{'|v| [m/s]':>12}{'dir [°]':>9}"
              f"{'|a| [m/s²]':>13}{'dir [°]':>9}"]
+    # A vector at the solver's rounding (see kinematics.groups.vectors) has no direction.
+    largest_v = max((math.hypot(*v) for v in solution.velocities.tolist()), default=0.0)
+    largest_a = max((math.hypot(*a) for a in solution.accelerations.tolist()), default=0.0)
     for i, name in enumerate(solution.point_names):
         (x, y), (vx, vy), (ax, ay) = solution.positions[i], solution.velocities[i], solution.accelerations[i]
         lines.append(f"{name:<8}{x * 1e3:>10.2f}{y * 1e3:>10.2f}{math.hypot(vx, vy):>12.4f}"
-                     f"{direction_deg(vx, vy):>9.1f}{math.hypot(ax, ay):>13.4f}{direction_deg(ax, ay):>9.1f}")
+                     f"{direction_text(vx, vy, largest_v):>9}{math.hypot(ax, ay):>13.4f}"
+                     f"{direction_text(ax, ay, largest_a):>9}")
     lines += ["", f"{'link':<12}{'angle [°]':>10}{'ω [rad/s]':>12}{'':>5}{'α [rad/s²]':>13}{'':>5}"]
     for link in mech.links:
         w, a = solution.angular_velocity[link], solution.angular_acceleration[link]
@@ -63,6 +67,7 @@ def solution_table(solution: Solution) -> str:
 
 
 def construction_text(construction: Construction) -> str:
+    """Both polygons' construction steps in words, in order, with their scales and the cross-check."""
     lines = []
     for polygon in (construction.velocity, construction.acceleration):
         lines.append(f"{polygon.kind} polygon (scale {polygon.scale_per_mm:g} {polygon.unit.replace('^2', '²')} "
@@ -74,12 +79,11 @@ def construction_text(construction: Construction) -> str:
     components = acceleration_components(construction)
     if components:
         lines.append(f"{'acceleration components':<40}{'|a| [m/s²]':>12}{'dir [°]':>9}")
-        # A component at the solver's rounding (see NEGLIGIBLE) has no direction.
+        # A component at the solver's rounding (see kinematics.groups.vectors) is 0 and has no direction.
         largest = max((math.hypot(*a) for a in construction.solution.accelerations.tolist()), default=0.0)
         for c in components:
-            zero = c.magnitude <= NEGLIGIBLE * largest
-            lines.append(f"  {c.title:<38}{0.0 if zero else c.magnitude:>12.4f}"
-                         f"{'—' if zero else format(direction_deg(*c.vector), '.1f'):>9}")
+            lines.append(f"  {c.title:<38}{0.0 if negligible(c.magnitude, largest) else c.magnitude:>12.4f}"
+                         f"{direction_text(*c.vector, largest):>9}")
         lines.append("")
     lines.append(f"cross-check against the numeric solver: largest relative difference "
                  f"{construction.max_relative_difference:.2e} at {construction.where}")

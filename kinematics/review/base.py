@@ -33,6 +33,7 @@ class Review:
 
     @property
     def title(self) -> str:
+        """The design's title, else its file name."""
         return self.mechanism.title or self.file_name or "Untitled mechanism"
 
 
@@ -48,6 +49,8 @@ class Section:
 
 @dataclass(frozen=True)
 class OutlineEntry:
+    """One bookmark of the report's outline: its title, its page, and the entries under it."""
+
     title: str
     page: int  # 0-based page index in the report
     children: tuple = ()
@@ -55,6 +58,8 @@ class OutlineEntry:
 
 @dataclass(frozen=True)
 class Report:
+    """The assembled report: its pages as recorded sheets, the outline, and the PDF's title and subject."""
+
     title: str
     subject: str
     fingerprint: str
@@ -71,15 +76,18 @@ class Progress:
         self.callback, self.begin, self.end = callback, begin, end
 
     def __call__(self, fraction: float) -> bool:
+        """Report ``fraction`` (0 to 1) of this share done; False once the user asked to stop."""
         if self.callback is None:
             return True
         return self.callback(self.begin + fraction * (self.end - self.begin)) is not False
 
     def check(self, fraction: float) -> None:
+        """Report ``fraction`` done, and raise :class:`~kinematics.errors.SweepCancelled` if the user asked to stop."""
         if not self(fraction):
             raise SweepCancelled("the review report was cancelled", "report")
 
     def share(self, begin: float, end: float) -> Progress:
+        """The part [begin, end] of this share, for a piece of the work."""
         span = self.end - self.begin
         return Progress(self.callback, self.begin + begin * span, self.begin + end * span)
 

@@ -11,7 +11,7 @@ from ..cycle.peaks import DEAD_POINT_SHARE, peaks
 from ..cycle.sweep import sweep
 from ..drawing.pages import HEADING_TEXT, PITCH, Heading, Paragraph, Preformatted, body_box, paginate, paper_size
 from ..drawing.plots import SMALL, Curve, Plot, draw_plot
-from ..drawing.sheet import Recorder, Text
+from ..drawing.sheet import Recorder, Ref, Text
 from ..drawing.style import ANNOTATION
 from ..errors import KinematicsError, SweepCancelled
 from ..reports.text import peaks_text
@@ -38,6 +38,7 @@ def abscissa(result):
 
 
 def analysis_marks(review: Review, result) -> tuple:
+    """The analysis angles as (driver angle in degrees, label) marks for the cycle plots."""
     marks = []
     for angle in review.angles_deg:
         if angle is not None:
@@ -50,10 +51,10 @@ def plot_page(review: Review, heading: str, plots: list, note: str) -> object:
     x0, y0, x1, y1 = body_box(review.paper)
     rec = Recorder()
     rec.add(Text(position=(x0, y1 - PITCH * HEADING_TEXT), text=heading, height=HEADING_TEXT, pen=ANNOTATION,
-                 part="heading"))
+                 ref=Ref("heading")))
     top = y1 - 2 * PITCH * HEADING_TEXT
     if note:
-        rec.add(Text(position=(x0, top), text=note, height=SMALL, pen=ANNOTATION, part="heading"))
+        rec.add(Text(position=(x0, top), text=note, height=SMALL, pen=ANNOTATION, ref=Ref("heading")))
         top -= 2 * PITCH * SMALL
     # One plot alone takes half the page, not all of it: a plot taller than wide reads poorly.
     height = (top - y0 - PLOT_GAP * (len(plots) - 1)) / max(2, len(plots))

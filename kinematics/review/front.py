@@ -19,7 +19,7 @@ from ..drawing.pages import (
     paginate,
     paper_size,
 )
-from ..drawing.sheet import FRAME, Recorder, Text
+from ..drawing.sheet import FRAME, Recorder, Ref, Text
 from ..drawing.space import draw_space
 from ..drawing.style import ANNOTATION
 from ..drawing.symbols import Symbols
@@ -49,6 +49,7 @@ def driver_words(mech) -> str:
 
 
 def angle_words(review: Review) -> str:
+    """The analysis angles in words ("30°, 150°"), or "the reference pose"."""
     angles = [a for a in review.angles_deg if a is not None]
     return ", ".join(f"{a:g}°" for a in angles) if angles else "the reference pose"
 
@@ -60,7 +61,7 @@ def _lines(text: str, width: float, height: float) -> list:
 def _wrapped(rec: Recorder, text: str, x: float, y: float, width: float, height: float) -> float:
     """``text`` wrapped to ``width`` mm from baseline ``y`` down; returns the next baseline."""
     for line in _lines(text, width, height):
-        rec.add(Text(position=(x, y), text=line, height=height, pen=ANNOTATION, part="cover"))
+        rec.add(Text(position=(x, y), text=line, height=height, pen=ANNOTATION, ref=Ref("cover")))
         y -= PITCH * height
     return y
 
@@ -72,10 +73,10 @@ def cover_section(review: Review, progress: Progress) -> Section:
     width = x1 - x0
     rec = Recorder()
     y = y1 - TITLE_TEXT
-    rec.add(Text(position=(x0, y), text="Design review", height=HEADING_TEXT, pen=ANNOTATION, part="cover"))
+    rec.add(Text(position=(x0, y), text="Design review", height=HEADING_TEXT, pen=ANNOTATION, ref=Ref("cover")))
     y -= 1.2 * TITLE_TEXT + PITCH * HEADING_TEXT
     for line in textwrap.wrap(review.title, width=max(10, int(width / (TITLE_TEXT * WIDTH_PER_HEIGHT)))):
-        rec.add(Text(position=(x0, y), text=line, height=TITLE_TEXT, pen=ANNOTATION, part="cover"))
+        rec.add(Text(position=(x0, y), text=line, height=TITLE_TEXT, pen=ANNOTATION, ref=Ref("cover")))
         y -= 1.5 * TITLE_TEXT
     y -= 0.5 * TITLE_TEXT
     facts = (("File", review.file_name or "(not saved to a file)"),
@@ -86,7 +87,7 @@ def cover_section(review: Review, progress: Progress) -> Section:
              ("Cycle", f"one driver turn (or its range) in {review.steps:,} poses"))
     label_width = 32.0
     for label, text in facts:
-        rec.add(Text(position=(x0, y), text=label, height=BODY_TEXT, pen=ANNOTATION, part="cover"))
+        rec.add(Text(position=(x0, y), text=label, height=BODY_TEXT, pen=ANNOTATION, ref=Ref("cover")))
         y = _wrapped(rec, text, x0 + label_width, y, width - label_width, BODY_TEXT) - 0.4 * PITCH * BODY_TEXT
     caution_lines = sum(len(_lines(text, width - 8, BODY_TEXT)) for text in (CAUTION, CAUTION_IN_WORDS))
     caution_top = y0 + PITCH * BODY_TEXT * (caution_lines + 1.5)
@@ -100,7 +101,7 @@ def cover_section(review: Review, progress: Progress) -> Section:
         scale_bar(rec, (x0 + 8, caution_top + 6 + 1.2 * size.text), view.mm_per_unit / 1000.0, "mm", 50.0,
                   f"Space diagram {view.scale_text}, reference pose θ = {solution.driver_angle_deg:.2f}°", size,
                   "space")
-    outline_box(rec, x0, y0, x1, caution_top, FRAME, part="caution")
+    outline_box(rec, x0, y0, x1, caution_top, FRAME, ref=Ref("caution"))
     y = _wrapped(rec, CAUTION, x0 + 4, caution_top - PITCH * BODY_TEXT, width - 8, BODY_TEXT)
     _wrapped(rec, CAUTION_IN_WORDS, x0 + 4, y - 0.5 * PITCH * BODY_TEXT, width - 8, BODY_TEXT)
     progress.check(1.0)

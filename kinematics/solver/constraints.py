@@ -82,6 +82,7 @@ class ConstraintSystem:
 
     @cached_property
     def factors(self):
+        """The per-row weights that turn the products u ∘ v into dot or cross rows."""
         is_dot = (self.kind == DOT)[:, None]
         w = self.weight[:, None]
         return (is_dot * w, ~is_dot * w * np.array([1.0, -1.0]), ~is_dot * w * np.array([-1.0, 1.0]))

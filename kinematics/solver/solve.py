@@ -80,15 +80,19 @@ class Solution:
         return self.point_names.index(name)
 
     def position(self, name) -> np.ndarray:
+        """Point ``name``'s position (x, y), m."""
         return self.positions[self._row(name)]
 
     def velocity(self, name) -> np.ndarray:
+        """Point ``name``'s velocity (x, y), m/s."""
         return self.velocities[self._row(name)]
 
     def acceleration(self, name) -> np.ndarray:
+        """Point ``name``'s acceleration (x, y), m/s²."""
         return self.accelerations[self._row(name)]
 
     def jerk(self, name) -> np.ndarray:
+        """Point ``name``'s jerk (x, y), m/s³."""
         return self.jerks[self._row(name)]
 
 
@@ -120,11 +124,13 @@ class DrivenSystem:
         return x[..., self.system.driver_point, :] - x[..., self.system.driver_pivot, :]
 
     def residual(self, x, theta):
+        """The constraint values with the driver row (the driver's lever along the angle ``theta``) last."""
         w = self._lever(x)
         drive = np.cos(theta) * w[..., 1] - np.sin(theta) * w[..., 0]
         return np.concatenate([self.system.values(x), drive[..., None]], axis=-1)
 
     def jacobian(self, x, theta):
+        """The residual's derivative with respect to the unknown coordinates."""
         jac = self.system.jacobian(x)
         row = np.zeros(x.shape[:-2] + (1, 2 * self.n))
         row[..., 0, self.driver_columns[0]] = -np.sin(theta)

@@ -11,7 +11,8 @@ from PySide6.QtTest import QTest
 import kinematics
 from app import building
 from app.building import BuildError
-from tests.designs import CARTON_PUSHER, CLAW_FEED, load
+from kinematics.model.limits import MAX_LINKS_AND_SLIDES, MAX_POINTS
+from tests.designs import CARTON_PUSHER, CLAW_FEED, UNFINISHED, load
 from tests.kinematics.test_schema_agreement import FORMAT_2
 
 
@@ -22,7 +23,7 @@ def click_at(window, x_mm, y_mm):
 
 def click_joint(window, name):
     view = window.drawings.space_view
-    at = window.drawings.space_scene.joints[name].dot.pos()
+    at = window.drawings.space_scene.joint_pos(name)
     QTest.mouseClick(view.viewport(), Qt.LeftButton, Qt.NoModifier, view.mapFromScene(at))
 
 
@@ -157,7 +158,7 @@ def test_snapping_draws_the_grid_and_lands_drags_on_it(make_window):
     step = window.grid_mm()
     assert step == 10.0  # a twentieth of the 245 mm diagonal, down to the 1-2-5 series
     assert grid_pixels() > 100
-    start = window.drawings.space_scene.joints["P"].dot.pos()
+    start = window.drawings.space_scene.joint_pos("P")
     QTest.mousePress(view.viewport(), Qt.LeftButton, Qt.NoModifier, view.mapFromScene(start))
     QTest.mouseMove(view.viewport(), view.mapFromScene(start + QPointF(13.0, -4.0)))
     QTest.mouseRelease(view.viewport(), Qt.LeftButton, Qt.NoModifier, view.mapFromScene(start + QPointF(13.0, -4.0)))
@@ -201,3 +202,42 @@ def test_deleting_or_fixing_a_joint_drops_the_mass_data_it_leaves_without_a_plac
     fixed = building.set_fixed(mech, "D", True)
     assert not fixed.mass_data.point_masses and "cutting" not in fixed.mass_data.loads
     assert "brake" in fixed.mass_data.loads
+
+
+def _at_the_point_limit():
+    """The unfinished claw feed with its coupler carrying points up to the size limit."""
+    design = copy.deepcopy(UNFINISHED)
+    extra = {f"Q{i}": [70 + (i % 10) * 3, 150 + (i // 10) * 3] for i in range(MAX_POINTS - len(design["points"]))}
+    design["points"].update(extra)
+    design["links"]["coupler"] += list(extra)
+    return design
+
+
+def test_a_click_that_would_pass_the_size_limit_is_refused_in_words(make_window):
+    """At 100 points a new joint would make a file the loader refuses (kinematics.model.limits): the
+    click is refused with the limit in words, and the design keeps its points."""
+    window = make_window(_at_the_point_limit())
+    before = dict(window.document.mechanism.points)
+    window.use_tool("joint")
+    click_at(window, -80.0, -60.0)
+    assert dict(window.document.mechanism.points) == before
+    assert f"no room for another joint: Kinepoly analyses designs of at most {MAX_POINTS} points" in \
+        window.status.text()
+
+
+def test_no_edit_builds_a_design_past_the_limits():
+    mech = kinematics.load_mechanism(_at_the_point_limit())
+    with pytest.raises(BuildError, match=f"at most {MAX_POINTS} points"):
+        building.add_point(mech, (0.0, 0.0), fixed=True)
+    bars = building.empty()
+    for k in range(MAX_LINKS_AND_SLIDES + 1):
+        bars, p = building.add_point(bars, (10.0 * k, 0.0), fixed=True)
+        bars, q = building.add_point(bars, (10.0 * k, 50.0))
+        if k == MAX_LINKS_AND_SLIDES:
+            with pytest.raises(BuildError, match=f"at most {MAX_LINKS_AND_SLIDES} links and slides"):
+                building.join(bars, [p, q])
+            with pytest.raises(BuildError, match=f"at most {MAX_LINKS_AND_SLIDES} links and slides"):
+                building.add_slide(bars, q, "O1", "O2")
+        else:
+            bars, _ = building.join(bars, [p, q])
+    kinematics.load_mechanism(json.loads(kinematics.dumps(bars)))  # the largest it allowed still loads

@@ -90,7 +90,7 @@ def test_the_cycle_tab_plots_the_document_sweep_and_turns_the_driver(make_window
     tabs = window.side_tabs
     tabs.setCurrentIndex(next(i for i in range(tabs.count()) if tabs.tabText(i) == "Cycle"))
     doc, cycle = window.document, window.cycle
-    assert tabs.currentWidget() is cycle
+    assert tabs.currentWidget() is window.cycle_pages and window.cycle_pages.currentWidget() is cycle
     assert cycle.coarse is doc.sweep and doc.sweep is not None
     assert cycle.angle_deg == pytest.approx(120.0)
     window.turn_driver(150.0)

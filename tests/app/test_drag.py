@@ -12,7 +12,7 @@ from tests.designs import CARTON_PUSHER, CLAW_FEED, SWING_LEVER, load
 
 
 def joint_scene_pos(window, name) -> QPointF:
-    return window.drawings.space_scene.joints[name].dot.pos()
+    return window.drawings.space_scene.joint_pos(name)
 
 
 def mm_per_pixel(view) -> float:

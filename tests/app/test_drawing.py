@@ -6,10 +6,15 @@ from pathlib import Path
 
 import pytest
 from PySide6.QtCore import QRectF, Qt
+from PySide6.QtWidgets import QGraphicsLineItem, QGraphicsSimpleTextItem
 from shapely.geometry import Point
 
 import kinematics
+from app.scene_backend import ITEM_REF
 from kinematics import Component
+from kinematics.drawing import Ref
+from kinematics.drawing.scaling import plain
+from tests.app.drawn import joints, on_screen, outline, texts
 from tests.designs import CARTON_PUSHER, CLAW_FEED, SAMPLES, SWING_LEVER, UNFINISHED
 
 
@@ -100,27 +105,34 @@ def test_polygon_items_sit_at_the_construction_images_over_the_scale(make_window
                 assert (end.x(), end.y()) == pytest.approx((image[0] / scale, -image[1] / scale), abs=1e-9)
                 checked += 1
         assert checked >= 1
-        assert f"1 mm = {scale:.4g}" in scene.scale_bar.label.text.text()
+        bar = " ".join(item.text() for item in texts(scene, Ref("scale bar", scene.kind)))
+        assert f"1 mm = {plain(scale)}" in bar
 
 
 def test_joints_sit_at_the_solved_positions(make_window):
     window = make_window(CLAW_FEED)
     window.turn_driver(250.0)
     solution = window.document.solution
-    for name, joint in window.drawings.space_scene.joints.items():
+    scene = window.drawings.space_scene
+    assert joints(scene) == set(solution.point_names)
+    for name in solution.point_names:
         x, y = solution.position(name)
-        assert (joint.dot.pos().x(), joint.dot.pos().y()) == pytest.approx((1e3 * x, -1e3 * y), abs=1e-9)
+        at = scene.joint_pos(name)
+        assert (at.x(), at.y()) == pytest.approx((1e3 * x, -1e3 * y), abs=1e-9)
 
 
 def test_items_are_moved_in_place_while_the_step_structure_holds(make_window):
     window = make_window(CLAW_FEED)
-    scene = window.drawings.velocity_scene
-    before = {key: id(items) for key, items in scene.step_items.items()}
-    lines = [item.line for item in scene.step_items.values() if item.line is not None]
-    window.turn_driver(100.0)
-    window.turn_driver(101.0)
-    assert {key: id(items) for key, items in scene.step_items.items()} == before
-    assert all(line.scene() is scene for line in lines)
+    for scene in (window.drawings.velocity_scene, window.drawings.space_scene):
+        window.turn_driver(99.0)
+        before = {id(item): item.data(ITEM_REF) for item in scene.items()}
+        lines = [item for item in scene.items() if isinstance(item, QGraphicsLineItem)]
+        moved = [line.line() for line in lines]
+        window.turn_driver(100.0)
+        window.turn_driver(101.0)
+        assert {id(item): item.data(ITEM_REF) for item in scene.items()} == before
+        assert all(line.scene() is scene for line in lines)
+        assert [line.line() for line in lines] != moved
 
 
 def test_the_legend_is_painted_in_each_pen_used(make_window):
@@ -140,8 +152,8 @@ def test_the_legend_is_painted_in_each_pen_used(make_window):
 
 def test_an_unfinished_design_draws_its_space_diagram_and_says_what_is_missing(make_window):
     window = make_window(UNFINISHED)
-    assert set(window.drawings.space_scene.joints) == set(CLAW_FEED["points"])
-    assert not window.drawings.velocity_scene.step_items
+    assert joints(window.drawings.space_scene) == set(CLAW_FEED["points"])
+    assert not window.drawings.velocity_scene.items() or window.drawings.velocity_scene.sheet is None
     assert "no driver" in window.status.text()
     assert window.table.results.rowCount() == 0
 
@@ -149,12 +161,11 @@ def test_an_unfinished_design_draws_its_space_diagram_and_says_what_is_missing(m
 def test_coupler_paths_follow_the_cycle_sweep(make_window):
     window = make_window(CLAW_FEED)
     sweep = window.document.sweep
-    path = window.drawings.space_scene.paths["P"].path()
+    (path,) = (outline(item) for item in window.drawings.space_scene.paths.items_of(Ref("path", "P")))
     track = sweep.positions[:, sweep.point_names.index("P")] * 1e3
-    assert path.elementCount() >= len(track)
+    assert len(path) >= len(track)
     for i in (0, len(track) // 3, len(track) - 1):
-        element = path.elementAt(i)
-        assert (element.x, element.y) == pytest.approx((track[i][0], -track[i][1]), abs=1e-9)
+        assert path[i] == pytest.approx((track[i][0], -track[i][1]), abs=1e-9)
 
 
 def test_no_two_visible_polygon_labels_overlap(make_window):
@@ -164,13 +175,9 @@ def test_no_two_visible_polygon_labels_overlap(make_window):
             window.turn_driver(angle)
             for scene, view in ((window.drawings.velocity_scene, window.drawings.velocity_view),
                                 (window.drawings.acceleration_scene, window.drawings.acceleration_view)):
-                boxes = []
-                for items in scene.step_items.values():
-                    if items.label is not None and items.label.anchor.isVisible():
-                        # The label keeps its pixel size: its box is in pixels from its anchor's pixel.
-                        label = items.label
-                        corner = view.mapFromScene(label.anchor.pos()).toPointF() + label.text.pos()
-                        boxes.append(label.text.boundingRect().translated(corner))
+                # Each label keeps its pixel size: its box in the viewport's pixels.
+                boxes = [on_screen(view, item) for item in scene.items() if isinstance(item, QGraphicsSimpleTextItem)
+                         and item.data(ITEM_REF).kind == "step"]
                 # Eight directions may all be taken in a crowded spot; most labels must stand free.
                 crowded = sum(1 for i, a in enumerate(boxes) if any(a.intersects(b) for b in boxes[:i]))
                 assert crowded <= len(boxes) // 4, (design["title"], angle, scene.kind)
@@ -195,10 +202,10 @@ def test_joint_labels_stand_clear_of_each_other_and_of_the_joints(make_window):
             assert window.open_path(design)
         view, scene = window.drawings.space_view, window.drawings.space_scene
         boxes, dots = [], []
-        for joint in scene.joints.values():
-            corner = view.mapFromScene(joint.label.anchor.pos()).toPointF() + joint.label.text.pos()
-            boxes.append(joint.label.text.boundingRect().translated(corner))
-            centre = view.mapFromScene(joint.dot.pos()).toPointF()
+        for name in joints(scene):
+            (label,) = texts(scene, Ref("point", name))
+            boxes.append(on_screen(view, label))
+            centre = view.mapFromScene(scene.joint_pos(name)).toPointF()
             dots.append(QRectF(centre.x() - 4, centre.y() - 4, 8, 8))
         for i, box in enumerate(boxes):
             assert not any(box.intersects(other) for other in boxes[:i]), (design, i)

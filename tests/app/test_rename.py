@@ -7,6 +7,7 @@ from PySide6.QtCore import Qt
 from PySide6.QtGui import QAction, QKeySequence
 
 import kinematics
+from tests.app.drawn import joint_label, joints
 from tests.designs import SAMPLES
 
 # A four-bar with a coupler point: joints O2 A B O4 P, links crank coupler rocker.
@@ -46,15 +47,15 @@ def test_a_joint_renamed_in_the_design_tab_is_renamed_everywhere_and_undone(make
     assert list(mech.points) == ["O2", "crank_pin", "B", "O4", "P"]
     assert mech.links["crank"] == ("O2", "crank_pin") and mech.links["coupler"] == ("crank_pin", "B", "P")
     assert doc.undo_stack.count() == count + 1 and doc.undo_stack.undoText() == "rename joint A to crank_pin"
-    joints = window.drawings.space_scene.joints
-    assert "A" not in joints and joints["crank_pin"].label.text.text() == "crank_pin"
+    scene = window.drawings.space_scene
+    assert "A" not in joints(scene) and joint_label(scene, "crank_pin") == "crank_pin"
     assert "point crank_pin" in table_names(window) and "point A" not in table_names(window)
     assert panel.point.currentText() == "crank_pin" and panel.point_name.text() == "crank_pin"
     assert doc.solution is not None and "cannot" not in window.status.text()
 
     menu_action(window, QKeySequence.Undo).trigger()
     assert list(doc.mechanism.points) == ["O2", "A", "B", "O4", "P"]
-    assert window.drawings.space_scene.joints["A"].label.text.text() == "A"
+    assert joint_label(window.drawings.space_scene, "A") == "A"
     assert "point A" in table_names(window) and "point crank_pin" not in table_names(window)
     assert panel.point.currentText() == "A" and panel.point_name.text() == "A"
     menu_action(window, QKeySequence.Redo).trigger()
@@ -90,7 +91,7 @@ def test_a_refused_name_is_said_and_the_design_stays(make_window, qtbot):
         type_name(qtbot, panel.point_name, typed)
         assert window.status.text().startswith(message + " · ")
         assert kinematics.dumps(doc.mechanism) == before and doc.undo_stack.count() == count
-        assert panel.point_name.text() == "A" and "A" in window.drawings.space_scene.joints
+        assert panel.point_name.text() == "A" and "A" in joints(window.drawings.space_scene)
     panel.link.setCurrentText("rocker")
     type_name(qtbot, panel.link_name, "O4")
     assert window.status.text().startswith(
@@ -110,4 +111,4 @@ def test_a_name_being_typed_survives_the_driver_turning(make_window, qtbot):
     assert panel.point_name.text() == "claw_ti"
     qtbot.keyClicks(panel.point_name, "p")
     qtbot.keyClick(panel.point_name, Qt.Key_Return)
-    assert "claw_tip" in doc.mechanism.points and "claw_tip" in window.drawings.space_scene.joints
+    assert "claw_tip" in doc.mechanism.points and "claw_tip" in joints(window.drawings.space_scene)

@@ -34,7 +34,7 @@ def test_a_drag_frame_returns_while_a_slow_sweep_runs(make_window, monkeypatch, 
     window.snapping.setChecked(False)
     started, release, swept = _slow_cycle(monkeypatch)
     view = window.drawings.space_view
-    start = window.drawings.space_scene.joints["B"].dot.pos()
+    start = window.drawings.space_scene.joint_pos("B")
     QTest.mousePress(view.viewport(), Qt.MouseButton.LeftButton, Qt.KeyboardModifier.NoModifier,
                      view.mapFromScene(start))
     before = doc.mechanism
@@ -74,3 +74,22 @@ def test_a_sweep_overtaken_by_a_newer_design_is_dropped(make_window, monkeypatch
 def _nudged(mechanism, name, dx):
     x, y = mechanism.points[name]
     return (x + dx, y)
+
+
+def test_a_document_deleted_while_its_sweep_runs_gets_nothing_sent(monkeypatch, qtbot):
+    """The worker finishing a sweep for a document the window's thread has just deleted must not emit on
+    the deleted object (that crashed the process now and then): closing the sweeper shuts its gate."""
+    import shiboken6
+
+    from kinematics import load_mechanism
+
+    started, release, _ = _slow_cycle(monkeypatch)
+    doc = document_module.Document(load_mechanism(CLAW_FEED))  # asks for its sweep as it opens
+    future = doc._pending
+    assert started.wait(HOLD_S)
+    gate = doc._sweeper._gate
+    shiboken6.delete(doc)
+    assert not gate.open, "deleting the document closed the gate before the sweep ended"
+    release.set()
+    ticket, result = future.result(HOLD_S)
+    assert result is not None  # the sweep itself ended normally; only its sending was stopped

@@ -3,9 +3,22 @@
 from PySide6.QtCore import QPoint, QPointF, Qt
 from PySide6.QtGui import QWheelEvent
 from PySide6.QtTest import QTest
-from PySide6.QtWidgets import QApplication
+from PySide6.QtWidgets import QApplication, QGraphicsLineItem
 
+from app.scene_backend import ITEM_REF, Z_LINE
+from kinematics.drawing import Ref
+from kinematics.drawing.style import pen_for
 from tests.designs import CLAW_FEED
+
+
+def lines_of(scene, ref) -> list:
+    """The line items drawing ``ref`` (a bar's broad body first drawn under its centre line left out)."""
+    return [item for item in scene.items() if isinstance(item, QGraphicsLineItem) and item.data(ITEM_REF) == ref
+            and item.zValue() >= Z_LINE]
+
+
+def pin(scene, name):
+    return next(item for item in scene.items() if item.data(1) and item.data(ITEM_REF) == Ref("point", name))
 
 
 def wheel(view, steps: int):
@@ -56,7 +69,7 @@ def test_dragging_empty_space_pans(make_window):
 def test_hovering_a_joint_marks_its_images_and_its_table_row(make_window):
     window = make_window(CLAW_FEED)
     view = window.drawings.space_view
-    at = view.mapFromScene(window.drawings.space_scene.joints["B"].dot.pos())
+    at = view.mapFromScene(window.drawings.space_scene.joint_pos("B"))
     QTest.mouseMove(view.viewport(), at + QPoint(30, 30))
     QTest.mouseMove(view.viewport(), at)
     drawings = window.drawings
@@ -67,7 +80,7 @@ def test_hovering_a_joint_marks_its_images_and_its_table_row(make_window):
     assert abs(ring.x() - image[0] / scale) < 1e-9 and abs(ring.y() + image[1] / scale) < 1e-9
     selected = window.table.selectionModel().selectedRows()
     assert [i.row() for i in selected] == [window.table.results.rows["B"]]
-    assert drawings.space_scene.joints["B"].dot.brush().color().name() != "#ffffff"
+    assert pin(drawings.space_scene, "B").brush().color().name() != "#ffffff"
     far = QPoint(6, 6)
     assert view.joint_at(far) is None
     QTest.mouseMove(view.viewport(), far)
@@ -82,11 +95,13 @@ def test_selecting_a_step_emphasises_its_geometry_and_links(make_window):
     window.steps.setCurrentRow(row)
     scene = window.drawings.velocity_scene
     assert scene.selected_step == step.id
-    items = scene.step_items[step.id]
-    plain = next(i for k, i in scene.step_items.items() if k != step.id and i.line is not None and i.pen == items.pen)
-    assert items.line.pen().widthF() > plain.line.pen().widthF()
+    line = lines_of(scene, Ref("step", step.id))[0]
+    plain = next(other for s in construction.velocity.steps if s.id != step.id and pen_for(s) == pen_for(step)
+                 for other in lines_of(scene, Ref("step", s.id)))
+    assert line.pen().widthF() > plain.pen().widthF()
     space = window.drawings.space_scene
-    assert space.links["rocker"].centre[0].pen().widthF() > space.links["crank"].centre[0].pen().widthF()
+    rocker, crank = (lines_of(space, Ref("link", name))[0] for name in ("rocker", "crank"))
+    assert rocker.pen().widthF() > crank.pen().widthF()
     assert step.text in window.steps.item(row).text()
     window.steps.setCurrentRow(-1)
     assert scene.selected_step is None
@@ -97,7 +112,7 @@ def test_clicking_a_polygon_line_shows_its_step(make_window):
     construction = window.document.construction
     step = next(s for s in construction.acceleration.steps if s.role.value == "result")
     view, scene = window.drawings.acceleration_view, window.drawings.acceleration_scene
-    line = scene.step_items[step.id].line.line()
+    line = lines_of(scene, Ref("step", step.id))[0].line()
     middle = view.mapFromScene(line.pointAt(0.5))
     QTest.mouseClick(view.viewport(), Qt.LeftButton, Qt.NoModifier, middle + QPoint(2, 1))  # a near miss is fine
     assert window.side_tabs.currentWidget() is window.steps

@@ -233,3 +233,24 @@ def test_every_sample_exports_a_clean_dxf(sample, tmp_path):
     msp = _read(tmp_path / "s.dxf").modelspace()
     assert len(msp.query(f"LINE[layer=='{style.SPACE_LINK.layer}']")) >= 1
     assert sample.name in msp.query("MTEXT")[0].plain_text()
+
+
+@pytest.mark.parametrize("name", ["stacker-transfer-stephenson", "cap-press-feeder", "baler-tamper-watt"])
+def test_the_space_diagram_carries_the_files_numbers(name, tmp_path):
+    # In these samples a joint's millimetres, turned into the solver's metres and back, come out a
+    # few units in the last place off (470 mm as 470.00000000000006): the DXF must not show it.
+    sample = next(p for p in SAMPLE_FILES if p.stem == name)
+    mech = kinematics.load_mechanism(sample)
+    solution = kinematics.solve(mech)
+    assert any(1e3 * solution.position(n)[i] != float(mech.points[n][i]) for n in mech.points for i in (0, 1))
+    write_dxf(kinematics.construct(solution), tmp_path / "s.dxf")
+    # Read back by ezdxf (an outside reader): each pin's centre is the file's number, exactly.
+    centres = {}
+    for circle in _read(tmp_path / "s.dxf").modelspace().query(f"CIRCLE[layer=='{style.SPACE_LINK.layer}']"):
+        tags = [value for _, value in circle.get_xdata("KINEPOLY")] if circle.has_xdata("KINEPOLY") else []
+        for tag in tags:
+            if tag.startswith("point "):
+                centres[tag.removeprefix("point ")] = tuple(circle.dxf.center)[:2]
+    assert set(centres) == set(mech.points)
+    for point, (x, y) in mech.points.items():
+        assert centres[point] == (float(x), float(y)), point

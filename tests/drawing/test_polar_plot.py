@@ -6,7 +6,7 @@ import numpy as np
 import pytest
 
 from kinematics.drawing.plots import Curve, Plot, draw_plot
-from kinematics.drawing.sheet import Line, Polyline, Recorder
+from kinematics.drawing.sheet import Line, Polyline, Recorder, Ref
 
 
 def _drawn(curve, box=(20, 20, 190, 150)):
@@ -21,7 +21,7 @@ def test_a_circle_stays_a_circle(centre, radius):
     # its drawn extents across and up agree to float rounding (1e-9 mm).
     t = np.linspace(0, 2 * math.pi, 721)
     curve = Curve("tip", centre[0] + radius * np.cos(t), centre[1] + radius * np.sin(t))
-    points = np.array([p for prim in _drawn(curve) if isinstance(prim, Polyline) and prim.part == "tip"
+    points = np.array([p for prim in _drawn(curve) if isinstance(prim, Polyline) and prim.ref == Ref("plot", "tip")
                        and prim.pen.legend == "curve" for p in prim.points])
     width, height = np.ptp(points[:, 0]), np.ptp(points[:, 1])
     assert width == pytest.approx(height, abs=1e-9)

@@ -9,7 +9,7 @@ from fractions import Fraction
 import pytest
 
 import kinematics
-from kinematics.drawing import PAPER, Arrow, Circle, Line, Polyline, Text, draw_model, draw_sheet, style
+from kinematics.drawing import PAPER, Arrow, Circle, Line, Polyline, Ref, Text, draw_model, draw_sheet, style
 from kinematics.drawing.layout import MARGIN, MARGIN_FILING
 from kinematics.drawing.scaling import iso5455_ratio, polygon_scale, ratio_text
 from kinematics.drawing.space import outline
@@ -65,7 +65,7 @@ def test_space_diagram_links_run_joint_centre_to_joint_centre_at_sheet_scale(nam
     ratio = Fraction(view.scale_text.split(":")[0]) / Fraction(view.scale_text.split(":")[1])
     assert view.mm_per_unit == pytest.approx(1000.0 * float(ratio), rel=1e-12)
     for link, names in c.solution.mechanism.links.items():
-        drawn = [p for p in sheet.of_view("space") if p.part == link and p.pen.layer == "SPACE-LINKS"
+        drawn = [p for p in sheet.of_view("space") if p.ref == Ref("link", link) and p.pen.layer == "SPACE-LINKS"
                  and isinstance(p, (Line, Polyline))]
         assert len(drawn) == 1, link
         corners = [drawn[0].start, drawn[0].end] if isinstance(drawn[0], Line) else list(drawn[0].points)
@@ -79,7 +79,7 @@ def test_a_link_measures_true_length_times_the_scale():
     # Crank O2A of the gate lifter is 40 mm (24, 32): a 3-4-5 triangle.
     sheet = draw_sheet(construction(GATE_LIFTER))
     view = sheet.views["space"]
-    crank = next(p for p in sheet.of_view("space") if p.part == "crank" and isinstance(p, Line))
+    crank = next(p for p in sheet.of_view("space") if p.ref == Ref("link", "crank") and isinstance(p, Line))
     assert math.dist(crank.start, crank.end) == pytest.approx(40.0 * view.mm_per_unit / 1000.0, abs=1e-9)
 
 
@@ -136,7 +136,7 @@ def test_the_sheet_states_caution_scales_driver_and_results():
     sheet = draw_sheet(c, file_name="pusher.json", date="2026-03-04")
     texts = [p.text for p in sheet.primitives if isinstance(p, Text)]
     joined = " ".join(texts)
-    block = " ".join(p.text for p in sheet.primitives if isinstance(p, Text) and p.part == "title block")
+    block = " ".join(p.text for p in sheet.primitives if isinstance(p, Text) and p.ref == Ref("title block"))
     assert kinematics.CAUTION in block  # wrapped at spaces, so the lines join back to the whole caution
     for name in ("space", "velocity", "acceleration"):
         assert sheet.views[name].scale_text in joined
@@ -159,7 +159,7 @@ def test_model_drawing_keeps_true_millimetres_and_the_files_origin():
     c = construction(SWING_LEVER)
     sheet = draw_model(c)
     assert sheet.views["space"].mm_per_unit == 1000.0 and sheet.views["space"].origin == (0.0, 0.0)
-    crank = next(p for p in sheet.of_view("space") if p.part == "crank" and isinstance(p, Line))
+    crank = next(p for p in sheet.of_view("space") if p.ref == Ref("link", "crank") and isinstance(p, Line))
     assert sorted([crank.start, crank.end]) == [pytest.approx((0.0, 90.0)), pytest.approx((40.0, 90.0))]
     velocity, space = sheet.views["velocity"], sheet.views["space"]
     assert velocity.box[0] > space.box[2]  # the polygons stand beside the space diagram

@@ -7,7 +7,7 @@ from hypothesis import assume, given, settings
 from hypothesis import strategies as st
 
 import kinematics
-from kinematics.drawing import draw_model, draw_sheet
+from kinematics.drawing import Ref, draw_model, draw_sheet
 from tests.designs import four_bar
 
 from .test_sheet import MARGIN, MARGIN_FILING, _extent
@@ -38,5 +38,5 @@ def test_random_crank_rockers_fit_the_frame(design, landscape):
         for x, y in _extent(p):
             assert x0 - 1e-6 <= x <= x1 + 1e-6 and y0 - 1e-6 <= y <= y1 + 1e-6, p
     model = draw_model(c)
-    crank = next(p for p in model.of_view("space") if p.part == "crank" and hasattr(p, "start"))
+    crank = next(p for p in model.of_view("space") if p.ref == Ref("link", "crank") and hasattr(p, "start"))
     assert math.isclose(math.dist(crank.start, crank.end), math.hypot(*design["points"]["A"]), rel_tol=1e-12)

@@ -26,7 +26,7 @@ from kinematics.dynamics import forces
 from kinematics.errors import CannotAssemble, ParallelLines
 from kinematics.forcepolygon import force_polygon, inertia
 from kinematics.groups.force_steps import intersect_lines
-from kinematics.groups.scales import PREFERRED
+from kinematics.groups.scales import MANTISSAS
 from kinematics.groups.steps import Component, PolygonBuilder, Role
 from kinematics.model.mass import LinkMass, Load, MassData, PointMass
 from tests import CASE_FACTOR
@@ -83,7 +83,7 @@ def test_scale_is_from_the_series_and_fits_the_box():
     made, _ = _made(_massive(load(SWING_LEVER)), 30.0)
     scale = made.polygon.scale_per_mm
     mantissa = scale / 10 ** math.floor(math.log10(scale))
-    assert any(math.isclose(mantissa, m) for m in PREFERRED)
+    assert any(math.isclose(mantissa, m) for m in MANTISSAS)
     extent = max(math.hypot(*xy) for s in made.polygon.steps for xy in s.coords)
     assert extent / scale <= 120.0
 

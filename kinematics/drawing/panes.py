@@ -1,0 +1,115 @@
+"""Each view drawn alone, for a pane that zooms: the space diagram at true size
+(sheet mm = machine mm, the file's origin kept), a polygon at its construction's
+scale, each with its scale bar, on a sheet with no paper.
+
+The symbols (pins, marks, arrowheads, text) come at the size asked for, so a
+window that keeps them a constant size on screen records its views again at
+each zoom, with sizes in drawing millimetres for that zoom. A view's ``box`` is
+what the drawing covers to scale (its points and where its scale bar starts,
+not the symbols), for fitting the pane, which keeps BAR_ROOM text heights free
+under it for the bar.
+
+>>> import kinematics
+>>> from kinematics.drawing.symbols import Symbols
+>>> mech = kinematics.load_mechanism({"kinepoly": 1, "length_unit": "mm",
+...     "points": {"O": [0, 0], "A": [30, 40]}, "ground": ["O"], "links": {"crank": ["O", "A"]},
+...     "driver": {"link": "crank", "pivot": "O", "speed": {"value": 60, "unit": "rpm"}}})
+>>> sheet = space_pane(mech, kinematics.solve(mech), Symbols())
+>>> sheet.views["space"].box
+(0.0, -11.0, 30.0, 40.0)
+"""
+
+from __future__ import annotations
+
+import math
+
+from .annotate import printed_unit, scale_bar
+from .declutter import text_box
+from .polygons import draw_polygon, polygon_bounds
+from .scaling import bar_value, plain
+from .sheet import Recorder, Sheet, Text, View
+from .space import draw_linkage, draw_paths, file_positions, positions, traced_points
+from .symbols import Symbols
+
+# The space diagram's scale bar: about a quarter of the design long, this far under it (as
+# fractions of the design's size), placed from the file's pose so it stays put while the driver
+# turns. A polygon's bar: two fifths of the drawing's width.
+SPACE_BAR_LENGTH, SPACE_BAR_BELOW = 0.25, 0.22
+POLYGON_BAR_LENGTH = 0.4
+# Symbols keep their size while the drawing is zoomed: a bar is at least this many text heights
+# long (room for the numbers at its ends), and its caption takes this many over it (see
+# annotate.scale_bar: the bar's thickness, the gap and the caption's height). The box a view
+# fits leaves them out (they would grow as it zooms out); a pane keeps BAR_ROOM heights of the
+# small text (a pane's bar is written in it, to take less of a small window) free under it for
+# the bar's caption and its numbers.
+BAR_LEAST, CAPTION_ROOM, BAR_ROOM = 16.0, 3.2, 5.6
+
+
+def _bounds(points) -> tuple:
+    points = list(points)
+    xs, ys = [x for x, _ in points], [y for _, y in points]
+    return (min(xs), min(ys), max(xs), max(ys))
+
+
+def _with(box: tuple, other: tuple) -> tuple:
+    return (min(box[0], other[0]), min(box[1], other[1]), max(box[2], other[2]), max(box[3], other[3]))
+
+
+def space_pane(mech, solution, size: Symbols, draft: bool = False) -> Sheet:
+    """The space diagram of ``mech`` in the pose of ``solution`` (as the file places its points
+    when None), with its scale bar; a ``draft`` as :class:`~kinematics.drawing.sheet.Recorder` says."""
+    xy = positions(solution) if solution is not None else file_positions(mech)
+    rec = Recorder(draft=draft)
+    if not xy:
+        rec.add_view(View("space", (0.0, 0.0, 0.0, 0.0), (0.0, 0.0), 1000.0, "m", "1:1"))
+        return rec.sheet(0.0, 0.0, title=mech.title)
+    view = View("space", (0.0, 0.0, 0.0, 0.0), (0.0, 0.0), 1000.0, "m", "1:1")
+    draw_linkage(rec, mech, xy, view, size)
+    reference = _bounds([view.place(mech.position_m(n)) for n in mech.points])
+    design_mm = max(1e3 * mech.size * mech.metres_per_unit, 1.0)
+    left, y = reference[0], reference[1] - SPACE_BAR_BELOW * design_mm
+    longest = SPACE_BAR_LENGTH * design_mm
+    words = Symbols(text=size.small_text)
+    scale_bar(rec, (left, y - CAPTION_ROOM * words.text), 1.0, "mm", max(longest, BAR_LEAST * words.text),
+              "space diagram to scale", words, "space")
+    box = _with(_bounds(view.place(p) for p in xy.values()), (left, y, left + longest, y))
+    rec.add_view(View("space", box, view.origin, view.mm_per_unit, view.unit, view.scale_text))
+    return rec.sheet(0.0, 0.0, title=mech.title)
+
+
+def paths_pane(mech, sweep) -> Sheet:
+    """The paths over the cycle ``sweep`` of the points a space diagram traces, at true size;
+    the view's box is where every point goes over the cycle."""
+    rec = Recorder()
+    low, high = sweep.positions.min(axis=(0, 1)).tolist(), sweep.positions.max(axis=(0, 1)).tolist()
+    view = View("space", (1e3 * low[0], 1e3 * low[1], 1e3 * high[0], 1e3 * high[1]), (0.0, 0.0), 1000.0, "m",
+                "1:1")
+    rec.add_view(view)
+    draw_paths(rec, sweep, view, traced_points(mech))
+    return rec.sheet(0.0, 0.0, title=mech.title)
+
+
+def polygon_pane(polygon, solution, size: Symbols, draft: bool = False) -> Sheet:
+    """``polygon`` of ``solution`` at its construction's scale (``polygon.scale_per_mm``), with
+    its scale bar under it; a ``draft`` as :class:`~kinematics.drawing.sheet.Recorder` says."""
+    scale = polygon.scale_per_mm
+    unit = printed_unit(polygon.unit)
+    view = View(polygon.kind, (0.0, 0.0, 0.0, 0.0), (0.0, 0.0), 1.0 / scale, polygon.unit,
+                f"1 mm = {plain(scale)} {unit}")
+    rec = Recorder(draft=draft)
+    x0, y0, x1, y1 = (v / scale for v in polygon_bounds(polygon))
+    width = max(x1 - x0, y1 - y0, 1.0)
+    longest = POLYGON_BAR_LENGTH * width
+    # Just under the drawing, on a grid of half the bar's length: the bar stays put while the
+    # polygon changes a little from frame to frame of a drag (and is drawn from what was kept),
+    # rather than trembling with its edge. Drawn first, its words are marks the labels keep clear of.
+    grid = 0.5 * bar_value(longest, view.mm_per_unit) * view.mm_per_unit
+    x, y = math.floor(x0 / grid) * grid, math.floor(y0 / grid) * grid
+    words = Symbols(text=size.small_text)
+    scale_bar(rec, (x, y - CAPTION_ROOM * words.text), view.mm_per_unit, polygon.unit,
+              max(longest, BAR_LEAST * words.text), view.scale_text, words, polygon.kind)
+    rec.marks.extend((polygon.kind, text_box(p)) for p in rec.primitives if isinstance(p, Text))
+    draw_polygon(rec, polygon, solution, view, size)
+    box = (x0, y0, x1, y1)  # the bar lies in the room the pane keeps under the drawing
+    rec.add_view(View(polygon.kind, box, view.origin, view.mm_per_unit, view.unit, view.scale_text))
+    return rec.sheet(0.0, 0.0)
