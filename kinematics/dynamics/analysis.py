@@ -10,6 +10,7 @@ from types import MappingProxyType
 import numpy as np
 
 from ..cycle.sweep import Sweep
+from ..errors import ForcesUndetermined
 from ..solver.solve import Solution
 from .bodies import centres, cross, mass_model
 from .motion import from_solution, from_sweep
@@ -115,6 +116,12 @@ def _shaking(model, centre, motion, force, couple):
 def _result(cls, mechanism, motion, pick, **extra):
     """Both formulations over the motion's poses, each value taken through ``pick`` (the one pose,
     or all of them)."""
+    if mechanism.driver.is_actuator:
+        # The unknowns hold a drive couple on the driver link; a cylinder drives by a force along
+        # its axis, so the couple found on the barrel would be a number for a drive that is not there.
+        raise ForcesUndetermined(f"the forces of a cylinder-driven design are not worked out yet (the cylinder "
+                                 f"{mechanism.driver.slide} drives by a force along its axis, not by a torque on "
+                                 f"link {mechanism.driver.link})", "driver")
     model = mass_model(mechanism)
     data = mechanism.mass_data
     lay = model.layout

@@ -52,6 +52,8 @@ def test_construct_at_a_length_agrees_with_the_solver(capsys):
     (("solve", SAMPLE, "--length", "-3"), 2, 'argument --length: "-3" is not a positive finite cylinder length'),
     (("solve", SAMPLE, "--angle", "30"), 2, "a cylinder-driven design is solved at a cylinder length"),
     (("forces", SAMPLE, "--cycle", "--length", "800"), 2, "--length is for one pose"),
+    (("forces", SAMPLE, "--length", "800"), 2, "driver: the forces of a cylinder-driven design are not worked out"),
+    (("forces", SAMPLE, "--cycle"), 2, "drives by a force along its axis, not by a torque on link barrel"),
 ])
 def test_refusals(capsys, argv, code, words):
     got, _, err = _run(capsys, *argv)
