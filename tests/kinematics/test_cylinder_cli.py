@@ -52,9 +52,32 @@ def test_construct_at_a_length_agrees_with_the_solver(capsys):
     (("solve", SAMPLE, "--length", "-3"), 2, 'argument --length: "-3" is not a positive finite cylinder length'),
     (("solve", SAMPLE, "--angle", "30"), 2, "a cylinder-driven design is solved at a cylinder length"),
     (("forces", SAMPLE, "--cycle", "--length", "800"), 2, "--length is for one pose"),
-    (("forces", SAMPLE, "--length", "800"), 2, "driver: the forces of a cylinder-driven design are not worked out"),
-    (("forces", SAMPLE, "--cycle"), 2, "drives by a force along its axis, not by a torque on link barrel"),
 ])
 def test_refusals(capsys, argv, code, words):
     got, _, err = _run(capsys, *argv)
     assert got == code and words in err
+
+
+def test_forces_at_a_length_give_the_cylinder_force(capsys):
+    """The table names the cylinder's force, not a torque on the barrel; the JSON gives it in N with the
+    length in m; the power F·L̇ is the force times the file's 40 mm/s (exact arithmetic, 1e-12)."""
+    code, out, _ = _run(capsys, "forces", SAMPLE, "--length", "800")
+    assert code == 0
+    assert "drive force of cylinder cylinder:" in out and " N push" in out and "drive torque" not in out
+    code, out, _ = _run(capsys, "forces", SAMPLE, "--length", "800", "--json")
+    document = json.loads(out)
+    assert "driver_torque" not in document and document["driver_length_m"] == 0.8
+    force = document["drive_force_n"]
+    assert document["power_balance"]["drive_power"] == pytest.approx(force * 0.040, rel=1e-12)
+    # The virtual-work force, computed on its own: agreement to 1e-9 (both exact up to rounding).
+    assert document["power_balance"]["drive_force_n"] == pytest.approx(force, rel=1e-9)
+
+
+def test_forces_over_the_stroke_give_push_pull_and_power(capsys):
+    code, out, _ = _run(capsys, "forces", SAMPLE, "--cycle", "--steps", "25")
+    assert code == 0
+    assert "peak push" in out and "peak pull" in out and "at length 580.0 mm" in out and "flywheel" not in out
+    code, out, _ = _run(capsys, "forces", SAMPLE, "--cycle", "--steps", "25", "--json")
+    document = json.loads(out)
+    assert document["peak_push_n"] > 0 and document["peak_pull_n"] <= 0
+    assert document["power_balance"]["max_relative_difference"] < 1e-9
