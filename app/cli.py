@@ -250,7 +250,7 @@ def _export(args) -> int:
     from kinematics.drawing.dxf import write_dxf
 
     construction = construction_from_file(args.file, args.angle, pose_length_m(args))
-    write_dxf(construction, args.output, file_name=Path(args.file).name)
+    write_dxf(construction, args.output, file_name=Path(args.file).name, with_centres=args.centres)
     return 0
 
 
@@ -316,6 +316,8 @@ def parser() -> argparse.ArgumentParser:
     ex = sub.add_parser("export", help="the space diagram (true size, mm) and both polygons as DXF")
     _file_and_angle(ex, "the reference pose")
     ex.add_argument("-o", "--output", type=output_name, required=True, help="DXF file to write")
+    ex.add_argument("--centres", action="store_true", help="the instantaneous centres over the space diagram "
+                    "(layer CENTRES)")
     ex.set_defaults(handler=_export)
     rd = sub.add_parser("render", help="the window's three views as a PNG, without a screen")
     _file_and_angle(rd, "the reference pose", length=False)
@@ -327,6 +329,7 @@ def parser() -> argparse.ArgumentParser:
     pr.add_argument("--paper", choices=sorted(PAPER), default="A4", help="ISO 216 sheet (default A4)")
     pr.add_argument("--landscape", action="store_true", help="landscape instead of portrait")
     pr.add_argument("-o", "--output", type=output_name, required=True, help="PDF file to write")
+    pr.add_argument("--centres", action="store_true", help="the instantaneous centres over the space diagram")
     pr.set_defaults(handler=_with_qt("app.printing"))
     rp = sub.add_parser("report", help="the design-review report: one PDF of the whole analysis")
     rp.add_argument("file", help="mechanism file (JSON)")
@@ -351,8 +354,8 @@ USAGE = """usage: kinepoly [FILE]                 open the drafting window (on F
        kinepoly forces FILE [--angle DEG | --length MM] [--json]
        kinepoly forces FILE --cycle [--fluctuation 0.02] [--steps N] [--json]
        kinepoly render FILE [--angle DEG] -o view.png [--size 1600x1000]
-       kinepoly print FILE [--angle DEG | --length MM] [--paper A3] [--landscape] -o sheet.pdf
-       kinepoly export FILE [--angle DEG | --length MM] -o drawing.dxf
+       kinepoly print FILE [--angle DEG | --length MM] [--paper A3] [--landscape] [--centres] -o sheet.pdf
+       kinepoly export FILE [--angle DEG | --length MM] [--centres] -o drawing.dxf
        kinepoly report FILE [-o review.pdf] [--paper A4|A3] [--steps N] [--angles 30,150,...]
 Each command takes --help. Exit codes: 0 ok, 1 output not written, 2 bad file or findings,
 3 cannot assemble at that angle or length."""

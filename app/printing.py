@@ -167,7 +167,7 @@ def pdf_writer(target, title: str, paper: str, landscape: bool = False) -> QPdfW
 
 
 def print_construction(construction, printer_or_path, paper: str = "A4", landscape: bool = False,
-                       file_name: str = "", date: str | None = None):
+                       file_name: str = "", date: str | None = None, with_centres: bool = False):
     """Print ``construction`` at true scale.
 
     Parameters
@@ -177,6 +177,7 @@ def print_construction(construction, printer_or_path, paper: str = "A4", landsca
         full-page mode and given the paper).
     paper, landscape : ISO 216 size (A4, A3 …) and orientation.
     file_name, date : for the title block (date defaults to today).
+    with_centres : draw the instantaneous centres over the space diagram.
 
     Returns
     -------
@@ -190,7 +191,8 @@ def print_construction(construction, printer_or_path, paper: str = "A4", landsca
         the target and is moved into place only when whole, so a failure
         leaves no partial file.
     """
-    sheet = draw_sheet(construction, paper=paper, landscape=landscape, file_name=file_name, date=date)
+    sheet = draw_sheet(construction, paper=paper, landscape=landscape, file_name=file_name, date=date,
+                       with_centres=with_centres)
     if isinstance(printer_or_path, (str, os.PathLike)):
         def write(temporary):
             writer = pdf_writer(temporary, sheet.title or "Kinepoly construction", paper, landscape)
@@ -221,7 +223,7 @@ def run(args) -> int:
     def action():
         construction = construction_from_file(args.file, args.angle, pose_length_m(args))
         print_construction(construction, args.output, paper=args.paper, landscape=args.landscape,
-                           file_name=Path(args.file).name)
+                           file_name=Path(args.file).name, with_centres=args.centres)
 
     code = run_reporting(action)
     del application

@@ -8,6 +8,7 @@ import datetime
 import math
 from dataclasses import dataclass
 
+from ..instantaneous.centres import centres
 from .annotate import (
     caution_lines,
     description,
@@ -19,6 +20,8 @@ from .annotate import (
     title_block,
     title_block_height,
 )
+from .centre_places import bounds_with_centres, centre_places
+from .centres_overlay import draw_centres
 from .polygons import draw_polygon, polygon_bounds
 from .results import results_band, results_height
 from .scaling import bar_value, iso5455_ratio, plain, polygon_scale, ratio_text
@@ -46,13 +49,16 @@ class _Fit:
     bounds: tuple
 
 
-def _space_bounds(solution) -> tuple:
+def _space_bounds(solution, places=()) -> tuple:
+    """The pose's points, and the centres drawn on the view (``places``) when they are shown."""
+    if places:
+        return bounds_with_centres(solution, places)
     xs, ys = zip(*positions(solution).values(), strict=True)
     return (min(xs), min(ys), max(xs), max(ys))
 
 
-def _fit_space(solution, width: float, height: float) -> _Fit:
-    x0, y0, x1, y1 = _space_bounds(solution)
+def _fit_space(solution, width: float, height: float, places=()) -> _Fit:
+    x0, y0, x1, y1 = _space_bounds(solution, places)
     limits = [room / (1000.0 * extent) for room, extent in ((width, x1 - x0), (height, y1 - y0)) if extent > 0]
     ratio = iso5455_ratio(min(limits)) if limits else iso5455_ratio(1.0)
     return _Fit(1000.0 * float(ratio), ratio_text(ratio), (x0, y0, x1, y1))
@@ -91,30 +97,30 @@ def _arrangements(area) -> list:
     return out
 
 
-def _fit_view(construction, name: str, box, size: Symbols) -> View:
+def _fit_view(construction, name: str, box, size: Symbols, places=()) -> View:
     """The view ``name`` fitted and centred in ``box``, room kept for its scale bar at the bottom."""
     bx0, by0, bx1, by1 = box
     inner = (bx0 + VIEW_PAD, by0 + scale_bar_height(size) + VIEW_PAD, bx1 - VIEW_PAD, by1 - VIEW_PAD)
     width, height = max(inner[2] - inner[0], 1.0), max(inner[3] - inner[1], 1.0)
     if name == "space":
-        fit, unit = _fit_space(construction.solution, width, height), "m"
+        fit, unit = _fit_space(construction.solution, width, height, places), "m"
     else:
         polygon = getattr(construction, name)
         fit, unit = _fit_polygon(polygon, width, height), polygon.unit
     return _centred_view(name, fit, inner, unit)
 
 
-def _best_views(construction, area, size: Symbols) -> dict:
+def _best_views(construction, area, size: Symbols, places=()) -> dict:
     """The arrangement whose views come out largest (product of their drawn
     sizes), among those whose boxes are wide enough for their scale captions."""
     def score(views):
-        return math.prod(_extent_mm(construction, v) for v in views.values())
+        return math.prod(_extent_mm(construction, v, places) for v in views.values())
 
     def captions_fit(views):
         return all(text_width(_caption(v), size.text) + 2 * size.text <= v.box[2] - v.box[0] + 2 * VIEW_PAD
                    for v in views.values())
 
-    candidates = [{name: _fit_view(construction, name, box, size) for name, box in boxes.items()}
+    candidates = [{name: _fit_view(construction, name, box, size, places) for name, box in boxes.items()}
                   for boxes in _arrangements(area)]
     return max([views for views in candidates if captions_fit(views)] or candidates, key=score)
 
@@ -123,20 +129,22 @@ def _caption(view: View) -> str:
     return f"{NAMES[view.name]} {view.scale_text}"
 
 
-def _extent_mm(construction, view: View) -> float:
+def _extent_mm(construction, view: View, places=()) -> float:
     """Diagonal of a view's drawing on paper, mm (at least 1 so a point-like polygon scores)."""
     if view.name == "space":
-        x0, y0, x1, y1 = _space_bounds(construction.solution)
+        x0, y0, x1, y1 = _space_bounds(construction.solution, places)
     else:
         x0, y0, x1, y1 = polygon_bounds(getattr(construction, view.name))
     return max(1.0, math.hypot(x1 - x0, y1 - y0) * view.mm_per_unit)
 
 
-def _draw_view(rec: Recorder, construction, view: View, size: Symbols) -> None:
-    """Draw one fitted view and its scale bar under it."""
+def _draw_view(rec: Recorder, construction, view: View, size: Symbols, centres=None) -> None:
+    """Draw one fitted view and its scale bar under it (with ``centres`` over the space diagram)."""
     rec.add_view(view)
     if view.name == "space":
         draw_space(rec, construction.solution, view, size)
+        if centres is not None:
+            draw_centres(rec, centres, view, size)
         per_value, bar_unit = view.mm_per_unit / 1000.0, "mm"  # the bar reads true millimetres
     else:
         draw_polygon(rec, getattr(construction, view.name), construction.solution, view, size)
@@ -152,7 +160,7 @@ def _scales(views: dict) -> dict:
 
 
 def draw_sheet(construction, paper: str = "A4", landscape: bool = False, file_name: str = "",
-               date: str | None = None) -> Sheet:
+               date: str | None = None, with_centres: bool = False) -> Sheet:
     """The printed sheet of a construction.
 
     Parameters
@@ -161,6 +169,8 @@ def draw_sheet(construction, paper: str = "A4", landscape: bool = False, file_na
     paper : ISO 216 size, a key of :data:`PAPER`.
     landscape : turn the paper to landscape.
     file_name, date : for the title block (date defaults to today, ISO 8601).
+    with_centres : draw the instantaneous centres over the space diagram
+        (:mod:`kinematics.drawing.centres_overlay`), the view grown to take in the near ones.
 
     Returns
     -------
@@ -187,9 +197,10 @@ def draw_sheet(construction, paper: str = "A4", landscape: bool = False, file_na
     block_height = title_block_height(description(construction, {}, file_name, date), frame[2] - frame[0], size)
     table_top = frame[1] + block_height + GAP + results_height(construction, frame[2] - frame[0] - 2 * GAP, size)
     area = (frame[0] + GAP, table_top + GAP, frame[2] - GAP, frame[3] - GAP)
-    views = _best_views(construction, area, size)
+    found = centres(construction.solution, construction) if with_centres else None
+    views = _best_views(construction, area, size, centre_places(found) if found is not None else ())
     for view in views.values():
-        _draw_view(rec, construction, view, size)
+        _draw_view(rec, construction, view, size, found)
     results_band(rec, (frame[0] + GAP, frame[1] + block_height + GAP, frame[2] - GAP, table_top),
                   construction, size)
     lines = description(construction, _scales(views), file_name, date)
@@ -197,7 +208,7 @@ def draw_sheet(construction, paper: str = "A4", landscape: bool = False, file_na
     return rec.sheet(width, height, title=construction.solution.mechanism.title)
 
 
-def draw_model(construction, file_name: str = "", date: str | None = None) -> Sheet:
+def draw_model(construction, file_name: str = "", date: str | None = None, with_centres: bool = False) -> Sheet:
     """The model drawing for CAD.
 
     The space diagram at true size in millimetres (sheet mm = model mm, the
@@ -208,6 +219,7 @@ def draw_model(construction, file_name: str = "", date: str | None = None) -> Sh
     ----------
     construction : :class:`kinematics.Construction` to draw.
     file_name, date : for the note (date defaults to today, ISO 8601).
+    with_centres : draw the instantaneous centres over the space diagram, on their own layer.
 
     Returns
     -------
@@ -215,7 +227,9 @@ def draw_model(construction, file_name: str = "", date: str | None = None) -> Sh
         With no paper (width and height 0) and the three views.
     """
     solution = construction.solution
-    x0, y0, x1, y1 = (1000.0 * v for v in _space_bounds(solution))
+    found = centres(solution, construction) if with_centres else None
+    places = centre_places(found) if found is not None else ()
+    x0, y0, x1, y1 = (1000.0 * v for v in _space_bounds(solution, places))
     extent = max(x1 - x0, y1 - y0)
     # Symbols grow with a big machine so a plotted drawing keeps readable text.
     size = Symbols().scaled(max(1.0, bar_value(extent / 150.0, 1.0)) if extent > 0 else 1.0)
@@ -225,6 +239,8 @@ def draw_model(construction, file_name: str = "", date: str | None = None) -> Sh
     views = {"space": space}
     rec.add_view(space)
     draw_space(rec, solution, space, size)
+    if found is not None:
+        draw_centres(rec, found, space, size, places)
     left = x1 + 2 * pad
     for name in ("velocity", "acceleration"):
         polygon = getattr(construction, name)

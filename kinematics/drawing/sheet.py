@@ -28,7 +28,7 @@ FRAME = Pen(ANNOTATION.colour, 0.7, "solid", "SHEET-FRAME", "sheet frame and tit
 class Ref(NamedTuple):
     """What a primitive draws: ``kind`` is "point", "link", "slide", "step", "driver",
     "image" (a link's image figure on a polygon), "path" (a point's path over the
-    cycle) or a part of the sheet ("scale bar",
+    cycle), "centre" (an instantaneous centre, named by its pair "a|b") or a part of the sheet ("scale bar",
     "frame", "title block", "results table", "legend", "note"); ``name`` names the
     point, link, slide or step id (the view's name for a scale bar, "" for the
     sheet's own parts). A backend keeps it with what it makes, so a window leads a
@@ -41,6 +41,8 @@ class Ref(NamedTuple):
 # The primitives are named tuples, not dataclasses: a window records its views at every frame
 # of a drag, and a tuple is made in two thirds of the time of a frozen dataclass.
 class Line(NamedTuple):
+    """A straight line from ``start`` to ``end`` (sheet mm)."""
+
     start: tuple
     end: tuple
     pen: Pen
@@ -49,6 +51,8 @@ class Line(NamedTuple):
 
 
 class Polyline(NamedTuple):
+    """A polyline through ``points`` (sheet mm), ``closed`` back to its first point."""
+
     points: tuple
     pen: Pen
     closed: bool = False
@@ -79,6 +83,8 @@ class Arrow(NamedTuple):
 
 
 class Circle(NamedTuple):
+    """A circle about ``centre`` of ``radius`` (sheet mm), outlined or ``filled``."""
+
     centre: tuple
     radius: float
     pen: Pen
@@ -170,12 +176,15 @@ class Sheet:
     title: str = ""
 
     def of_view(self, name: str) -> tuple:
+        """The primitives drawn in view ``name``."""
         return tuple(p for p in self.primitives if p.view == name)
 
     def of_step(self, step_id: str) -> tuple:
+        """The primitives that draw construction step ``step_id``."""
         return self.of_ref(Ref("step", step_id))
 
     def of_ref(self, ref: Ref) -> tuple:
+        """The primitives that draw what ``ref`` names."""
         return tuple(p for p in self.primitives if p.ref == ref)
 
 
@@ -198,11 +207,14 @@ class Recorder:
     draft: bool = False
 
     def add(self, primitive) -> None:
+        """Record one primitive."""
         self.primitives.append(primitive)
 
     def add_view(self, view: View) -> None:
+        """Record a view's frame and scale."""
         self.views[view.name] = view
 
     def sheet(self, width: float, height: float, title: str = "") -> Sheet:
+        """The recording so far as a frozen Sheet of ``width`` × ``height`` mm."""
         return Sheet(width=width, height=height, views=dict(self.views), primitives=tuple(self.primitives),
                      title=title)

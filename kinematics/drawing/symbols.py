@@ -27,6 +27,7 @@ class Symbols:
     arrow: float = 3.0
 
     def scaled(self, factor: float) -> Symbols:
+        """Every size multiplied by ``factor`` (a true-size drawing's enlargement)."""
         return Symbols(*(value * factor for value in (self.text, self.small_text, self.pin, self.dot, self.arrow)))
 
 
