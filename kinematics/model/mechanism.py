@@ -73,14 +73,17 @@ class Driver:
 
     @property
     def is_actuator(self) -> bool:
+        """True for a cylinder driver (``kind`` "actuator")."""
         return self.kind == "actuator"
 
     @property
     def linear_speed_m_s(self) -> float:
+        """A cylinder's extension speed L̇, m/s (negative retracts)."""
         return float(self.linear_speed_value) * M_S_PER_LINEAR_SPEED_UNIT[self.linear_speed_unit]
 
     @property
     def linear_acceleration_m_s2(self) -> float:
+        """A cylinder's extension acceleration L̈, m/s²."""
         return float(self.linear_acceleration_value) * M_S2_PER_LINEAR_ACCELERATION_UNIT[
             self.linear_acceleration_unit]
 

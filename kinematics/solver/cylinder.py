@@ -35,11 +35,13 @@ class LengthDrivenSystem(DrivenSystem):
         return x[..., self.rod_end, :] - x[..., self.pivot, :]
 
     def residual(self, x, theta):
+        """The constraint values with the cylinder's row (|w|² − L²)/(2L) last, ``theta`` = L (m)."""
         w = self._axis(x)
         drive = (np.sum(w * w, axis=-1) - theta ** 2) / (2.0 * theta)
         return np.concatenate([self.system.values(x), drive[..., None]], axis=-1)
 
     def jacobian(self, x, theta):
+        """The residual's derivative with respect to the unknown coordinates (its last row w/L, −w/L)."""
         jac = self.system.jacobian(x)
         w = self._axis(x) / np.asarray(theta, float)[..., None]
         row = np.zeros(x.shape[:-2] + (1, 2 * self.n))
