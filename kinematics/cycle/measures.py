@@ -16,6 +16,14 @@ from .sweep import Sweep
 DEAD_POINT_SHARE = 0.03
 
 
+def sweep_parameter(result: Sweep) -> tuple:
+    """(the swept parameter (N,), the suffix of the keys that place a value by it): the driver
+    angle in degrees ("deg"), or a cylinder's length in m ("length_m")."""
+    if result.driver_length_m is not None:
+        return np.asarray(result.driver_length_m, float), "length_m"
+    return result.driver_angle_deg, "deg"
+
+
 def dead_point_trim(count: int, full_turn: bool) -> int:
     """How many of a sweep's ``count`` samples at each end lie too near a dead point of the driver:
     none for a full turn or a sweep too short to trim, else DEAD_POINT_SHARE of them, at least one.
@@ -37,9 +45,10 @@ def clear_of_dead_points(result: Sweep) -> np.ndarray:
 
 
 def transmission_angles(mech: Mechanism, result: Sweep) -> dict:
-    """Label -> (N,) transmission angle in degrees (0–180°), for each group that has one (RRR: at B)."""
+    """Label -> (N,) transmission angle in degrees (0–180°), for each group that has one (RRR: at B;
+    a cylinder: between its axis and the link it drives)."""
     angles = {}
-    for group in decompose(mech).groups:
+    for group in decompose(mech).chain:
         angles.update(group.transmission_angles(result))
     return angles
 
@@ -101,12 +110,12 @@ def output_motion(mech: Mechanism, result: Sweep) -> dict | None:
     if found is None:
         return None
     name, values, unit, rate, _ = found
-    angles = result.driver_angle_deg
+    angles, suffix = sweep_parameter(result)
     turn, limits = rate_zeros(angles, rate, result.full_turn)
     hi, lo = int(np.argmax(values)), int(np.argmin(values))
     motion = {"output": name, "unit": unit, "travel": float(values[hi] - values[lo]),
-              "limit_positions_deg": [float(angles[lo]), float(angles[hi])],
-              "rate_reversals_deg": limits}
+              f"limit_positions_{suffix}": [float(angles[lo]), float(angles[hi])],
+              f"rate_reversals_{suffix}": limits}
     if result.full_turn and len(turn) == 2:
         between = abs(limits[1] - limits[0])
         rising = values[turn[1]] > values[turn[0]]
