@@ -335,25 +335,39 @@ def verify_sweep(result: Sweep, branch_step_deg: float = 10.0) -> dict:
 
     Newton-Raphson refines every swept pose; the branch is confirmed
     independently by solving, from the reference pose by continuation, every
-    pose ``branch_step_deg`` apart. Returns the largest differences relative
-    to the largest value of each quantity: ``position``, ``velocity``,
+    pose ``branch_step_deg`` apart (a cylinder's stroke: a 36th of it at a time).
+    Returns the largest differences relative to the largest value of each quantity: ``position``, ``velocity``,
     ``acceleration``, ``jerk``, and ``branch`` (position at the continuation poses).
     """
     mech = result.mechanism
     system = constraint_system(mech)
-    driven = DrivenSystem(system)
-    omega, alpha = mech.driver.speed_rad_s, mech.driver.angular_acceleration_rad_s2
+    driver = mech.driver
+    if result.driver_length_m is not None:
+        # A cylinder: the solver's parameter is the length, its rates L̇ and L̈ (L⃛ = 0).
+        from ..solver.cylinder import LengthDrivenSystem, reference_length_m
+
+        driven = LengthDrivenSystem(system, mech)
+        omega, alpha, rate3 = driver.linear_speed_m_s, driver.linear_acceleration_m_s2, 0.0
+        theta = np.asarray(result.driver_length_m, float)
+        start = reference_length_m(mech)
+        stride = max(1, int(round(len(theta) / 36)))
+    else:
+        driven = DrivenSystem(system)
+        omega, alpha, rate3 = driver.speed_rad_s, driver.angular_acceleration_rad_s2, driver.angular_jerk_rad_s3
+        theta = np.radians(result.driver_angle_deg)
+        start = math.radians(reference_angle_deg(mech))
+        step = abs(result.driver_angle_deg[1] - result.driver_angle_deg[0])
+        stride = max(1, int(round(branch_step_deg / step)))
     tolerance = newton_tolerance(system)
     index = [result.point_names.index(n) for n in system.names]
     closed = result.positions[:, index]
-    theta = np.radians(result.driver_angle_deg)
     q = newton(driven, closed.reshape(len(theta), -1)[:, driven.columns], theta, tolerance)
     if q is None:
         raise CannotAssemble("the numeric solver does not converge from every swept pose", "sweep")
     x = driven.full(q)
     jac = driven.jacobian(x, theta)
     xdot, xddot = driven.rates(x, jac, theta, omega, alpha)
-    xjerk = driven.jerk(x, jac, xdot, xddot, theta, omega, alpha, mech.driver.angular_jerk_rad_s3)
+    xjerk = driven.jerk(x, jac, xdot, xddot, theta, omega, alpha, rate3)
     size = mech.size * mech.metres_per_unit
     worst = {}
     for key, numeric, swept in (("position", x, closed), ("velocity", xdot, result.velocities[:, index]),
@@ -362,9 +376,7 @@ def verify_sweep(result: Sweep, branch_step_deg: float = 10.0) -> dict:
         worst[key] = float(np.abs(numeric - swept).max() / (np.abs(swept).max() or 1.0))
     # The branch, independently: continuation walks from the reference pose at a coarse step,
     # one each way (a ranged sweep reaches both of its dead points from the reference pose).
-    step = abs(result.driver_angle_deg[1] - result.driver_angle_deg[0])
-    stride = max(1, int(round(branch_step_deg / step)))
-    offsets = theta - math.radians(reference_angle_deg(mech))
+    offsets = theta - start
     worst["branch"] = 0.0
     for direction in (1.0, -1.0):
         ahead = np.flatnonzero(offsets * direction > -1e-12)
@@ -374,8 +386,9 @@ def verify_sweep(result: Sweep, branch_step_deg: float = 10.0) -> dict:
             tracked = track(driven, q_walk, theta[k] - offsets[k] + direction * reached,
                              abs(offsets[k]) - reached, direction, size)
             if tracked is None:
-                raise CannotAssemble("continuation from the reference pose stops at a dead point",
-                                     f"driver angle {result.driver_angle_deg[k]:.3f}°")
+                where = (f"driver angle {result.driver_angle_deg[k]:.3f}°" if result.driver_length_m is None
+                         else f"cylinder length {theta[k] * 1000:.3f} mm")
+                raise CannotAssemble("continuation from the reference pose stops at a dead point", where)
             q_walk, reached = tracked[0], abs(offsets[k])
             walked = driven.full(q_walk)
             worst["branch"] = max(worst["branch"], float(np.abs(walked - closed[k]).max() / size))

@@ -8,7 +8,7 @@ from PySide6.QtCore import Qt
 import kinematics
 from tests.designs import CLAW_FEED
 
-TABLE = Path(__file__).resolve().parents[1] / "data" / "crate-tipping-table.json"
+TABLE = Path(__file__).resolve().parents[2] / "samples" / "crate-tipping-table.json"
 
 
 def test_the_forces_pane_gives_the_cylinder_force_not_a_torque(make_window):

@@ -12,7 +12,7 @@ from kinematics.cycle.peaks import peaks
 from kinematics.cycle.sweep import sweep
 from kinematics.files.fileformat import load_mechanism
 
-SAMPLE = Path(__file__).resolve().parents[1] / "data" / "crate-tipping-table.json"
+SAMPLE = Path(__file__).resolve().parents[2] / "samples" / "crate-tipping-table.json"
 # The sample's triangle: barrel pivot C, table hinge O, rod end B (m).
 D_M = math.hypot(1.0, 0.5)  # |CO|
 R_M = math.hypot(0.6, 0.07)  # |OB|, fixed in the table

@@ -10,7 +10,7 @@ import sympy
 
 from app.cli import main
 
-SAMPLE = str(Path(__file__).resolve().parents[1] / "data" / "crate-tipping-table.json")
+SAMPLE = str(Path(__file__).resolve().parents[2] / "samples" / "crate-tipping-table.json")
 
 
 def _run(capsys, *argv):

@@ -11,7 +11,7 @@ import kinematics
 from kinematics.errors import FileFormatError
 from kinematics.files.fileformat import dumps
 
-SAMPLE = Path(__file__).resolve().parents[1] / "data" / "crate-tipping-table.json"
+SAMPLE = Path(__file__).resolve().parents[2] / "samples" / "crate-tipping-table.json"
 
 
 def _document():
