@@ -14,7 +14,12 @@ def status_text(analysis, note: str = "") -> str:
         elif analysis.problem:
             parts.append(f"cannot analyse: {analysis.problem}")
         return " · ".join(parts)
-    parts.append(f"driver at {construction.solution.driver_angle_deg:.1f}° · cross-check: the polygons agree with "
+    solution = construction.solution
+    if solution.driver_length_m is None:
+        pose = f"driver at {solution.driver_angle_deg:.1f}°"
+    else:
+        pose = f"cylinder {solution.mechanism.driver.slide} at length {solution.driver_length_m * 1000:.1f} mm"
+    parts.append(f"{pose} · cross-check: the polygons agree with "
                  f"the numeric solver to {construction.max_relative_difference:.1e} (relative, largest at "
                  f"{construction.where or 'no moving point'})")
     parts += [f"warning: {w}" for w in construction.warnings]

@@ -1,6 +1,7 @@
 """`kinepoly check` and `sweep --peaks` on a cylinder-driven design speak of its stroke in mm and of
 its own transmission angle, against the triangle C-O-B solved by the law of cosines (any handbook)."""
 
+import json
 import math
 from pathlib import Path
 
@@ -13,9 +14,10 @@ from kinematics.cycle.sweep import sweep
 from kinematics.files.fileformat import load_mechanism
 
 SAMPLE = Path(__file__).resolve().parents[2] / "samples" / "crate-tipping-table.json"
-# The sample's triangle: barrel pivot C, table hinge O, rod end B (m).
-D_M = math.hypot(1.0, 0.5)  # |CO|
-R_M = math.hypot(0.6, 0.07)  # |OB|, fixed in the table
+# The sample's triangle: barrel pivot C, table hinge O, rod end B (m), from the file's points.
+_POINTS = {n: (x / 1000, y / 1000) for n, (x, y) in json.loads(SAMPLE.read_text())["points"].items()}
+D_M = math.dist(_POINTS["C"], _POINTS["O"])
+R_M = math.dist(_POINTS["O"], _POINTS["B"])  # fixed in the table
 
 
 def _angle_at_b_deg(length_m):

@@ -27,7 +27,8 @@ def test_solve_at_a_length_matches_the_triangle_by_sympy(capsys):
     assert code == 0
     result = json.loads(out)
     assert result["driver_length_m"] == 0.8
-    c, o, b = (0.0, 0.0), (1.0, 0.5), (0.4, 0.43)
+    points = json.loads(Path(SAMPLE).read_text())["points"]
+    c, o, b = (tuple(v / 1000 for v in points[n]) for n in "COB")
     d, r = math.dist(c, o), math.dist(o, b)
     t = sympy.symbols("t")
     length = 0.8 + 0.040 * t  # extending at 40 mm/s, the file's speed

@@ -68,8 +68,8 @@ def test_refusals_name_the_place(change, message):
 
 def test_the_drawn_length_outside_the_stroke_is_said_in_words():
     doc = _document()
-    doc["driver"]["stroke"]["min"] = 590
+    doc["driver"]["stroke"]["min"] = 810
     with pytest.raises(kinematics.CannotAssemble) as caught:
         kinematics.sweep(kinematics.load_mechanism(doc), 50)
-    assert str(caught.value) == ("driver.stroke: the cylinder's length in the drawn pose, 587.282 mm, is outside "
-                                 "its stroke 590 to 1060 mm")
+    assert str(caught.value) == ("driver.stroke: the cylinder's length in the drawn pose, 800.034 mm, is outside "
+                                 "its stroke 810 to 1060 mm")
