@@ -5,6 +5,8 @@ table and the window's cycle plot, so both leave out the same samples)."""
 
 from __future__ import annotations
 
+import math
+
 import numpy as np
 
 from ..groups.decompose import decompose
@@ -35,10 +37,22 @@ def dead_point_trim(count: int, full_turn: bool) -> int:
     return 0 if full_turn or count <= 2 * end else end
 
 
+def within_given_stroke(result: Sweep) -> bool:
+    """True for a cylinder swept over the whole of the stroke its file gives (its ends are the
+    cylinder's own limits, not dead points of the linkage)."""
+    driver = result.mechanism.driver
+    if result.driver_length_m is None or driver.stroke_min is None or driver.stroke_max is None:
+        return False
+    k = result.mechanism.metres_per_unit
+    low, high = float(np.min(result.driver_length_m)), float(np.max(result.driver_length_m))
+    return math.isclose(low, driver.stroke_min * k, rel_tol=1e-9) and math.isclose(high, driver.stroke_max * k,
+                                                                                  rel_tol=1e-9)
+
+
 def clear_of_dead_points(result: Sweep) -> np.ndarray:
-    """(N,) True for the samples :func:`dead_point_trim` keeps."""
+    """(N,) True for the samples :func:`dead_point_trim` keeps (all of a cylinder's given stroke)."""
     clear = np.ones(len(result.driver_angle_deg), bool)
-    end = dead_point_trim(len(clear), result.full_turn)
+    end = 0 if within_given_stroke(result) else dead_point_trim(len(clear), result.full_turn)
     if end:
         clear[:end] = clear[-end:] = False
     return clear

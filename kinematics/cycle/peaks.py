@@ -2,13 +2,19 @@
 
 from __future__ import annotations
 
-import math
 from dataclasses import replace
 
 import numpy as np
 
 from .advantage import advantage_over_cycle
-from .measures import DEAD_POINT_SHARE, dead_point_trim, output_motion, sweep_parameter, transmission_angles
+from .measures import (
+    DEAD_POINT_SHARE,
+    dead_point_trim,
+    output_motion,
+    sweep_parameter,
+    transmission_angles,
+    within_given_stroke,
+)
 from .sweep import Sweep
 
 
@@ -26,18 +32,6 @@ def _trimmed(result: Sweep, kept: slice) -> Sweep:
                    sliding_acceleration=cut(result.sliding_acceleration),
                    time_s=None if result.time_s is None else result.time_s[kept],
                    driver_length_m=None if result.driver_length_m is None else result.driver_length_m[kept])
-
-
-def _within_stroke(result: Sweep) -> bool:
-    """True for a cylinder swept over the whole of the stroke its file gives (its ends are the
-    cylinder's own limits, not dead points of the linkage)."""
-    driver = result.mechanism.driver
-    if result.driver_length_m is None or driver.stroke_min is None or driver.stroke_max is None:
-        return False
-    k = result.mechanism.metres_per_unit
-    low, high = float(np.min(result.driver_length_m)), float(np.max(result.driver_length_m))
-    return math.isclose(low, driver.stroke_min * k, rel_tol=1e-9) and math.isclose(high, driver.stroke_max * k,
-                                                                                  rel_tol=1e-9)
 
 
 def _at(values, angles):
@@ -61,7 +55,7 @@ def peaks(result: Sweep) -> dict:
     # outer DEAD_POINT_SHARE of its range at each end, and say so.
     # A cylinder's stroke ends are dead points only where its reach, not the file's stroke, ends it.
     parameter, suffix = sweep_parameter(result)
-    trim = 0 if _within_stroke(result) else dead_point_trim(len(parameter), result.full_turn)
+    trim = 0 if within_given_stroke(result) else dead_point_trim(len(parameter), result.full_turn)
     kept = slice(trim, len(parameter) - trim)
     angles = parameter[kept]
     whole, result = result, _trimmed(result, kept)
