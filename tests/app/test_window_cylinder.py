@@ -1,5 +1,7 @@
 """A cylinder-driven design in the window: the forces at the pose name the cylinder's axial force."""
 
+import json
+import math
 from pathlib import Path
 
 import pytest
@@ -73,3 +75,28 @@ def test_the_cycle_plots_a_stroke_against_the_cylinders_length(make_window, qtbo
     # The stroke's ends are swept exactly (the sample's whole stroke assembles).
     assert axis.span == pytest.approx((580.0, 1060.0), rel=1e-12)
     assert axis.x_of_angle(window.document.shown_angle_deg) == pytest.approx(800.0, abs=1.0)
+
+
+def test_the_driver_tool_makes_a_slide_a_cylinder_by_its_pivot_and_rod_end(make_window, qtbot):
+    """The sample with its barrel turned by a crank instead; the Driver tool, clicked on C (the
+    barrel's pivot) and B (the slide's joint), makes the slide the cylinder again; undo goes back."""
+    from dataclasses import replace
+
+    from kinematics import Driver
+    from tests.app.test_building import click_joint
+
+    cylinder = kinematics.load_mechanism(TABLE)
+    turned = replace(cylinder, driver=Driver("barrel", "C", 2.0, "rpm"))
+    window = make_window(json.loads(kinematics.dumps(turned)))
+    assert not window.document.mechanism.driver.is_actuator
+    window.use_tool("driver")
+    click_joint(window, "C")
+    click_joint(window, "B")
+    driver = window.document.mechanism.driver
+    assert driver.is_actuator and driver.slide == "cylinder" and driver.pivot == "C"
+    assert window.angle.caption.text() == "cylinder length"
+    # The pose keeps the drawn length, |CB| of the file (mm).
+    assert window.angle.spin.value() == pytest.approx(math.dist(cylinder.points["C"], cylinder.points["B"]), abs=0.05)
+    window.document.undo_stack.undo()
+    assert not window.document.mechanism.driver.is_actuator
+    assert window.angle.caption.text() == "driver angle"
