@@ -8,6 +8,7 @@ from dataclasses import replace
 import numpy as np
 import pytest
 
+import kinematics
 from kinematics import solve, sweep
 from kinematics.dynamics import drive_summary, forces, sweep_forces
 from kinematics.model.mass import LinkMass, MassData
@@ -94,3 +95,30 @@ def test_summary_of_a_stroke_gives_push_pull_and_mean_power():
     work = np.trapezoid(force, length) if hasattr(np, "trapezoid") else np.trapz(force, length)
     duration = (length[-1] - length[0]) / 0.3
     assert summary.mean_power_w == pytest.approx(work / duration, rel=1e-3)
+
+
+def test_the_work_over_the_stroke_is_the_rise_in_energy():
+    """Work-energy theorem for frictionless rigid bodies (common practice): the cylinder's work
+    ∫F dL over the sample's stroke equals the rise of potential and kinetic energy of the table,
+    the barrel and the crate, both turning about fixed pivots (KE = ½·m·v_G² + ½·I·ω²). The
+    summary's trapezoids over 241 poses err by O(h²): 1e-4 relative (measured 7e-6)."""
+    from tests.designs import SAMPLES
+
+    mech = kinematics.load_mechanism(SAMPLES / "crate-tipping-table.json")
+    summary = drive_summary(sweep_forces(sweep(mech, 241)))
+    reference = solve(mech)
+
+    def energy(sol):
+        total = 400.0 * G * sol.position("K")[1] + 0.5 * 400.0 * float(np.sum(np.square(sol.velocity("K"))))
+        for link, pivot in (("table", "O"), ("barrel", "C")):
+            entry = mech.mass_data.masses[link]
+            turn = math.radians(sol.link_angle_deg[link] - reference.link_angle_deg[link])
+            arm = (np.array(entry.centre) - np.array(mech.points[pivot])) / 1000
+            arm = np.array([[math.cos(turn), -math.sin(turn)], [math.sin(turn), math.cos(turn)]]) @ arm
+            omega = sol.angular_velocity[link]
+            total += entry.mass_kg * G * (mech.points[pivot][1] / 1000 + arm[1])
+            total += 0.5 * entry.mass_kg * (omega * np.linalg.norm(arm)) ** 2 + 0.5 * entry.inertia_kg_m2 * omega ** 2
+        return total
+
+    rise = energy(solve(mech, length=1.060)) - energy(solve(mech, length=0.580))
+    assert summary.work_j == pytest.approx(rise, rel=1e-4)
