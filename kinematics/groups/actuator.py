@@ -80,6 +80,12 @@ class ActuatorGroup(Group):
 
     @property
     @override
+    def carried_points(self) -> frozenset:
+        """The barrel's point under the rod's end: its radial component belongs to the barrel."""
+        return frozenset({(self.links[0], self.roles["B"])})
+
+    @property
+    @override
     def name(self) -> str:
         return f"cylinder {self.slide}"
 
