@@ -1,4 +1,4 @@
-"""Command-line values every verb shares: a driver angle, an output file name, and argv as argparse
+"""Command-line values every verb shares: a driver angle or a cylinder length, an output file name, and argv as argparse
 should see it. Each refusal is argparse's own (exit code 2, ``argument --angle: …``)."""
 
 from __future__ import annotations
@@ -7,7 +7,7 @@ import argparse
 import math
 
 # Options whose value may start with "-" and still be a number ("-inf", "-1e5").
-NUMERIC_OPTIONS = ("--angle",)
+NUMERIC_OPTIONS = ("--angle", "--length")
 
 
 def finite_angle(text: str) -> float:
@@ -19,6 +19,22 @@ def finite_angle(text: str) -> float:
     if not math.isfinite(value):
         raise argparse.ArgumentTypeError(f'"{text}" is not a finite angle in degrees')
     return value
+
+
+def cylinder_length_mm(text: str) -> float:
+    """The ``--length`` value: a cylinder's length, a positive finite number of millimetres."""
+    try:
+        value = float(text)
+    except ValueError:
+        raise argparse.ArgumentTypeError(f'"{text}" is not a cylinder length in mm') from None
+    if not (math.isfinite(value) and value > 0.0):
+        raise argparse.ArgumentTypeError(f'"{text}" is not a positive finite cylinder length in mm')
+    return value
+
+
+def pose_length_m(args) -> float | None:
+    """The ``--length`` asked for (mm, for people) in metres, as the core takes it; None if not given."""
+    return None if getattr(args, "length", None) is None else args.length / 1000.0
 
 
 def output_name(text: str) -> str:

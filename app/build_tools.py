@@ -16,7 +16,8 @@ HINTS = {
     "link": "Link: click its joints in turn (a click on empty space adds a joint there); click the last "
             "one again or press Enter to finish, Esc to cancel",
     "slide": "Slide: click the sliding joint, then two points that set its line (both fixed, or both on one link)",
-    "driver": "Driver: click the fixed pivot, then a joint of the link it turns",
+    "driver": "Driver: click the fixed pivot, then a joint of the link it turns (or a cylinder's: its barrel's "
+              "pivot, then its rod's end, the slide's joint)",
     "delete": "Delete: click a joint to remove it and whatever cannot stand without it",
 }
 
@@ -100,6 +101,12 @@ class Builder(QObject):
         if len(self.picks) == 2:
             pivot, point = self.picks
             self.picks = []
+            if building.cylinder_slide(self.document.mechanism, pivot, point) is not None:
+                mech = building.set_cylinder_driver(self.document.mechanism, pivot, point)
+                self._apply(mech, "choose the cylinder driver")
+                self.say(f"driver: cylinder {mech.driver.slide} from {pivot} to {point}, extending at "
+                         f"{mech.driver.linear_speed_value:g} {mech.driver.linear_speed_unit}")
+                return
             mech = building.set_driver(self.document.mechanism, pivot, point)
             self._apply(mech, "choose the driver")
             self.say(f"driver: {mech.driver.link} about {pivot} at {mech.driver.speed_value:g} {mech.driver.speed_unit}"

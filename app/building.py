@@ -119,11 +119,41 @@ def set_driver(mech: Mechanism, pivot: str, point: str, speed_value: float | Non
     link = next((n for n, pts in mech.links.items() if pivot in pts and point in pts), None)
     if link is None:
         raise BuildError(f"no link joins {pivot} and {point}: join them first")
-    old = mech.driver
+    old = mech.driver if mech.driver is not None and not mech.driver.is_actuator else None
     value = speed_value if speed_value is not None else (old.speed_value if old else DEFAULT_SPEED_RPM)
     unit = speed_unit or (old.speed_unit if old else "rpm")
     alpha = (old.angular_acceleration_value, old.angular_acceleration_unit) if old else (0.0, "rad/s^2")
     return replace(mech, driver=Driver(link, pivot, float(value), unit, *alpha), warnings=())
+
+
+# A new cylinder extends at this speed until the Design tab or the file says otherwise.
+DEFAULT_CYLINDER_SPEED_M_S = 0.05
+
+
+def cylinder_slide(mech: Mechanism, pivot: str, point: str) -> str | None:
+    """The slide a cylinder driver would be between fixed ``pivot`` (the barrel's) and its sliding
+    joint ``point`` (the rod's end): one whose joint is ``point`` and whose line runs through
+    ``pivot`` on a moving guide; None when there is none."""
+    return next((s.name for s in mech.slides.values() if s.point == point and pivot in s.line
+                 and s.guide in mech.links and pivot in mech.links[s.guide]), None)
+
+
+def set_cylinder_driver(mech: Mechanism, pivot: str, point: str) -> Mechanism:
+    """The slide between fixed ``pivot`` and its joint ``point`` becomes a cylinder driver: its guide
+    the barrel pivoted at ``pivot`` (its line turned to start there, by the file's convention), its
+    length from ``pivot`` to ``point``, extending at 50 mm/s with no stroke limits yet."""
+    if pivot not in mech.ground:
+        raise BuildError(f"{pivot} is not fixed: a cylinder's barrel is pivoted on the frame")
+    name = cylinder_slide(mech, pivot, point)
+    if name is None:
+        raise BuildError(f"no slide of {point} runs along a line through {pivot}: add the cylinder's slide first")
+    slide = mech.slides[name]
+    if slide.line[0] != pivot:
+        slide = replace(slide, line=(pivot, slide.line[0]))
+    driver = Driver(slide.guide, pivot, 0.0, kind="actuator", slide=name,
+                    linear_speed_value=DEFAULT_CYLINDER_SPEED_M_S * 1e3, linear_speed_unit="mm/s",
+                    linear_acceleration_value=0.0, linear_acceleration_unit="mm/s^2")
+    return replace(mech, slides={**mech.slides, name: slide}, driver=driver, warnings=())
 
 
 def set_speed(mech: Mechanism, speed_value: float, speed_unit: str, angular_acceleration: float) -> Mechanism:

@@ -24,7 +24,15 @@ from kinematics.drawing import PAPER
 from kinematics.files.storage import write_atomically
 from kinematics.reports.text import construction_text, peaks_text, solution_table
 
-from .arguments import finite_angle, joined_numbers, output_name, parse_size, review_angles
+from .arguments import (
+    cylinder_length_mm,
+    finite_angle,
+    joined_numbers,
+    output_name,
+    parse_size,
+    pose_length_m,
+    review_angles,
+)
 from .outcomes import construction_from_file, run_reporting
 
 
@@ -43,7 +51,8 @@ def _solution_json(solution) -> dict:
         "slides": {k: {"point": solution.mechanism.slides[k].point,
                        "sliding_velocity": solution.sliding_velocity[k],
                        "sliding_acceleration": solution.sliding_acceleration[k]} for k in solution.sliding_velocity},
-        "warnings": list(solution.warnings)}
+        "warnings": list(solution.warnings),
+        **({} if solution.driver_length_m is None else {"driver_length_m": solution.driver_length_m})}
 
 
 def _polygon_json(polygon) -> dict:
@@ -118,6 +127,11 @@ def _emit(text: str, output):
         sys.stdout.write(text if text.endswith("\n") else text + "\n")
 
 
+def _pose(mech, args):
+    """The pose asked for: at ``--angle``, at a cylinder's ``--length``, or the file's own."""
+    return solve(mech, args.angle, length=pose_length_m(args))
+
+
 def _check(args) -> int:
     from kinematics.reports.check_text import check_sentences
 
@@ -131,7 +145,7 @@ def _check(args) -> int:
 
 def _solve(args) -> int:
     mech = load_mechanism(args.file)
-    solution = solve(mech, args.angle)
+    solution = _pose(mech, args)
     _require_finite(_solution_json(solution), args.file)
     if args.csv:
         from kinematics.drawing.table import results_csv
@@ -145,7 +159,7 @@ def _solve(args) -> int:
 
 
 def _construct(args) -> int:
-    construction = construct(solve(load_mechanism(args.file), args.angle))
+    construction = construct(_pose(load_mechanism(args.file), args))
     if args.forces:
         from kinematics.forcepolygon import force_polygon
         from kinematics.reports.force_text import force_polygon_text
@@ -168,7 +182,7 @@ def _centres(args) -> int:
     from kinematics import centres
     from kinematics.instantaneous.text import centres_json, centres_table
 
-    result = centres(solve(load_mechanism(args.file), args.angle))
+    result = centres(_pose(load_mechanism(args.file), args))
     _emit(json.dumps(centres_json(result), indent=1) if args.json else centres_table(result), args.output)
     return 0
 
@@ -206,8 +220,9 @@ def _forces(args) -> int:
     from kinematics.dynamics import forces, sweep_forces
     from kinematics.reports import forces_tables
 
-    if args.cycle and args.angle is not None:
-        raise KinematicsError("--angle is for one pose; --cycle sweeps the whole turn: choose one")
+    if args.cycle and (args.angle is not None or args.length is not None):
+        option = "--angle" if args.angle is not None else "--length"
+        raise KinematicsError(f"{option} is for one pose; --cycle sweeps the whole turn: choose one")
     if not args.cycle and (args.fluctuation is not None or args.steps is not None):
         option = "--fluctuation" if args.fluctuation is not None else "--steps"
         raise KinematicsError(f"{option} is for the summary of a cycle: add --cycle")
@@ -223,7 +238,7 @@ def _forces(args) -> int:
         text = json.dumps(document, indent=1) if args.json else \
             forces_tables.summary_text(summary, result) + f"\n\n{CAUTION}"
     else:
-        result = forces(solve(mech, args.angle))
+        result = forces(_pose(mech, args))
         document = forces_tables.forces_json(result)
         _require_finite(document, args.file)
         text = json.dumps(document, indent=1) if args.json else forces_tables.forces_table(result) + f"\n\n{CAUTION}"
@@ -234,8 +249,8 @@ def _forces(args) -> int:
 def _export(args) -> int:
     from kinematics.drawing.dxf import write_dxf
 
-    write_dxf(construction_from_file(args.file, args.angle), args.output, file_name=Path(args.file).name,
-              with_centres=args.centres)
+    construction = construction_from_file(args.file, args.angle, pose_length_m(args))
+    write_dxf(construction, args.output, file_name=Path(args.file).name, with_centres=args.centres)
     return 0
 
 
@@ -246,10 +261,14 @@ def _with_qt(module: str):
     return handler
 
 
-def _file_and_angle(parser, what="the file's pose"):
+def _file_and_angle(parser, what="the file's pose", length=True):
     parser.add_argument("file", help="mechanism file (JSON)")
-    parser.add_argument("--angle", type=finite_angle, default=None, metavar="DEG",
-                        help=f"driver angle in degrees, counter-clockwise from +x (default: {what})")
+    pose = parser.add_mutually_exclusive_group()
+    pose.add_argument("--angle", type=finite_angle, default=None, metavar="DEG",
+                      help=f"driver angle in degrees, counter-clockwise from +x (default: {what})")
+    if length:
+        pose.add_argument("--length", type=cylinder_length_mm, default=None, metavar="MM",
+                          help=f"a cylinder driver's length in mm, barrel pivot to rod end (default: {what})")
 
 
 def parser() -> argparse.ArgumentParser:
@@ -301,7 +320,7 @@ def parser() -> argparse.ArgumentParser:
                     "(layer CENTRES)")
     ex.set_defaults(handler=_export)
     rd = sub.add_parser("render", help="the window's three views as a PNG, without a screen")
-    _file_and_angle(rd, "the reference pose")
+    _file_and_angle(rd, "the reference pose", length=False)
     rd.add_argument("-o", "--output", type=output_name, required=True, help="PNG file to write")
     rd.add_argument("--size", type=parse_size, default=(1600, 1000), help="WIDTHxHEIGHT pixels (1600x1000)")
     rd.set_defaults(handler=_with_qt("app.render"))
@@ -328,18 +347,18 @@ VERBS = ("check", "solve", "construct", "centres", "sweep", "forces", "export", 
 # What ``kinepoly --help`` shows: one line a verb (a test keeps it in step with the parser).
 USAGE = """usage: kinepoly [FILE]                 open the drafting window (on FILE)
        kinepoly check FILE              mobility, Grashof, transmission angle, limit positions
-       kinepoly solve FILE [--angle DEG] [--json | --csv]
-       kinepoly construct FILE [--angle DEG] [--forces] [--json]
-       kinepoly centres FILE [--angle DEG] [--json]
+       kinepoly solve FILE [--angle DEG | --length MM] [--json | --csv]
+       kinepoly construct FILE [--angle DEG | --length MM] [--forces] [--json]
+       kinepoly centres FILE [--angle DEG | --length MM] [--json]
        kinepoly sweep FILE [--steps N] [-o cycle.csv] [--peaks] [--json] [--forces]
-       kinepoly forces FILE [--angle DEG] [--json]
+       kinepoly forces FILE [--angle DEG | --length MM] [--json]
        kinepoly forces FILE --cycle [--fluctuation 0.02] [--steps N] [--json]
        kinepoly render FILE [--angle DEG] -o view.png [--size 1600x1000]
-       kinepoly print FILE [--angle DEG] [--paper A3] [--landscape] [--centres] -o sheet.pdf
-       kinepoly export FILE [--angle DEG] [--centres] -o drawing.dxf
+       kinepoly print FILE [--angle DEG | --length MM] [--paper A3] [--landscape] [--centres] -o sheet.pdf
+       kinepoly export FILE [--angle DEG | --length MM] [--centres] -o drawing.dxf
        kinepoly report FILE [-o review.pdf] [--paper A4|A3] [--steps N] [--angles 30,150,...]
 Each command takes --help. Exit codes: 0 ok, 1 output not written, 2 bad file or findings,
-3 cannot assemble at that angle."""
+3 cannot assemble at that angle or length."""
 
 
 def main(argv) -> int:

@@ -15,7 +15,7 @@ import pyqtgraph as pg
 from PySide6.QtCore import Qt, Signal
 from PySide6.QtWidgets import QComboBox, QDoubleSpinBox, QHBoxLayout, QLabel, QVBoxLayout, QWidget
 
-from kinematics.dynamics import FRICTIONLESS
+from kinematics.dynamics import FRICTIONLESS, CylinderSummary
 
 from . import cycle_series as series
 from .cycle_panel import AXIS_WIDTH_PX, CURSOR_COLOUR, PALETTE, ZERO_COLOUR
@@ -129,9 +129,14 @@ class CycleForcesPanel(QWidget):
         self.sweep, self.found = sweep, found
         result = found.sweep_forces
         self.axis = None if result is None else series.cycle_axis(sweep, "angle")
+        if self.axis is not None:
+            self.torque_plot.setLabel("bottom", f"{self.axis.label} ({self.axis.unit})", **{"font-size": "9pt"})
+            ticks = self.axis.kind == "angle"
+            self.torque_plot.getAxis("bottom").setTickSpacing(*((60.0, 30.0) if ticks else ()))
         self.graphics.setVisible(result is not None)
-        for widget in (self.joint, self.fluctuation):
-            widget.setEnabled(result is not None)
+        self.joint.setEnabled(result is not None)
+        # A cylinder has no flywheel: the coefficient of speed fluctuation is not asked for.
+        self.fluctuation.setEnabled(result is not None and result.drive_force_n is None)
         self.note.setText(found.problem or f"Over the cycle; {FRICTIONLESS}; no strength or fatigue check.")
         self._offer_joints()
         self._fill_torque()
@@ -176,9 +181,13 @@ class CycleForcesPanel(QWidget):
             for curve in (self.torque_curve, self.mean_curve, self._above_edge, self._below_edge):
                 curve.setData([], [])
             return
-        torque = np.asarray(result.drive_torque_n_m)[axis.order]
+        cylinder = result.drive_force_n is not None
+        # A cylinder's drive is its axial force: the diagram plots it, with no mean line (no turn to average).
+        self.torque_plot.setLabel("left", "cylinder force F (N), push +" if cylinder else "drive torque T (N·m)",
+                                  **{"font-size": "9pt"})
+        torque = np.asarray(result.drive_force_n if cylinder else result.drive_torque_n_m)[axis.order]
         self.torque_curve.setData(axis.x, torque)
-        if summary is None:
+        if summary is None or cylinder:
             for curve in (self.mean_curve, self._above_edge, self._below_edge):
                 curve.setData([], [])
         else:
@@ -223,7 +232,10 @@ class CycleForcesPanel(QWidget):
         if force is not None:
             # The sample of the sweep nearest the pose on screen.
             along = self.axis.along
-            k = int(np.argmin(np.abs((along - self.axis.x_of_angle(self.angle_deg) + 180.0) % 360.0 - 180.0)))
+            off = along - self.axis.x_of_angle(self.angle_deg)
+            if self.axis.kind == "angle":
+                off = (off + 180.0) % 360.0 - 180.0
+            k = int(np.argmin(np.abs(off)))
             self.polar_now.setData([force[k, 0]], [force[k, 1]])
 
     def _fill_summary(self):
@@ -234,6 +246,9 @@ class CycleForcesPanel(QWidget):
             return
         if summary is None:
             self.summary.setText(found.summary_problem)
+            return
+        if isinstance(summary, CylinderSummary):
+            self.summary.setText(_cylinder_text(summary))
             return
         text = (f"<b>drive</b> peak T {series.readable(summary.peak_torque_n_m)} N·m at "
                 f"{summary.peak_torque_angle_deg % 360.0:.1f}°, mean {series.readable(summary.mean_torque_n_m)} N·m, "
@@ -264,3 +279,14 @@ class CycleForcesPanel(QWidget):
         if box.sceneBoundingRect().contains(event.scenePos()):
             x = float(np.clip(box.mapSceneToView(event.scenePos()).x(), *self.axis.span))
             self.angle_picked.emit(self.axis.angle_of_x(x))
+
+
+def _cylinder_text(summary: CylinderSummary) -> str:
+    """The stroke's drive summary: peak push and pull with their lengths, work and power."""
+    def at(force_n: float, length_m: float) -> str:
+        return f"{series.readable(force_n)} N at {length_m * 1e3:.1f} mm" if force_n else "none"
+
+    return (f"<b>cylinder</b> peak push {at(summary.peak_push_n, summary.peak_push_length_m)}, peak pull "
+            f"{at(summary.peak_pull_n, summary.peak_pull_length_m)}; work over the stroke "
+            f"{series.readable(summary.work_j)} J, mean power {series.readable(summary.mean_power_w)} W, peak "
+            f"{series.readable(summary.peak_power_w)} W")

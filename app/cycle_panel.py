@@ -204,6 +204,8 @@ class CyclePanel(QWidget):
             self._offer(offered, [q for q in self.chosen if q in offered] or
                         (series.default_choice(sweep.mechanism) if sweep is not None else []))
         timed = sweep is not None and sweep.time_s is not None
+        cylinder = sweep is not None and sweep.driver_length_m is not None
+        self.x_choice.setItemText(0, "cylinder length (mm)" if cylinder else "driver angle (°)")
         self.x_choice.model().item(1).setEnabled(timed)
         if not timed and self.x_choice.currentIndex() == 1:
             self.x_choice.blockSignals(True)
@@ -296,7 +298,7 @@ class CyclePanel(QWidget):
             extents[quantity.family].append((float(values[clear].min()), float(values[clear].max())))
             lines.append(f"<span style='color:{PALETTE[index % len(PALETTE)]}'>■</span> "
                          + series.peak_text(quantity, values, axis, self.units.unit(quantity.family), clear))
-        if not sweep.full_turn and lines:
+        if not clear.all() and lines:
             lines.append(f"(the outer {DEAD_POINT_SHARE:.0%} of the range at each dead point "
                          "is left out of the scale and the peaks)")
         self.peaks.setText("&nbsp;&nbsp;&nbsp; ".join(lines))

@@ -159,16 +159,20 @@ class CycleAxis:
 
     A full turn is shown as driver angle wrapped into [0°, 360°); a driver that rocks
     between dead points keeps its range in one piece, centred in [0°, 360°). Time runs
-    from the reference pose at constant driver speed.
+    from the reference pose at constant driver speed. A cylinder-driven design's sweep runs
+    over its stroke, shown by the cylinder's length in mm (kind "length") or by time.
 
     Attributes
     ----------
-    kind : "angle" (degrees) or "time" (seconds).
+    kind : "angle" (degrees), "length" (a cylinder's, mm) or "time" (seconds).
     along : (N,) abscissa of each sample, in the sweep's order.
     x : (N,) the same ascending; ``order`` picks the sweep's samples in that order.
     span : (low, high) of the axis: [0, 360) for a full turn, the dead points of a rocking driver.
     first_deg, sense, full_turn, rad_s : the sweep's first angle, its sense (+1 CCW), whether
         it is a full turn, and the driver's speed in rad/s, to map angles to the axis and back.
+    angles_deg : a cylinder's sweep: the direction of its axis at each sample, in the sweep's
+        order (a pose on screen is placed on the axis, and a click turned into a pose, through
+        it; over a stroke it turns one way), else None.
     """
 
     kind: str
@@ -180,17 +184,29 @@ class CycleAxis:
     sense: float
     full_turn: bool
     rad_s: float
+    angles_deg: np.ndarray | None = None
 
     @property
     def label(self) -> str:
-        return "driver angle" if self.kind == "angle" else "time from the reference pose"
+        """The axis's name."""
+        return {"angle": "driver angle", "length": "cylinder length"}.get(self.kind, "time from the reference pose")
 
     @property
     def unit(self) -> str:
-        return "°" if self.kind == "angle" else "s"
+        """The axis's unit."""
+        return {"angle": "°", "length": "mm"}.get(self.kind, "s")
+
+    def where(self, value: float) -> str:
+        """An abscissa as a readout says it ("47.4°", "800.0 mm", "1.25 s")."""
+        if self.kind == "time":
+            return f"{value:.4g} s"
+        return f"{value:.1f}{self.unit if self.kind == 'angle' else ' mm'}"
 
     def x_of_angle(self, angle_deg: float) -> float:
-        """Where driver angle ``angle_deg`` (any turn) lies on this axis."""
+        """Where driver angle ``angle_deg`` (any turn; a cylinder's axis direction) lies on this axis."""
+        if self.angles_deg is not None:
+            by_angle = np.argsort(self.angles_deg)
+            return float(np.interp(angle_deg, self.angles_deg[by_angle], self.along[by_angle]))
         if self.kind == "angle":
             if self.full_turn:
                 return angle_deg % 360.0
@@ -202,6 +218,8 @@ class CycleAxis:
 
     def angle_of_x(self, x: float) -> float:
         """The driver angle in [0°, 360°) at abscissa ``x`` (the window's convention)."""
+        if self.angles_deg is not None:
+            return float(np.interp(x, self.x, self.angles_deg[self.order])) % 360.0
         if self.kind == "angle":
             return x % 360.0
         return (self.first_deg + self.sense * math.degrees(x * self.rad_s)) % 360.0
@@ -212,6 +230,13 @@ def cycle_axis(sweep, kind: str = "angle") -> CycleAxis:
     angles = sweep.driver_angle_deg
     common = {"first_deg": float(angles[0]), "sense": 1.0 if angles[-1] >= angles[0] else -1.0,
               "full_turn": sweep.full_turn, "rad_s": abs(sweep.mechanism.driver.speed_rad_s)}
+    if sweep.driver_length_m is not None:
+        common["angles_deg"] = np.asarray(angles, float)
+        if kind != "time":
+            lengths_mm = np.asarray(sweep.driver_length_m, float) * 1e3
+            order = np.argsort(lengths_mm, kind="stable")
+            return CycleAxis("length", lengths_mm, lengths_mm[order], order,
+                             (float(lengths_mm.min()), float(lengths_mm.max())), **common)
     if kind == "time":
         if sweep.time_s is None:
             raise ValueError("time axis: the driver accelerates, so the sweep has no time (use the driver angle)")
@@ -229,6 +254,14 @@ def cycle_axis(sweep, kind: str = "angle") -> CycleAxis:
         span = (float(wrapped.min()), float(wrapped.max()))
     order = np.argsort(wrapped, kind="stable")
     return CycleAxis("angle", wrapped, wrapped[order], order, span, **common)
+
+
+def length_at_angle_mm(sweep, angle_deg: float) -> float:
+    """A cylinder's length (mm) where its axis points at ``angle_deg`` over the swept stroke (the
+    axis turns one way over a stroke), for a click on a plot placed by angle."""
+    angles = np.asarray(sweep.driver_angle_deg, float)
+    by_angle = np.argsort(angles)
+    return float(np.interp(angle_deg, angles[by_angle], np.asarray(sweep.driver_length_m)[by_angle] * 1e3))
 
 
 def peak(values: np.ndarray, clear: np.ndarray) -> int:
@@ -284,7 +317,7 @@ def peak_text(quantity: Quantity, values: np.ndarray, axis: CycleAxis, unit: str
     for the mechanical advantage, its least (its largest is infinite at a toggle)."""
     least = quantity.form == "output"
     at = int(np.flatnonzero(clear)[np.argmin(np.abs(values[clear]))]) if least else peak(values, clear)
-    where = f"{axis.along[at]:.1f}°" if axis.kind == "angle" else f"{axis.along[at]:.4g} s"
+    where = axis.where(axis.along[at])
     return f"<b>{quantity.label}</b> {'least' if least else 'peak'} {readable(values[at])} {unit} at {where}"
 
 

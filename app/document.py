@@ -54,16 +54,20 @@ def cycle(mechanism: Mechanism):
         return None
 
 
-def analyse(mechanism: Mechanism, angle_deg: float | None) -> Analysis:
-    """Solve and construct, turning every refusal of the core into words. A joint on no link yet (a
-    design being built) stops nothing: it is held where it is, and ``held`` says so."""
+def analyse(mechanism: Mechanism, angle_deg: float | None, length_m: float | None = None) -> Analysis:
+    """Solve and construct, turning every refusal of the core into words: at driver angle
+    ``angle_deg``, or a cylinder-driven design at length ``length_m`` (None: the reference pose). A joint
+    on no link yet (a design being built) stops nothing: it is held where it is, and ``held`` says so."""
     held_mechanism, held = hold_loose_points(mechanism)
     held = tuple(held)
     if kinematics.diagnose(held_mechanism):
         findings = tuple(kinematics.diagnose(mechanism))  # the rest is not ready either: say all as it is
         return Analysis(findings=findings, problem="; ".join(str(f) for f in findings))
     try:
-        solution = kinematics.solve(held_mechanism, angle_deg)
+        if held_mechanism.driver is not None and held_mechanism.driver.is_actuator:
+            solution = kinematics.solve(held_mechanism, length=length_m)
+        else:
+            solution = kinematics.solve(held_mechanism, angle_deg)
         construction = kinematics.construct(solution)
     except KinematicsError as error:
         return Analysis(problem=str(error), held=held)
@@ -167,6 +171,7 @@ class Document(QObject):
     ----------
     mechanism : the current Mechanism (file units).
     angle_deg : the driver angle shown, degrees, or None for the reference pose.
+    length_m : a cylinder-driven design's length shown, m, or None for the reference pose.
     analysis : :class:`Analysis` of the mechanism at that angle.
     sweep : the core's :class:`kinematics.Sweep` of one cycle, or None (unfinished, no dyad chain);
         during a drag it may be up to a tenth of a second behind ``mechanism`` (see
@@ -184,6 +189,7 @@ class Document(QObject):
         self.undo_stack = QUndoStack(self)
         self.mechanism = mechanism
         self.angle_deg = None
+        self.length_m = None
         self.path = path
         self.analysis = analyse(mechanism, None)
         self.sweep = None
@@ -218,12 +224,12 @@ class Document(QObject):
         the drag ends (:meth:`catch_up_sweep`).
         """
         self.mechanism = mechanism
-        self.analysis = analysis or analyse(mechanism, self.angle_deg)
-        if self.analysis.solution is None and self.angle_deg is not None:
-            # Undoing may bring back a design that cannot reach the angle shown: show its reference pose.
+        self.analysis = analysis or analyse(mechanism, self.angle_deg, self.length_m)
+        if self.analysis.solution is None and (self.angle_deg is not None or self.length_m is not None):
+            # Undoing may bring back a design that cannot reach the pose shown: show its reference pose.
             reference = analyse(mechanism, None)
             if reference.solution is not None:
-                self.angle_deg, self.analysis = None, reference
+                self.angle_deg, self.length_m, self.analysis = None, None, reference
         self._dragging = live
         self._sweeps(live)
         self.changed.emit()
@@ -275,7 +281,7 @@ class Document(QObject):
         """Start over with another design (New, Open): the history is cleared."""
         self.undo_stack.clear()
         self.path = path
-        self.angle_deg = None
+        self.angle_deg = self.length_m = None
         self.set_mechanism(mechanism)
         self.undo_stack.setClean()
 
@@ -284,10 +290,27 @@ class Document(QObject):
         analysis = analyse(self.mechanism, angle_deg)
         if analysis.solution is None and self.solution is not None:
             return analysis.problem
-        self.angle_deg = angle_deg
+        self.angle_deg, self.length_m = angle_deg, None
         self.analysis = analysis
         self.changed.emit()
         return ""
+
+    def set_length(self, length_m: float | None) -> str:
+        """Extend or retract a cylinder-driven design's cylinder to ``length_m`` (m; not an edit).
+        Returns "" or why the pose was kept."""
+        analysis = analyse(self.mechanism, None, length_m)
+        if analysis.solution is None and self.solution is not None:
+            return analysis.problem
+        self.angle_deg, self.length_m = None, length_m
+        self.analysis = analysis
+        self.changed.emit()
+        return ""
+
+    @property
+    def shown_length_mm(self) -> float | None:
+        """A cylinder-driven design's length in the pose on screen, mm (None for a rotary driver)."""
+        solution = self.solution
+        return None if solution is None or solution.driver_length_m is None else solution.driver_length_m * 1e3
 
     def edit(self, after: Mechanism, text: str, drag: int | None = None, check: bool = True) -> str:
         """Push an undoable edit.
@@ -296,7 +319,7 @@ class Document(QObject):
         current angle; the reason is returned and the design left as it was. Building steps pass
         ``check=False``: an unfinished design is a normal stage of building one.
         """
-        analysis = analyse(after, self.angle_deg)
+        analysis = analyse(after, self.angle_deg, self.length_m)
         if check and analysis.solution is None and self.solution is not None:
             return analysis.problem
         stack = self.undo_stack

@@ -22,7 +22,8 @@ _drag_serials = itertools.count(1)
 def turns_driver(mechanism: Mechanism, name: str) -> bool:
     """True when dragging joint ``name`` should turn the driver rather than edit the design."""
     driver = mechanism.driver
-    return (driver is not None and name in mechanism.links.get(driver.link, ())
+    # A cylinder's barrel is moved by its length, not turned by the mouse: its joints are edited.
+    return (driver is not None and not driver.is_actuator and name in mechanism.links.get(driver.link, ())
             and name != driver.pivot and name not in mechanism.ground)
 
 
@@ -42,7 +43,7 @@ class JointDrag:
             self.start_angle = document.shown_angle_deg
             self.start_bearing = self._bearing(start_mm)
             return
-        if name not in mech.ground and document.angle_deg is not None:
+        if name not in mech.ground and (document.angle_deg is not None or document.length_m is not None):
             # A moving joint is edited where the design states it: in the reference pose.
             document.set_angle(None)
             self.message = "editing the reference pose (the driver was turned back to it)"

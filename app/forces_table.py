@@ -1,4 +1,5 @@
-"""The forces at the pose on screen, under the results table: the drive torque, the force on
+"""The forces at the pose on screen, under the results table: the drive torque (a cylinder's
+axial force), the force on
 every link at every joint (size and direction), the guide force of every slide, the shaking
 force and moment, and the power-balance check; or one plain sentence saying why there are none.
 
@@ -18,6 +19,7 @@ from PySide6.QtWidgets import QAbstractItemView, QHeaderView, QLabel, QTableView
 
 from kinematics.dynamics import FRICTIONLESS
 from kinematics.groups.vectors import direction_deg
+from kinematics.reports.cylinder_forces import push_or_pull
 from kinematics.reports.forces_tables import shown_value
 
 from .display_units import sense
@@ -34,15 +36,22 @@ def force_rows(found) -> list:
     (N, N·m), directions in degrees counter-clockwise from +x."""
     joints = [(point, link, tuple(map(float, force))) for point, by_link in found.joints_n.items()
               for link, force in by_link.items()]
-    largest = max([math.hypot(*f) for _, _, f in joints] + [abs(float(found.drive_torque_n_m))], default=0.0)
+    drive = found.drive_torque_n_m if found.drive_force_n is None else found.drive_force_n
+    largest = max([math.hypot(*f) for _, _, f in joints] + [abs(float(drive))], default=0.0)
 
     def clean(value: float) -> float:
         return shown_value(value, largest)
 
     driver = found.mechanism.driver
-    torque = clean(float(found.drive_torque_n_m))
-    rows = [[(f"drive torque on {driver.link}", None), (f"{_number(abs(torque))} N·m", abs(torque)),
-             (sense(torque, zero="none"), None)]]
+    if found.drive_force_n is not None:
+        # A cylinder drives by its axial force, push positive: the row gives it with its sign.
+        force = clean(float(found.drive_force_n))
+        rows = [[(f"drive force of cylinder {driver.slide}", None), (f"{_number(force)} N", force),
+                 (push_or_pull(force), None)]]
+    else:
+        torque = clean(float(found.drive_torque_n_m))
+        rows = [[(f"drive torque on {driver.link}", None), (f"{_number(abs(torque))} N·m", abs(torque)),
+                 (sense(torque, zero="none"), None)]]
     for point, link, (x, y) in joints:
         x, y = clean(x), clean(y)
         size, direction = math.hypot(x, y), direction_deg(x, y)

@@ -9,11 +9,12 @@ import sys
 from kinematics.errors import CannotAssemble, KinematicsError, MechanismFindings, ParallelLines, StorageError
 
 
-def construction_from_file(path, angle_deg=None):
-    """Load, solve and construct the mechanism in ``path`` at driver angle ``angle_deg``."""
+def construction_from_file(path, angle_deg=None, length_m=None):
+    """Load, solve and construct the mechanism in ``path`` at driver angle ``angle_deg`` (or, for a
+    cylinder driver, at cylinder length ``length_m``, metres)."""
     from kinematics import construct, load_mechanism, solve
 
-    return construct(solve(load_mechanism(path), angle_deg))
+    return construct(solve(load_mechanism(path), angle_deg, length=length_m))
 
 
 def run_reporting(action) -> int:

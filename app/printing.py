@@ -31,6 +31,7 @@ from kinematics.drawing.sheet import DASHES
 from kinematics.errors import StorageError, SweepCancelled
 from kinematics.files.storage import replace_atomically
 
+from .arguments import pose_length_m
 from .drawing_kit import FONT_FAMILY, MONO_FAMILY, font_for_capitals
 from .outcomes import construction_from_file, run_reporting
 
@@ -220,7 +221,7 @@ def run(args) -> int:
         application = QGuiApplication.instance()
 
     def action():
-        construction = construction_from_file(args.file, args.angle)
+        construction = construction_from_file(args.file, args.angle, pose_length_m(args))
         print_construction(construction, args.output, paper=args.paper, landscape=args.landscape,
                            file_name=Path(args.file).name, with_centres=args.centres)
 

@@ -18,8 +18,12 @@ def status_text(analysis, note: str = "") -> str:
         return " · ".join(parts)
     difference = construction.max_relative_difference
     where = "" if difference < ROUNDING_FLOOR else f", at {construction.where or 'no moving point'}"
-    parts.append(f"driver at {construction.solution.driver_angle_deg:.1f}° · cross-check against the numeric solver: "
-                 f"{agreement(difference)}{where}")
+    solution = construction.solution
+    if solution.driver_length_m is None:
+        pose = f"driver at {solution.driver_angle_deg:.1f}°"
+    else:
+        pose = f"cylinder {solution.mechanism.driver.slide} at length {solution.driver_length_m * 1000:.1f} mm"
+    parts.append(f"{pose} · cross-check against the numeric solver: {agreement(difference)}{where}")
     parts += [f"warning: {w}" for w in construction.warnings]
     parts += [f"note: {f}" for f in analysis.held]
     return " · ".join(parts)

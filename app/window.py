@@ -25,6 +25,7 @@ from kinematics import Mechanism
 from .angle_control import AngleControl
 from .build_tools import HINTS, Builder
 from .building import empty
+from .cycle_series import length_at_angle_mm
 from .design_actions import DesignActions, grid_step_mm
 from .document import Document
 from .editing import JointDrag
@@ -125,6 +126,7 @@ class MainWindow(FileActions, SheetOutputs, QMainWindow):
         # line then says the state of the design as it is, never of one undone.
         self.document.undo_stack.indexChanged.connect(self._forget_note)
         self.angle.angle_requested.connect(self.turn_driver)
+        self.angle.length_requested.connect(self.run_cylinder)
         self.angle.playing_changed.connect(lambda _playing: self._settle())
         self.length_units.currentTextChanged.connect(self._units_changed)
         self.speed_units.currentTextChanged.connect(self._units_changed)
@@ -239,14 +241,14 @@ class MainWindow(FileActions, SheetOutputs, QMainWindow):
         self.drawings.space_view.grid_mm = self.grid_mm()
         self.angle.follow(doc.shown_angle_deg)
         self.angle.setEnabled(doc.solution is not None)
-        self.angle.set_range(doc.sweep)
+        self._set_driver_range(doc.sweep)
         self._show_readouts(live=self.live)
         self._update_title()
 
     def _show_sweep(self):
         """The cycle sweep caught up with a drag: its paths, the driver's range and the plot."""
         self.drawings.show_paths()
-        self.angle.set_range(self.document.sweep)
+        self._set_driver_range(self.document.sweep)
         if self.cycle is not None:
             self._update_cycle()
 
@@ -311,6 +313,7 @@ class MainWindow(FileActions, SheetOutputs, QMainWindow):
         watched, so a drag rewrites them at most ten times a second (text is costly to lay out),
         and the last frame's always."""
         self.angle.show_angle(self.document.shown_angle_deg)
+        self.angle.show_length(self.document.shown_length_mm)
         self.steps.show_construction(self.document.construction)
         text = status_text(self.document.analysis, self.note or self.design_actions.describe())
         self.status.setText(text)
@@ -345,11 +348,35 @@ class MainWindow(FileActions, SheetOutputs, QMainWindow):
 
     # turning and dragging -------------------------------------------------
     def turn_driver(self, angle_deg: float):
+        """Turn the driver to ``angle_deg``; a cylinder (a click on its plots) to the length there."""
+        sweep = self.document.sweep
+        if sweep is not None and sweep.driver_length_m is not None:
+            self.run_cylinder(length_at_angle_mm(sweep, angle_deg))
+            return
         problem = self.document.set_angle(angle_deg)
         if problem:
             self.angle.stop()
             self.angle.show_angle(self.document.shown_angle_deg)
         self.say(f"the driver cannot turn to {angle_deg:.1f}°: {problem}" if problem else "")
+
+    def run_cylinder(self, length_mm: float):
+        """Extend or retract a cylinder-driven design's cylinder to ``length_mm``."""
+        problem = self.document.set_length(length_mm / 1e3)
+        if problem:
+            self.angle.stop()
+            self.angle.show_length(self.document.shown_length_mm)
+        self.say(f"the cylinder cannot reach {length_mm:.1f} mm: {problem}" if problem else "")
+
+    def _set_driver_range(self, sweep):
+        """The driver control's range from the core's sweep: a turning driver's dead points, or a
+        cylinder's stroke (the part of it where the linkage assembles) in mm."""
+        self.angle.set_range(sweep)
+        lengths = None if sweep is None else sweep.driver_length_m
+        if lengths is None:
+            self.angle.set_stroke(None)
+        else:
+            self.angle.length_mm = self.document.shown_length_mm or self.angle.length_mm
+            self.angle.set_stroke((float(lengths.min()) * 1e3, float(lengths.max()) * 1e3))
 
     def begin_drag(self, name: str, at_mm: tuple):
         self.angle.stop()

@@ -36,9 +36,10 @@ from .solver.solve import Solution, solve_pose
 MAX_ANGLE_DEG = 1e6
 
 
-def solve(mechanism: Mechanism, angle_deg: float | None = None) -> Solution:
-    """Position, velocity and acceleration of every point at driver angle
-    ``angle_deg`` (degrees; None for the reference pose).
+def solve(mechanism: Mechanism, angle_deg: float | None = None, length: float | None = None) -> Solution:
+    """Position, velocity, acceleration and jerk of every point at driver angle
+    ``angle_deg`` (degrees; None for the reference pose), or, for a cylinder driver, at
+    cylinder length ``length`` (metres, SI like every result; None for the reference pose).
 
     Raises MechanismFindings if the mechanism cannot be analysed, and
     CannotAssemble if no pose exists at that angle.
@@ -49,7 +50,19 @@ def solve(mechanism: Mechanism, angle_deg: float | None = None) -> Solution:
                                       and abs(angle_deg) <= MAX_ANGLE_DEG):
         raise KinematicsError(f"the driver angle must be a finite number of degrees within ±{MAX_ANGLE_DEG:g}, "
                               f"not {angle_deg!r}", "angle")
+    if mechanism.driver is not None and mechanism.driver.is_actuator:
+        from .groups.decompose import cylinder_group
+        from .solver.cylinder import solve_length
+
+        cylinder_group(mechanism)  # what the cylinder must be is said before any other finding
     require_ready(mechanism)
+    if mechanism.driver.is_actuator:
+        if angle_deg is not None:
+            raise KinematicsError("a cylinder-driven design is solved at a cylinder length, not a driver angle",
+                                  "angle")
+        return solve_length(mechanism, length)
+    if length is not None:
+        raise KinematicsError("only a cylinder-driven design is solved at a length", "length")
     return solve_pose(mechanism, angle_deg)
 
 

@@ -13,6 +13,34 @@ import kinematics
 SAMPLES = Path(__file__).resolve().parents[1] / "samples"
 SAMPLE_FILES = sorted(SAMPLES.glob("*.json"))
 
+
+def stroke_length_m(mech, angle_deg):
+    """The cylinder length as far along the stroke as ``angle_deg`` is along a turn (None stays
+    None: the reference pose), so that a test's list of driver angles poses a cylinder-driven
+    design too."""
+    if angle_deg is None:
+        return None
+    from kinematics.cycle.stroke import stroke_limits_m
+    from kinematics.groups.decompose import decompose
+
+    low, high = stroke_limits_m(mech, decompose(mech))
+    return low + (high - low) * ((float(angle_deg) % 360.0) / 360.0)
+
+
+def solve_at(mech, angle_deg=None):
+    """``kinematics.solve`` at driver angle ``angle_deg``; a cylinder-driven design at the length
+    :func:`stroke_length_m` gives for it."""
+    if mech.driver is not None and mech.driver.is_actuator:
+        return kinematics.solve(mech, length=stroke_length_m(mech, angle_deg))
+    return kinematics.solve(mech, angle_deg)
+
+
+def solve_swept(mech, result, k):
+    """``kinematics.solve`` at the parameter of a sweep's pose ``k`` (its angle, or its length)."""
+    if result.driver_length_m is not None:
+        return kinematics.solve(mech, length=float(result.driver_length_m[k]))
+    return kinematics.solve(mech, float(result.driver_angle_deg[k]))
+
 # A crank-rocker with a coupler point, like a film-advance claw: crank O2A 50 mm at 53.13°, 120 rpm.
 CLAW_FEED = {
     "kinepoly": 1, "title": "claw feed four-bar", "length_unit": "mm",

@@ -58,7 +58,7 @@ class RelativeComponent:
 def acceleration_components(construction: Construction) -> tuple:
     """The :class:`RelativeComponent` of every radial, tangential and Coriolis vector of the
     acceleration polygon, in the order the construction draws them."""
-    carried = frozenset().union(*(g.carried_points for g in construction.decomposition.groups))
+    carried = frozenset().union(*(g.carried_points for g in construction.decomposition.chain))
     found = []
     for step in construction.acceleration.steps:
         if step.component not in KINDS or not step.is_vector:

@@ -90,7 +90,8 @@ def construct(solution: Solution, box_mm: float = 120.0, velocity_scale: float |
             raise KinematicsError(f"{name} must be a positive number, not {value!r}", name)
     mech = solution.mechanism
     decomposition = decompose(mech)
-    frame = Frame.start(mech, math.radians(solution.driver_angle_deg), solution=solution)
+    frame = Frame.start(mech, math.radians(solution.driver_angle_deg), solution=solution,
+                        driver_length_m=solution.driver_length_m)
     decomposition.driver.position(frame)  # the driver's given placement, which its images are made from
     for i, name in enumerate(solution.point_names):  # the solver's space diagram, exactly
         frame.pos[name] = np.complex128(complex(*solution.positions[i]))

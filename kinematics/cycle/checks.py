@@ -29,5 +29,6 @@ def report(mech: Mechanism, steps: int = 3600) -> dict:
     except KinematicsError as err:
         return {"loops": loops, "cycle": str(err)}
     return {"loops": loops, "cycle": "", "transmission": table["transmission"], "full_turn": table["full_turn"],
-            "range_deg": table["range_deg"], "output": table["output"], "warnings": table["warnings"],
+            "range_deg": table.get("range_deg"), "stroke_m": table.get("stroke_m"), "parameter": table["parameter"],
+            "output": table["output"], "warnings": table["warnings"],
             "mechanical_advantage": table.get("mechanical_advantage")}

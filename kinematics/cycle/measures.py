@@ -5,6 +5,8 @@ table and the window's cycle plot, so both leave out the same samples)."""
 
 from __future__ import annotations
 
+import math
+
 import numpy as np
 
 from ..groups.decompose import decompose
@@ -14,6 +16,14 @@ from .sweep import Sweep
 # Speeds grow without bound towards a dead point of the driver: a rocking driver's peaks and plot
 # scale leave out this share of its swept samples at each end.
 DEAD_POINT_SHARE = 0.03
+
+
+def sweep_parameter(result: Sweep) -> tuple:
+    """(the swept parameter (N,), the suffix of the keys that place a value by it): the driver
+    angle in degrees ("deg"), or a cylinder's length in m ("length_m")."""
+    if result.driver_length_m is not None:
+        return np.asarray(result.driver_length_m, float), "length_m"
+    return result.driver_angle_deg, "deg"
 
 
 def dead_point_trim(count: int, full_turn: bool) -> int:
@@ -27,19 +37,32 @@ def dead_point_trim(count: int, full_turn: bool) -> int:
     return 0 if full_turn or count <= 2 * end else end
 
 
+def within_given_stroke(result: Sweep) -> bool:
+    """True for a cylinder swept over the whole of the stroke its file gives (its ends are the
+    cylinder's own limits, not dead points of the linkage)."""
+    driver = result.mechanism.driver
+    if result.driver_length_m is None or driver.stroke_min is None or driver.stroke_max is None:
+        return False
+    k = result.mechanism.metres_per_unit
+    low, high = float(np.min(result.driver_length_m)), float(np.max(result.driver_length_m))
+    return math.isclose(low, driver.stroke_min * k, rel_tol=1e-9) and math.isclose(high, driver.stroke_max * k,
+                                                                                  rel_tol=1e-9)
+
+
 def clear_of_dead_points(result: Sweep) -> np.ndarray:
-    """(N,) True for the samples :func:`dead_point_trim` keeps."""
+    """(N,) True for the samples :func:`dead_point_trim` keeps (all of a cylinder's given stroke)."""
     clear = np.ones(len(result.driver_angle_deg), bool)
-    end = dead_point_trim(len(clear), result.full_turn)
+    end = 0 if within_given_stroke(result) else dead_point_trim(len(clear), result.full_turn)
     if end:
         clear[:end] = clear[-end:] = False
     return clear
 
 
 def transmission_angles(mech: Mechanism, result: Sweep) -> dict:
-    """Label -> (N,) transmission angle in degrees (0–180°), for each group that has one (RRR: at B)."""
+    """Label -> (N,) transmission angle in degrees (0–180°), for each group that has one (RRR: at B;
+    a cylinder: between its axis and the link it drives)."""
     angles = {}
-    for group in decompose(mech).groups:
+    for group in decompose(mech).chain:
         angles.update(group.transmission_angles(result))
     return angles
 
@@ -101,12 +124,12 @@ def output_motion(mech: Mechanism, result: Sweep) -> dict | None:
     if found is None:
         return None
     name, values, unit, rate, _ = found
-    angles = result.driver_angle_deg
+    angles, suffix = sweep_parameter(result)
     turn, limits = rate_zeros(angles, rate, result.full_turn)
     hi, lo = int(np.argmax(values)), int(np.argmin(values))
     motion = {"output": name, "unit": unit, "travel": float(values[hi] - values[lo]),
-              "limit_positions_deg": [float(angles[lo]), float(angles[hi])],
-              "rate_reversals_deg": limits}
+              f"limit_positions_{suffix}": [float(angles[lo]), float(angles[hi])],
+              f"rate_reversals_{suffix}": limits}
     if result.full_turn and len(turn) == 2:
         between = abs(limits[1] - limits[0])
         rising = values[turn[1]] > values[turn[0]]

@@ -7,7 +7,14 @@ from dataclasses import replace
 import numpy as np
 
 from .advantage import advantage_over_cycle
-from .measures import DEAD_POINT_SHARE, dead_point_trim, output_motion, transmission_angles
+from .measures import (
+    DEAD_POINT_SHARE,
+    dead_point_trim,
+    output_motion,
+    sweep_parameter,
+    transmission_angles,
+    within_given_stroke,
+)
 from .sweep import Sweep
 
 
@@ -23,7 +30,8 @@ def _trimmed(result: Sweep, kept: slice) -> Sweep:
                    angular_acceleration=cut(result.angular_acceleration),
                    sliding_velocity=cut(result.sliding_velocity),
                    sliding_acceleration=cut(result.sliding_acceleration),
-                   time_s=None if result.time_s is None else result.time_s[kept])
+                   time_s=None if result.time_s is None else result.time_s[kept],
+                   driver_length_m=None if result.driver_length_m is None else result.driver_length_m[kept])
 
 
 def _at(values, angles):
@@ -32,7 +40,8 @@ def _at(values, angles):
 
 
 def peaks(result: Sweep) -> dict:
-    """Peaks table of a sweep, SI units, angles in degrees of driver angle.
+    """Peaks table of a sweep, SI units, placed by driver angle in degrees (keys ``…_deg``), or for
+    a cylinder by its length in m (keys ``…_length_m``, ``parameter`` "length").
 
     ``points``: name -> max |v| (m/s), max |a| (m/s²), max |j| (m/s³) and where; ``links``: max
     |ω|, |α|, |α̇|; ``slides``: max |sliding velocity|, |sliding acceleration|;
@@ -44,40 +53,46 @@ def peaks(result: Sweep) -> dict:
     mech = result.mechanism
     # Speeds grow without bound towards a dead point: a rocking driver's peaks leave out the
     # outer DEAD_POINT_SHARE of its range at each end, and say so.
-    trim = dead_point_trim(len(result.driver_angle_deg), result.full_turn)
-    kept = slice(trim, len(result.driver_angle_deg) - trim)
-    angles = result.driver_angle_deg[kept]
+    # A cylinder's stroke ends are dead points only where its reach, not the file's stroke, ends it.
+    parameter, suffix = sweep_parameter(result)
+    trim = 0 if within_given_stroke(result) else dead_point_trim(len(parameter), result.full_turn)
+    kept = slice(trim, len(parameter) - trim)
+    angles = parameter[kept]
     whole, result = result, _trimmed(result, kept)
     points = {}
     for i, name in enumerate(result.point_names):
         speed, at_v = _at(np.linalg.norm(result.velocities[:, i], axis=1), angles)
         accel, at_a = _at(np.linalg.norm(result.accelerations[:, i], axis=1), angles)
         jerk, at_j = _at(np.linalg.norm(result.jerks[:, i], axis=1), angles)
-        points[name] = {"max_speed": speed, "at_deg": at_v, "max_acceleration": accel, "acceleration_at_deg": at_a,
-                        "max_jerk": jerk, "jerk_at_deg": at_j}
+        points[name] = {"max_speed": speed, f"at_{suffix}": at_v, "max_acceleration": accel,
+                        f"acceleration_at_{suffix}": at_a, "max_jerk": jerk, f"jerk_at_{suffix}": at_j}
     links = {}
     for link in mech.links:
         w, at_w = _at(np.abs(result.angular_velocity[link]), angles)
         a, at_a = _at(np.abs(result.angular_acceleration[link]), angles)
         j, at_j = _at(np.abs(result.angular_jerk[link]), angles)
-        links[link] = {"max_angular_velocity": w, "at_deg": at_w, "max_angular_acceleration": a,
-                       "acceleration_at_deg": at_a, "max_angular_jerk": j, "jerk_at_deg": at_j}
+        links[link] = {"max_angular_velocity": w, f"at_{suffix}": at_w, "max_angular_acceleration": a,
+                       f"acceleration_at_{suffix}": at_a, "max_angular_jerk": j, f"jerk_at_{suffix}": at_j}
     slides = {}
     for slide in mech.slides:
         v, at_v = _at(np.abs(result.sliding_velocity[slide]), angles)
         a, at_a = _at(np.abs(result.sliding_acceleration[slide]), angles)
-        slides[slide] = {"max_sliding_velocity": v, "at_deg": at_v, "max_sliding_acceleration": a,
-                         "acceleration_at_deg": at_a}
+        slides[slide] = {"max_sliding_velocity": v, f"at_{suffix}": at_v, "max_sliding_acceleration": a,
+                         f"acceleration_at_{suffix}": at_a}
     transmission = {}
     for key, mu in transmission_angles(mech, result).items():
         deviation, at = _at(np.abs(mu - 90.0), angles)
-        transmission[key] = {"min_deg": float(mu.min()), "at_deg": float(angles[int(np.argmin(mu))]),
+        transmission[key] = {"min_deg": float(mu.min()), f"at_{suffix}": float(angles[int(np.argmin(mu))]),
                              "max_deg": float(mu.max()), "largest_deviation_from_90_deg": deviation,
-                             "deviation_at_deg": at}
+                             f"deviation_at_{suffix}": at}
     table = {"points": points, "links": links, "slides": slides, "transmission": transmission,
              "dead_point_share_left_out": DEAD_POINT_SHARE if trim else 0.0,
              "output": output_motion(mech, whole), "warnings": list(whole.warnings), "full_turn": result.full_turn,
-             "range_deg": list(result.range_deg), "closes": result.closes}
+             "range_deg": list(result.range_deg), "closes": result.closes,
+             "parameter": "length" if suffix == "length_m" else "angle"}
+    if suffix == "length_m":
+        table["stroke_m"] = [float(parameter.min()), float(parameter.max())]
+        del table["range_deg"]
     if mech.output is not None and mech.driver.speed_rad_s != 0.0:
         cycle = advantage_over_cycle(whole)
         ratio = cycle.velocity_ratio[kept]

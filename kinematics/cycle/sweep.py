@@ -48,6 +48,8 @@ class Sweep:
     full_turn : the driver turns fully; otherwise ``range_deg`` gives its dead points.
     closes : one turn brings the linkage back to its first pose.
     time_s : (N,) time from the first pose at constant speed, or None when the driver accelerates.
+    driver_length_m : (N,) a cylinder driver's lengths (m), the swept parameter, or None for a rotary
+        driver; ``driver_angle_deg`` is then the direction of the cylinder's axis.
 
     The arrays are read-only and the dictionaries read-only mappings: a Sweep is a value.
     """
@@ -71,6 +73,7 @@ class Sweep:
     closes: bool
     time_s: np.ndarray | None
     warnings: tuple = ()
+    driver_length_m: np.ndarray | None = None
 
     def __post_init__(self):
         frozen_fields(self)
@@ -244,6 +247,8 @@ def sweep(mechanism: Mechanism, steps: int = 360, progress=None) -> Sweep:
     if not decomposition.all_dyads:
         raise KinematicsError("the linkage has a group that is no dyad; sweep it pose by pose with solve()",
                               next(g.name for g in decomposition.groups if not g.is_dyad))
+    if mechanism.driver.is_actuator:
+        return _stroke_sweep(mechanism, decomposition, steps)
     omega = mechanism.driver.speed_rad_s
     sense = 1.0 if omega >= 0 else -1.0
     start = reference_angle_deg(mechanism)
@@ -299,30 +304,70 @@ def sweep(mechanism: Mechanism, steps: int = 360, progress=None) -> Sweep:
                  full_turn=full, range_deg=(low, high), closes=full, time_s=time_s, warnings=tuple(warnings))
 
 
+def _stroke_sweep(mechanism: Mechanism, decomposition, steps: int) -> Sweep:
+    """The cycle over the cylinder's stroke (see :mod:`kinematics.cycle.stroke`)."""
+    from .stroke import stroke_frame
+
+    lengths, frame, warnings = stroke_frame(mechanism, decomposition, steps)
+    columns = _columns(mechanism, _move(frame, decomposition))
+    head = decomposition.driver
+    axis = frame.pos[head.roles["B"]] - frame.pos[head.roles["C"]]
+    driver = mechanism.driver
+    time_s = None
+    if driver.linear_acceleration_m_s2 == 0.0 and driver.linear_speed_m_s != 0.0:
+        time_s = np.abs(lengths - lengths[0]) / abs(driver.linear_speed_m_s)
+    return Sweep(mechanism=mechanism, driver_angle_deg=np.degrees(np.angle(axis)), point_names=tuple(mechanism.points),
+                 positions=columns["positions"], velocities=columns["velocities"],
+                 accelerations=columns["accelerations"],
+                 link_angle_deg={k: columns[("angle", k)] for k in mechanism.links},
+                 angular_velocity={k: columns[("omega", k)] for k in mechanism.links},
+                 angular_acceleration={k: columns[("alpha", k)] for k in mechanism.links},
+                 sliding_velocity={k: columns[("slide_v", k)] for k in mechanism.slides},
+                 sliding_acceleration={k: columns[("slide_a", k)] for k in mechanism.slides},
+                 jerks=columns["jerks"], angular_jerk={k: columns[("jerk", k)] for k in mechanism.links},
+                 sliding_jerk={k: columns[("slide_j", k)] for k in mechanism.slides},
+                 full_turn=False, range_deg=(float(lengths.min()), float(lengths.max())), closes=False, time_s=time_s,
+                 warnings=tuple(warnings), driver_length_m=lengths)
+
+
 def verify_sweep(result: Sweep, branch_step_deg: float = 10.0) -> dict:
     """Check a sweep against the numeric solver.
 
     Newton-Raphson refines every swept pose; the branch is confirmed
     independently by solving, from the reference pose by continuation, every
-    pose ``branch_step_deg`` apart. Returns the largest differences relative
-    to the largest value of each quantity: ``position``, ``velocity``,
+    pose ``branch_step_deg`` apart (a cylinder's stroke: a 36th of it at a time).
+    Returns the largest differences relative to the largest value of each quantity: ``position``, ``velocity``,
     ``acceleration``, ``jerk``, and ``branch`` (position at the continuation poses).
     """
     mech = result.mechanism
     system = constraint_system(mech)
-    driven = DrivenSystem(system)
-    omega, alpha = mech.driver.speed_rad_s, mech.driver.angular_acceleration_rad_s2
+    driver = mech.driver
+    if result.driver_length_m is not None:
+        # A cylinder: the solver's parameter is the length, its rates L̇ and L̈ (L⃛ = 0).
+        from ..solver.cylinder import LengthDrivenSystem, reference_length_m
+
+        driven = LengthDrivenSystem(system, mech)
+        omega, alpha, rate3 = driver.linear_speed_m_s, driver.linear_acceleration_m_s2, 0.0
+        theta = np.asarray(result.driver_length_m, float)
+        start = reference_length_m(mech)
+        stride = max(1, int(round(len(theta) / 36)))
+    else:
+        driven = DrivenSystem(system)
+        omega, alpha, rate3 = driver.speed_rad_s, driver.angular_acceleration_rad_s2, driver.angular_jerk_rad_s3
+        theta = np.radians(result.driver_angle_deg)
+        start = math.radians(reference_angle_deg(mech))
+        step = abs(result.driver_angle_deg[1] - result.driver_angle_deg[0])
+        stride = max(1, int(round(branch_step_deg / step)))
     tolerance = newton_tolerance(system)
     index = [result.point_names.index(n) for n in system.names]
     closed = result.positions[:, index]
-    theta = np.radians(result.driver_angle_deg)
     q = newton(driven, closed.reshape(len(theta), -1)[:, driven.columns], theta, tolerance)
     if q is None:
         raise CannotAssemble("the numeric solver does not converge from every swept pose", "sweep")
     x = driven.full(q)
     jac = driven.jacobian(x, theta)
     xdot, xddot = driven.rates(x, jac, theta, omega, alpha)
-    xjerk = driven.jerk(x, jac, xdot, xddot, theta, omega, alpha, mech.driver.angular_jerk_rad_s3)
+    xjerk = driven.jerk(x, jac, xdot, xddot, theta, omega, alpha, rate3)
     size = mech.size * mech.metres_per_unit
     worst = {}
     for key, numeric, swept in (("position", x, closed), ("velocity", xdot, result.velocities[:, index]),
@@ -331,9 +376,7 @@ def verify_sweep(result: Sweep, branch_step_deg: float = 10.0) -> dict:
         worst[key] = float(np.abs(numeric - swept).max() / (np.abs(swept).max() or 1.0))
     # The branch, independently: continuation walks from the reference pose at a coarse step,
     # one each way (a ranged sweep reaches both of its dead points from the reference pose).
-    step = abs(result.driver_angle_deg[1] - result.driver_angle_deg[0])
-    stride = max(1, int(round(branch_step_deg / step)))
-    offsets = theta - math.radians(reference_angle_deg(mech))
+    offsets = theta - start
     worst["branch"] = 0.0
     for direction in (1.0, -1.0):
         ahead = np.flatnonzero(offsets * direction > -1e-12)
@@ -343,8 +386,9 @@ def verify_sweep(result: Sweep, branch_step_deg: float = 10.0) -> dict:
             tracked = track(driven, q_walk, theta[k] - offsets[k] + direction * reached,
                              abs(offsets[k]) - reached, direction, size)
             if tracked is None:
-                raise CannotAssemble("continuation from the reference pose stops at a dead point",
-                                     f"driver angle {result.driver_angle_deg[k]:.3f}°")
+                where = (f"driver angle {result.driver_angle_deg[k]:.3f}°" if result.driver_length_m is None
+                         else f"cylinder length {theta[k] * 1000:.3f} mm")
+                raise CannotAssemble("continuation from the reference pose stops at a dead point", where)
             q_walk, reached = tracked[0], abs(offsets[k])
             walked = driven.full(q_walk)
             worst["branch"] = max(worst["branch"], float(np.abs(walked - closed[k]).max() / size))
@@ -355,8 +399,8 @@ def sweep_csv(result: Sweep, extra: tuple = ((), ())) -> str:
     """One row per swept pose, SI units in the headers, numbers at full double precision;
     ``extra`` (headers, columns) adds columns after the kinematic ones (the forces')."""
     mech = result.mechanism
-    header = ["driver_angle_deg"]
-    columns = [result.driver_angle_deg]
+    header = ["driver_angle_deg"] if result.driver_length_m is None else ["driver.length [m]"]
+    columns = [result.driver_angle_deg if result.driver_length_m is None else result.driver_length_m]
     for i, name in enumerate(result.point_names):
         for quantity, unit, values in (("", "m", result.positions), ("v", "m/s", result.velocities),
                                        ("a", "m/s^2", result.accelerations), ("j", "m/s^3", result.jerks)):

@@ -91,8 +91,12 @@ def draw_linkage(rec: Recorder, mech, xy: dict, view: View, size: Symbols) -> No
             rec.add(Line(start=at[order[0]], end=at[order[1]], pen=SPACE_LINK, **ids))
         elif len(order) > 2:
             rec.add(Polyline(points=tuple(at[n] for n in order), pen=SPACE_LINK, closed=closed, **ids))
+    cylinder = mech.driver.slide if mech.driver is not None and mech.driver.is_actuator else None
     for slide in mech.slides.values():
-        _draw_slide(rec, slide, at, size, {"view": view.name, "ref": ref_of("slide", slide.name)})
+        ids = {"view": view.name, "ref": ref_of("slide", slide.name)}
+        if slide.name == cylinder:
+            _draw_rod(rec, slide, at, ids)
+        _draw_slide(rec, slide, at, size, ids)
     xs, ys = [x for x, _ in at.values()], [y for _, y in at.values()]
     centre = (sum(xs) / len(xs), sum(ys) / len(ys))
     _draw_joints(rec, mech, at, centre, size, view.name)
@@ -184,6 +188,15 @@ def _draw_joints(rec: Recorder, mech, at, centre, size: Symbols, view: str) -> N
         if pivot:
             avoid.append(-0.5 * math.pi)  # the fixed-pivot mark hangs below the pin
         symbols.label(rec, where, name, away_from, SPACE_LINK, size, gap=gap, avoid=avoid, **ids)
+
+
+def _draw_rod(rec: Recorder, slide, at, ids) -> None:
+    """A cylinder's rod: from the barrel's end (the line's second point) out to the rod's end, where
+    the rod stands out of the barrel; a rod end inside the barrel's length shows no rod."""
+    (ex, ey), (fx, fy), (dx, dy) = (at[n] for n in (*slide.line, slide.point))
+    barrel = math.hypot(fx - ex, fy - ey)
+    if barrel > 0.0 and ((dx - ex) * (fx - ex) + (dy - ey) * (fy - ey)) / barrel > barrel:
+        rec.add(Line(start=(fx, fy), end=(dx, dy), pen=SPACE_LINK, **ids))
 
 
 def _draw_slide(rec: Recorder, slide, at, size: Symbols, ids) -> None:

@@ -8,10 +8,12 @@ No friction is modelled.
 """
 
 from .analysis import forces, sweep_forces
+from .cylinder_summary import CylinderJoint, CylinderSummary
 from .results import FRICTIONLESS, Forces, ForceSweep, FrameLoads, LinkInertia, PowerBalance, SlideForce
 from .summary import DEFAULT_FLUCTUATION, DriveSummary, JointSummary, drive_summary
 
 __all__ = [
-    "DEFAULT_FLUCTUATION", "FRICTIONLESS", "DriveSummary", "ForceSweep", "Forces", "FrameLoads", "JointSummary",
+    "DEFAULT_FLUCTUATION", "FRICTIONLESS", "CylinderJoint", "CylinderSummary",
+    "DriveSummary", "ForceSweep", "Forces", "FrameLoads", "JointSummary",
     "LinkInertia", "PowerBalance", "SlideForce", "drive_summary", "forces", "sweep_forces",
 ]

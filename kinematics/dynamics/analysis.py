@@ -86,7 +86,7 @@ def _reading(lay) -> _Reading:
                     guide_signs=np.array([sign for _, _, sign in guides]), received_points=np.array(points, int))
 
 
-def _frame(model, motion, solved, reading: _Reading):
+def _frame(model, motion, solved, reading: _Reading, torque):
     """What the frame receives (N, pivots + guides) complex, and its moment about the driver pivot,
     the drive's reaction −T included."""
     z = motion.positions
@@ -95,7 +95,7 @@ def _frame(model, motion, solved, reading: _Reading):
     at_pivots = -np.add.reduceat(solved.pairs[:, reading.pivot_pairs], reading.pivot_starts, axis=1)
     received = np.concatenate([at_pivots, through_guides], axis=1)
     lever = np.take(z, reading.received_points, axis=1) - z[:, model.pivot, None]
-    return received, cross(lever, received).sum(axis=1) - solved.torque
+    return received, cross(lever, received).sum(axis=1) - torque
 
 
 def _shaking(model, centre, motion, force, couple):
@@ -120,7 +120,12 @@ def _result(cls, mechanism, motion, pick, **extra):
     lay = model.layout
     centre = centres(model, motion)
     solved = solve_forces(model, motion, centre)
-    balance_torque, scale = power_balance_torque(model, motion, centre)
+    balance_drive, scale = power_balance_torque(model, motion, centre)
+    driver = mechanism.driver
+    cylinder = driver.is_actuator
+    # A cylinder's drive is its axial force; it puts no couple on any link.
+    torque = _real(np.zeros_like(solved.drive) if cylinder else solved.drive)
+    speed = driver.linear_speed_m_s if cylinder else driver.speed_rad_s
     reading = _reading(lay)
     joint = _xy(solved.pairs[:, reading.pair_index] * reading.signs)
     joints = {}
@@ -141,16 +146,15 @@ def _result(cls, mechanism, motion, pick, **extra):
                for name, k in ((n, index[n]) for n in data.masses)}
     particles = _xy(-np.stack([m.mass_kg * motion.accelerations[:, lay.points.index(p)]
                                for p, m in data.point_masses.items()], axis=1)) if data.point_masses else None
-    received, frame_moment = _frame(model, motion, solved, reading)
+    received, frame_moment = _frame(model, motion, solved, reading, torque)
     pivots, guides = reading.pivots, reading.guides
     received_xy = _xy(received)
-    torque = _real(solved.torque)
-    size = np.maximum(np.maximum(np.abs(solved.torque), np.abs(balance_torque)), scale)
-    difference = np.divide(np.abs(solved.torque - balance_torque), size, out=np.zeros_like(size), where=size > 0)
+    size = np.maximum(np.maximum(np.abs(solved.drive), np.abs(balance_drive)), scale)
+    difference = np.divide(np.abs(solved.drive - balance_drive), size, out=np.zeros_like(size), where=size > 0)
     frame = FrameLoads(
         pivots_n=MappingProxyType({p: pick(received_xy[:, i]) for i, p in enumerate(pivots)}),
         guides_n=MappingProxyType({g: pick(received_xy[:, len(pivots) + i]) for i, g in enumerate(guides)}),
-        drive_reaction_n_m=pick(_real(-solved.torque)), force_n=pick(_xy(received.sum(axis=1))),
+        drive_reaction_n_m=pick(_real(-torque)), force_n=pick(_xy(received.sum(axis=1))),
         moment_n_m=pick(_real(frame_moment)))
     return cls(
         mechanism=mechanism, driver_angle_deg=pick(_real(motion.angle_deg)), drive_torque_n_m=pick(torque),
@@ -158,9 +162,12 @@ def _result(cls, mechanism, motion, pick, **extra):
         slides=MappingProxyType(slides), inertia=MappingProxyType(inertia),
         particle_inertia_n=MappingProxyType({p: pick(particles[:, i]) for i, p in enumerate(data.point_masses)}),
         shaking_force_n=pick(_xy(shaking_force)), shaking_moment_n_m=pick(_real(shaking_moment)), frame=frame,
-        power_balance=PowerBalance(drive_torque_n_m=pick(_real(balance_torque)),
-                                   drive_power_w=pick(_real(solved.torque * mechanism.driver.speed_rad_s)),
-                                   relative_difference=pick(_real(difference))),
+        power_balance=PowerBalance(
+            drive_torque_n_m=pick(_real(np.zeros_like(balance_drive) if cylinder else balance_drive)),
+            drive_power_w=pick(_real(solved.drive * speed)), relative_difference=pick(_real(difference)),
+            drive_force_n=pick(_real(balance_drive)) if cylinder else None),
+        drive_force_n=pick(_real(solved.drive)) if cylinder else None,
+        driver_length_m=pick(_real(motion.length_m)) if cylinder else None,
         **extra)
 
 

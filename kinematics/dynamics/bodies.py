@@ -22,8 +22,10 @@ class Motion:
     numbers x + iy.
 
     ``positions``, ``accelerations``: (N, n) complex; ``omega``, ``alpha``: (N, links);
-    ``angle_deg``: (N,) driver angles; ``unit_velocities`` (N, n) complex and ``unit_omega``
-    (N, links): the velocities per unit driver speed (rad/s), for the power balance."""
+    ``angle_deg``: (N,) driver angles (a cylinder's: the direction of its axis); ``length_m``:
+    (N,) a cylinder's lengths, None for a rotary driver; ``unit_velocities`` (N, n) complex and
+    ``unit_omega`` (N, links): the velocities per unit driver speed (1 rad/s, or a cylinder's
+    1 m/s), for the power balance."""
 
     angle_deg: np.ndarray
     positions: np.ndarray
@@ -32,6 +34,13 @@ class Motion:
     alpha: np.ndarray
     unit_velocities: np.ndarray
     unit_omega: np.ndarray
+    length_m: np.ndarray | None = None
+
+    def where(self, k: int) -> str:
+        """Pose ``k`` in words, for a refusal's location: the driver angle or the cylinder's length."""
+        if self.length_m is not None:
+            return f"cylinder length {self.length_m[k] * 1000:.3f} mm"
+        return f"driver angle {self.angle_deg[k]:.3f}°"
 
 
 @dataclass(frozen=True, eq=False)
@@ -68,6 +77,7 @@ class MassModel:
     pivot: int
     sense: float
     length_m: float
+    cylinder: str | None = None
 
 
 def mass_model(mechanism: Mechanism) -> MassModel:
@@ -94,7 +104,8 @@ def _build(mech: Mechanism) -> MassModel:
     along = (side[:, 0] + 1j * side[:, 1]) / np.hypot(side[:, 0], side[:, 1])
     offset = fixed["centre_m"] - (start[:, 0] + 1j * start[:, 1])
     # The centre in the link's own axes: the offset turned back by the link's direction.
-    return MassModel(local_centre=offset * np.conj(along), length_m=max(mech.size * k_m, 1e-9), **fixed)
+    return MassModel(local_centre=offset * np.conj(along), length_m=max(mech.size * k_m, 1e-9),
+                     cylinder=mech.driver.slide if mech.driver.is_actuator else None, **fixed)
 
 
 def _by_names(mech: Mechanism, lay) -> dict:

@@ -6,8 +6,13 @@ and the loads. Unknowns: the joint force pairs, the slides' normal forces, the d
 (see :mod:`kinematics.dynamics.layout`). Joints are frictionless: a pin passes a force through
 its centre, a slide a force along its guide's normal.
 
-Moment rows are divided by the design's size L and the drive torque is solved as T/L, so all
-coefficients are of order one. The system is solved block by block (:mod:`.blocks`).
+The drive unknown is the torque T on the driver link for a rotary driver; for a cylinder it is
+the axial force F along the cylinder's line (push positive): +F·u on the rod's end, −F·u on the
+barrel, u the unit vector from the barrel's pivot to the rod's end.
+
+Moment rows are divided by the design's size L and a drive torque is solved as T/L, so all
+coefficients are of order one (a cylinder's F enters through u, of order one already).
+The system is solved block by block (:mod:`.blocks`).
 """
 
 from __future__ import annotations
@@ -36,6 +41,7 @@ class _Assembly:
     applied_points: np.ndarray
     applied_origins: np.ndarray
     applied_rows: tuple
+    drive_entry: tuple | None
 
 
 def _incidence(lay, links, elements) -> tuple:
@@ -62,17 +68,26 @@ def _slide_entries(lay, first) -> tuple:
     return tuple(entries)
 
 
+def _cylinder_entry(lay, slides: tuple, cylinder: str | None):
+    """The cylinder's drive column with the rows of its slide (block and barrel), as a slide entry
+    whose direction is the axis instead of the normal; None for a rotary driver."""
+    if cylinder is None:
+        return None
+    k = next(i for i, s in enumerate(lay.slides) if s.name == cylinder)
+    return (lay.torque_column, *slides[k][1:])
+
+
 def _assembly(model: MassModel) -> _Assembly:
     """The assembly of ``model``, from a cache keyed by what it depends on (names and indices,
     no numbers), so a drag, which makes a new Mechanism every frame, plans the blocks once."""
     return _assembled(model.layout, tuple(model.first), tuple(model.particle_point), tuple(model.particle_link),
                       tuple(model.particle_element), tuple(model.force_point), tuple(model.force_link),
-                      tuple(model.force_element), tuple(model.torque_link))
+                      tuple(model.force_element), tuple(model.torque_link), model.cylinder)
 
 
 @lru_cache(maxsize=64)
 def _assembled(lay, first, particle_point, particle_link, particle_element, force_point, force_link, force_element,
-               torque_link) -> _Assembly:
+               torque_link, cylinder) -> _Assembly:
     first = np.array(first, int)
     constant = np.zeros((lay.size, lay.size))
     arms = []
@@ -83,13 +98,16 @@ def _assembled(lay, first, particle_point, particle_link, particle_element, forc
             if kind == "link" and lay.points.index(point) != first[index]:
                 # (A force at the link's first point has no moment about it: no entry.)
                 arms.append((3 * index + 2, pair.column, lay.points.index(point), first[index], sign))
-    constant[3 * lay.driver + 2, lay.torque_column] = 1.0
     arms = np.array(arms, float).reshape(-1, 5)
     arm_rows, arm_columns = arms[:, 0].astype(int), arms[:, 1].astype(int)
     slides = _slide_entries(lay, first)
-    # The varying entries, in the order _varying gives their values.
-    rows = list(arm_rows) * 2 + [r for entry in slides for r, _ in entry[4]]
-    columns = list(arm_columns) + [c + 1 for c in arm_columns] + [entry[0] for entry in slides for _ in entry[4]]
+    drive = _cylinder_entry(lay, slides, cylinder)
+    if drive is None:
+        constant[3 * lay.driver + 2, lay.torque_column] = 1.0
+    # The varying entries, in the order _varying gives their values (the cylinder's after the slides').
+    varying = slides if drive is None else (*slides, drive)
+    rows = list(arm_rows) * 2 + [r for entry in varying for r, _ in entry[4]]
+    columns = list(arm_columns) + [c + 1 for c in arm_columns] + [entry[0] for entry in varying for _ in entry[4]]
     fixed_row = np.ones(lay.size, bool)
     fixed_row[2:3 * len(lay.links):3] = False
     pair_column = np.zeros(lay.size, bool)
@@ -104,19 +122,20 @@ def _assembled(lay, first, particle_point, particle_link, particle_element, forc
         slide_entries=slides, blocks=blocks,
         applied_points=np.array((*particle_point, *force_point), int),
         applied_origins=first[np.maximum(np.array((*particle_link, *force_link), int), 0)],
-        applied_rows=_incidence(lay, on_links, on_elements))
+        applied_rows=_incidence(lay, on_links, on_elements), drive_entry=drive)
 
 
 @dataclass(frozen=True)
 class Solved:
     """Newton-Euler results over N poses: ``pairs`` (N, pairs) complex, the unknown force of each
     pair (see Layout); ``normals`` (N, slides) N; ``normal_directions`` (N, slides) complex, the
-    guides' left normals; ``torque`` (N,) N·m."""
+    guides' left normals; ``drive`` (N,): the drive torque (N·m) of a rotary driver, or a
+    cylinder's axial force (N, push positive)."""
 
     pairs: np.ndarray
     normals: np.ndarray
     normal_directions: np.ndarray
-    torque: np.ndarray
+    drive: np.ndarray
 
 
 def _right_side(model: MassModel, motion: Motion, centres: Centres, rows: _Assembly) -> np.ndarray:
@@ -166,6 +185,13 @@ def _varying(model: MassModel, rows: _Assembly, z: np.ndarray):
         if guide_origin >= 0:
             parts[2] = -cross((z[:, point] - z[:, guide_origin]) / length, normal)
         values += [parts[which][:, None] for _, which in where]
+    if rows.drive_entry is not None:
+        _, point, start, _, where, guide_origin = rows.drive_entry
+        axis = z[:, point] - z[:, start]
+        axis = axis / np.abs(axis)
+        parts = {0: axis.real, 1: axis.imag, 3: -axis.real, 4: -axis.imag,
+                 2: -cross((z[:, point] - z[:, guide_origin]) / length, axis)}
+        values += [parts[which][:, None] for _, which in where]
     return np.concatenate(values, axis=1), normals
 
 
@@ -181,8 +207,8 @@ def solve_forces(model: MassModel, motion: Motion, centres: Centres) -> Solved:
     if singular is not None:
         raise ForcesUndetermined("the joint forces are not determined by statics here: a redundant constraint "
                                  "or a locked pose; no least-squares guess is made",
-                                 f"driver angle {motion.angle_deg[singular]:.3f}°")
+                                 motion.where(singular))
     # The pairs' columns come first, x then y of each: read them as complex numbers.
     return Solved(pairs=np.ascontiguousarray(unknowns[:, :2 * len(lay.pairs)]).view(complex),
                   normals=unknowns[:, [s.column for s in lay.slides]], normal_directions=normals,
-                  torque=unknowns[:, lay.torque_column] * model.length_m)
+                  drive=unknowns[:, lay.torque_column] * (1.0 if model.cylinder else model.length_m))

@@ -1,7 +1,8 @@
-"""Formulation (2): the power balance (virtual power), giving the drive torque without any joint force.
+"""Formulation (2): the power balance (virtual power), giving the drive without any joint force.
 
 With velocities per unit driver speed (so that it holds at rest too), frictionless joints do
-no work and
+no work and, T the drive torque (per 1 rad/s) or a cylinder's axial force F (per 1 m/s of
+extension, so that F·L̇ is the drive's power),
 
     T + Σ_links[m·(g − a_G)·v̂_G − I·α·ω̂] + Σ_particles m·(g − a_P)·v̂_P + Σ_loads(F·v̂_P + M·ω̂) = 0.
 
@@ -22,8 +23,9 @@ def _dot(force, velocity):
 
 
 def power_balance_torque(model: MassModel, motion: Motion, centres: Centres):
-    """(torque (N,) N·m, scale (N,)): the drive torque, and the sum of the magnitudes of its terms
-    (the size against which rounding in it is judged)."""
+    """(drive (N,), scale (N,)): the drive torque (N·m), or a cylinder's axial force (N, push
+    positive), and the sum of the magnitudes of its terms (the size against which rounding in it
+    is judged)."""
     g = model.gravity
     terms = [_dot(model.mass * (g - centres.acceleration), centres.unit_velocity),
              -model.inertia * motion.alpha * motion.unit_omega]

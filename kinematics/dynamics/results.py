@@ -8,7 +8,9 @@ Signs: ``joints_n[P][link]`` is the force on ``link`` at point P from what it is
 there (the frame at a fixed pivot; the pin or block element at a point that carries a mass, a
 pin load, a slide or three or more links; otherwise the other link). A slide's ``normal_n`` acts
 on its block along the guide line's left normal (the line's direction turned +90°). The drive
-torque is the couple the drive applies to the driver link, counter-clockwise positive.
+torque is the couple the drive applies to the driver link, counter-clockwise positive. A
+cylinder drives by its axial force instead (``drive_force_n``): on the rod's end along the axis
+from the barrel's pivot, push positive, and its opposite on the barrel; its drive torque is 0.
 """
 
 from __future__ import annotations
@@ -63,11 +65,14 @@ class FrameLoads:
 class PowerBalance:
     """The drive torque by the power balance, computed on its own (``drive_torque_n_m``), the
     drive power T·ω of the Newton-Euler torque (``drive_power_w``), and the two torques'
-    ``relative_difference`` (to the larger of the two and the sum of the balance's terms)."""
+    ``relative_difference`` (to the larger of the two and the sum of the balance's terms). For a
+    cylinder: its axial force by the power balance (``drive_force_n``; the torque is 0), the
+    power F·L̇ of the Newton-Euler force, and the two forces' relative difference."""
 
     drive_torque_n_m: float
     drive_power_w: float
     relative_difference: float
+    drive_force_n: float | None = None
 
 
 @dataclass(frozen=True)
@@ -86,6 +91,8 @@ class Forces:
     frame : :class:`FrameLoads`; equals the shaking force and moment with no gravity and no loads.
     power_balance : :class:`PowerBalance`.
     warnings : the pose's own warnings.
+    drive_force_n : a cylinder's axial force, N, push positive (None for a rotary driver).
+    driver_length_m : a cylinder's length at the pose, m (None for a rotary driver).
     """
 
     mechanism: Mechanism
@@ -100,6 +107,8 @@ class Forces:
     frame: FrameLoads
     power_balance: PowerBalance
     warnings: tuple = ()
+    drive_force_n: float | None = None
+    driver_length_m: float | None = None
 
 
 @dataclass(frozen=True)

@@ -23,6 +23,9 @@ from types import MappingProxyType
 import numpy as np
 
 from ..errors import KinematicsError
+from .cylinder_summary import CylinderSummary, cylinder_summary
+
+__all__ = ["CylinderSummary", "DriveSummary", "JointSummary", "drive_summary", "energy_fluctuation"]
 from .results import ForceSweep
 
 DEFAULT_FLUCTUATION = 0.02
@@ -73,15 +76,19 @@ def energy_fluctuation(torque_n_m: np.ndarray, step_rad: float) -> float:
     return float(energy.max() - energy.min())
 
 
-def drive_summary(result: ForceSweep, fluctuation: float = DEFAULT_FLUCTUATION) -> DriveSummary:
-    """The drive and bearing summary of a cycle swept over a whole turn at constant speed.
+def drive_summary(result: ForceSweep, fluctuation: float = DEFAULT_FLUCTUATION) -> DriveSummary | CylinderSummary:
+    """The drive and bearing summary of a cycle swept over a whole turn at constant speed, or of a
+    cylinder's stroke at constant extension speed (a :class:`CylinderSummary`).
 
-    ``fluctuation`` is the coefficient of speed fluctuation C_s allowed (default 0.02)."""
+    ``fluctuation`` is the coefficient of speed fluctuation C_s allowed (default 0.02; a cylinder
+    has no flywheel and does not use it)."""
     if isinstance(fluctuation, bool) or not isinstance(fluctuation, (int, float)) \
             or not math.isfinite(fluctuation) or fluctuation <= 0:
         raise KinematicsError(f"the coefficient of speed fluctuation must be a positive number, not {fluctuation!r}",
                               "fluctuation")
     driver = result.mechanism.driver
+    if driver.is_actuator:
+        return cylinder_summary(result)
     if driver.angular_acceleration_rad_s2 != 0.0 or driver.speed_rad_s == 0.0:
         raise KinematicsError("the drive summary is for a driver turning at constant speed: set its angular "
                               "acceleration to 0 and its speed to a value other than 0", "driver")

@@ -8,8 +8,9 @@ Schema of the file's version (:mod:`kinematics.files.fileschema`), and what a sc
 cannot say is checked here: names that exist and differ ignoring case, a driver
 pivot on ground, the reference pose (points on their slide lines ...).
 
-A save writes format 1 for a design without mass data (a format-1 file saves as it was)
-and format 2, with ``masses``, ``point_masses``, ``loads`` and ``gravity``, for one with it.
+A save writes format 1 for a design without mass data or a cylinder driver (a format-1 file saves
+as it was) and format 2, with ``masses``, ``point_masses``, ``loads`` and ``gravity`` or the cylinder
+driver (``"kind": "actuator"``), for one with them.
 """
 
 from __future__ import annotations
@@ -27,6 +28,7 @@ from ..errors import FileFormatError
 from ..model.limits import beyond_limits
 from ..model.mechanism import GROUND, Driver, Mechanism, Slide, slide_offset
 from ..model.units import METRES_PER_LENGTH_UNIT
+from .cylinderformat import cylinder_document, cylinder_from_document
 from .fileschema import check_structure, format_version, written_version
 from .massformat import mass_data_document, mass_data_from_document
 
@@ -278,9 +280,11 @@ def _read_slides(doc, points, ground, links):
     return result
 
 
-def _read_driver(spec, ground, links):
+def _read_driver(spec, ground, links, slides):
     if spec is None:
         return None
+    if spec.get("kind") == "actuator":
+        return cylinder_from_document(spec, slides)
     link, pivot = spec["link"], spec["pivot"]
     if link not in links:
         _refuse(f'unknown link "{link}"', "driver.link")
@@ -339,9 +343,10 @@ def mechanism_from_document(doc: dict, where: str = "") -> Mechanism:
     _check_point_names(ground, points, "ground")
     links = doc["links"]
     _check_links(links, points)
+    slides = _read_slides(doc, points, ground, links)
     mechanism = Mechanism(
-        points=points, ground=ground, links=links, slides=_read_slides(doc, points, ground, links),
-        driver=_read_driver(doc.get("driver"), ground, links),
+        points=points, ground=ground, links=links, slides=slides,
+        driver=_read_driver(doc.get("driver"), ground, links, slides),
         output=_read_output(doc.get("output"), points, links),
         analysis_angles_deg=doc.get("analysis_angles_deg", ()), title=doc.get("title", ""),
         notes=doc.get("notes", ""), length_unit=doc.get("length_unit", "mm"),
@@ -390,7 +395,9 @@ def document_from_mechanism(mechanism: Mechanism) -> dict:
         doc["slides"] = {s.name: {"point": s.point, "guide": s.guide, "line": list(s.line)}
                          for s in mechanism.slides.values()}
     d = mechanism.driver
-    if d is not None:
+    if d is not None and d.is_actuator:
+        doc["driver"] = cylinder_document(d)
+    elif d is not None:
         doc["driver"] = {"link": d.link, "pivot": d.pivot,
                          "speed": {"value": d.speed_value, "unit": d.speed_unit},
                          "angular_acceleration": {"value": d.angular_acceleration_value,

@@ -106,6 +106,8 @@ class Frame:
     mech: Mechanism
     ref: dict
     driver_angle_rad: np.ndarray | float = 0.0
+    # A cylinder driver's length (m) at each pose, the frame's shape (unused by a rotary driver).
+    driver_length_m: np.ndarray | float = 0.0
     strict: bool = True
     # The solved pose a group with no closed form takes its motion from (the construction's).
     solution: object = None
@@ -128,14 +130,16 @@ class Frame:
     sliding_jerk: dict = field(default_factory=dict)
 
     @classmethod
-    def start(cls, mech: Mechanism, driver_angle_rad=0.0, strict=True, solution=None):
+    def start(cls, mech: Mechanism, driver_angle_rad=0.0, strict=True, solution=None, driver_length_m=None):
         """An empty frame with the ground placed, for the driver at ``driver_angle_rad`` (a number
-        or an array: the frame's shape). ``strict=False`` marks poses that cannot assemble in
-        ``invalid`` instead of raising."""
+        or an array: the frame's shape), or a cylinder driver at ``driver_length_m``.
+        ``strict=False`` marks poses that cannot assemble in ``invalid`` instead of raising."""
         ref = {n: complex(*mech.position_m(n)) for n in mech.points}
-        shape = np.shape(driver_angle_rad)
+        parameter = driver_angle_rad if driver_length_m is None else driver_length_m
+        shape = np.shape(parameter)
         frame = cls(mech=mech, ref=ref, driver_angle_rad=driver_angle_rad, strict=strict, solution=solution,
-                    invalid=np.zeros(shape, dtype=bool))
+                    invalid=np.zeros(shape, dtype=bool),
+                    driver_length_m=0.0 if driver_length_m is None else driver_length_m)
         zero = np.zeros(shape)
         for name in mech.ground:
             frame.pos[name] = np.full(shape, ref[name])

@@ -23,8 +23,10 @@ from dataclasses import dataclass, replace
 from functools import lru_cache
 from types import MappingProxyType
 
+from ..errors import KinematicsError
 from ..model.mechanism import GROUND, Mechanism
 from ..model.memo import remembered
+from .actuator import ActuatorGroup
 from .base import Group
 from .driver import DriverGroup
 from .numeric import NumericGroup
@@ -39,7 +41,7 @@ class Decomposition:
 
     driver_link: str
     groups: tuple
-    driver: DriverGroup
+    driver: DriverGroup | ActuatorGroup
 
     @property
     def chain(self) -> tuple:
@@ -58,22 +60,53 @@ def decompose(mech: Mechanism) -> Decomposition:
 
 
 def _decompose(mech: Mechanism) -> Decomposition:
-    driver, order = _order(tuple(mech.links.items()), tuple(mech.slides.values()), mech.ground, mech.driver.link,
-                           mech.driver.pivot)
+    if mech.driver.is_actuator:
+        head = cylinder_group(mech)
+        known = head.links
+    else:
+        head, known = DriverGroup(links=(mech.driver.link,), roles=MappingProxyType({"O": mech.driver.pivot})), (
+            mech.driver.link,)
+    order = _order(tuple(mech.links.items()), tuple(mech.slides.values()), mech.ground, known)
     groups = tuple(replace(group, sign=group.branch_sign(mech)) for group in order)
-    return Decomposition(driver_link=driver.link, groups=groups, driver=driver)
+    return Decomposition(driver_link=head.link, groups=groups, driver=replace(head, sign=head.branch_sign(mech)))
+
+
+def cylinder_group(mech: Mechanism) -> ActuatorGroup:
+    """The cylinder's group: its slide must be a link's point on another link's line, the barrel pivoted
+    on the ground at the line's first point, the rod's end on a link with one more ground pin."""
+    slide = mech.slides.get(mech.driver.slide)
+    where = "driver.slide"
+    if slide is None:
+        raise KinematicsError(f'the cylinder driver names no slide of the design ("{mech.driver.slide}")', where)
+    carriers = [b for b in mech.bodies_of(slide.point) if b != GROUND and b != slide.guide]
+    if slide.guide == GROUND or not carriers:
+        raise KinematicsError(f"the cylinder {slide.name} must be a link's point sliding on another link's line "
+                              "(rod on barrel); this slide is not link-on-link", where)
+    pivot = slide.line[0]
+    if pivot not in mech.ground:
+        raise KinematicsError(f"the cylinder {slide.name}'s barrel must be pivoted on the ground at its line's first "
+                              f"point, and {pivot} is not a ground point", where)
+    carrier = carriers[0]
+    pins = [p for p in mech.links[carrier] if p in mech.ground and p != slide.point]
+    if not pins:
+        raise KinematicsError(f"the link {carrier} that the cylinder {slide.name} drives needs a ground pivot", where)
+    return ActuatorGroup(links=(slide.guide, carrier), roles=MappingProxyType({"C": pivot, "B": slide.point,
+                                                                             "A": pins[0]}), slide=slide.name)
 
 
 @lru_cache(maxsize=64)
-def _order(link_items: tuple, slides: tuple, ground: tuple, driver: str, pivot: str) -> tuple:
-    """(the driver, the groups in the order they are solved, each with the branch sign +1).
+def _order(link_items: tuple, slides: tuple, ground: tuple, known_links: tuple) -> tuple:
+    """The groups in the order they are solved after the head (the driver, or the cylinder's barrel
+    and the link it drives: ``known_links``), each with the branch sign +1.
 
     It follows from the topology alone, so a drag, which makes a new mechanism each frame with the
     same links, finds it once; the branch signs are read off each mechanism's pose."""
     points_of = dict(link_items)  # link -> its points
-    known_bodies = {GROUND, driver}
-    known_points = set(ground) | set(points_of[driver])
-    unknown = [name for name in points_of if name != driver]
+    known_bodies = {GROUND, *known_links}
+    known_points = set(ground).union(*(points_of[link] for link in known_links))
+    unknown = [name for name in points_of if name not in known_links]
+    # The cylinder's own slide is settled by its head group.
+    slides = tuple(s for s in slides if not (s.point in known_points and s.guide in known_bodies))
     groups = []
 
     def known_pins(link):
@@ -125,4 +158,4 @@ def _order(link_items: tuple, slides: tuple, ground: tuple, driver: str, pivot: 
                     break
         if not found:
             settle(NumericGroup, list(unknown), {})
-    return DriverGroup(links=(driver,), roles=MappingProxyType({"O": pivot})), tuple(groups)
+    return tuple(groups)

@@ -99,16 +99,23 @@ class Centres:
         """The centre of bodies ``a`` and ``b``, in either order."""
         return self.centres[pair_name(self.bodies, a, b)]
 
+    def _driver_speed(self) -> float:
+        """The driver link's ω the ratios are per unit of (a cylinder's barrel: from the centres)."""
+        from .velocities import driver_speed
+
+        ratios = {k: complex(x, y) for k, (x, y) in self.velocity_ratio.items()}
+        return driver_speed(self.solution.mechanism, ratios, self.solution.position)
+
     @property
     def angular_velocity(self) -> MappingProxyType:
         """Link -> rad/s, from the centres and the driver's speed."""
-        omega = self.solution.mechanism.driver.speed_rad_s
+        omega = self._driver_speed()
         return MappingProxyType({k: v * omega for k, v in self.angular_velocity_ratio.items()})
 
     @property
     def velocities(self) -> MappingProxyType:
         """Point -> (vx, vy) m/s, from the centres and the driver's speed."""
-        omega = self.solution.mechanism.driver.speed_rad_s
+        omega = self._driver_speed()
         return MappingProxyType({k: (x * omega, y * omega) for k, (x, y) in self.velocity_ratio.items()})
 
 

@@ -97,11 +97,29 @@ def point_ratios(finder, known: dict) -> dict:
     return ratios
 
 
+def driver_speed(mech, ratios: dict, position) -> float:
+    """The driver link's ω (rad/s) that the centres' ratios are per unit of: the given speed of a
+    turning driver; for a cylinder, the barrel's ω found from the centres alone, from the rod's
+    known speed in its barrel: L̇ = u·(v̂_B − v̂_Bg)·ω_barrel, v̂ per unit ω of the barrel (the
+    barrel's point under B turns about its pivot C: v̂_Bg = i·(B − C)).
+
+    ``ratios`` maps points to complex velocities per unit driver speed, ``position(name)`` gives
+    (x, y) m. A cylinder in line with the link it drives (no sliding per unit turn) gives 0."""
+    driver = mech.driver
+    if not driver.is_actuator:
+        return driver.speed_rad_s
+    slide = mech.slides[driver.slide]
+    b, c = (complex(*position(n)) for n in (slide.point, slide.line[0]))
+    u = (b - c) / abs(b - c)
+    sliding = ((ratios[slide.point] - 1j * (b - c)) * u.conjugate()).real
+    return driver.linear_speed_m_s / sliding if sliding != 0.0 else 0.0
+
+
 def crosscheck(solution, ratios: dict, omega_ratios: dict, polygon_images: dict | None):
     """(largest relative difference, where): the centres' velocities against the solver's and the
     polygon's (each relative to the largest speed of that source), and the links' ω against the
     solver's (relative to the largest |ω|)."""
-    speed = solution.mechanism.driver.speed_rad_s
+    speed = driver_speed(solution.mechanism, ratios, solution.position)
     worst, where = 0.0, ""
     row = {name: i for i, name in enumerate(solution.point_names)}
     solver = {name: complex(*solution.velocities[row[name]]) for name in ratios}

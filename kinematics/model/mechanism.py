@@ -14,7 +14,13 @@ from functools import cached_property
 from types import MappingProxyType
 from typing import TYPE_CHECKING
 
-from .units import RAD_S2_PER_ACCELERATION_UNIT, RAD_S_PER_SPEED_UNIT, metres_per
+from .units import (
+    M_S2_PER_LINEAR_ACCELERATION_UNIT,
+    M_S_PER_LINEAR_SPEED_UNIT,
+    RAD_S2_PER_ACCELERATION_UNIT,
+    RAD_S_PER_SPEED_UNIT,
+    metres_per,
+)
 
 if TYPE_CHECKING:
     from .mass import MassData
@@ -38,7 +44,11 @@ class Slide:
 
 @dataclass(frozen=True)
 class Driver:
-    """A link pivoted on ground at ``pivot``, turning at a given speed.
+    """A link pivoted on ground at ``pivot``, turning at a given speed (``kind`` "rotary"), or a
+    cylinder (``kind`` "actuator"): the slide ``slide`` whose guide is the barrel ``link`` pivoted on
+    ground at ``pivot`` (its line's first point), extending at ``linear_speed`` with
+    ``linear_acceleration``, its length (pivot to the slide's point) within ``stroke_min`` and
+    ``stroke_max`` (``length_unit``; None where the file gives no limit).
 
     ``speed`` and ``angular_acceleration`` keep the file's value and unit; ``angular_jerk_rad_s3``, the
     rate of change of the angular acceleration, is zero for a drive at constant angular acceleration
@@ -53,6 +63,29 @@ class Driver:
     angular_acceleration_unit: str = "rad/s^2"
     kind: str = "rotary"
     angular_jerk_rad_s3: float = 0.0
+    slide: str | None = None
+    linear_speed_value: float = 0.0
+    linear_speed_unit: str = "m/s"
+    linear_acceleration_value: float = 0.0
+    linear_acceleration_unit: str = "m/s^2"
+    stroke_min: float | None = None
+    stroke_max: float | None = None
+
+    @property
+    def is_actuator(self) -> bool:
+        """True for a cylinder driver (``kind`` "actuator")."""
+        return self.kind == "actuator"
+
+    @property
+    def linear_speed_m_s(self) -> float:
+        """A cylinder's extension speed L̇, m/s (negative retracts)."""
+        return float(self.linear_speed_value) * M_S_PER_LINEAR_SPEED_UNIT[self.linear_speed_unit]
+
+    @property
+    def linear_acceleration_m_s2(self) -> float:
+        """A cylinder's extension acceleration L̈, m/s²."""
+        return float(self.linear_acceleration_value) * M_S2_PER_LINEAR_ACCELERATION_UNIT[
+            self.linear_acceleration_unit]
 
     @property
     def speed_rad_s(self) -> float:

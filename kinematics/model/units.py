@@ -7,6 +7,9 @@ from ..errors import FileFormatError
 METRES_PER_LENGTH_UNIT = {"mm": 1e-3, "m": 1.0, "in": 0.0254}
 RAD_S_PER_SPEED_UNIT = {"rad/s": 1.0, "rpm": 2.0 * math.pi / 60.0}
 RAD_S2_PER_ACCELERATION_UNIT = {"rad/s^2": 1.0}
+# A cylinder driver's extending speed and acceleration.
+M_S_PER_LINEAR_SPEED_UNIT = {"m/s": 1.0, "mm/s": 1e-3}
+M_S2_PER_LINEAR_ACCELERATION_UNIT = {"m/s^2": 1.0, "mm/s^2": 1e-3}
 
 
 def metres_per(length_unit: str) -> float:

@@ -8,7 +8,7 @@ from dataclasses import dataclass
 from ..cycle.checks import report
 from ..groups.decompose import decompose
 from ..solver.mobility import diagnose, gruebler_count, jacobian_mobility
-from .text import advantage_sentence, turn
+from .text import advantage_sentence, placing
 
 
 @dataclass(frozen=True)
@@ -35,8 +35,9 @@ def check_sentences(mech, steps: int = 3600) -> CheckSentences:
                  f"(Gruebler-Kutzbach count {gruebler_count(mech)})")
     if findings:
         return CheckSentences(tuple(lines), findings)
-    lines.append("construction order: driver " + mech.driver.link + ", then " +
-                 ", ".join(g.name for g in decompose(mech).groups))
+    decomposition = decompose(mech)
+    driven = ", ".join(g.name for g in decomposition.groups)
+    lines.append(f"construction order: {decomposition.driver.name}" + (f", then {driven}" if driven else ""))
     data = report(mech, steps)
     for loop in data["loops"]:
         turns = f"; turns fully: {loop.turns_fully}" if loop.turns_fully else "; no link turns fully"
@@ -44,18 +45,23 @@ def check_sentences(mech, steps: int = 3600) -> CheckSentences:
     if data["cycle"]:
         lines.append(f"cycle not swept: {data['cycle']}")
         return CheckSentences(tuple(lines), findings)
-    if data["full_turn"]:
+    place = placing(data)
+    if data["stroke_m"] is not None:
+        lines.append(stroke_sentence(mech, data["stroke_m"]))
+    elif data["full_turn"]:
         lines.append(f"driver {mech.driver.link} turns fully")
     else:
         low, high = data["range_deg"]
         lines.append(f"driver {mech.driver.link} cannot turn fully: dead points at {low:.3f}° and {high:.3f}°")
     for key, t in data["transmission"].items():
+        where = place.at(t[f"deviation_at_{place.suffix}"], 2)
         lines.append(f"transmission angle {key}: {t['min_deg']:.2f}° to {t['max_deg']:.2f}°, largest deviation "
-                     f"from 90° {t['largest_deviation_from_90_deg']:.2f}° at driver angle "
-                     f"{turn(t['deviation_at_deg'], 2):.2f}°")
+                     f"from 90° {t['largest_deviation_from_90_deg']:.2f}° " +
+                     (where if place.suffix == "length_m" else where.replace("at ", "at driver angle ", 1)))
     out = data["output"]
     if out:
-        reversals = ", ".join(f"{turn(a, 2):.2f}°" for a in out["rate_reversals_deg"]) or "none (it turns one way)"
+        reversals = ", ".join(place.text(a, 2) + ("°" if place.suffix == "deg" else " mm")
+                              for a in out[f"rate_reversals_{place.suffix}"]) or "none (it turns one way)"
         lines.append(f"output {out['output']}: travel {out['travel']:.4g} {out['unit']}; rate reverses (limit "
                      f"positions) at {reversals}")
         if "time_ratio" in out:
@@ -66,3 +72,21 @@ def check_sentences(mech, steps: int = 3600) -> CheckSentences:
         lines.append(advantage_sentence(data["mechanical_advantage"]))
     lines += [f"warning: {warning}" for warning in data["warnings"]]
     return CheckSentences(tuple(lines), findings)
+
+
+def stroke_sentence(mech, stroke_m) -> str:
+    """The cylinder's stroke as swept: the file's stroke, or where the linkage's reach cuts it short."""
+    driver = mech.driver
+    low, high = stroke_m
+    k = mech.metres_per_unit
+    given = (driver.stroke_min, driver.stroke_max)
+    ends = []
+    for value, limit, word in ((low, given[0], "shortest"), (high, given[1], "longest")):
+        if limit is None:
+            ends.append(f"{word} {value * 1000:.1f} mm (the linkage's reach; the file gives no stroke end)")
+        elif abs(value - limit * k) > 1e-9 * max(abs(value), 1.0):
+            ends.append(f"{word} {value * 1000:.1f} mm (the linkage's reach cuts the file's {limit * k * 1000:.1f} mm)")
+        else:
+            ends.append(f"{word} {value * 1000:.1f} mm")
+    return (f"cylinder {driver.slide}: stroke {low * 1000:.1f} to {high * 1000:.1f} mm, {(high - low) * 1000:.1f} mm "
+            f"long; " + ", ".join(ends))

@@ -12,8 +12,9 @@ import numpy as np
 
 from ..dynamics.layout import layout
 from ..dynamics.results import FRICTIONLESS, Forces, ForceSweep
-from ..dynamics.summary import DriveSummary
+from ..dynamics.summary import CylinderSummary, DriveSummary
 from ..groups.vectors import NEGLIGIBLE
+from . import cylinder_forces
 from .text import direction_text, sense, turn
 
 
@@ -35,8 +36,9 @@ def _vector(v) -> list:
 def forces_json(result: Forces) -> dict:
     """The forces of one pose with the keys of the command line's ``--json`` (SI, full precision).
 
-    An inertia that is a pure couple (no force to offset) has ``offset`` null."""
-    return {
+    An inertia that is a pure couple (no force to offset) has ``offset`` null. A cylinder-driven
+    design has ``drive_force_n`` (N, push positive) and ``driver_length_m`` instead of a torque."""
+    document = {
         "kinepoly_forces": 1, "driver_angle_deg": float(result.driver_angle_deg),
         "units": {"force": "N", "torque": "N*m", "power": "W"},
         "driver_torque": float(result.drive_torque_n_m),
@@ -51,6 +53,10 @@ def forces_json(result: Forces) -> dict:
                           "relative_difference": float(result.power_balance.relative_difference)},
         "warnings": list(result.warnings),
     }
+    if result.drive_force_n is not None:
+        del document["driver_torque"]
+        document.update(cylinder_forces.pose_json(result))
+    return document
 
 
 def _size(v, scale: float) -> tuple[float, str]:
@@ -68,6 +74,8 @@ def _scales(result: Forces) -> tuple[float, float]:
     """(largest force in N, largest couple in N·m) of a pose, what its rounding is measured against."""
     forces = [math.hypot(*f) for by_link in result.joints_n.values() for f in by_link.values()]
     forces += [abs(s.normal_n) for s in result.slides.values()]
+    if result.drive_force_n is not None:
+        forces.append(abs(result.drive_force_n))
     couples = [abs(result.drive_torque_n_m), abs(result.shaking_moment_n_m)]
     couples += [abs(i.couple_n_m) for i in result.inertia.values()]
     return max(forces, default=0.0), max(couples)
@@ -78,10 +86,17 @@ def forces_table(result: Forces) -> str:
     mech = result.mechanism
     force_scale, couple_scale = _scales(result)
     torque = shown_value(result.drive_torque_n_m, couple_scale)
-    lines = [f"{mech.title or 'Mechanism'} — forces with driver {mech.driver.link} at {result.driver_angle_deg:.2f}°, "
-             f"{mech.driver.speed_value} {mech.driver.speed_unit}; {FRICTIONLESS}",
-             "", f"drive torque on {mech.driver.link}: {torque:.4g} N·m {sense(torque)}",
-             "", f"{'joint':<8}{'on link':<12}{'from':<12}{'Fx [N]':>11}{'Fy [N]':>11}{'|F| [N]':>11}{'dir [°]':>9}"]
+    cylinder = result.drive_force_n is not None
+    if cylinder:
+        heading = cylinder_forces.pose_heading(result)
+        drive = cylinder_forces.drive_line(result, shown_value(result.drive_force_n, force_scale))
+    else:
+        heading = (f"{mech.title or 'Mechanism'} — forces with driver {mech.driver.link} at "
+                   f"{result.driver_angle_deg:.2f}°, {mech.driver.speed_value} {mech.driver.speed_unit}; "
+                   f"{FRICTIONLESS}")
+        drive = f"drive torque on {mech.driver.link}: {torque:.4g} N·m {sense(torque)}"
+    lines = [heading, "", drive, "",
+             f"{'joint':<8}{'on link':<12}{'from':<12}{'Fx [N]':>11}{'Fy [N]':>11}{'|F| [N]':>11}{'dir [°]':>9}"]
     for point, by_link in result.joints_n.items():
         for link, f in by_link.items():
             size, angle = _size(f, force_scale)
@@ -106,14 +121,17 @@ def forces_table(result: Forces) -> str:
     lines += ["", f"shaking force {shaking:.2f} N{at}, shaking moment "
               f"{shown_value(result.shaking_moment_n_m, couple_scale):.4g} N·m about {mech.driver.pivot}"]
     balance = result.power_balance
-    lines.append(f"power balance: drive power {balance.drive_power_w:.4g} W; drive torque by virtual work "
+    lines.append(cylinder_forces.balance_line(result) if cylinder else
+                 f"power balance: drive power {balance.drive_power_w:.4g} W; drive torque by virtual work "
                  f"{balance.drive_torque_n_m:.4g} N·m, relative difference {balance.relative_difference:.1e}")
     lines += [f"warning: {w}" for w in result.warnings]
     return "\n".join(lines)
 
 
-def summary_json(summary: DriveSummary, result: ForceSweep) -> dict:
-    """The drive and bearing summary of a cycle (SI, full precision)."""
+def summary_json(summary: DriveSummary | CylinderSummary, result: ForceSweep) -> dict:
+    """The drive and bearing summary of a cycle, or of a cylinder's stroke (SI, full precision)."""
+    if isinstance(summary, CylinderSummary):
+        return cylinder_forces.summary_json(summary, result)
     return {
         "kinepoly_drive": 1, "units": {"force": "N", "torque": "N*m", "power": "W", "energy": "J",
                                        "inertia": "kg*m^2", "angle": "deg", "speed": "rad/s"},
@@ -133,8 +151,10 @@ def summary_json(summary: DriveSummary, result: ForceSweep) -> dict:
     }
 
 
-def summary_text(summary: DriveSummary, result: ForceSweep) -> str:
+def summary_text(summary: DriveSummary | CylinderSummary, result: ForceSweep) -> str:
     """The drive and bearing summary for people."""
+    if isinstance(summary, CylinderSummary):
+        return cylinder_forces.summary_text(summary, result, pinned_to)
     mech = result.mechanism
     rpm = summary.speed_rad_s * 60 / (2 * math.pi)
     # A mean of a periodic torque with no loads is 0 to rounding (1e-16 N·m): shown as 0.
@@ -167,7 +187,10 @@ def summary_text(summary: DriveSummary, result: ForceSweep) -> str:
 def force_columns(result: ForceSweep) -> tuple[list, list]:
     """(headers, columns) the cycle CSV gains with ``--forces``: the drive torque, every joint force
     on every link (x, y, magnitude), every slide's normal force, the shaking force and moment."""
-    header, columns = ["driver.torque [N*m]"], [result.drive_torque_n_m]
+    if result.drive_force_n is not None:
+        header, columns = ["driver.force [N]"], [result.drive_force_n]
+    else:
+        header, columns = ["driver.torque [N*m]"], [result.drive_torque_n_m]
     for point, by_link in result.joints_n.items():
         for link, f in by_link.items():
             header += [f"{point}.{link}.Fx [N]", f"{point}.{link}.Fy [N]", f"{point}.{link}.F [N]"]

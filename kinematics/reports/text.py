@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 import math
+from dataclasses import dataclass
 
 from ..construction.components import acceleration_components
 from ..groups.steps import ROUNDING_FLOOR, Construction, agreement
@@ -32,8 +33,14 @@ def solution_table(solution: Solution) -> str:
     """The solved pose for people: each point's position (mm), speed and acceleration with their
     directions, each link's angle, ω and α with their senses, the slides' rates, and the warnings."""
     mech = solution.mechanism
-    lines = [f"{mech.title or 'Mechanism'} — driver {mech.driver.link} at {solution.driver_angle_deg:.2f}°, "
-             f"{mech.driver.speed_rad_s:.4g} rad/s ({mech.driver.speed_value} {mech.driver.speed_unit})",
+    driver = mech.driver
+    if solution.driver_length_m is None:
+        driven = (f"driver {driver.link} at {solution.driver_angle_deg:.2f}°, {driver.speed_rad_s:.4g} rad/s "
+                  f"({driver.speed_value} {driver.speed_unit})")
+    else:
+        driven = (f"cylinder {driver.slide} at length {solution.driver_length_m * 1000:.2f} mm, extending at "
+                  f"{driver.linear_speed_m_s:.4g} m/s ({driver.linear_speed_value} {driver.linear_speed_unit})")
+    lines = [f"{mech.title or 'Mechanism'} — {driven}",
              "",
              f"{'point':<8}{'x [mm]':>10}{'y [mm]':>10}{'|v| [m/s]':>12}{'dir [°]':>9}"
              f"{'|a| [m/s²]':>13}{'dir [°]':>9}"]
@@ -96,28 +103,64 @@ def advantage_sentence(advantage: dict) -> str:
                "the output never locks in the cycle"))
 
 
+@dataclass(frozen=True)
+class Placing:
+    """How a cycle's tables place a value: by driver angle, or by a cylinder's length.
+
+    Attributes
+    ----------
+    suffix : the end of the table's keys ("deg" or "length_m").
+    unit : the unit people read ("°" or "mm").
+    """
+
+    suffix: str
+    unit: str
+
+    def text(self, value: float, digits: int = 1) -> str:
+        """``value`` (degrees, or metres of length) as people read it, with ``digits`` decimals."""
+        if self.suffix == "length_m":
+            return f"{value * 1000:.{digits}f}"
+        return f"{turn(value, digits):.{digits}f}"
+
+    def at(self, value: float, digits: int = 1) -> str:
+        """"at 47.4°" or "at length 580.0 mm"."""
+        if self.suffix == "length_m":
+            return f"at length {self.text(value, digits)} mm"
+        return f"at {self.text(value, digits)}°"
+
+
+def placing(table: dict) -> Placing:
+    """The placing of a peaks or checks table (its ``parameter``)."""
+    return Placing("length_m", "mm") if table.get("parameter") == "length" else Placing("deg", "°")
+
+
 def peaks_text(table: dict) -> str:
     """The peaks table of :func:`kinematics.cycle.peaks.peaks`, for people."""
-    lines = [f"{'point':<8}{'max |v| [m/s]':>15}{'at [°]':>9}{'max |a| [m/s²]':>16}{'at [°]':>9}"]
+    place = placing(table)
+    at, key = f"at [{place.unit}]", f"at_{place.suffix}"
+    accel_key = f"acceleration_{key}"
+    lines = [f"{'point':<8}{'max |v| [m/s]':>15}{at:>9}{'max |a| [m/s²]':>16}{at:>9}"]
     for name, p in table["points"].items():
-        lines.append(f"{name:<8}{p['max_speed']:>15.4f}{turn(p['at_deg'], 1):>9.1f}{p['max_acceleration']:>16.4f}"
-                     f"{turn(p['acceleration_at_deg'], 1):>9.1f}")
-    lines += ["", f"{'link':<12}{'max |ω| [rad/s]':>17}{'at [°]':>9}{'max |α| [rad/s²]':>18}{'at [°]':>9}"]
+        lines.append(f"{name:<8}{p['max_speed']:>15.4f}{place.text(p[key]):>9}{p['max_acceleration']:>16.4f}"
+                     f"{place.text(p[accel_key]):>9}")
+    lines += ["", f"{'link':<12}{'max |ω| [rad/s]':>17}{at:>9}{'max |α| [rad/s²]':>18}{at:>9}"]
     for name, p in table["links"].items():
-        lines.append(f"{name:<12}{p['max_angular_velocity']:>17.4f}{turn(p['at_deg'], 1):>9.1f}"
-                     f"{p['max_angular_acceleration']:>18.4f}{turn(p['acceleration_at_deg'], 1):>9.1f}")
+        lines.append(f"{name:<12}{p['max_angular_velocity']:>17.4f}{place.text(p[key]):>9}"
+                     f"{p['max_angular_acceleration']:>18.4f}{place.text(p[accel_key]):>9}")
     if table["slides"]:
-        lines += ["", f"{'slide':<12}{'max |v| [m/s]':>15}{'at [°]':>9}{'max |a| [m/s²]':>16}{'at [°]':>9}"]
+        lines += ["", f"{'slide':<12}{'max |v| [m/s]':>15}{at:>9}{'max |a| [m/s²]':>16}{at:>9}"]
         for name, p in table["slides"].items():
-            lines.append(f"{name:<12}{p['max_sliding_velocity']:>15.4f}{turn(p['at_deg'], 1):>9.1f}"
-                         f"{p['max_sliding_acceleration']:>16.4f}{turn(p['acceleration_at_deg'], 1):>9.1f}")
-    for key, t in table["transmission"].items():
-        lines.append(f"transmission angle {key}: minimum {t['min_deg']:.2f}° at {turn(t['at_deg'], 1):.1f}°, "
+            lines.append(f"{name:<12}{p['max_sliding_velocity']:>15.4f}{place.text(p[key]):>9}"
+                         f"{p['max_sliding_acceleration']:>16.4f}{place.text(p[accel_key]):>9}")
+    for name, t in table["transmission"].items():
+        lines.append(f"transmission angle {name}: minimum {t['min_deg']:.2f}° {place.at(t[key])}, "
                      f"largest deviation from 90° {t['largest_deviation_from_90_deg']:.2f}°")
     out = table.get("output")
     if out:
+        reversals = ", ".join(place.text(a, 2) + place.unit.replace("mm", " mm")
+                              for a in out[f"rate_reversals_{place.suffix}"]) or "none (it moves one way)"
         lines.append(f"output {out['output']}: travel {out['travel']:.4g} {out['unit']}; limit positions at "
-                     + ", ".join(f"{turn(a, 2):.2f}°" for a in out["rate_reversals_deg"]))
+                     + reversals)
         if "time_ratio" in out:
             lines.append(f"time ratio {out['time_ratio']:.4f} (slow stroke: {out['slow_stroke']})")
     ratio = table.get("velocity_ratio")
@@ -126,7 +169,13 @@ def peaks_text(table: dict) -> str:
                      f"{ratio['unit']}")
     if table.get("mechanical_advantage"):
         lines.append(advantage_sentence(table["mechanical_advantage"]))
-    if not table["full_turn"]:
+    if "stroke_m" in table:
+        low, high = table["stroke_m"]
+        trimmed = table["dead_point_share_left_out"]
+        lines.append(f"the cylinder strokes from {low * 1000:.1f} to {high * 1000:.1f} mm" + (
+            f"; the peaks leave out {100 * trimmed:g} % of that range at each end, where the linkage's reach ends "
+            "the stroke and speeds grow without bound" if trimmed else ""))
+    elif not table["full_turn"]:
         low, high = table["range_deg"]
         lines.append(f"the driver rocks between its dead points {low:.3f}° and {high:.3f}°; the peaks leave out "
                      f"{100 * table['dead_point_share_left_out']:g} % of that range at each end, where speeds grow "

@@ -4,9 +4,11 @@ transmission angle with its limit, then the peaks tables."""
 
 from __future__ import annotations
 
+from dataclasses import replace
+
 import numpy as np
 
-from ..cycle.measures import output_coordinate, transmission_angles
+from ..cycle.measures import output_coordinate, transmission_angles, within_given_stroke
 from ..cycle.peaks import DEAD_POINT_SHARE, peaks
 from ..cycle.sweep import sweep
 from ..drawing.pages import HEADING_TEXT, PITCH, Heading, Paragraph, Preformatted, body_box, paginate, paper_size
@@ -23,10 +25,26 @@ PLOT_GAP = 8.0  # mm between plots on a page
 ANGLE = "driver angle θ [°]"
 
 
+CYLINDER_LENGTH = "cylinder length L [mm]"
+
+
+def x_label(result) -> str:
+    """The cycle plots' abscissa: the driver angle, or a cylinder's length."""
+    return ANGLE if result.driver_length_m is None else CYLINDER_LENGTH
+
+
 def abscissa(result):
     """(driver angles as plotted, order of the poses, fixed x range): a full turn wrapped to
     [0°, 360°) and read from 0°, a rocking driver's range in increasing angle less its outer
     DEAD_POINT_SHARE at each end, where speeds grow without bound (as the peaks leave it out)."""
+    if result.driver_length_m is not None:
+        # A cylinder's stroke in mm; its ends are dead points only where the linkage's reach ends it.
+        lengths = np.asarray(result.driver_length_m, dtype=float) * 1e3
+        order = np.argsort(lengths, kind="stable")
+        if not within_given_stroke(result):
+            trim = max(1, int(DEAD_POINT_SHARE * len(lengths)))
+            order = order[trim:-trim]
+        return lengths[order], order, (float(lengths[order[0]]), float(lengths[order[-1]]))
     angles = np.asarray(result.driver_angle_deg, dtype=float)
     if result.full_turn:
         wrapped = np.mod(angles, 360.0)
@@ -38,7 +56,10 @@ def abscissa(result):
 
 
 def analysis_marks(review: Review, result) -> tuple:
-    """The analysis angles as (driver angle in degrees, label) marks for the cycle plots."""
+    """The analysis angles as (driver angle in degrees, label) marks for the cycle plots (none
+    over a cylinder's stroke)."""
+    if result.driver_length_m is not None:
+        return ()
     marks = []
     for angle in review.angles_deg:
         if angle is not None:
@@ -126,7 +147,10 @@ def cycle_section(review: Review, progress: Progress) -> Section:
         return Section("Cycle", tuple(pages))
     x, order, x_range = abscissa(result)
     marks = analysis_marks(review, result)
-    note = "" if result.full_turn else (
+    stroke = None if result.driver_length_m is None else (float(np.min(result.driver_length_m)) * 1e3,
+                                                            float(np.max(result.driver_length_m)) * 1e3)
+    note = f"Over the stroke of cylinder {mech.driver.slide}, {stroke[0]:.1f} to {stroke[1]:.1f} mm." if stroke \
+        else "" if result.full_turn else (
         f"The driver rocks between its dead points {result.range_deg[0]:.2f}° and {result.range_deg[1]:.2f}°; "
         f"the outer {100 * DEAD_POINT_SHARE:g} % of that range at each end is left out, where speeds grow "
         "without bound.")
@@ -135,7 +159,7 @@ def cycle_section(review: Review, progress: Progress) -> Section:
               ("Links: angular velocity and acceleration", _link_plots),
               ("Transmission angle and slides", _transmission_and_slides))
     for i, (heading, make) in enumerate(groups):
-        plots = make(mech, result, x, order, x_range, marks)
+        plots = [replace(p, x_label=x_label(result)) for p in make(mech, result, x, order, x_range, marks)]
         if make is _transmission_and_slides:  # name only what the page holds
             kinds = [kind for kind, word in (("Transmission angle", "Transmission"), ("slides", "Sliding"))
                      if any(p.title.startswith(word) for p in plots)]
@@ -144,8 +168,11 @@ def cycle_section(review: Review, progress: Progress) -> Section:
             entries.append((heading, len(pages)) if start == 0 else (f"{heading} (continued)", len(pages)))
             pages.append(plot_page(review, heading, plots[start:start + 3], note))
         progress.check(0.6 + 0.3 * (i + 1) / len(groups))
-    rocking = "" if result.full_turn else (f" The driver rocks between its dead points {result.range_deg[0]:.2f}° "
-                                           f"and {result.range_deg[1]:.2f}°.")
+    if stroke:
+        rocking = f" {note}"
+    else:
+        rocking = "" if result.full_turn else (f" The driver rocks between its dead points "
+                                               f"{result.range_deg[0]:.2f}° and {result.range_deg[1]:.2f}°.")
     entries.append(("Peaks", len(pages)))
     pages += paginate([Heading("Peaks of the cycle"),
                        Paragraph(f"The largest values over the cycle in {review.steps:,} poses and the driver angles "

@@ -15,7 +15,7 @@ from ..errors import KinematicsError, SweepCancelled
 from ..reports.caution import CAUTION
 from ..reports.forces_tables import pinned_to, shown_value, summary_text
 from .base import Progress, Review, Section
-from .cycle import ANGLE, abscissa, analysis_marks, plot_page
+from .cycle import abscissa, analysis_marks, plot_page, x_label
 
 
 def _joint_curves(result, x, order) -> tuple:
@@ -44,22 +44,33 @@ def most_loaded(result) -> tuple:
 def _plots(review: Review, result) -> tuple:
     x, order, x_range = abscissa(result)
     marks = analysis_marks(review, result)
-    torque = result.drive_torque_n_m[order]
-    mean = shown_value(float(np.mean(result.drive_torque_n_m)), float(np.max(np.abs(result.drive_torque_n_m))))
-    driver = review.mechanism.driver.link
-    turning = Plot(f"Turning-moment diagram: drive torque on {driver} (CCW positive)", ANGLE, "T [N·m]",
-                   (Curve("drive torque", x, torque),), marks, ((mean, f"mean {mean:.4g} N·m"),), x_range=x_range)
-    joints = Plot("Joint force magnitudes (on the link named first, from the body named second)", ANGLE, "|F| [N]",
+    along = x_label(result)
+    if result.drive_force_n is not None:
+        # A cylinder drives by its axial force over a stroke: no turn to take a mean over.
+        turning = Plot(f"Cylinder force of {review.mechanism.driver.slide} over its stroke (push positive)", along,
+                       "F [N]", (Curve("cylinder force", x, result.drive_force_n[order]),), marks, x_range=x_range)
+    else:
+        torque = result.drive_torque_n_m[order]
+        mean = shown_value(float(np.mean(result.drive_torque_n_m)), float(np.max(np.abs(result.drive_torque_n_m))))
+        driver = review.mechanism.driver.link
+        turning = Plot(f"Turning-moment diagram: drive torque on {driver} (CCW positive)", along, "T [N·m]",
+                       (Curve("drive torque", x, torque),), marks, ((mean, f"mean {mean:.4g} N·m"),), x_range=x_range)
+    joints = Plot("Joint force magnitudes (on the link named first, from the body named second)", along, "|F| [N]",
                   _joint_curves(result, x, order), marks, x_range=x_range)
-    shaking = Plot("Shaking force (the sum of the inertia forces)", ANGLE, "|F| [N]",
+    shaking = Plot("Shaking force (the sum of the inertia forces)", along, "|F| [N]",
                    (Curve("shaking force", x, np.hypot(*result.shaking_force_n[order].T)),), marks, x_range=x_range)
     point, link, peak = most_loaded(result)
     force = result.joints_n[point][link]
     polar = Plot(f"Polar diagram of the force on {link} at {point} from {pinned_to(result.mechanism, point, link)} "
                  f"(peak {peak:.4g} N), frame axes", "Fx [N]", "Fy [N]",
-                 (Curve(f"{point} on {link}", np.append(force[order, 0], force[order[0], 0]),
-                        np.append(force[order, 1], force[order[0], 1])),), polar=True)
+                 (Curve(f"{point} on {link}", *_tip_path(force, order, result.full_turn)),), polar=True)
     return (turning, joints, shaking), polar
+
+
+def _tip_path(force, order, closed: bool) -> tuple:
+    """(x, y) of a force's tip over the cycle, closed back to its start over a whole turn only."""
+    ends = np.append(order, order[0]) if closed else order
+    return force[ends, 0], force[ends, 1]
 
 
 def forces_section(review: Review, progress: Progress) -> Section | None:
@@ -79,21 +90,28 @@ def forces_section(review: Review, progress: Progress) -> Section | None:
     progress.check(0.8)
     note = f"{FRICTIONLESS[0].upper()}{FRICTIONLESS[1:]}, at the driver's constant speed."
     curves, polar = _plots(review, result)
-    pages = [plot_page(review, "Drive torque and joint forces over the cycle", list(curves), note)]
-    entries = [("Turning-moment diagram and joint forces", 0)]
+    cylinder = result.drive_force_n is not None
+    heading = "Cylinder force and joint forces over the stroke" if cylinder else \
+        "Drive torque and joint forces over the cycle"
+    pages = [plot_page(review, heading, list(curves), note)]
+    entries = [("Cylinder force and joint forces" if cylinder else "Turning-moment diagram and joint forces", 0)]
     try:
         words = summary_text(drive_summary(result, DEFAULT_FLUCTUATION), result)
     except KinematicsError as err:
         words = f"No drive summary: {err}."
-    entries.append(("Drive, flywheel and bearings", len(pages)))
-    pages += paginate([Heading("Drive, flywheel and bearings"),
-                       Paragraph(f"As kinepoly forces --cycle prints them, for a coefficient of speed fluctuation "
-                                 f"C_s = {DEFAULT_FLUCTUATION:g}: mean and RMS drive torque over the turn, the energy "
-                                 "fluctuation ΔE of the turning-moment diagram (largest less smallest of "
-                                 "∫(T − T_mean) dθ) and the flywheel I = ΔE/(C_s·ω²)."),
+    title = "Drive and bearings" if cylinder else "Drive, flywheel and bearings"
+    entries.append((title, len(pages)))
+    explained = ("As kinepoly forces --cycle prints them: the cylinder's peak push and pull and the lengths where "
+                 "they occur, the work ∫F dL over the stroke and the mean and peak power F·L̇.") if cylinder else (
+        f"As kinepoly forces --cycle prints them, for a coefficient of speed fluctuation "
+        f"C_s = {DEFAULT_FLUCTUATION:g}: mean and RMS drive torque over the turn, the energy "
+        "fluctuation ΔE of the turning-moment diagram (largest less smallest of "
+        "∫(T − T_mean) dθ) and the flywheel I = ΔE/(C_s·ω²).")
+    pages += paginate([Heading(title), Paragraph(explained),
                        Preformatted(tuple(words.splitlines())), Paragraph(CAUTION)], review.paper, review.title)
     entries.append(("Polar diagram of the most loaded pin", len(pages)))
     pages.append(plot_page(review, "Polar diagram of the most loaded pin", [polar],
-                           "The tip of the force vector over one turn; the origin is the pin's centre."))
+                           "The tip of the force vector over " + ("the stroke" if cylinder else "one turn")
+                           + "; the origin is the pin's centre."))
     progress.check(1.0)
     return Section("Forces", tuple(pages), tuple(entries))

@@ -48,6 +48,8 @@ class Solution:
     sliding_velocity, sliding_acceleration, sliding_jerk : slide -> m/s, m/s², m/s³ along its line,
         positive from the line's first point towards its second, relative to the guide.
     condition : condition figure of the constraint Jacobian at this pose.
+    driver_length_m : a cylinder driver's length at this pose (m), None for a rotary driver; then
+        ``driver_angle_deg`` is the direction of the cylinder's axis.
     warnings : plain sentences (dead point, toggle, bifurcation ...).
 
     The arrays are read-only and the dictionaries read-only mappings: a Solution is a value.
@@ -69,6 +71,7 @@ class Solution:
     sliding_jerk: dict
     condition: float
     warnings: tuple = ()
+    driver_length_m: float | None = None
 
     def __post_init__(self):
         frozen_fields(self)

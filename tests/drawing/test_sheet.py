@@ -174,3 +174,16 @@ def test_drawing_never_imports_qt():
 def test_unknown_paper_is_refused_by_name():
     with pytest.raises(ValueError, match="B5"):
         draw_sheet(construction(GATE_LIFTER), paper="B5")
+
+
+def test_a_cylinders_rod_runs_from_the_barrels_end_to_the_rod_end():
+    """The crate tipping table at 800 mm: the rod stands 800 − |CF| mm out of the barrel, drawn from F
+    to B at the sheet's scale (placement is exact arithmetic: 1e-9 mm)."""
+    mech = kinematics.load_mechanism(SAMPLES / "crate-tipping-table.json")
+    solution = kinematics.solve(mech, length=0.8)
+    sheet = draw_sheet(kinematics.construct(solution), file_name="x.json", date="2026-01-01")
+    view = sheet.views["space"]
+    rods = [p for p in sheet.of_view("space") if p.ref == Ref("slide", "cylinder") and isinstance(p, Line)]
+    assert len(rods) == 1
+    assert math.dist(rods[0].start, view.place(solution.position("F"))) < 1e-9
+    assert math.dist(rods[0].end, view.place(solution.position("B"))) < 1e-9

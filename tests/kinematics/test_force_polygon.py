@@ -39,6 +39,7 @@ from tests.designs import (
     load,
     slider_crank,
     slotted_lever,
+    solve_at,
 )
 from tests.masses import steel
 
@@ -53,13 +54,18 @@ def _massive(mech):
 
 
 def _made(mech, angle):
-    solution = kinematics.solve(mech, angle)
+    solution = solve_at(mech, angle)
     return force_polygon(kinematics.construct(solution)), solution
 
 
 @pytest.mark.parametrize("path", SAMPLE_FILES, ids=lambda p: p.stem)
 def test_every_sample_agrees_with_the_numeric_forces(path):
     mech = _massive(kinematics.load_mechanism(path))
+    if mech.driver.is_actuator:
+        # The force polygon of a cylinder-driven design is not drawn yet: refused in words, naming it.
+        with pytest.raises(kinematics.KinematicsError, match="force polygon of a cylinder-driven design"):
+            _made(mech, None)
+        return
     for angle in (None, 17.0, 133.0, 251.0):
         try:
             made, _ = _made(mech, angle)

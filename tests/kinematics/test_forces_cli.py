@@ -161,5 +161,5 @@ def test_the_verb_is_listed_and_runs_as_a_program():
     from app.cli import USAGE, VERBS
 
     assert "forces" in VERBS
-    assert "kinepoly forces FILE [--angle DEG] [--json]" in USAGE
+    assert "kinepoly forces FILE [--angle DEG | --length MM] [--json]" in USAGE
     assert "kinepoly forces FILE --cycle [--fluctuation 0.02] [--steps N] [--json]" in USAGE

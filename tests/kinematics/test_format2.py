@@ -182,14 +182,15 @@ def test_a_move_that_would_carry_a_centre_past_the_format_limit_is_refused():
 
 
 def test_the_documented_examples_load():
-    """Every JSON example of docs/file-format.md loads; the format-2 one gives its mass data."""
+    """Every JSON example of docs/file-format.md loads; the cylinder one its driver, the mass one its mass data."""
     from pathlib import Path
 
     text = (Path(__file__).resolve().parents[2] / "docs" / "file-format.md").read_text()
     examples = [json.loads(block.split("```", 1)[0]) for block in text.split("```json\n")[1:]]
-    assert [doc["kinepoly"] for doc in examples] == [1, 2]
+    assert [doc["kinepoly"] for doc in examples] == [1, 2, 2]
     for doc in examples:
         kinematics.load_mechanism(doc)
-    data = kinematics.load_mechanism(examples[1]).mass_data
+    assert kinematics.load_mechanism(examples[1]).driver.stroke_max == 1060
+    data = kinematics.load_mechanism(examples[2]).mass_data
     assert data.loads["pressing"].over_deg == (280, 350) and data.masses["rod"].inertia_unit == "kg*mm^2"
 

@@ -8,7 +8,7 @@ import pytest
 
 import kinematics
 from kinematics import KinematicsError, rename_link, rename_point
-from tests.designs import SAMPLE_FILES, SAMPLES
+from tests.designs import SAMPLE_FILES, SAMPLES, solve_at
 
 
 def sample(name):
@@ -146,7 +146,7 @@ def test_a_renamed_design_solves_to_the_same_numbers(path):
     original = kinematics.load_mechanism(path)
     renamed, points, links = rename_everything(original)
     for angle in (None, 37.0, 211.5):
-        before, after = kinematics.solve(original, angle), kinematics.solve(renamed, angle)
+        before, after = solve_at(original, angle), solve_at(renamed, angle)
         assert after.point_names == tuple(points[n] for n in before.point_names)
         assert after.driver_angle_deg == before.driver_angle_deg
         for field in ("positions", "velocities", "accelerations"):

@@ -56,8 +56,8 @@ def test_a_non_finite_result_is_refused_rather_than_written(tmp_path, monkeypatc
     path.write_text(json.dumps(CLAW_FEED), encoding="utf-8")
     real = kinematics.solve
 
-    def spoiled(mechanism, angle_deg=None):
-        solution = real(mechanism, angle_deg)  # frozen: spoil a copy
+    def spoiled(mechanism, angle_deg=None, length=None):
+        solution = real(mechanism, angle_deg, length=length)  # frozen: spoil a copy
         velocities = solution.velocities.copy()
         velocities[1, 0] = np.inf
         return dataclasses.replace(solution, angular_velocity={**solution.angular_velocity, "coupler": math.nan},

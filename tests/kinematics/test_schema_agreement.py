@@ -179,12 +179,18 @@ MASS_KEYS = ("masses", "point_masses", "loads", "gravity")
 @pytest.mark.parametrize("version", sorted(SCHEMA_FILES))
 def test_schema_table_and_unit_tables_agree(version):
     assert sorted(SCHEMA_FILES) == list(range(1, FORMAT_VERSION + 1)), "versions numbered from 1 without gaps"
-    top = schema(version)["properties"]
-    driver = top["driver"]["properties"]
+    top, defs = schema(version)["properties"], schema(version).get("$defs", {})
+    # Format 2 chooses the driver's form by its kind: the rotary driver is one of its definitions.
+    driver = (top["driver"] if "properties" in top["driver"] else defs["rotary_driver"])["properties"]
     assert top["length_unit"]["enum"] == list(units.METRES_PER_LENGTH_UNIT)
     assert driver["speed"]["allOf"][1]["properties"]["unit"]["enum"] == list(units.RAD_S_PER_SPEED_UNIT)
     assert (driver["angular_acceleration"]["allOf"][1]["properties"]["unit"]["enum"]
             == list(units.RAD_S2_PER_ACCELERATION_UNIT))
+    if "actuator_driver" in defs:
+        cylinder = defs["actuator_driver"]["properties"]
+        assert cylinder["speed"]["allOf"][1]["properties"]["unit"]["enum"] == list(units.M_S_PER_LINEAR_SPEED_UNIT)
+        assert (cylinder["acceleration"]["allOf"][1]["properties"]["unit"]["enum"]
+                == list(units.M_S2_PER_LINEAR_ACCELERATION_UNIT))
 
 
 def test_format_2_units_are_the_unit_tables():
@@ -199,14 +205,19 @@ def test_format_2_units_are_the_unit_tables():
 
 
 def test_format_2_is_format_1_with_the_mass_keys():
-    """Everything but the version number and the mass data is format 1's, rule for rule (the driver
-    included: a cylinder driver is for a later change)."""
-    one, two = schema(1), copy.deepcopy(schema(2))
+    """Everything but the version number, the mass data and the cylinder driver is format 1's, rule for
+    rule; format 2's rotary driver is format 1's driver with its kind given as "rotary"."""
+    one, two = copy.deepcopy(schema(1)), copy.deepcopy(schema(2))
     assert two["properties"].pop("kinepoly") == {"type": "integer", "const": 2}
     for key in MASS_KEYS:
         two["properties"].pop(key)
-    for key in ("bounded", "magnitude", "vector", "position", "mass"):
+    for key in ("bounded", "magnitude", "vector", "position", "mass", "actuator_driver", "stroke_length"):
         two["$defs"].pop(key)
+    rotary = two["$defs"].pop("rotary_driver")
+    first = one["properties"].pop("driver")
+    two["properties"].pop("driver")
+    assert rotary["required"] == first["required"] and rotary["properties"].keys() == first["properties"].keys()
+    assert all(rotary["properties"][k] == v for k, v in first["properties"].items() if k != "kind")
     assert {k: v for k, v in two["properties"].items()} == {k: v for k, v in one["properties"].items()
                                                             if k != "kinepoly"}
     assert two["$defs"] == one["$defs"]

@@ -1,0 +1,102 @@
+"""A cylinder-driven design in the window: the forces at the pose name the cylinder's axial force."""
+
+import json
+import math
+from pathlib import Path
+
+import pytest
+from PySide6.QtCore import Qt
+
+import kinematics
+from tests.designs import CLAW_FEED
+
+TABLE = Path(__file__).resolve().parents[2] / "samples" / "crate-tipping-table.json"
+
+
+def test_the_forces_pane_gives_the_cylinder_force_not_a_torque(make_window):
+    window = make_window(CLAW_FEED)
+    assert window.open_path(str(TABLE))
+    model = window.forces_table.model
+    titles = [model.item(r, 0).text() for r in range(model.rowCount())]
+    assert "drive force of cylinder cylinder" in titles
+    assert not any(t.startswith("drive torque") for t in titles)
+    row = titles.index("drive force of cylinder cylinder")
+    shown = model.item(row, 1).data(Qt.ItemDataRole.UserRole)
+    # The core's force at the pose on screen (the window reads it, never recomputes it).
+    found = kinematics.dynamics.forces(window.document.solution)
+    assert shown == pytest.approx(found.drive_force_n, rel=1e-12)
+    assert model.item(row, 2).text() == "push"
+
+
+def _open_table(make_window):
+    window = make_window(CLAW_FEED)
+    assert window.open_path(str(TABLE))
+    return window
+
+
+def test_the_driver_control_is_the_cylinders_length_over_its_stroke(make_window, qtbot):
+    window = _open_table(make_window)
+    control = window.angle
+    assert control.caption.text() == "cylinder length" and control.spin.suffix() == " mm"
+    # The sample's stroke, 580 to 1060 mm, assembles throughout: the control spans it.
+    assert (control.spin.minimum(), control.spin.maximum()) == (580.0, 1060.0)
+    assert control.spin.value() == pytest.approx(800.0, abs=0.05)
+    control.spin.selectAll()
+    qtbot.keyClicks(control.spin, "700")
+    qtbot.keyClick(control.spin, Qt.Key.Key_Return)
+    assert window.document.solution.driver_length_m == pytest.approx(0.7, rel=1e-12)
+    # The slider's End key runs the cylinder out to the stroke's far end.
+    control.slider.setFocus()
+    qtbot.keyClick(control.slider, Qt.Key.Key_End)
+    assert window.document.solution.driver_length_m == pytest.approx(1.060, rel=1e-12)
+    assert "cylinder cylinder at length 1060.0 mm" in window.status.text()
+
+
+def test_play_runs_the_cylinder_to_the_end_of_its_stroke_and_back(make_window, qtbot):
+    window = _open_table(make_window)
+    control = window.angle
+    qtbot.mouseClick(control.play, Qt.MouseButton.LeftButton)
+    for _ in range(200):  # more frames than one run over the stroke
+        control.advance()
+    control.stop()
+    lengths_mm = window.document.solution.driver_length_m * 1e3
+    assert 580.0 <= lengths_mm <= 1060.0 and control.direction == -1.0
+
+
+def test_the_cycle_plots_a_stroke_against_the_cylinders_length(make_window, qtbot):
+    window = _open_table(make_window)
+    window.document.catch_up_sweep() if hasattr(window.document, "catch_up_sweep") else None
+    qtbot.waitUntil(lambda: window.document.sweep is not None)
+    axis = window.cycle.axis if window.cycle is not None and window.cycle.axis is not None else None
+    from app import cycle_series
+
+    axis = axis or cycle_series.cycle_axis(window.document.sweep)
+    assert (axis.kind, axis.unit) == ("length", "mm")
+    # The stroke's ends are swept exactly (the sample's whole stroke assembles).
+    assert axis.span == pytest.approx((580.0, 1060.0), rel=1e-12)
+    assert axis.x_of_angle(window.document.shown_angle_deg) == pytest.approx(800.0, abs=1.0)
+
+
+def test_the_driver_tool_makes_a_slide_a_cylinder_by_its_pivot_and_rod_end(make_window, qtbot):
+    """The sample with its barrel turned by a crank instead; the Driver tool, clicked on C (the
+    barrel's pivot) and B (the slide's joint), makes the slide the cylinder again; undo goes back."""
+    from dataclasses import replace
+
+    from kinematics import Driver
+    from tests.app.test_building import click_joint
+
+    cylinder = kinematics.load_mechanism(TABLE)
+    turned = replace(cylinder, driver=Driver("barrel", "C", 2.0, "rpm"))
+    window = make_window(json.loads(kinematics.dumps(turned)))
+    assert not window.document.mechanism.driver.is_actuator
+    window.use_tool("driver")
+    click_joint(window, "C")
+    click_joint(window, "B")
+    driver = window.document.mechanism.driver
+    assert driver.is_actuator and driver.slide == "cylinder" and driver.pivot == "C"
+    assert window.angle.caption.text() == "cylinder length"
+    # The pose keeps the drawn length, |CB| of the file (mm).
+    assert window.angle.spin.value() == pytest.approx(math.dist(cylinder.points["C"], cylinder.points["B"]), abs=0.05)
+    window.document.undo_stack.undo()
+    assert not window.document.mechanism.driver.is_actuator
+    assert window.angle.caption.text() == "driver angle"
