@@ -142,17 +142,18 @@ def _frame_view(doc) -> None:
         doc.set_modelspace_vport(height=1.1 * extents.size.y, center=extents.center)
 
 
-def write_dxf(construction, path, file_name: str = "", date: str | None = None):
+def write_dxf(construction, path, file_name: str = "", date: str | None = None, forces=None):
     """Write the model drawing of ``construction`` to ``path`` as DXF.
 
     The space diagram is at true size in millimetres with the mechanism
     file's origin; the velocity and acceleration polygons stand to its right
-    at the scales their scale bars state. The file is written beside the
+    at the scales their scale bars state; ``forces`` (a ForcePolygon of the same pose), if given,
+    stands beyond them on its own FORCE-… layers. The file is written beside the
     target and moved into place, so a failure leaves no partial file.
     Returns the Sheet written. Raises
     :class:`kinematics.files.storage.StorageError` when it cannot be written.
     """
-    sheet = draw_model(construction, file_name=file_name, date=date)
+    sheet = draw_model(construction, file_name=file_name, date=date, forces=forces)
     doc = new_document()
     replay(sheet, doc)
     _frame_view(doc)
