@@ -47,6 +47,7 @@ class SpaceScene(QGraphicsScene):
         self.setItemIndexMethod(QGraphicsScene.ItemIndexMethod.NoIndex)
         self.linkage = SceneBackend(self)
         self.paths = SceneBackend(self)
+        self.overlay = SceneBackend(self)  # a force's line of action, over the linkage
         self.topology = None
         self.sheet = None
         self.swept = None
@@ -72,6 +73,14 @@ class SpaceScene(QGraphicsScene):
         sheet = paths_pane(mechanism, sweep)
         self.paths.show(sheet, 1.0)
         self.motion_box = sheet.views["space"].box
+
+    def show_overlay(self, sheet, mm_per_pixel: float):
+        """Lay ``sheet`` (recorded in the space view's true-size millimetres) over the diagram
+        (None clears it)."""
+        if sheet is None:
+            self.overlay.clear()
+        else:
+            self.overlay.show(sheet, 1.0 / mm_per_pixel)
 
     def joint_pos(self, name: str) -> QPointF:
         """Scene position of joint ``name``'s pin, as drawn."""
