@@ -18,6 +18,7 @@ from .polygon_scene import PolygonScene
 from .views import LEGEND_LINE, LEGEND_TOP, PolygonView
 
 MESSAGE_WIDTH = 360.0  # pixels the message wraps at
+SIDE_ROOM = 0.15  # room each side of the force polygon for its labels, as a share of its width
 
 
 class ForceScene(PolygonScene):
@@ -30,6 +31,16 @@ class ForceScene(PolygonScene):
 
     def _record(self, polygon, solution, size, draft: bool):
         return polygon_pane(polygon, solution, size, draft, pen_of=force_pen, scale_text=scale_words(polygon))
+
+    def show(self, polygon, solution, mm_per_pixel: float, draft: bool = False):
+        super().show(polygon, solution, mm_per_pixel, draft)
+        if self.sheet is None:
+            return
+        # A force's label is long ("F(crank→rod)ᵗ"): room beside the drawing for the labels at its
+        # ends. A share of the drawing's width, not the labels' own boxes: those keep their size on
+        # screen, so a fit to them would zoom out without end.
+        side = SIDE_ROOM * self.content_rect.width()
+        self.content_rect = self.content_rect.adjusted(-side, 0.0, side, 0.0)
 
 
 class ForceView(PolygonView):
