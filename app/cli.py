@@ -235,7 +235,7 @@ def _export(args) -> int:
     from kinematics.drawing.dxf import write_dxf
 
     construction = construction_from_file(args.file, args.angle)
-    write_dxf(construction, args.output, file_name=Path(args.file).name,
+    write_dxf(construction, args.output, file_name=Path(args.file).name, with_centres=args.centres,
               forces=forces_of(construction) if args.forces else None)
     return 0
 
@@ -298,6 +298,8 @@ def parser() -> argparse.ArgumentParser:
     ex = sub.add_parser("export", help="the space diagram (true size, mm) and both polygons as DXF")
     _file_and_angle(ex, "the reference pose")
     ex.add_argument("-o", "--output", type=output_name, required=True, help="DXF file to write")
+    ex.add_argument("--centres", action="store_true", help="the instantaneous centres over the space diagram "
+                    "(layer CENTRES)")
     ex.add_argument("--forces", action="store_true",
                     help="the force polygon too, on its own FORCE-… layers (needs mass data)")
     ex.set_defaults(handler=_export)
@@ -312,6 +314,7 @@ def parser() -> argparse.ArgumentParser:
     pr.add_argument("--paper", choices=sorted(PAPER), default="A4", help="ISO 216 sheet (default A4)")
     pr.add_argument("--landscape", action="store_true", help="landscape instead of portrait")
     pr.add_argument("-o", "--output", type=output_name, required=True, help="PDF file to write")
+    pr.add_argument("--centres", action="store_true", help="the instantaneous centres over the space diagram")
     pr.add_argument("--forces", action="store_true",
                     help="a second sheet with the force polygon and the forces it finds (needs mass data)")
     pr.set_defaults(handler=_with_qt("app.printing"))
@@ -338,8 +341,8 @@ USAGE = """usage: kinepoly [FILE]                 open the drafting window (on F
        kinepoly forces FILE [--angle DEG] [--json]
        kinepoly forces FILE --cycle [--fluctuation 0.02] [--steps N] [--json]
        kinepoly render FILE [--angle DEG] -o view.png [--size 1600x1000] [--forces]
-       kinepoly print FILE [--angle DEG] [--paper A3] [--landscape] [--forces] -o sheet.pdf
-       kinepoly export FILE [--angle DEG] [--forces] -o drawing.dxf
+       kinepoly print FILE [--angle DEG] [--paper A3] [--landscape] [--centres] [--forces] -o sheet.pdf
+       kinepoly export FILE [--angle DEG] [--centres] [--forces] -o drawing.dxf
        kinepoly report FILE [-o review.pdf] [--paper A4|A3] [--steps N] [--angles 30,150,...]
 Each command takes --help. Exit codes: 0 ok, 1 output not written, 2 bad file or findings,
 3 cannot assemble at that angle."""

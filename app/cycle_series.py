@@ -14,6 +14,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
+from kinematics.cycle.advantage import advantage_over_cycle
 from kinematics.model.mechanism import GROUND
 
 from .display_units import LENGTH_SYSTEMS, angular_speed
@@ -25,7 +26,14 @@ FAMILIES = {
     "angular velocity": "ω",
     "angular acceleration": "α",
 }
-_FORMS = {"magnitude": "|{}|", "x": "{}ₓ", "y": "{}ᵧ", "rate": "{}", "sliding": "{}"}
+# The output's mechanical advantage (kinematics.cycle.advantage): its unit follows the output, a
+# link's torque or a point's force per unit driver torque, so each is a family of its own.
+ADVANTAGE_UNITS = {"mechanical advantage": "N·m/N·m", "mechanical advantage (force)": "N/(N·m)"}
+FAMILIES |= dict.fromkeys(ADVANTAGE_UNITS, "MA")
+# Towards a toggle the advantage grows without bound: the plot holds it to this many times its least
+# value, so the rest of the cycle stays readable (the peaks table gives the angles where it locks).
+ADVANTAGE_SHOWN_UP_TO = 20.0
+_FORMS = {"magnitude": "|{}|", "x": "{}ₓ", "y": "{}ᵧ", "rate": "{}", "sliding": "{}", "output": "{}"}
 # A subscript s, not a dot over s: the double dot (combining U+0308) is lost in common fonts.
 _SLIDING_SYMBOLS = {"velocity": "vₛ", "acceleration": "aₛ"}
 
@@ -64,6 +72,9 @@ class Quantity:
             return f"sliding {self.family} of slide {self.subject}, along its guide"
         if self.form == "rate":
             return f"{self.family} {self.symbol} of link {self.subject} (counter-clockwise positive)"
+        if self.form == "output":
+            return (f"mechanical advantage of the output {self.subject} against the driver, held to "
+                    f"{ADVANTAGE_SHOWN_UP_TO:g} times its least value near a toggle")
         what = "magnitude" if self.form == "magnitude" else f"{self.form} component"
         return f"{what} of the {self.family} of point {self.subject}"
 
@@ -79,6 +90,10 @@ def available(mechanism) -> list[Quantity]:
         found += [Quantity("angular velocity", "rate", link), Quantity("angular acceleration", "rate", link)]
     for slide in mechanism.slides:
         found += [Quantity("velocity", "sliding", slide), Quantity("acceleration", "sliding", slide)]
+    output = mechanism.output or {}
+    if output and mechanism.driver.speed_rad_s != 0.0:
+        family = "mechanical advantage" if "link" in output else "mechanical advantage (force)"
+        found.append(Quantity(family, "output", output.get("link") or output["point"]))
     return found
 
 
@@ -95,7 +110,12 @@ def default_choice(mechanism) -> list[Quantity]:
 
 
 def si_values(sweep, quantity: Quantity) -> np.ndarray:
-    """The (N,) series in SI (m/s, m/s², rad/s, rad/s²), in the order the sweep holds it."""
+    """The (N,) series in SI (m/s, m/s², rad/s, rad/s², N·m/N·m, N/(N·m)), in the order the sweep
+    holds it."""
+    if quantity.form == "output":
+        found = advantage_over_cycle(sweep)
+        cap = ADVANTAGE_SHOWN_UP_TO * found.least_advantage
+        return np.clip(found.mechanical_advantage, -cap, cap)
     if quantity.form == "rate":
         table = sweep.angular_velocity if quantity.family == "angular velocity" else sweep.angular_acceleration
         return table[quantity.subject]
@@ -119,7 +139,7 @@ class Units:
     def unit(self, family: str) -> str:
         length = LENGTH_SYSTEMS[self.length]
         return {"velocity": length.velocity_unit, "acceleration": length.acceleration_unit,
-                "angular velocity": self.speed, "angular acceleration": "rad/s²"}[family]
+                "angular velocity": self.speed, "angular acceleration": "rad/s²", **ADVANTAGE_UNITS}[family]
 
     def shown(self, family: str, si: np.ndarray) -> np.ndarray:
         """``si`` converted to this family's shown unit."""
@@ -260,10 +280,12 @@ def steps_text(steps: int) -> str:
 
 
 def peak_text(quantity: Quantity, values: np.ndarray, axis: CycleAxis, unit: str, clear: np.ndarray) -> str:
-    """The readout of one plotted series: its largest magnitude (with sign) and where on the axis."""
-    at = peak(values, clear)
+    """The readout of one plotted series: its largest magnitude (with sign) and where on the axis;
+    for the mechanical advantage, its least (its largest is infinite at a toggle)."""
+    least = quantity.form == "output"
+    at = int(np.flatnonzero(clear)[np.argmin(np.abs(values[clear]))]) if least else peak(values, clear)
     where = f"{axis.along[at]:.1f}°" if axis.kind == "angle" else f"{axis.along[at]:.4g} s"
-    return f"<b>{quantity.label}</b> peak {readable(values[at])} {unit} at {where}"
+    return f"<b>{quantity.label}</b> {'least' if least else 'peak'} {readable(values[at])} {unit} at {where}"
 
 
 def major_ticks(axis, low: float, high: float, pixels: float) -> list:

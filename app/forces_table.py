@@ -17,9 +17,10 @@ from PySide6.QtGui import QStandardItem, QStandardItemModel
 from PySide6.QtWidgets import QAbstractItemView, QHeaderView, QLabel, QTableView, QVBoxLayout, QWidget
 
 from kinematics.dynamics import FRICTIONLESS
-from kinematics.reports.text import NEGLIGIBLE
+from kinematics.groups.vectors import direction_deg
+from kinematics.reports.forces_tables import shown_value
 
-from .display_units import direction_deg, sense
+from .display_units import sense
 
 HEADERS = ["forces at this pose", "size", "direction"]
 
@@ -36,7 +37,7 @@ def force_rows(found) -> list:
     largest = max([math.hypot(*f) for _, _, f in joints] + [abs(float(found.drive_torque_n_m))], default=0.0)
 
     def clean(value: float) -> float:
-        return 0.0 if abs(value) < NEGLIGIBLE * largest else value
+        return shown_value(value, largest)
 
     driver = found.mechanism.driver
     torque = clean(float(found.drive_torque_n_m))

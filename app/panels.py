@@ -27,6 +27,7 @@ class DrawingsPanel(QSplitter):
         super().__init__(Qt.Orientation.Horizontal, parent)
         self.document = document
         self.draft = False
+        self.centres_shown = False
         self.space_scene = SpaceScene()
         self.velocity_scene = PolygonScene("velocity")
         self.acceleration_scene = PolygonScene("acceleration")
@@ -120,7 +121,17 @@ class DrawingsPanel(QSplitter):
 
     def _draw_space(self):
         doc = self.document
-        self.space_scene.show(doc.mechanism, doc.solution, self._mm_per_pixel(self.space_view), self.draft)
+        zoom = self._mm_per_pixel(self.space_view)
+        self.space_scene.show(doc.mechanism, doc.solution, zoom, self.draft)
+        self.space_scene.show_centres(doc.solution, doc.construction, zoom, self.centres_shown)
+
+    def show_centres(self, on: bool):
+        """Draw the instantaneous centres over the space diagram (or not), the view refitted to
+        take them in."""
+        self.centres_shown = on
+        self._draw_space()
+        if self.space_view.auto_fit:
+            self.fit_space()
 
     def _draw_polygon(self, view, fit: bool = False):
         """Draw the polygon of ``view``; ``fit`` lets the view refit it first (and draws it again for

@@ -167,7 +167,7 @@ def pdf_writer(target, title: str, paper: str, landscape: bool = False) -> QPdfW
 
 
 def print_construction(construction, printer_or_path, paper: str = "A4", landscape: bool = False,
-                       file_name: str = "", date: str | None = None, forces=None):
+                       file_name: str = "", date: str | None = None, with_centres: bool = False, forces=None):
     """Print ``construction`` at true scale.
 
     Parameters
@@ -177,6 +177,7 @@ def print_construction(construction, printer_or_path, paper: str = "A4", landsca
         full-page mode and given the paper).
     paper, landscape : ISO 216 size (A4, A3 …) and orientation.
     file_name, date : for the title block (date defaults to today).
+    with_centres : draw the instantaneous centres over the space diagram.
     forces : a :class:`kinematics.forcepolygon.ForcePolygon` of the same pose, printed on a
         second sheet (:func:`kinematics.drawing.force_sheet.draw_force_sheet`).
 
@@ -192,7 +193,8 @@ def print_construction(construction, printer_or_path, paper: str = "A4", landsca
         the target and is moved into place only when whole, so a failure
         leaves no partial file.
     """
-    sheet = draw_sheet(construction, paper=paper, landscape=landscape, file_name=file_name, date=date)
+    sheet = draw_sheet(construction, paper=paper, landscape=landscape, file_name=file_name, date=date,
+                       with_centres=with_centres)
     sheets = (sheet,)
     if forces is not None:
         sheets += (draw_force_sheet(forces, paper=paper, landscape=landscape, file_name=file_name, date=date),)
@@ -226,7 +228,8 @@ def run(args) -> int:
     def action():
         construction = construction_from_file(args.file, args.angle)
         print_construction(construction, args.output, paper=args.paper, landscape=args.landscape,
-                           file_name=Path(args.file).name, forces=forces_of(construction) if args.forces else None)
+                           file_name=Path(args.file).name, with_centres=args.centres,
+                           forces=forces_of(construction) if args.forces else None)
 
     code = run_reporting(action)
     del application

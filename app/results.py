@@ -1,7 +1,8 @@
 """The results table: every point's velocity and acceleration, every link's
 ω and α, every slide's sliding rates, and the radial, tangential and Coriolis
 components of each relative acceleration (as the acceleration polygon lays
-them), in the units the user picked.
+them), in the units the user picked; and, for a file that names its output, the
+output's velocity ratio and mechanical advantage against the driver.
 
 A table model refreshed with one ``dataChanged`` per pose (per-cell widget
 items cost several milliseconds a frame). Each numeric cell also answers
@@ -17,7 +18,9 @@ from PySide6.QtGui import QStandardItem, QStandardItemModel
 from PySide6.QtWidgets import QAbstractItemView, QHeaderView, QTableView
 
 from kinematics import acceleration_components
+from kinematics.errors import KinematicsError
 from kinematics.groups.vectors import direction_deg, negligible
+from kinematics.instantaneous.advantage import solver_advantage
 
 from .display_units import LENGTH_SYSTEMS, angular_speed, sense
 
@@ -36,7 +39,8 @@ def _angle(value: float | None) -> str:
 
 
 class ResultsModel(QStandardItemModel):
-    """Rows: points, links, slides, then acceleration components; each row five (text, value) cells.
+    """Rows: points, links, slides, acceleration components, then the output's advantage; each row
+    five (text, value) cells.
 
     The cells live in Qt's own item model so painting never calls back into
     Python; a new pose is written with signals blocked and announced with a
@@ -80,7 +84,8 @@ class ResultsModel(QStandardItemModel):
         else:
             mech = solution.mechanism
             rows = ([("point", p) for p in mech.points] + [("link", n) for n in mech.links]
-                    + [("slide", n) for n in mech.slides] + [("component", key) for key in self._components])
+                    + [("slide", n) for n in mech.slides] + [("component", key) for key in self._components]
+                    + ([("advantage", "output")] if mech.output is not None else []))
         if solution is not None:
             # Plain floats, read once: numpy scalars one at a time cost more than the formatting.
             self._v = dict(zip(solution.point_names, solution.velocities.tolist(), strict=True))
@@ -167,6 +172,17 @@ class ResultsModel(QStandardItemModel):
     def _component_cells(self, key, solution):
         part = self._components[key]
         return [(part.title, None), ("", None), ("", None), *self._vector_cells(part.vector, "a")]
+
+    def _advantage_cells(self, _key, solution):
+        # From the solver's rates, as every other row: the centres give the same within 1e-9.
+        try:
+            found = solver_advantage(solution)
+        except KinematicsError as err:
+            return [("mechanical advantage", None), ("—", None), (str(err), None), ("", None), ("", None)]
+        shown = "∞ (locks)" if found.locked else _number(found.mechanical_advantage)
+        return [(f"mechanical advantage, {found.output}", None),
+                (f"ratio {_number(found.velocity_ratio)}", found.velocity_ratio), (found.unit, None),
+                (f"MA {shown}", found.mechanical_advantage), (found.advantage_unit, None)]
 
 
 class ResultsTable(QTableView):

@@ -73,6 +73,8 @@ def _points(points) -> QPolygonF:
 def _fill(primitive) -> QBrush | None:
     """The screen's fill for a closed outline or a circle (None: none)."""
     kind = primitive.ref.kind if primitive.ref else ""
+    if kind == "centre":
+        return _brush("#000000", 0)  # an instantaneous centre's ring leaves the pin under it seen
     if isinstance(primitive, Circle):
         # An open pin is filled with white on screen so the lines meeting there stop at its rim.
         return _brush(primitive.pen.colour) if primitive.filled else _brush("#ffffff")

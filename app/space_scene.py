@@ -12,9 +12,12 @@ from __future__ import annotations
 from PySide6.QtCore import QPointF, QRectF
 from PySide6.QtWidgets import QGraphicsScene
 
+from kinematics import centres
 from kinematics.drawing import Circle, Ref
+from kinematics.drawing.centres_overlay import centres_pane
 from kinematics.drawing.panes import paths_pane, space_pane
 from kinematics.drawing.symbols import Symbols
+from kinematics.errors import KinematicsError
 
 from .scene_backend import SceneBackend
 
@@ -47,6 +50,8 @@ class SpaceScene(QGraphicsScene):
         self.setItemIndexMethod(QGraphicsScene.ItemIndexMethod.NoIndex)
         self.linkage = SceneBackend(self)
         self.paths = SceneBackend(self)
+        self.centres = SceneBackend(self)
+        self.centres_sheet = None  # the centres drawn over the linkage, None when not shown
         self.overlay = SceneBackend(self)  # a force's line of action, over the linkage
         self.topology = None
         self.sheet = None
@@ -82,6 +87,22 @@ class SpaceScene(QGraphicsScene):
         else:
             self.overlay.show(sheet, 1.0 / mm_per_pixel)
 
+    def show_centres(self, solution, construction, mm_per_pixel: float, shown: bool):
+        """Draw the instantaneous centres of ``solution`` over the linkage when ``shown`` (and
+        there is a pose), sized for a zoom of ``mm_per_pixel``; else none."""
+        found = None
+        if shown and solution is not None:
+            try:
+                found = centres(solution, construction)
+            except KinematicsError:
+                found = None  # a pose the centres cannot be found for: the linkage alone
+        if found is None:
+            self.centres.clear()
+            self.centres_sheet = None
+            return
+        self.centres_sheet = centres_pane(found, screen_symbols(mm_per_pixel))
+        self.centres.show(self.centres_sheet, 1.0 / mm_per_pixel)
+
     def joint_pos(self, name: str) -> QPointF:
         """Scene position of joint ``name``'s pin, as drawn."""
         pin = next(p for p in self.linkage.primitives_of(Ref("point", name)) if isinstance(p, Circle))
@@ -93,8 +114,10 @@ class SpaceScene(QGraphicsScene):
         if self.sheet is None or not self.sheet.primitives:
             return QRectF()
         rect = scene_rect(self.sheet.views["space"].box)
-        if self.motion_box is not None:
-            rect = rect.united(scene_rect(self.motion_box))
+        centres_box = self.centres_sheet.views["space"].box if self.centres_sheet is not None else None
+        for box in (self.motion_box, centres_box):
+            if box is not None:
+                rect = rect.united(scene_rect(box))
         pad = FIT_PAD * max(rect.width(), rect.height(), 1.0)
         return rect.adjusted(-pad, -pad, pad, pad)
 

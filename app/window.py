@@ -200,6 +200,12 @@ class MainWindow(SheetOutputs, QMainWindow):
         self.snapping.setShortcut(QKeySequence("Ctrl+G"))
         self.snapping.toggled.connect(self._snapping_changed)
         view.addAction(self.snapping)
+        self.centres_action = QAction("Instantaneous &centres", self)
+        self.centres_action.setCheckable(True)
+        self.centres_action.setShortcut(QKeySequence("Ctrl+K"))  # K for Kennedy's theorem
+        self.centres_action.setToolTip("the instantaneous centres over the space diagram, each named by its two bodies")
+        self.centres_action.toggled.connect(self.drawings.show_centres)
+        view.addAction(self.centres_action)
         helps = self.menuBar().addMenu("&Help")
         self._action(helps, "&About Kinepoly", self.about)
         self._fill_recent()

@@ -1,14 +1,10 @@
-"""The output against the driver over the cycle, and the coupler's centrodes, from a sweep.
+"""The output against the driver over the cycle, from a sweep (vectorised over its arrays).
 
-Vectorised over the sweep's arrays. The velocity ratio and mechanical advantage are those of
-:mod:`kinematics.instantaneous.advantage` at one pose; the output's rate is the one the check report
-uses (an output point's rate along its fixed slide, or along its path's principal direction).
-
-The centrodes are the paths of a link's instantaneous centre relative to the frame (the fixed
-centrode) and relative to the link itself (the moving centrode, in the link's own frame: origin
-at its first point, x along its first two points). For a link turning at ω with a point P
-moving at v_P the centre is P + perp(v_P)/ω; where it runs off towards infinity (the link
-momentarily translating) the polylines break.
+The velocity ratio and mechanical advantage are those of :mod:`kinematics.instantaneous.advantage`
+at one pose, in its units; the output's rate is the one the check report uses (an output point's
+rate along its fixed slide, or along its path's principal direction), signed, so that a toggle of
+the output (its rate through zero: the advantage infinite, the output locks against a load) shows
+as a change of sign between two swept poses.
 """
 
 from __future__ import annotations
@@ -18,18 +14,17 @@ from dataclasses import dataclass
 import numpy as np
 
 from ..errors import KinematicsError
-from ..model.mechanism import GROUND
-from .measures import output_coordinate
+from ..instantaneous.advantage import LOCKED
+from .measures import clear_of_dead_points, output_coordinate, rate_zeros
 from .sweep import Sweep
-
-# A centre farther than this many mechanism sizes from the linkage leaves the centrode's polyline.
-CENTRODE_REACH = 20.0
 
 
 @dataclass(frozen=True)
 class CycleAdvantage:
-    """Velocity ratio (rad/rad or m/rad) and mechanical advantage (its reciprocal, inf at a toggle)
-    at every swept driver angle; where the advantage is least, and where the output locks."""
+    """Velocity ratio (``unit``) and mechanical advantage (``advantage_unit``, inf where the output
+    locks) at every swept driver angle. ``least_advantage`` is the least |advantage| and
+    ``least_at_deg`` where (a rocking driver's samples next to its dead points left out, as the
+    peaks do: the advantage falls to zero there); ``locks_at_deg`` where the output locks."""
 
     output: str
     unit: str
@@ -40,6 +35,12 @@ class CycleAdvantage:
     least_advantage: float
     least_at_deg: float
     locks_at_deg: tuple
+
+    def as_dict(self) -> dict:
+        """The summary in SI for JSON (the arrays are left to the CSV)."""
+        return {"output": self.output, "unit": self.unit, "advantage_unit": self.advantage_unit,
+                "least_advantage": self.least_advantage, "least_at_deg": self.least_at_deg,
+                "locks_at_deg": list(self.locks_at_deg)}
 
 
 def advantage_over_cycle(result: Sweep) -> CycleAdvantage:
@@ -53,69 +54,19 @@ def advantage_over_cycle(result: Sweep) -> CycleAdvantage:
         raise KinematicsError("the driver's speed is zero: the sweep's rates give no velocity ratio",
                               "driver.speed")
     name, _, unit, rate, _ = found
+    angular = unit == "°"
+    scale = 1.0 if angular else mech.size * mech.metres_per_unit
     ratio = np.asarray(rate, float) / omega
+    # Rounding leaves a toggle pose a rate of a few ulps: the same threshold as at one pose.
+    ratio = np.where(np.abs(ratio) <= LOCKED * scale, 0.0, ratio)
     with np.errstate(divide="ignore"):
         advantage = np.where(ratio == 0.0, np.inf, 1.0 / np.where(ratio == 0.0, 1.0, ratio))
     angles = result.driver_angle_deg
-    least = int(np.argmax(np.abs(ratio)))
-    following = np.roll(ratio, -1)
-    crossing = np.flatnonzero(np.sign(ratio) != np.sign(following))
-    if not result.full_turn:
-        crossing = crossing[crossing < len(ratio) - 1]
-    step = np.diff(angles, append=angles[0] + (angles[1] - angles[0]) * len(angles)) if len(angles) > 1 \
-        else np.zeros(1)
-    locks = tuple(float((angles[i] + step[i] * ratio[i] / (ratio[i] - following[i])) % 360.0) for i in crossing)
-    return CycleAdvantage(output=name, unit="rad/rad" if unit == "°" else "m/rad",
-                          advantage_unit="N·m/N·m" if unit == "°" else "N/(N·m)", driver_angle_deg=angles,
+    clear = np.flatnonzero(clear_of_dead_points(result))
+    least = int(clear[np.argmax(np.abs(ratio[clear]))])
+    _, locks = rate_zeros(angles, ratio, result.full_turn)
+    return CycleAdvantage(output=name, unit="rad/rad" if angular else "m/rad",
+                          advantage_unit="N·m/N·m" if angular else "N/(N·m)", driver_angle_deg=angles,
                           velocity_ratio=ratio, mechanical_advantage=advantage,
                           least_advantage=float(abs(advantage[least])), least_at_deg=float(angles[least]),
-                          locks_at_deg=locks)
-
-
-@dataclass(frozen=True)
-class Centrodes:
-    """``fixed`` and ``moving``: tuples of (k, 2) arrays in metres, one per finite stretch."""
-
-    link: str
-    fixed: tuple
-    moving: tuple
-
-
-def coupler_of(mech) -> str:
-    """The first link (file order) with no point on the frame: a four-bar's or slider-crank's coupler."""
-    link = next((k for k, pts in mech.links.items() if not any(GROUND in mech.bodies_of(p) for p in pts)), None)
-    if link is None:
-        raise KinematicsError("every link is pivoted on the frame: there is no coupler", "links")
-    return link
-
-
-def _stretches(points: np.ndarray, finite: np.ndarray, closes: bool) -> tuple:
-    breaks = np.flatnonzero(np.diff(finite.astype(int)) != 0) + 1
-    pieces = [piece for piece, ok in zip(np.split(points, breaks), np.split(finite, breaks), strict=True) if ok[0]]
-    if closes and len(pieces) > 1 and finite[0] and finite[-1]:  # the turn's end runs on into its start
-        pieces[0] = np.concatenate([pieces.pop(), pieces[0]])
-    return tuple(piece for piece in pieces if len(piece) > 1)
-
-
-def centrodes(result: Sweep, link: str | None = None) -> Centrodes:
-    """Fixed and moving centrodes of ``link`` (the coupler by default) over the sweep."""
-    mech = result.mechanism
-    link = link or coupler_of(mech)
-    if link not in mech.links:
-        raise KinematicsError(f'unknown link "{link}"', "link")
-    first, second = (result.point_names.index(p) for p in mech.links[link][:2])
-    p = result.positions[:, first, 0] + 1j * result.positions[:, first, 1]
-    q = result.positions[:, second, 0] + 1j * result.positions[:, second, 1]
-    v = result.velocities[:, first, 0] + 1j * result.velocities[:, first, 1]
-    omega = result.angular_velocity[link]
-    size = mech.size * mech.metres_per_unit
-    reach = CENTRODE_REACH * size
-    with np.errstate(divide="ignore", invalid="ignore"):
-        centre = p + 1j * v / omega
-        finite = np.isfinite(centre) & (np.abs(centre - p) <= reach)
-        centre = np.where(finite, centre, p)
-    body = (centre - p) * np.conj((q - p) / np.abs(q - p))
-    xy = np.stack([centre.real, centre.imag], axis=-1)
-    uv = np.stack([body.real, body.imag], axis=-1)
-    closes = result.full_turn and result.closes
-    return Centrodes(link=link, fixed=_stretches(xy, finite, closes), moving=_stretches(uv, finite, closes))
+                          locks_at_deg=tuple(a % 360.0 for a in locks))

@@ -1,6 +1,7 @@
 """The checks a designer runs before trusting a layout: Grashof class of each
 four-bar loop, rotatability of slide loops, transmission angles, dead points,
-limit positions of the output, swing or stroke, and time ratio (the cycle's
+limit positions of the output, swing or stroke, time ratio, and the output's
+mechanical advantage (the cycle's
 measures are in :mod:`kinematics.cycle.measures`, its peaks in :mod:`kinematics.cycle.peaks`)."""
 
 from __future__ import annotations
@@ -28,4 +29,5 @@ def report(mech: Mechanism, steps: int = 3600) -> dict:
     except KinematicsError as err:
         return {"loops": loops, "cycle": str(err)}
     return {"loops": loops, "cycle": "", "transmission": table["transmission"], "full_turn": table["full_turn"],
-            "range_deg": table["range_deg"], "output": table["output"], "warnings": table["warnings"]}
+            "range_deg": table["range_deg"], "output": table["output"], "warnings": table["warnings"],
+            "mechanical_advantage": table.get("mechanical_advantage")}

@@ -68,6 +68,33 @@ def output_coordinate(mech: Mechanism, result: Sweep):
     return f"point {point}", (path @ u) * 1000.0, "mm", result.velocities[:, i] @ u, result.accelerations[:, i] @ u
 
 
+def rate_zeros(angles_deg: np.ndarray, rate: np.ndarray, full_turn: bool) -> tuple:
+    """Where a swept rate passes through zero: (indices of the sample at or before each zero, its
+    driver angle in degrees by linear interpolation between the two swept poses either side).
+
+    A sample exactly at zero is one zero (at its own angle), not two crossings; a full turn runs on
+    from its last sample to its first.
+
+    >>> rate_zeros(np.array([0.0, 90.0, 180.0, 270.0]), np.array([1.0, -1.0, 0.0, 1.0]), True)
+    ([0, 2], [45.0, 180.0])
+    """
+    rate = np.asarray(rate, float)
+    following = np.roll(rate, -1)
+    crossing = rate * following < 0.0
+    if not full_turn:
+        crossing[-1] = False
+    zero = rate == 0.0
+    before = np.roll(zero, 1)
+    if not full_turn:
+        before[0] = False
+    at_zero = zero & ~before  # a run of exact zeros is one zero, at its start
+    last_step = angles_deg[1] - angles_deg[0] if len(angles_deg) > 1 else 0.0
+    step = np.diff(angles_deg, append=angles_deg[0] + last_step * len(angles_deg))
+    indices = [int(i) for i in np.flatnonzero(crossing | at_zero)]
+    return indices, [float(angles_deg[i]) if at_zero[i] else
+                     float(angles_deg[i] + step[i] * rate[i] / (rate[i] - following[i])) for i in indices]
+
+
 def output_motion(mech: Mechanism, result: Sweep) -> dict | None:
     """Limit positions, swing or stroke, and time ratio of the output named in the file."""
     found = output_coordinate(mech, result)
@@ -75,13 +102,7 @@ def output_motion(mech: Mechanism, result: Sweep) -> dict | None:
         return None
     name, values, unit, rate, _ = found
     angles = result.driver_angle_deg
-    following = np.roll(rate, -1)
-    turn = np.flatnonzero(np.sign(rate) != np.sign(following))
-    if not result.full_turn:
-        turn = turn[turn < len(rate) - 1]
-    # Where the output's rate crosses zero, by linear interpolation between swept poses.
-    step = np.diff(angles, append=angles[0] + (angles[1] - angles[0]) * len(angles))
-    limits = [float(angles[i] + step[i] * rate[i] / (rate[i] - following[i])) for i in turn]
+    turn, limits = rate_zeros(angles, rate, result.full_turn)
     hi, lo = int(np.argmax(values)), int(np.argmin(values))
     motion = {"output": name, "unit": unit, "travel": float(values[hi] - values[lo]),
               "limit_positions_deg": [float(angles[lo]), float(angles[hi])],

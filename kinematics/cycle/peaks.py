@@ -6,6 +6,7 @@ from dataclasses import replace
 
 import numpy as np
 
+from .advantage import advantage_over_cycle
 from .measures import DEAD_POINT_SHARE, dead_point_trim, output_motion, transmission_angles
 from .sweep import Sweep
 
@@ -36,8 +37,9 @@ def peaks(result: Sweep) -> dict:
     ``points``: name -> max |v| (m/s), max |a| (m/s²), max |j| (m/s³) and where; ``links``: max
     |ω|, |α|, |α̇|; ``slides``: max |sliding velocity|, |sliding acceleration|;
     ``transmission``: minimum angle and where; ``output``: limit positions,
-    travel and time ratio; ``velocity_ratio``: output rate over driver speed,
-    its extremes over the cycle.
+    travel and time ratio; ``velocity_ratio``: the output's signed rate over the driver's speed,
+    its extremes over the cycle; ``mechanical_advantage``: its least value and where, and the
+    angles where the output locks (:func:`kinematics.cycle.advantage.advantage_over_cycle`).
     """
     mech = result.mechanism
     # Speeds grow without bound towards a dead point: a rocking driver's peaks leave out the
@@ -76,15 +78,11 @@ def peaks(result: Sweep) -> dict:
              "dead_point_share_left_out": DEAD_POINT_SHARE if trim else 0.0,
              "output": output_motion(mech, whole), "warnings": list(whole.warnings), "full_turn": result.full_turn,
              "range_deg": list(result.range_deg), "closes": result.closes}
-    out = mech.output
-    omega = mech.driver.speed_rad_s
-    if out is not None and omega != 0.0:
-        if "link" in out:
-            ratio, unit = result.angular_velocity[out["link"]] / omega, "rad/rad"
-        else:
-            i = result.point_names.index(out["point"])
-            ratio, unit = np.linalg.norm(result.velocities[:, i], axis=1) / abs(omega), "m/rad"
-        table["velocity_ratio"] = {"unit": unit, "min": float(ratio.min()), "max": float(ratio.max()),
+    if mech.output is not None and mech.driver.speed_rad_s != 0.0:
+        cycle = advantage_over_cycle(whole)
+        ratio = cycle.velocity_ratio[kept]
+        table["velocity_ratio"] = {"unit": cycle.unit, "min": float(ratio.min()), "max": float(ratio.max()),
                                    "min_at_deg": float(angles[int(np.argmin(ratio))]),
                                    "max_at_deg": float(angles[int(np.argmax(ratio))])}
+        table["mechanical_advantage"] = cycle.as_dict()
     return table

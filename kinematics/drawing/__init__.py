@@ -8,7 +8,7 @@ the DXF writer and the window replay. No Qt here.
 ...     "driver": {"link": "crank", "pivot": "O", "speed": {"value": 60, "unit": "rpm"}}})
 >>> sheet = draw_sheet(kinematics.construct(kinematics.solve(mech)), paper="A4")
 >>> sheet.width, sheet.height, sheet.views["space"].scale_text
-(210.0, 297.0, '1:1')
+(210.0, 297.0, '2:1')
 """
 
 from .layout import PAPER, draw_model, draw_sheet

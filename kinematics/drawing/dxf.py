@@ -1,26 +1,35 @@
 """DXF export: the model drawing (space diagram at true size in millimetres,
 both polygons beside it at round scales) replayed into an ezdxf document.
 
-One layer per pen of :mod:`kinematics.drawing.style`, with the pen's true colour,
-ISO 128 weight and line type; entities take everything BYLAYER so a CAD user
-can restyle a role at once. Units are millimetres ($INSUNITS 4, metric
+One layer per pen of :mod:`kinematics.drawing.style`, with the pen's colour
+(nearest ACI and true colour), ISO 128 weight and line type
+(:mod:`kinematics.drawing.dxf_styles`); entities take everything BYLAYER so a
+CAD user can restyle a role at once. Text is set in a TrueType style that has
+every character the drawing writes. Units are millimetres ($INSUNITS 4, metric
 $MEASUREMENT); the Standard dimension style is given millimetre settings
-rather than ezdxf's setup defaults.
+rather than ezdxf's setup defaults. The header's extents and the opening view
+cover the whole drawing, so it opens fitted.
 """
 
 from __future__ import annotations
 
 import ezdxf
-from ezdxf import bbox
+from ezdxf import bbox, zoom
+from ezdxf.colors import BYLAYER
 from ezdxf.enums import TextEntityAlignment
 
 from ..files.storage import replace_atomically
 from . import Arrow, Circle, Hatch, Line, Note, Polyline, Strokes, Text, draw_model
-from .sheet import DASHES
+from .dxf_styles import MONO_STYLE, TEXT_STYLE, add_linetypes, add_text_styles, layer, linetype_scale
 
 DXF_VERSION = "R2013"  # UTF-8 text (ω, α, ², ′) and true colour on layers
 INSUNITS_MILLIMETRES = 4
+# The opening view: the whole drawing with a twentieth to spare round it.
+FIT_MARGIN = 1.05
 APP_ID = "KINEPOLY"  # extended data naming the construction step or part an entity draws
+# The hatch pattern for ground: ANSI31, lines at 45° through the origin 1/8 in apart, which ezdxf
+# (as CAD programs do) scales by 25.4 in a metric drawing: 3.175 mm.  # common practice
+GROUND_PATTERN, GROUND_PATTERN_ANGLE_DEG, GROUND_PATTERN_SPACING_MM = "ANSI31", 45.0, 3.175
 # MTEXT's default line pitch is 5/3 of the text height (DXF reference).  # from memory
 MTEXT_PITCH = 5.0 / 3.0
 ALIGNMENTS = {
@@ -35,28 +44,6 @@ DIMENSION_MM = {"dimscale": 1.0, "dimlfac": 1.0, "dimtxt": 2.5, "dimasz": 2.5, "
                 "dimgap": 0.625, "dimdec": 2, "dimlunit": 2}
 
 
-def _linetype(doc, pen) -> str:
-    """The layer's line type: the ISO 128 pattern in mm for this pen's width."""
-    if pen.dash not in DASHES:
-        return "Continuous"
-    name = f"{pen.dash.upper()}-{round(pen.weight_mm * 100):03d}"
-    if name not in doc.linetypes:
-        lengths = [value * pen.weight_mm for value in DASHES[pen.dash]]
-        pattern = [sum(lengths)] + [v if i % 2 == 0 else -v for i, v in enumerate(lengths)]
-        doc.linetypes.add(name, pattern=pattern, description=f"ISO 128 {pen.dash}, for {pen.weight_mm} mm lines")
-    return name
-
-
-def _layer(doc, pen) -> str:
-    if pen.layer not in doc.layers:
-        layer = doc.layers.add(pen.layer)
-        layer.rgb = tuple(int(pen.colour[i:i + 2], 16) for i in (1, 3, 5))
-        layer.dxf.lineweight = round(pen.weight_mm * 100)  # DXF line weights are in 1/100 mm
-        layer.dxf.linetype = _linetype(doc, pen)
-        layer.description = pen.legend
-    return pen.layer
-
-
 def new_document():
     """An empty millimetre DXF document (no ezdxf setup defaults)."""
     doc = ezdxf.new(DXF_VERSION, units=INSUNITS_MILLIMETRES)
@@ -68,12 +55,24 @@ def new_document():
     for key, value in DIMENSION_MM.items():
         standard.set_dxf_attrib(key, value)
         doc.header[f"${key.upper()}"] = value
+    add_linetypes(doc)
+    add_text_styles(doc)
     return doc
 
 
 def _solid(msp, points, attribs):
-    hatch = msp.add_hatch(dxfattribs=attribs)
+    hatch = msp.add_hatch(color=BYLAYER, dxfattribs=attribs)
     hatch.paths.add_polyline_path([tuple(p) for p in points], is_closed=True)
+    return hatch
+
+
+def _pattern_hatch(msp, pattern, attribs):
+    """One HATCH entity for hatching strokes: the general-purpose 45° pattern turned and
+    scaled onto the strokes' :class:`~kinematics.drawing.hatching.Pattern`."""
+    hatch = msp.add_hatch(color=BYLAYER, dxfattribs=attribs)
+    hatch.set_pattern_fill(GROUND_PATTERN, color=BYLAYER, angle=pattern.angle_deg - GROUND_PATTERN_ANGLE_DEG,
+                           scale=pattern.spacing_mm / GROUND_PATTERN_SPACING_MM)
+    hatch.paths.add_polyline_path(pattern.boundary, is_closed=True)
     return hatch
 
 
@@ -100,7 +99,8 @@ def replay(sheet, doc) -> None:
     if APP_ID not in doc.appids:
         doc.appids.add(APP_ID)
     for primitive in sheet.primitives:
-        _tag(_add(msp, {"layer": _layer(doc, primitive.pen)}, primitive), primitive)
+        attribs = {"layer": layer(doc, primitive.pen), "ltscale": linetype_scale(primitive.pen)}
+        _tag(_add(msp, attribs, primitive), primitive)
 
 
 def _add(msp, attribs, primitive) -> list:
@@ -108,6 +108,8 @@ def _add(msp, attribs, primitive) -> list:
     if isinstance(primitive, Line):
         return [msp.add_line(primitive.start, primitive.end, dxfattribs=attribs)]
     if isinstance(primitive, Strokes):
+        if primitive.pattern is not None:
+            return [_pattern_hatch(msp, primitive.pattern, attribs)]
         ends = primitive.points
         return [msp.add_line(ends[i], ends[i + 1], dxfattribs=attribs) for i in range(0, len(ends) - 1, 2)]
     if isinstance(primitive, Polyline):
@@ -119,30 +121,38 @@ def _add(msp, attribs, primitive) -> list:
     if isinstance(primitive, Circle):
         entities = [msp.add_circle(primitive.centre, primitive.radius, dxfattribs=attribs)]
         if primitive.filled:
-            entities.append(msp.add_hatch(dxfattribs=attribs))
+            entities.append(msp.add_hatch(color=BYLAYER, dxfattribs=attribs))
             entities[-1].paths.add_edge_path().add_arc(primitive.centre, primitive.radius, 0.0, 360.0)
         return entities
     if isinstance(primitive, Text):
-        text = msp.add_text(primitive.text, height=primitive.height, dxfattribs=attribs)
+        style = MONO_STYLE if primitive.mono else TEXT_STYLE
+        text = msp.add_text(primitive.text, height=primitive.height, dxfattribs={**attribs, "style": style})
         text.set_placement(primitive.position, align=ALIGNMENTS[(primitive.align, primitive.anchor)])
         return [text]
     if isinstance(primitive, Note):
         return [msp.add_mtext(_mtext(primitive.lines), dxfattribs={
-            **attribs, "insert": primitive.position, "char_height": primitive.height, "attachment_point": 1,
-            "line_spacing_factor": primitive.pitch / (MTEXT_PITCH * primitive.height)})]
+            **attribs, "style": TEXT_STYLE, "insert": primitive.position, "char_height": primitive.height,
+            "attachment_point": 1, "line_spacing_factor": primitive.pitch / (MTEXT_PITCH * primitive.height)})]
     raise TypeError(f"no DXF entity for {type(primitive).__name__}")
 
 
 def _frame_view(doc) -> None:
-    """Extents in the header and the opening view on the whole drawing."""
-    extents = bbox.extents(doc.modelspace())
+    """Extents in the header and the opening view on the whole drawing.
+
+    ezdxf writes $EXTMIN/$EXTMAX from the modelspace layout's own extents at
+    save (a value put in the header is overwritten), so those are reset.
+    """
+    msp = doc.modelspace()
+    extents = bbox.extents(msp)
     if extents.has_data:
-        doc.header["$EXTMIN"] = extents.extmin
-        doc.header["$EXTMAX"] = extents.extmax
-        doc.set_modelspace_vport(height=1.1 * extents.size.y, center=extents.center)
+        msp.reset_extents(extents.extmin, extents.extmax)
+        doc.header["$LIMMIN"] = extents.extmin.vec2
+        doc.header["$LIMMAX"] = extents.extmax.vec2
+        zoom.extents(msp, factor=FIT_MARGIN)
 
 
-def write_dxf(construction, path, file_name: str = "", date: str | None = None, forces=None):
+def write_dxf(construction, path, file_name: str = "", date: str | None = None, with_centres: bool = False,
+              forces=None):
     """Write the model drawing of ``construction`` to ``path`` as DXF.
 
     The space diagram is at true size in millimetres with the mechanism
@@ -150,10 +160,11 @@ def write_dxf(construction, path, file_name: str = "", date: str | None = None, 
     at the scales their scale bars state; ``forces`` (a ForcePolygon of the same pose), if given,
     stands beyond them on its own FORCE-… layers. The file is written beside the
     target and moved into place, so a failure leaves no partial file.
+    ``with_centres`` adds the instantaneous centres on the layer CENTRES.
     Returns the Sheet written. Raises
     :class:`kinematics.files.storage.StorageError` when it cannot be written.
     """
-    sheet = draw_model(construction, file_name=file_name, date=date, forces=forces)
+    sheet = draw_model(construction, file_name=file_name, date=date, with_centres=with_centres, forces=forces)
     doc = new_document()
     replay(sheet, doc)
     _frame_view(doc)

@@ -74,10 +74,13 @@ class Table:
 
 @dataclass(frozen=True)
 class Gap:
+    """Empty room of ``mm`` between two blocks of a report page."""
+
     mm: float = 3.0
 
 
 def paper_size(paper: str) -> tuple:
+    """(width, height) in mm of an ISO 216 paper size by name ("A0" to "A4"), portrait."""
     if paper not in PAPER:
         raise ValueError(f"paper {paper!r}: choose one of {', '.join(PAPER)}")
     return PAPER[paper]

@@ -12,9 +12,12 @@ scenes) replay the primitives and compute no geometry of their own.
 from __future__ import annotations
 
 from dataclasses import dataclass, field
-from typing import NamedTuple
+from typing import TYPE_CHECKING, NamedTuple
 
 from .style import ANNOTATION, Pen
+
+if TYPE_CHECKING:  # hatching builds Strokes: a run-time import would go round in a circle
+    from .hatching import Pattern
 
 # Dash patterns of ISO 128 line types in multiples of the line width: dashed
 # (type 02: 12 dash, 3 gap), dotted (type 07 as dots 0.5, gap 3), long
@@ -28,7 +31,7 @@ FRAME = Pen(ANNOTATION.colour, 0.7, "solid", "SHEET-FRAME", "sheet frame and tit
 class Ref(NamedTuple):
     """What a primitive draws: ``kind`` is "point", "link", "slide", "step", "driver",
     "image" (a link's image figure on a polygon), "path" (a point's path over the
-    cycle) or a part of the sheet ("scale bar",
+    cycle), "centre" (an instantaneous centre, named by its pair "a|b") or a part of the sheet ("scale bar",
     "frame", "title block", "results table", "legend", "note"); ``name`` names the
     point, link, slide or step id (the view's name for a scale bar, "" for the
     sheet's own parts). A backend keeps it with what it makes, so a window leads a
@@ -41,6 +44,8 @@ class Ref(NamedTuple):
 # The primitives are named tuples, not dataclasses: a window records its views at every frame
 # of a drag, and a tuple is made in two thirds of the time of a frozen dataclass.
 class Line(NamedTuple):
+    """A straight line from ``start`` to ``end`` (sheet mm)."""
+
     start: tuple
     end: tuple
     pen: Pen
@@ -49,6 +54,8 @@ class Line(NamedTuple):
 
 
 class Polyline(NamedTuple):
+    """A polyline through ``points`` (sheet mm), ``closed`` back to its first point."""
+
     points: tuple
     pen: Pen
     closed: bool = False
@@ -58,12 +65,14 @@ class Polyline(NamedTuple):
 
 class Strokes(NamedTuple):
     """Separate straight strokes in one pen (hatching, ticks): ``points`` taken in pairs,
-    each pair one stroke."""
+    each pair one stroke. Hatching says its :class:`~kinematics.drawing.hatching.Pattern`
+    (a CAD file writes it as one hatch); a painter draws the strokes alike."""
 
     points: tuple
     pen: Pen
     view: str = ""
     ref: Ref | None = None
+    pattern: Pattern | None = None
 
 
 class Arrow(NamedTuple):
@@ -79,6 +88,8 @@ class Arrow(NamedTuple):
 
 
 class Circle(NamedTuple):
+    """A circle about ``centre`` of ``radius`` (sheet mm), outlined or ``filled``."""
+
     centre: tuple
     radius: float
     pen: Pen
@@ -170,12 +181,15 @@ class Sheet:
     title: str = ""
 
     def of_view(self, name: str) -> tuple:
+        """The primitives drawn in view ``name``."""
         return tuple(p for p in self.primitives if p.view == name)
 
     def of_step(self, step_id: str) -> tuple:
+        """The primitives that draw construction step ``step_id``."""
         return self.of_ref(Ref("step", step_id))
 
     def of_ref(self, ref: Ref) -> tuple:
+        """The primitives that draw what ``ref`` names."""
         return tuple(p for p in self.primitives if p.ref == ref)
 
 
@@ -198,11 +212,14 @@ class Recorder:
     draft: bool = False
 
     def add(self, primitive) -> None:
+        """Record one primitive."""
         self.primitives.append(primitive)
 
     def add_view(self, view: View) -> None:
+        """Record a view's frame and scale."""
         self.views[view.name] = view
 
     def sheet(self, width: float, height: float, title: str = "") -> Sheet:
+        """The recording so far as a frozen Sheet of ``width`` × ``height`` mm."""
         return Sheet(width=width, height=height, views=dict(self.views), primitives=tuple(self.primitives),
                      title=title)

@@ -12,7 +12,8 @@ import math
 from ..model.mechanism import GROUND
 from . import symbols
 from .declutter import declutter
-from .sheet import Line, Polyline, Recorder, Ref, Strokes, Text, View
+from .hatching import ground_hatch
+from .sheet import Line, Polyline, Recorder, Ref, Text, View
 from .style import ANNOTATION, SPACE_GROUND, SPACE_LINK, SPACE_PATH
 from .symbols import Symbols
 
@@ -198,13 +199,13 @@ def _draw_slide(rec: Recorder, slide, at, size: Symbols, ids) -> None:
         lo, hi = min(along) - reach, max(along) + reach
         rec.add(Line(start=(ex + lo * ux, ey + lo * uy), end=(ex + hi * ux, ey + hi * uy), pen=SPACE_GROUND, **ids))
         # Hatching on the guide's right-hand side marks it as fixed: strokes at 45° back along it.
-        pitch, stroke = 3.0 * size.pin, 2.0 * size.pin * 0.7071
-        hx, hy = stroke * (uy - ux), stroke * (-ux - uy)
-        strokes = []
-        for k in range(int((hi - lo) // pitch) + 1):
-            sx, sy = ex + (lo + k * pitch) * ux, ey + (lo + k * pitch) * uy
-            strokes += [(sx, sy), (sx + hx, sy + hy)]
-        rec.add(Strokes(points=tuple(strokes), pen=SPACE_GROUND, **ids))
+        # One band along the guide, as deep as a stroke 2 pin radii long at 45° reaches.
+        depth = 2.0 * size.pin * math.sqrt(0.5)
+        down_x, down_y = depth * uy, -depth * ux  # to the guide's right
+        band = ((ex + lo * ux, ey + lo * uy), (ex + hi * ux, ey + hi * uy),
+                (ex + hi * ux + down_x, ey + hi * uy + down_y), (ex + lo * ux + down_x, ey + lo * uy + down_y))
+        angle = math.degrees(math.atan2(-ux - uy, uy - ux))
+        rec.add(ground_hatch(band, angle, 3.0 * size.pin * math.sqrt(0.5), SPACE_GROUND, **ids))
     symbols.slider_block(rec, (dx, dy), (ux, uy), SPACE_LINK, size, **ids)
 
 

@@ -14,6 +14,8 @@ from ..groups.steps import Component, Role, Step
 
 @dataclass(frozen=True)
 class Pen:
+    """How a role is drawn: its colour, ISO 128 line weight, dash, DXF layer and legend words."""
+
     colour: str        # "#rrggbb"
     weight_mm: float   # ISO 128 line weight
     dash: str          # "solid", "dashed", "dotted", "dashdot"
@@ -33,6 +35,7 @@ IMAGE = Pen("#1e8449", 0.35, "solid", "IMAGES", "image point and label")
 NUMERIC = Pen("#b03a2e", 0.35, "dashdot", "NUMERIC-IMAGES", "image from the numeric solver (no dyad)")
 FLAGGED = Pen("#e67e22", 0.7, "dashed", "FLAGGED", "ill-conditioned intersection")
 ANNOTATION = Pen("#1d2b3a", 0.25, "solid", "NOTES", "scale bar, title, notes")
+CENTRE = Pen("#00897b", 0.35, "solid", "CENTRES", "instantaneous centre (Kennedy's theorem)")
 
 LEGEND = (KNOWN, RESULT, CORIOLIS, SLIDING, DIRECTION, IMAGE, NUMERIC, FLAGGED)
 

@@ -11,6 +11,7 @@ from __future__ import annotations
 import math
 from dataclasses import dataclass
 
+from .hatching import ground_hatch
 from .sheet import Arrow, Circle, Polyline, Recorder, Strokes, Text
 
 
@@ -27,6 +28,7 @@ class Symbols:
     arrow: float = 3.0
 
     def scaled(self, factor: float) -> Symbols:
+        """Every size multiplied by ``factor`` (a true-size drawing's enlargement)."""
         return Symbols(*(value * factor for value in (self.text, self.small_text, self.pin, self.dot, self.arrow)))
 
 
@@ -69,11 +71,9 @@ def fixed_pivot(rec: Recorder, at, pen, size: Symbols, **ids) -> None:
     triangle = ((x, y - size.pin), (x - w, base), (x + w, base))
     rec.add(Polyline(points=triangle, pen=pen, closed=True, **ids))
     mark(rec, triangle, ids.get("view", ""))
-    strokes = [(x - 1.6 * w, base), (x + 1.6 * w, base)]  # the base line, then its hatching
-    for i in range(5):
-        left = x - 1.6 * w + i * 0.8 * w
-        strokes += [(left + 0.6 * w, base), (left, base - 0.6 * w)]
-    rec.add(Strokes(points=tuple(strokes), pen=pen, **ids))
+    rec.add(Strokes(points=((x - 1.6 * w, base), (x + 1.6 * w, base)), pen=pen, **ids))  # the base line
+    band = ((x - 1.6 * w, base - 0.6 * w), (x + 1.6 * w, base - 0.6 * w), (x + 1.6 * w, base), (x - 1.6 * w, base))
+    rec.add(ground_hatch(band, 45.0, 0.8 * w * math.sqrt(0.5), pen, **ids))
 
 
 def pin(rec: Recorder, at, pen, size: Symbols, joint: bool, **ids) -> None:

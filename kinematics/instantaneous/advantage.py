@@ -55,26 +55,51 @@ def output_rate(mech, velocity_xy, point: str, positions) -> float:
     return (vx * (fx - ex) + vy * (fy - ey)) / length
 
 
+def _output(mech):
+    if mech.output is None:
+        raise KinematicsError("the file names no output: no velocity ratio or mechanical advantage", "output")
+    return mech.output
+
+
+def _advantage(mech, ratio: float, is_link: bool, name: str) -> Advantage:
+    """The Advantage of one output's velocity ratio, with the toggle read off within rounding."""
+    scale = 1.0 if is_link else mech.size * mech.metres_per_unit
+    locked = abs(ratio) <= LOCKED * scale
+    return Advantage(output=name, velocity_ratio=0.0 if locked else float(ratio),
+                     unit="rad/rad" if is_link else "m/rad",
+                     mechanical_advantage=math.inf if locked else 1.0 / float(ratio),
+                     advantage_unit="N·m/N·m" if is_link else "N/(N·m)", locked=locked)
+
+
 def advantage(centres) -> Advantage:
     """Velocity ratio and mechanical advantage of the file's output at the centres' pose."""
     solution = centres.solution
     mech = solution.mechanism
-    out = mech.output
-    if out is None:
-        raise KinematicsError("the file names no output: no velocity ratio or mechanical advantage", "output")
+    out = _output(mech)
     if "link" in out:
         link = out["link"]
         if link not in centres.angular_velocity_ratio:
             raise KinematicsError(f"the centres do not reach the output link {link}", "output.link")
-        ratio, unit, scale = centres.angular_velocity_ratio[link], "rad/rad", 1.0
-        name, advantage_unit = f"link {link}", "N·m/N·m"
-    else:
-        point = out["point"]
-        if point not in centres.velocity_ratio:
-            raise KinematicsError(f"the centres do not reach the output point {point}", "output.point")
-        ratio = output_rate(mech, centres.velocity_ratio[point], point, lambda p: tuple(solution.position(p)))
-        unit, scale, name, advantage_unit = "m/rad", mech.size * mech.metres_per_unit, f"point {point}", "N/(N·m)"
-    locked = abs(ratio) <= LOCKED * scale
-    return Advantage(output=name, velocity_ratio=0.0 if locked else float(ratio), unit=unit,
-                     mechanical_advantage=math.inf if locked else 1.0 / float(ratio),
-                     advantage_unit=advantage_unit, locked=locked)
+        return _advantage(mech, centres.angular_velocity_ratio[link], True, f"link {link}")
+    point = out["point"]
+    if point not in centres.velocity_ratio:
+        raise KinematicsError(f"the centres do not reach the output point {point}", "output.point")
+    ratio = output_rate(mech, centres.velocity_ratio[point], point, lambda p: tuple(solution.position(p)))
+    return _advantage(mech, ratio, False, f"point {point}")
+
+
+def solver_advantage(solution) -> Advantage:
+    """The same from the solver's rates (what the window's results table shows beside them, at no
+    cost per frame); the centres' figure agrees within their velocity cross-check. Needs a
+    turning driver: the solver's rates at standstill are all zero."""
+    mech = solution.mechanism
+    out = _output(mech)
+    omega = mech.driver.speed_rad_s
+    if omega == 0.0:
+        raise KinematicsError("the driver's speed is zero: the solver's rates give no velocity ratio",
+                              "driver.speed")
+    if "link" in out:
+        return _advantage(mech, solution.angular_velocity[out["link"]] / omega, True, f"link {out['link']}")
+    point = out["point"]
+    rate = output_rate(mech, tuple(solution.velocity(point)), point, lambda p: tuple(solution.position(p)))
+    return _advantage(mech, rate / omega, False, f"point {point}")

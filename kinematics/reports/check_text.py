@@ -8,7 +8,7 @@ from dataclasses import dataclass
 from ..cycle.checks import report
 from ..groups.decompose import decompose
 from ..solver.mobility import diagnose, gruebler_count, jacobian_mobility
-from .text import turn
+from .text import advantage_sentence, turn
 
 
 @dataclass(frozen=True)
@@ -22,7 +22,8 @@ class CheckSentences:
 
 def check_sentences(mech, steps: int = 3600) -> CheckSentences:
     """Mobility, construction order, Grashof class or rotatability, driver range,
-    transmission angles, the output's limit positions, travel and time ratio,
+    transmission angles, the output's limit positions, travel and time ratio, its
+    mechanical advantage,
     and the warnings, in that order. With findings, only the mobility is told.
 
     ``steps`` poses of the cycle are swept for the cycle's checks.
@@ -61,5 +62,7 @@ def check_sentences(mech, steps: int = 3600) -> CheckSentences:
             lines.append(f"time ratio {out['time_ratio']:.4f}: slow stroke {out['slow_stroke']} over "
                          f"{out['slow_stroke_driver_deg']:.2f}° of driver turn, "
                          f"fast over {out['fast_stroke_driver_deg']:.2f}°")
+    if data["mechanical_advantage"]:
+        lines.append(advantage_sentence(data["mechanical_advantage"]))
     lines += [f"warning: {warning}" for warning in data["warnings"]]
     return CheckSentences(tuple(lines), findings)

@@ -86,6 +86,16 @@ def construction_text(construction: Construction) -> str:
     return "\n".join(lines)
 
 
+def advantage_sentence(advantage: dict) -> str:
+    """The least mechanical advantage of the output and where it locks, from
+    :meth:`kinematics.cycle.advantage.CycleAdvantage.as_dict`."""
+    locks = ", ".join(f"{turn(a, 2):.2f}°" for a in advantage["locks_at_deg"])
+    return (f"mechanical advantage of {advantage['output']}: least {advantage['least_advantage']:.4g} "
+            f"{advantage['advantage_unit']} at driver angle {turn(advantage['least_at_deg'], 2):.2f}°; "
+            + (f"the output locks (toggle, infinite advantage) at {locks}" if locks else
+               "the output never locks in the cycle"))
+
+
 def peaks_text(table: dict) -> str:
     """The peaks table of :func:`kinematics.cycle.peaks.peaks`, for people."""
     lines = [f"{'point':<8}{'max |v| [m/s]':>15}{'at [°]':>9}{'max |a| [m/s²]':>16}{'at [°]':>9}"]
@@ -114,6 +124,8 @@ def peaks_text(table: dict) -> str:
     if ratio:
         lines.append(f"velocity ratio (output over driver speed) {ratio['min']:.4g} to {ratio['max']:.4g} "
                      f"{ratio['unit']}")
+    if table.get("mechanical_advantage"):
+        lines.append(advantage_sentence(table["mechanical_advantage"]))
     if not table["full_turn"]:
         low, high = table["range_deg"]
         lines.append(f"the driver rocks between its dead points {low:.3f}° and {high:.3f}°; the peaks leave out "

@@ -4,11 +4,11 @@ and the polygon following a drag and a turn of the driver."""
 
 from pathlib import Path
 
-import kinematics
 from PySide6.QtCore import QPoint, QPointF, Qt
 from PySide6.QtTest import QTest
 from PySide6.QtWidgets import QApplication
 
+import kinematics
 from kinematics.drawing import Arrow, Ref
 from tests.designs import CLAW_FEED
 
@@ -37,12 +37,17 @@ def step_id(window, label: str) -> str:
 
 
 def arrow_middle(window, sid: str) -> QPoint:
-    """Where the mouse goes to point at step ``sid``'s vector: the middle of its shaft, in the view."""
+    """Where the mouse goes to point at step ``sid``'s vector: a place along its shaft, in the
+    view, where no other step is drawn over it (vectors of a force polygon often lie along each other)."""
     view = window.drawings.force_view
     (arrow,) = [p for p in window.drawings.force_scene.drawing.primitives_of(Ref("step", sid))
                 if isinstance(p, Arrow)]
-    middle = QPointF(0.5 * (arrow.start[0] + arrow.end[0]), -0.5 * (arrow.start[1] + arrow.end[1]))
-    return view.mapFromScene(middle)
+    (x0, y0), (x1, y1) = arrow.start, arrow.end
+    for share in (0.5, 0.4, 0.6, 0.3, 0.7, 0.2, 0.8):
+        at = view.mapFromScene(QPointF(x0 + share * (x1 - x0), -(y0 + share * (y1 - y0))))
+        if view.step_at(at) == sid:
+            return at
+    raise AssertionError(f"step {sid} is covered along its whole length")
 
 
 def overlay_refs(window) -> set:

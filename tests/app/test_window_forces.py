@@ -138,7 +138,7 @@ def test_the_forces_follow_the_driver_while_the_crank_pin_is_dragged(make_window
     window = _open(make_window, CAP_PRESS)
     doc = window.document
     view = window.drawings.space_view
-    start = window.drawings.space_scene.joints["A"].dot.pos()
+    start = window.drawings.space_scene.joint_pos("A")
     QTest.mousePress(view.viewport(), Qt.MouseButton.LeftButton, Qt.KeyboardModifier.NoModifier,
                      view.mapFromScene(start))
     for step in range(1, 4):

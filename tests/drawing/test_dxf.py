@@ -215,7 +215,8 @@ def test_ezdxf_version_writes_utf8_text(tmp_path):
 
 
 def test_a_design_in_metres_exports_in_millimetres_with_readable_text(tmp_path):
-    # A 1.5 m machine given in metres: the DXF holds millimetres (1 m = 1000 mm), text grows with the drawing.
+    # A 1.5 m machine given in metres: the DXF holds millimetres (1 m = 1000 mm), the space diagram's text
+    # grows with the drawing; the polygons, drawn at a paper scale, keep paper-sized (ISO 3098 2.5 mm) text.
     big = {**SWING_LEVER, "length_unit": "m",
            "points": {n: [x * 0.01, y * 0.01] for n, (x, y) in SWING_LEVER["points"].items()}}
     write_dxf(construction(big), tmp_path / "big.dxf")
@@ -223,7 +224,12 @@ def test_a_design_in_metres_exports_in_millimetres_with_readable_text(tmp_path):
     crank = [e for e in msp.query(f"LINE[layer=='{style.SPACE_LINK.layer}']")
              if {tuple(e.dxf.start)[:2], tuple(e.dxf.end)[:2]} == {(0.0, 900.0), (400.0, 900.0)}]
     assert len(crank) == 1
-    assert min(t.dxf.height for t in msp.query("TEXT")) > 2.5
+    def view(entity):
+        return next(tag for code, tag in entity.get_xdata("KINEPOLY") if tag.startswith("view "))
+
+    texts = msp.query("TEXT")
+    assert min(t.dxf.height for t in texts if view(t) == "view space") > 2.5
+    assert {t.dxf.height for t in texts if view(t) != "view space"} == {2.5}
 
 
 @pytest.mark.parametrize("sample", SAMPLE_FILES, ids=lambda p: p.stem)

@@ -7,7 +7,8 @@ import pytest
 
 import kinematics
 from app.cli import main
-from kinematics.cycle.advantage import advantage_over_cycle, centrodes
+from kinematics.cycle.advantage import advantage_over_cycle
+from kinematics.cycle.centrodes import centrodes
 from kinematics.cycle.measures import output_motion
 from tests.designs import CARTON_PUSHER, SAMPLE_FILES, four_bar, load, slider_crank
 

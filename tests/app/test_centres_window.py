@@ -1,0 +1,87 @@
+"""The window's toggle that draws the instantaneous centres over the space diagram."""
+
+import json
+import math
+
+from PySide6.QtCore import Qt
+from PySide6.QtTest import QTest
+from PySide6.QtWidgets import QApplication
+
+import kinematics
+from kinematics.drawing import Circle, Ref, Text
+from kinematics.drawing.centre_places import centre_places
+from tests.designs import SAMPLE_FILES, four_bar
+
+SHOTS = "/work/notes/shots-centres"
+SIX_BAR = next(p for p in SAMPLE_FILES if p.name.startswith("stacker-transfer"))
+
+
+def centre_items(window):
+    return [item for item in window.drawings.space_scene.items()
+            if isinstance(item.data(0), Ref) and item.data(0).kind == "centre"]
+
+
+def test_ctrl_k_shows_the_centres_where_the_core_finds_them_and_hides_them_again(make_window):
+    window = make_window(json.loads(SIX_BAR.read_text()))
+    assert not centre_items(window)
+    QTest.keyClick(window, Qt.Key_K, Qt.ControlModifier)
+    QApplication.processEvents()
+    assert window.centres_action.isChecked()
+    scene = window.drawings.space_scene
+    found = kinematics.centres(window.document.solution, window.document.construction)
+    shown = {p.ref.name for p in scene.centres_sheet.primitives if isinstance(p, Circle)}
+    for place in centre_places(found):
+        if place.kind == "on view":  # marks of centres on one point carry the first one's name
+            x, y = 1000.0 * place.at_m[0], 1000.0 * place.at_m[1]
+            assert any(math.dist((x, y), p.centre) <= 1e-9 for p in scene.centres_sheet.primitives
+                       if isinstance(p, Circle)), place.name
+    assert shown and centre_items(window)
+    labels = " ".join(p.text for p in scene.centres_sheet.primitives if isinstance(p, Text))
+    assert "ground|arm" in labels
+    # The view takes in the centres on it (ground|arm lies well above the linkage).
+    arm = found.centre("ground", "arm").at_m
+    assert window.drawings.space_scene.drawing_rect().contains(1000.0 * arm[0], -1000.0 * arm[1])
+    window.drawings.space_view.grab().save(f"{SHOTS}/window-centres-six-bar.png")
+    QTest.keyClick(window, Qt.Key_K, Qt.ControlModifier)
+    QApplication.processEvents()
+    assert not window.centres_action.isChecked() and not centre_items(window)
+
+
+def marks(window) -> dict:
+    return {p.ref.name: p.centre for p in window.drawings.space_scene.centres_sheet.primitives
+            if isinstance(p, Circle)}
+
+
+def test_the_centres_follow_the_pose(make_window):
+    window = make_window(four_bar(40, 120, 100, 140, 30))
+    QTest.keyClick(window, Qt.Key_K, Qt.ControlModifier)
+    before = marks(window)
+    window.document.set_angle(75.0)
+    QApplication.processEvents()
+    after = marks(window)
+    assert before["crank|coupler"] != after["crank|coupler"]
+    # The coupler's centre where the crank and rocker lines meet (common practice), drawn in mm.
+    found = kinematics.centres(window.document.solution)
+    pole = next(p for p in centre_places(found) if p.name == "ground|coupler")
+    assert pole.kind == "on view"
+    x, y = pole.at_m
+    assert math.dist(after["ground|coupler"], (1000 * x, 1000 * y)) <= 1e-9  # rounding of the mm scale
+    window.drawings.space_view.grab().save(f"{SHOTS}/window-centres-four-bar.png")
+
+
+def test_far_centres_point_from_the_view_edge_outside_the_linkage(make_window):
+    # Crank and rocker nearly parallel: the coupler's pole and the crank-rocker centre lie far off
+    # (common practice); the window shows arrows at the edge, clear of the linkage's own box.
+    window = make_window(four_bar(40, 120, 41, 120, 89))
+    QTest.keyClick(window, Qt.Key_K, Qt.ControlModifier)
+    QApplication.processEvents()
+    sheet = window.drawings.space_scene.centres_sheet
+    arrows = [p for p in sheet.primitives if type(p).__name__ == "Arrow"]
+    assert len(arrows) == 2
+    xs, ys = window.document.solution.positions[:, 0] * 1000, window.document.solution.positions[:, 1] * 1000
+    for arrow in arrows:
+        x, y = arrow.end
+        assert not (xs.min() <= x <= xs.max() and ys.min() <= y <= ys.max())
+    words = " ".join(p.text for p in sheet.primitives if isinstance(p, Text))
+    assert "ground|coupler off the view at (" in words
+    window.drawings.space_view.grab().save(f"{SHOTS}/window-centres-far.png")
