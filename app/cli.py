@@ -33,7 +33,7 @@ from .arguments import (
     pose_length_m,
     review_angles,
 )
-from .outcomes import construction_from_file, run_reporting
+from .outcomes import construction_from_file, forces_of, run_reporting
 
 
 def _solution_json(solution) -> dict:
@@ -250,7 +250,8 @@ def _export(args) -> int:
     from kinematics.drawing.dxf import write_dxf
 
     construction = construction_from_file(args.file, args.angle, pose_length_m(args))
-    write_dxf(construction, args.output, file_name=Path(args.file).name, with_centres=args.centres)
+    write_dxf(construction, args.output, file_name=Path(args.file).name, with_centres=args.centres,
+              forces=forces_of(construction) if args.forces else None)
     return 0
 
 
@@ -318,11 +319,14 @@ def parser() -> argparse.ArgumentParser:
     ex.add_argument("-o", "--output", type=output_name, required=True, help="DXF file to write")
     ex.add_argument("--centres", action="store_true", help="the instantaneous centres over the space diagram "
                     "(layer CENTRES)")
+    ex.add_argument("--forces", action="store_true",
+                    help="the force polygon too, on its own FORCE-… layers (needs mass data)")
     ex.set_defaults(handler=_export)
     rd = sub.add_parser("render", help="the window's three views as a PNG, without a screen")
     _file_and_angle(rd, "the reference pose", length=False)
     rd.add_argument("-o", "--output", type=output_name, required=True, help="PNG file to write")
     rd.add_argument("--size", type=parse_size, default=(1600, 1000), help="WIDTHxHEIGHT pixels (1600x1000)")
+    rd.add_argument("--forces", action="store_true", help="the force polygon in place of the acceleration polygon")
     rd.set_defaults(handler=_with_qt("app.render"))
     pr = sub.add_parser("print", help="the construction at true scale on an ISO 216 sheet, as PDF")
     _file_and_angle(pr, "the reference pose")
@@ -330,6 +334,8 @@ def parser() -> argparse.ArgumentParser:
     pr.add_argument("--landscape", action="store_true", help="landscape instead of portrait")
     pr.add_argument("-o", "--output", type=output_name, required=True, help="PDF file to write")
     pr.add_argument("--centres", action="store_true", help="the instantaneous centres over the space diagram")
+    pr.add_argument("--forces", action="store_true",
+                    help="a second sheet with the force polygon and the forces it finds (needs mass data)")
     pr.set_defaults(handler=_with_qt("app.printing"))
     rp = sub.add_parser("report", help="the design-review report: one PDF of the whole analysis")
     rp.add_argument("file", help="mechanism file (JSON)")
@@ -353,9 +359,9 @@ USAGE = """usage: kinepoly [FILE]                 open the drafting window (on F
        kinepoly sweep FILE [--steps N] [-o cycle.csv] [--peaks] [--json] [--forces]
        kinepoly forces FILE [--angle DEG | --length MM] [--json]
        kinepoly forces FILE --cycle [--fluctuation 0.02] [--steps N] [--json]
-       kinepoly render FILE [--angle DEG] -o view.png [--size 1600x1000]
-       kinepoly print FILE [--angle DEG | --length MM] [--paper A3] [--landscape] [--centres] -o sheet.pdf
-       kinepoly export FILE [--angle DEG | --length MM] [--centres] -o drawing.dxf
+       kinepoly render FILE [--angle DEG] -o view.png [--size 1600x1000] [--forces]
+       kinepoly print FILE [--angle DEG | --length MM] [--paper A3] [--landscape] [--centres] [--forces] -o sheet.pdf
+       kinepoly export FILE [--angle DEG | --length MM] [--centres] [--forces] -o drawing.dxf
        kinepoly report FILE [-o review.pdf] [--paper A4|A3] [--steps N] [--angles 30,150,...]
 Each command takes --help. Exit codes: 0 ok, 1 output not written, 2 bad file or findings,
 3 cannot assemble at that angle or length."""

@@ -31,6 +31,25 @@ def pose_forces(solution) -> tuple:
         return None, f"No forces at this pose: {error}"
 
 
+def pose_force_polygon(construction, forces) -> tuple:
+    """``(ForcePolygon, words)`` of a constructed pose (``words`` the drive torque and the
+    cross-check), or ``(None, why)``: no construction, no mass data, parallel closing lines,
+    undetermined forces. ``forces`` are the pose's numeric forces (None: the force polygon
+    makes them for its cross-check)."""
+    if construction is None:
+        return None, "No force polygon: the design is not analysed at this pose."
+    from kinematics.forcepolygon import force_polygon
+
+    try:
+        made = force_polygon(construction, forces)
+    except NoMassData:
+        return None, "No force polygon: " + NO_MASS_DATA.removeprefix("No forces: ")
+    except KinematicsError as error:
+        return None, f"No force polygon at this pose: {error}"
+    return made, (f"drive torque T = {made.drive_torque_n_m:.4g} N·m (counter-clockwise positive); against the "
+                  f"numeric forces {made.max_relative_difference:.1e}")
+
+
 @dataclass(frozen=True)
 class CycleForces:
     """The forces over the document's sweep: ``sweep_forces`` (a ForceSweep or None), its drive

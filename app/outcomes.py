@@ -17,6 +17,14 @@ def construction_from_file(path, angle_deg=None, length_m=None):
     return construct(solve(load_mechanism(path), angle_deg, length=length_m))
 
 
+def forces_of(construction):
+    """The force polygon of ``construction``'s pose (NoMassData, ParallelLines or
+    ForcesUndetermined when it has none)."""
+    from kinematics.forcepolygon import force_polygon
+
+    return force_polygon(construction)
+
+
 def run_reporting(action) -> int:
     """Run ``action()`` and turn refusals into exit codes with a message on stderr:
     0 done, 1 output not written, 2 bad file or findings, 3 no pose or no

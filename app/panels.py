@@ -1,16 +1,19 @@
-"""The three drawings side by side: space diagram, velocity polygon,
-acceleration polygon; shared by the window and ``kinepoly render``."""
+"""The three drawings side by side: space diagram, velocity polygon, and the acceleration
+polygon or the force polygon (tabs); shared by the window and ``kinepoly render``."""
 
 from __future__ import annotations
 
 from PySide6.QtCore import QRectF, Qt
 from PySide6.QtGui import QPainter
-from PySide6.QtWidgets import QSplitter
+from PySide6.QtWidgets import QSplitter, QTabWidget
 
+from kinematics.drawing.forces import line_of_action_pane
 from kinematics.drawing.panes import BAR_ROOM
 
+from .force_scene import ForceScene, ForceView
+from .forces_data import pose_force_polygon
 from .polygon_scene import PolygonScene
-from .space_scene import PIXELS_PER_SYMBOL_MM, SCREEN_SYMBOLS, SpaceScene
+from .space_scene import PIXELS_PER_SYMBOL_MM, SCREEN_SYMBOLS, SpaceScene, screen_symbols
 from .views import PolygonView, SpaceView
 
 EMPTY_VIEW_MM = 200.0
@@ -31,15 +34,27 @@ class DrawingsPanel(QSplitter):
         self.space_view = SpaceView(self.space_scene)
         self.velocity_view = PolygonView(self.velocity_scene, "velocity polygon")
         self.acceleration_view = PolygonView(self.acceleration_scene, "acceleration polygon")
-        for view in (self.space_view, self.velocity_view, self.acceleration_view):
+        self.force_scene = ForceScene()
+        self.force_view = ForceView(self.force_scene)
+        self.force = (None, None, "")  # (the construction it is of, its ForcePolygon or None, words)
+        self.force_step = ""  # the force step clicked, whose line of action stays on the space diagram
+        self.third = QTabWidget()
+        self.third.setDocumentMode(True)
+        self.third.addTab(self.acceleration_view, "Acceleration polygon")
+        self.third.addTab(self.force_view, "Force polygon")
+        for view in (self.space_view, self.velocity_view, self.third):
             self.addWidget(view)
+        for view in (self.space_view, self.velocity_view, self.acceleration_view, self.force_view):
             view.bottom_pixels = BAR_ROOM * SCREEN_SYMBOLS.small_text * PIXELS_PER_SYMBOL_MM  # the bar's words
         self.setSizes([620, 490, 490])
+        self.third.currentChanged.connect(lambda _index: self._show_force(fit=True))
+        self.force_view.step_hovered.connect(self._force_line)
+        self.force_view.step_clicked.connect(self.select_force_step)
         self.space_view.hovered.connect(self.mark_point)
         # A zoom changes the size the symbols must be drawn at to keep their size on screen, and so
         # the room they take: a view that fits its drawing (it was resized) fits it again.
         self.space_view.rescaled.connect(self._space_rescaled)
-        for view in (self.velocity_view, self.acceleration_view):
+        for view in (self.velocity_view, self.acceleration_view, self.force_view):
             view.rescaled.connect(lambda view=view: self._draw_polygon(view, fit=view.auto_fit))
         self.refresh()
         self.fit_space()
@@ -52,9 +67,55 @@ class DrawingsPanel(QSplitter):
             self.fit_space()  # a joint or link was added or removed: keep the whole design in view
         for view in (self.velocity_view, self.acceleration_view):
             self._draw_polygon(view, fit=True)
+        self._show_force(fit=True)
+
+    # the force polygon --------------------------------------------------------
+    def showing_forces(self) -> bool:
+        return self.third.currentWidget() is self.force_view
+
+    def show_forces(self, on: bool = True):
+        """Show the force polygon (or the acceleration polygon) in the third pane."""
+        self.third.setCurrentWidget(self.force_view if on else self.acceleration_view)
+
+    def force_polygon(self):
+        """The ForcePolygon of the pose shown (None where there is none), made once per construction."""
+        construction = self.document.construction
+        if self.force[0] is not construction or construction is None:
+            self.force = (construction, *pose_force_polygon(construction, self.document.analysis.forces))
+        return self.force[1]
+
+    def _show_force(self, fit: bool = False):
+        """Draw the force polygon and its line of action, while its tab is shown (it is made
+        only then: a drag frame pays for it only when it is looked at)."""
+        if not self.showing_forces():
+            self.space_scene.show_overlay(None, 1.0)
+            return
+        self.force_polygon()
+        self.force_view.set_message(self.force[2])
+        self._draw_polygon(self.force_view, fit=fit)
+        self._force_line(self.force_step)
+
+    def _force_line(self, step_id: str):
+        """Lay the line of action of force step ``step_id`` over the space diagram ("": the clicked
+        step's, if any)."""
+        made = self.force[1] if self.showing_forces() else None
+        step_id = step_id or self.force_step
+        if made is None or not step_id:
+            self.space_scene.show_overlay(None, 1.0)
+            return
+        zoom = self._mm_per_pixel(self.space_view)
+        self.space_scene.show_overlay(line_of_action_pane(made, step_id, screen_symbols(zoom)), zoom)
+
+    def select_force_step(self, step_id: str):
+        """A click on a force step: emphasised, its line of action kept on the space diagram
+        ("" clears; a second click on it too)."""
+        self.force_step = "" if step_id == self.force_step else step_id
+        self.force_scene.select_step(self.force_step or None)
+        self._force_line(self.force_step)
 
     def _space_rescaled(self):
         self._draw_space()
+        self._force_line(self.force_step)
         if self.space_view.auto_fit:
             self.fit_space()
 
@@ -77,7 +138,11 @@ class DrawingsPanel(QSplitter):
         once, with its symbols for the zoom the fit makes."""
         doc, scene = self.document, view.scene()
         construction = doc.construction
-        polygon = construction and getattr(construction, scene.kind)
+        if scene.kind == "force":
+            made = self.force_polygon()
+            polygon = made and made.polygon
+        else:
+            polygon = construction and getattr(construction, scene.kind)
         if fit and polygon is not None:
             view.show_rect(scene.rect_for(polygon))
         scene.show(polygon, doc.solution, self._mm_per_pixel(view), self.draft)
@@ -89,7 +154,7 @@ class DrawingsPanel(QSplitter):
         if on == self.draft:
             return
         self.draft = on
-        for view in (self.space_view, self.velocity_view, self.acceleration_view):
+        for view in (self.space_view, self.velocity_view, self.acceleration_view, self.force_view):
             view.setRenderHint(QPainter.RenderHint.Antialiasing, not on)
         if not on:
             self.refresh()
@@ -132,6 +197,7 @@ class DrawingsPanel(QSplitter):
         self.fit_space()
         self.velocity_view.fit_to_window()
         self.acceleration_view.fit_to_window()
+        self.force_view.fit_to_window()
 
     def mark_point(self, name):
         """Light up joint ``name`` and its image points (None clears)."""

@@ -44,6 +44,12 @@ class PolygonScene(QGraphicsScene):
         self._ring.setVisible(False)
         self.addItem(self._ring)
 
+    # The recording of the polygon and the pens of its steps (the force polygon has its own).
+    pen_of = staticmethod(pen_for)
+
+    def _record(self, polygon, solution, size, draft: bool):
+        return polygon_pane(polygon, solution, size, draft)
+
     def used_pens(self) -> list:
         """The style pens in use, in first-use order, for the legend."""
         return list(self._pens)
@@ -62,10 +68,10 @@ class PolygonScene(QGraphicsScene):
         steps = frozenset(s.id for s in polygon.steps)
         if steps != self._steps:
             self._steps = steps
-            self._pens = list(dict.fromkeys(pen_for(s) for s in polygon.steps))
+            self._pens = list(dict.fromkeys(self.pen_of(s) for s in polygon.steps))
             if self.selected_step not in steps:
                 self.select_step(None)
-        self.sheet = polygon_pane(polygon, solution, screen_symbols(mm_per_pixel), draft)
+        self.sheet = self._record(polygon, solution, screen_symbols(mm_per_pixel), draft)
         self.drawing.show(self.sheet, 1.0 / mm_per_pixel)
         self.content_rect = self.rect_for(polygon)
 

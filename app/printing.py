@@ -27,13 +27,14 @@ from PySide6.QtGui import (
 )
 
 from kinematics.drawing import Arrow, Circle, Hatch, Line, Note, Polyline, Strokes, Text, draw_sheet
+from kinematics.drawing.force_sheet import draw_force_sheet
 from kinematics.drawing.sheet import DASHES
 from kinematics.errors import StorageError, SweepCancelled
 from kinematics.files.storage import replace_atomically
 
 from .arguments import pose_length_m
 from .drawing_kit import FONT_FAMILY, MONO_FAMILY, font_for_capitals
-from .outcomes import construction_from_file, run_reporting
+from .outcomes import construction_from_file, forces_of, run_reporting
 
 PDF_RESOLUTION_DPI = 1200
 PAGE_SIZES = {"A0": QPageSize.PageSizeId.A0, "A1": QPageSize.PageSizeId.A1, "A2": QPageSize.PageSizeId.A2,
@@ -167,7 +168,7 @@ def pdf_writer(target, title: str, paper: str, landscape: bool = False) -> QPdfW
 
 
 def print_construction(construction, printer_or_path, paper: str = "A4", landscape: bool = False,
-                       file_name: str = "", date: str | None = None, with_centres: bool = False):
+                       file_name: str = "", date: str | None = None, with_centres: bool = False, forces=None):
     """Print ``construction`` at true scale.
 
     Parameters
@@ -178,11 +179,13 @@ def print_construction(construction, printer_or_path, paper: str = "A4", landsca
     paper, landscape : ISO 216 size (A4, A3 …) and orientation.
     file_name, date : for the title block (date defaults to today).
     with_centres : draw the instantaneous centres over the space diagram.
+    forces : a :class:`kinematics.forcepolygon.ForcePolygon` of the same pose, printed on a
+        second sheet (:func:`kinematics.drawing.force_sheet.draw_force_sheet`).
 
     Returns
     -------
     Sheet
-        The sheet printed.
+        The (first) sheet printed.
 
     Raises
     ------
@@ -193,10 +196,13 @@ def print_construction(construction, printer_or_path, paper: str = "A4", landsca
     """
     sheet = draw_sheet(construction, paper=paper, landscape=landscape, file_name=file_name, date=date,
                        with_centres=with_centres)
+    sheets = (sheet,)
+    if forces is not None:
+        sheets += (draw_force_sheet(forces, paper=paper, landscape=landscape, file_name=file_name, date=date),)
     if isinstance(printer_or_path, (str, os.PathLike)):
         def write(temporary):
             writer = pdf_writer(temporary, sheet.title or "Kinepoly construction", paper, landscape)
-            paint_sheet(sheet, writer, os.fspath(printer_or_path))
+            paint_sheets(sheets, writer, os.fspath(printer_or_path))
             del writer  # the writer holds the file open; let it go before the file is checked and moved
             # QPdfWriter reports no write errors; a whole PDF ends with its %%EOF marker (ISO 32000-1, 7.5.5).
             with open(temporary, "rb") as pdf:
@@ -208,7 +214,7 @@ def print_construction(construction, printer_or_path, paper: str = "A4", landsca
     else:
         printer_or_path.setFullPage(True)
         printer_or_path.setPageLayout(page_layout(paper, landscape))
-        paint_sheet(sheet, printer_or_path, printer_or_path.printerName() or "printer")
+        paint_sheets(sheets, printer_or_path, printer_or_path.printerName() or "printer")
     return sheet
 
 
@@ -223,7 +229,8 @@ def run(args) -> int:
     def action():
         construction = construction_from_file(args.file, args.angle, pose_length_m(args))
         print_construction(construction, args.output, paper=args.paper, landscape=args.landscape,
-                           file_name=Path(args.file).name, with_centres=args.centres)
+                           file_name=Path(args.file).name, with_centres=args.centres,
+                           forces=forces_of(construction) if args.forces else None)
 
     code = run_reporting(action)
     del application

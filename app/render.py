@@ -1,5 +1,6 @@
-"""``kinepoly render FILE [--angle DEG] -o view.png [--size 1600x1000]``:
-the window's three drawings, drawn offscreen into a PNG (for tests and bug reports).
+"""``kinepoly render FILE [--angle DEG] -o view.png [--size 1600x1000] [--forces]``:
+the window's three drawings (the force polygon as the third with ``--forces``), drawn offscreen
+into a PNG (for tests and bug reports).
 
 Exit codes as the other commands: 0 written; 2 a bad file or a mechanism that cannot be
 analysed; 3 the linkage cannot assemble at the asked angle.
@@ -14,8 +15,9 @@ from pathlib import Path
 FOOTER_PIXELS = 44
 
 
-def render_image(document, size: tuple[int, int]):
-    """A QImage of ``size`` with the drawings of ``document`` and a footer with the status line."""
+def render_image(document, size: tuple[int, int], forces: bool = False):
+    """A QImage of ``size`` with the drawings of ``document`` and a footer with the status line;
+    with ``forces``, the force polygon in place of the acceleration polygon."""
     from PySide6.QtCore import QRect, Qt
     from PySide6.QtGui import QColor, QImage, QPainter
 
@@ -28,6 +30,7 @@ def render_image(document, size: tuple[int, int]):
     panel.setAttribute(Qt.WidgetAttribute.WA_DontShowOnScreen)
     panel.resize(width, height - FOOTER_PIXELS)
     panel.setSizes([int(width * 0.4), int(width * 0.3), width - 2 * int(width * 0.3)])
+    panel.show_forces(forces)
     panel.show()
     panel.refresh()
     panel.fit_all()
@@ -104,7 +107,7 @@ def _render(options, app) -> int:
             print(f"kinepoly render: {problem}", file=sys.stderr)
             return 3
     try:
-        write_atomically(options.output, png_bytes(render_image(document, options.size)))
+        write_atomically(options.output, png_bytes(render_image(document, options.size, options.forces)))
     except kinematics.KinematicsError as error:
         print(f"kinepoly render: {error}", file=sys.stderr)
         return 1

@@ -52,6 +52,7 @@ class SpaceScene(QGraphicsScene):
         self.paths = SceneBackend(self)
         self.centres = SceneBackend(self)
         self.centres_sheet = None  # the centres drawn over the linkage, None when not shown
+        self.overlay = SceneBackend(self)  # a force's line of action, over the linkage
         self.topology = None
         self.sheet = None
         self.swept = None
@@ -77,6 +78,14 @@ class SpaceScene(QGraphicsScene):
         sheet = paths_pane(mechanism, sweep)
         self.paths.show(sheet, 1.0)
         self.motion_box = sheet.views["space"].box
+
+    def show_overlay(self, sheet, mm_per_pixel: float):
+        """Lay ``sheet`` (recorded in the space view's true-size millimetres) over the diagram
+        (None clears it)."""
+        if sheet is None:
+            self.overlay.clear()
+        else:
+            self.overlay.show(sheet, 1.0 / mm_per_pixel)
 
     def show_centres(self, solution, construction, mm_per_pixel: float, shown: bool):
         """Draw the instantaneous centres of ``solution`` over the linkage when ``shown`` (and

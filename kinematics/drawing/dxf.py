@@ -151,18 +151,20 @@ def _frame_view(doc) -> None:
         zoom.extents(msp, factor=FIT_MARGIN)
 
 
-def write_dxf(construction, path, file_name: str = "", date: str | None = None, with_centres: bool = False):
+def write_dxf(construction, path, file_name: str = "", date: str | None = None, with_centres: bool = False,
+              forces=None):
     """Write the model drawing of ``construction`` to ``path`` as DXF.
 
     The space diagram is at true size in millimetres with the mechanism
     file's origin; the velocity and acceleration polygons stand to its right
-    at the scales their scale bars state. The file is written beside the
+    at the scales their scale bars state; ``forces`` (a ForcePolygon of the same pose), if given,
+    stands beyond them on its own FORCE-… layers. The file is written beside the
     target and moved into place, so a failure leaves no partial file.
     ``with_centres`` adds the instantaneous centres on the layer CENTRES.
     Returns the Sheet written. Raises
     :class:`kinematics.files.storage.StorageError` when it cannot be written.
     """
-    sheet = draw_model(construction, file_name=file_name, date=date, with_centres=with_centres)
+    sheet = draw_model(construction, file_name=file_name, date=date, with_centres=with_centres, forces=forces)
     doc = new_document()
     replay(sheet, doc)
     _frame_view(doc)

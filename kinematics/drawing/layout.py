@@ -22,12 +22,13 @@ from .annotate import (
 )
 from .centre_places import bounds_with_centres, centre_places
 from .centres_overlay import draw_centres
+from .forces import force_pen
 from .polygons import draw_polygon, polygon_bounds
 from .results import results_band, results_height
 from .scaling import bar_value, iso5455_ratio, plain, polygon_scale, ratio_text
 from .sheet import FRAME, Note, Recorder, Ref, Sheet, View
 from .space import draw_space, positions
-from .style import ANNOTATION
+from .style import ANNOTATION, pen_for
 from .symbols import Symbols
 
 # ISO 216 A series, portrait width × height in mm.
@@ -39,7 +40,8 @@ MARGIN_FILING, MARGIN = 20.0, 10.0
 VIEW_PAD, GAP = 7.0, 4.0
 # A true-size drawing's coordinates to this many significant digits: the file's own numbers (see View.place).
 TRUE_SIZE_DIGITS = 15
-NAMES = {"space": "Space diagram", "velocity": "Velocity polygon", "acceleration": "Acceleration polygon"}
+NAMES = {"space": "Space diagram", "velocity": "Velocity polygon", "acceleration": "Acceleration polygon",
+         "force": "Force polygon"}
 
 
 @dataclass(frozen=True)
@@ -216,7 +218,8 @@ def draw_sheet(construction, paper: str = "A4", landscape: bool = False, file_na
     return rec.sheet(width, height, title=construction.solution.mechanism.title)
 
 
-def draw_model(construction, file_name: str = "", date: str | None = None, with_centres: bool = False) -> Sheet:
+def draw_model(construction, file_name: str = "", date: str | None = None, with_centres: bool = False,
+               forces=None) -> Sheet:
     """The model drawing for CAD.
 
     The space diagram at true size in millimetres (sheet mm = model mm, the
@@ -231,6 +234,8 @@ def draw_model(construction, file_name: str = "", date: str | None = None, with_
     construction : :class:`kinematics.Construction` to draw.
     file_name, date : for the note (date defaults to today, ISO 8601).
     with_centres : draw the instantaneous centres over the space diagram, on their own layer.
+    forces : a :class:`kinematics.forcepolygon.ForcePolygon` of the same pose, drawn to the
+        right of the polygons (view "force", its scale in N per mm, on its own pens' layers).
 
     Returns
     -------
@@ -254,15 +259,19 @@ def draw_model(construction, file_name: str = "", date: str | None = None, with_
     if found is not None:
         draw_centres(rec, found, space, size, places)
     left = max(x1, x0 + 20 * size.text, x0 + text_width(_caption(space), size.text)) + 2 * pad
-    for name in ("velocity", "acceleration"):
-        polygon = getattr(construction, name)
+    drawn = [("velocity", construction.velocity, pen_for), ("acceleration", construction.acceleration, pen_for)]
+    if forces is not None:
+        drawn.append(("force", forces.polygon, force_pen))
+    for name, polygon, pen_of in drawn:
         fit = _polygon_fit(polygon, polygon.scale_per_mm)
+        if name == "force":
+            fit = _Fit(fit.mm_per_unit, f"{plain(polygon.scale_per_mm)} N per mm", fit.bounds)
         px0, py0, px1, py1 = fit.bounds
         origin = (left - px0 * fit.mm_per_unit, y0 - py0 * fit.mm_per_unit)
         box = (left, y0, left + (px1 - px0) * fit.mm_per_unit, y0 + (py1 - py0) * fit.mm_per_unit)
         views[name] = View(name, box, origin, fit.mm_per_unit, polygon.unit, fit.scale_text)
         rec.add_view(views[name])
-        draw_polygon(rec, polygon, solution, views[name], paper)
+        draw_polygon(rec, polygon, solution, views[name], paper, pen_of=pen_of)
         # The next view starts clear of this one's scale bar and caption too, which a small polygon
         # (drawn at its paper scale beside a big machine) is narrower than.
         caption = text_width(_caption(views[name]), paper.text)

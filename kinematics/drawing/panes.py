@@ -29,6 +29,7 @@ from .polygons import draw_polygon, polygon_bounds
 from .scaling import bar_value, plain
 from .sheet import Recorder, Sheet, Text, View
 from .space import draw_linkage, draw_paths, file_positions, positions, traced_points
+from .style import pen_for
 from .symbols import Symbols
 
 # The space diagram's scale bar: about a quarter of the design long, this far under it (as
@@ -96,13 +97,16 @@ def polygon_box(polygon) -> tuple:
     return tuple(v / scale for v in polygon_bounds(polygon))
 
 
-def polygon_pane(polygon, solution, size: Symbols, draft: bool = False) -> Sheet:
+def polygon_pane(polygon, solution, size: Symbols, draft: bool = False, pen_of=pen_for,
+                 scale_text: str = "") -> Sheet:
     """``polygon`` of ``solution`` at its construction's scale (``polygon.scale_per_mm``), with
-    its scale bar under it; a ``draft`` as :class:`~kinematics.drawing.sheet.Recorder` says."""
+    its scale bar under it; a ``draft`` as :class:`~kinematics.drawing.sheet.Recorder` says.
+    ``pen_of`` gives a step its pen, ``scale_text`` states the scale beside the bar ("1 mm = 0.05
+    m/s" when empty)."""
     scale = polygon.scale_per_mm
     unit = printed_unit(polygon.unit)
     view = View(polygon.kind, (0.0, 0.0, 0.0, 0.0), (0.0, 0.0), 1.0 / scale, polygon.unit,
-                f"1 mm = {plain(scale)} {unit}")
+                scale_text or f"1 mm = {plain(scale)} {unit}")
     rec = Recorder(draft=draft)
     x0, y0, x1, y1 = polygon_box(polygon)
     width = max(x1 - x0, y1 - y0, 1.0)
@@ -116,7 +120,7 @@ def polygon_pane(polygon, solution, size: Symbols, draft: bool = False) -> Sheet
     scale_bar(rec, (x, y - CAPTION_ROOM * words.text), view.mm_per_unit, polygon.unit,
               max(longest, BAR_LEAST * words.text), view.scale_text, words, polygon.kind)
     rec.marks.extend((polygon.kind, text_box(p)) for p in rec.primitives if isinstance(p, Text))
-    draw_polygon(rec, polygon, solution, view, size)
+    draw_polygon(rec, polygon, solution, view, size, pen_of=pen_of)
     box = (x0, y0, x1, y1)  # the bar lies in the room the pane keeps under the drawing
     rec.add_view(View(polygon.kind, box, view.origin, view.mm_per_unit, view.unit, view.scale_text))
     return rec.sheet(0.0, 0.0)

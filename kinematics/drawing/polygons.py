@@ -33,15 +33,17 @@ def polygon_bounds(polygon) -> tuple:
     return (min(xs), min(ys), max(xs), max(ys))
 
 
-def draw_polygon(rec: Recorder, polygon, solution, view: View, size: Symbols, xy: dict | None = None) -> None:
+def draw_polygon(rec: Recorder, polygon, solution, view: View, size: Symbols, xy: dict | None = None,
+                 pen_of=pen_for) -> None:
     """Record ``polygon`` (a :class:`kinematics.Polygon` of ``solution``) into ``view``; ``xy``
-    is the pose's point positions (:func:`~kinematics.drawing.space.positions`) if already at hand."""
+    is the pose's point positions (:func:`~kinematics.drawing.space.positions`) if already at hand;
+    ``pen_of`` gives a step its pen (the force polygon draws on layers of its own)."""
     name, place = view.name, view.place
     # The lines a label must not sit along: the image segments, construction lines and vectors.
     segments = _draw_image_figures(rec, polygon, solution, view, positions(solution) if xy is None else xy)
     # Construction lines first, vectors over them, points and labels on top: the order a reader needs.
     for step in sorted(polygon.steps, key=_layer):
-        pen, ref = pen_for(step), ref_of("step", step.id)
+        pen, ref = pen_of(step), ref_of("step", step.id)
         if step.role is Role.DIRECTION:
             ends = place(step.coords[0]), place(step.coords[-1])
             rec.add(Line(*ends, pen, name, ref))
