@@ -52,6 +52,7 @@ class DrawingsPanel(QSplitter):
             self.fit_space()  # a joint or link was added or removed: keep the whole design in view
         for view in (self.velocity_view, self.acceleration_view):
             self._draw_polygon(view, fit=True)
+        self.space_view.hover_again()
 
     def _space_rescaled(self):
         self._draw_space()
