@@ -304,11 +304,15 @@ class SceneBackend:
 
     def _update_text(self, entry: _Drawn, text: Text) -> None:
         item = entry.items[0]
-        key = ((text.text, text.height, text.align, text.anchor), self.pixels_per_mm)
-        if key != entry.shaped_for:
-            entry.shaped_for = key
-            font, metrics = font_for_capitals(max(1, round(text.height * self.pixels_per_mm)))
-            item.setFont(font)
+        words = (text.text, text.height, text.align, text.anchor)
+        shaped = entry.shaped_for  # the words, zoom and font size in pixels it was last shaped for
+        if shaped is None or shaped[0] != words or shaped[1] != self.pixels_per_mm:
+            pixels = max(1, round(text.height * self.pixels_per_mm))
+            font, metrics = font_for_capitals(pixels)
+            # A new font lays the item out again: set only when the size changed, not for new words.
+            if shaped is None or shaped[2] != pixels:
+                item.setFont(font)
+            entry.shaped_for = (words, self.pixels_per_mm, pixels)
             item.setText(text.text)
             width = metrics.horizontalAdvance(text.text)
             # The item's own origin is the top left of its line; the sheet's anchor is on the baseline.
