@@ -61,10 +61,11 @@ def _brush(colour: str, alpha: int = 255) -> QBrush:
 
 
 @cache
-def _body_pen() -> QPen:
-    body = QPen(QColor(BAR_COLOUR), BAR_PIXELS)
-    body.setCosmetic(True)
-    return body
+def _body_pen(pixels_per_mm: float) -> QPen:
+    # In scene millimetres, not a cosmetic pen: an item's bounding box grows by half its pen's width
+    # in scene units, so a cosmetic body 11 pixels wide seen zoomed out (a millimetre under a pixel)
+    # drew beyond the box Qt repaints when it moves, and left copies of itself on screen.
+    return QPen(QColor(BAR_COLOUR), BAR_PIXELS / pixels_per_mm)
 
 
 def _points(points) -> QPolygonF:
@@ -192,7 +193,6 @@ class SceneBackend:
             items[0].setZValue(Z_LINE)
             if ref is not None and ref.kind == "link":
                 body = QGraphicsLineItem()
-                body.setPen(_body_pen())
                 body.setZValue(Z_BODY)
                 items.append(body)
         elif kind is Polyline:
@@ -270,6 +270,8 @@ class SceneBackend:
             (x0, y0), (x1, y1) = primitive.start, primitive.end
             for item in items:
                 item.setLine(x0, -y0, x1, -y1)
+            if len(items) > 1 and entry.zoom != self.pixels_per_mm:
+                items[1].setPen(_body_pen(self.pixels_per_mm))  # a bar's body keeps its width on screen
         elif kind is Polyline:
             if primitive.closed:
                 items[0].setPolygon(_points(primitive.points))
