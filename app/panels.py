@@ -68,6 +68,7 @@ class DrawingsPanel(QSplitter):
         for view in (self.velocity_view, self.acceleration_view):
             self._draw_polygon(view, fit=True)
         self._show_force(fit=True)
+        self.space_view.hover_again()
 
     # the force polygon --------------------------------------------------------
     def showing_forces(self) -> bool:

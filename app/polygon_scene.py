@@ -35,6 +35,7 @@ class PolygonScene(QGraphicsScene):
         self.drawing = SceneBackend(self)
         self.content_rect = QRectF(-60, -60, 120, 120)
         self.selected_step = None
+        self.marked = None  # the joint whose image is ringed, None for none
         self._steps = frozenset()
         self._pens = []  # the style pens of the steps, in first-use order
         self._ring = QGraphicsEllipseItem(-RING_PIXELS, -RING_PIXELS, 2 * RING_PIXELS, 2 * RING_PIXELS)
@@ -74,6 +75,7 @@ class PolygonScene(QGraphicsScene):
         self.sheet = self._record(polygon, solution, screen_symbols(mm_per_pixel), draft)
         self.drawing.show(self.sheet, 1.0 / mm_per_pixel)
         self.content_rect = self.rect_for(polygon)
+        self.mark_point(self.marked)  # the ring goes where the image went
 
     @staticmethod
     def rect_for(polygon) -> QRectF:
@@ -99,7 +101,8 @@ class PolygonScene(QGraphicsScene):
         self.drawing.emphasise({Ref("step", self.selected_step)} if self.selected_step else ())
 
     def mark_point(self, name: str | None):
-        """Ring the image of joint ``name`` (None hides the ring)."""
+        """Ring the image of joint ``name`` (None hides the ring), in this pose and the ones that follow."""
+        self.marked = name
         images = self.polygon.images if self.polygon is not None else {}
         if name not in images:
             self._ring.setVisible(False)

@@ -61,10 +61,11 @@ def _brush(colour: str, alpha: int = 255) -> QBrush:
 
 
 @cache
-def _body_pen() -> QPen:
-    body = QPen(QColor(BAR_COLOUR), BAR_PIXELS)
-    body.setCosmetic(True)
-    return body
+def _body_pen(pixels_per_mm: float) -> QPen:
+    # In scene millimetres, not a cosmetic pen: an item's bounding box grows by half its pen's width
+    # in scene units, so a cosmetic body 11 pixels wide seen zoomed out (a millimetre under a pixel)
+    # drew beyond the box Qt repaints when it moves, and left copies of itself on screen.
+    return QPen(QColor(BAR_COLOUR), BAR_PIXELS / pixels_per_mm)
 
 
 def _points(points) -> QPolygonF:
@@ -192,7 +193,6 @@ class SceneBackend:
             items[0].setZValue(Z_LINE)
             if ref is not None and ref.kind == "link":
                 body = QGraphicsLineItem()
-                body.setPen(_body_pen())
                 body.setZValue(Z_BODY)
                 items.append(body)
         elif kind is Polyline:
@@ -270,6 +270,8 @@ class SceneBackend:
             (x0, y0), (x1, y1) = primitive.start, primitive.end
             for item in items:
                 item.setLine(x0, -y0, x1, -y1)
+            if len(items) > 1 and entry.zoom != self.pixels_per_mm:
+                items[1].setPen(_body_pen(self.pixels_per_mm))  # a bar's body keeps its width on screen
         elif kind is Polyline:
             if primitive.closed:
                 items[0].setPolygon(_points(primitive.points))
@@ -304,11 +306,15 @@ class SceneBackend:
 
     def _update_text(self, entry: _Drawn, text: Text) -> None:
         item = entry.items[0]
-        key = ((text.text, text.height, text.align, text.anchor), self.pixels_per_mm)
-        if key != entry.shaped_for:
-            entry.shaped_for = key
-            font, metrics = font_for_capitals(max(1, round(text.height * self.pixels_per_mm)))
-            item.setFont(font)
+        words = (text.text, text.height, text.align, text.anchor)
+        shaped = entry.shaped_for  # the words, zoom and font size in pixels it was last shaped for
+        if shaped is None or shaped[0] != words or shaped[1] != self.pixels_per_mm:
+            pixels = max(1, round(text.height * self.pixels_per_mm))
+            font, metrics = font_for_capitals(pixels)
+            # A new font lays the item out again: set only when the size changed, not for new words.
+            if shaped is None or shaped[2] != pixels:
+                item.setFont(font)
+            entry.shaped_for = (words, self.pixels_per_mm, pixels)
             item.setText(text.text)
             width = metrics.horizontalAdvance(text.text)
             # The item's own origin is the top left of its line; the sheet's anchor is on the baseline.

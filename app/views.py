@@ -201,6 +201,7 @@ class SpaceView(DrawingView):
         self.setMouseTracking(True)
         self.dragging = None
         self._hover = None
+        self._pointer = None  # where the pointer is in the viewport, None when it is not over it
         self.building = False  # a building tool is active: clicks pick instead of drag
         self.grid_mm = 0.0  # grid spacing drawn behind the diagram (0: none)
 
@@ -255,27 +256,45 @@ class SpaceView(DrawingView):
             super().mousePressEvent(event)
             return
         self.dragging = name
+        self._hover_on(name)  # the joint held is the one lit while it is dragged
         self.drag_started.emit(name, self._machine_mm(event.position().toPoint()))
         event.accept()
 
     def mouseMoveEvent(self, event):
         pos = event.position().toPoint()
+        self._pointer = pos
         if self.dragging is not None:
             self.dragged.emit(self._machine_mm(pos))
             event.accept()
             return
-        name = self.joint_at(pos) if not event.buttons() else None
+        self._hover_on(self.joint_at(pos) if not event.buttons() else None)
+        super().mouseMoveEvent(event)
+
+    def leaveEvent(self, event):
+        self._pointer = None
+        if self.dragging is None:
+            self._hover_on(None)
+        super().leaveEvent(event)
+
+    def _hover_on(self, name):
         if name != self._hover:
             self._hover = name
             self.viewport().setCursor(Qt.CursorShape.PointingHandCursor if name else Qt.CursorShape.OpenHandCursor)
             self.hovered.emit(name)
-        super().mouseMoveEvent(event)
+
+    def hover_again(self):
+        """The drawing changed under a still pointer (a drag let go, an undo, a driver turned): the
+        joint lit is the one under the pointer now, none when the pointer is on none. While a
+        joint is dragged it stays the one lit."""
+        if self.dragging is None:
+            self._hover_on(self.joint_at(self._pointer) if self._pointer is not None else None)
 
     def mouseReleaseEvent(self, event):
         if self.dragging is not None and event.button() == Qt.MouseButton.LeftButton:
             self.dragged.emit(self._machine_mm(event.position().toPoint()))
             self.dragging = None
             self.drag_finished.emit()
+            self.hover_again()  # a pin that could not follow the pointer (a crank's) is left behind
             event.accept()
             return
         super().mouseReleaseEvent(event)

@@ -10,6 +10,7 @@ from __future__ import annotations
 
 import math
 from dataclasses import dataclass
+from functools import lru_cache
 
 from .hatching import ground_hatch
 from .sheet import Arrow, Circle, Polyline, Recorder, Strokes, Text
@@ -66,14 +67,26 @@ def dot_mark(rec: Recorder, at, radius: float, view: str) -> None:
 def fixed_pivot(rec: Recorder, at, pen, size: Symbols, **ids) -> None:
     """The fixed-pivot mark: a triangle under the pin on a hatched base line."""
     x, y = at
+    triangle, base, hatch = _fixed_pivot_parts(float(x), float(y), pen, size, ids.get("view", ""), ids.get("ref"))
+    rec.add(triangle)
+    mark(rec, triangle.points, ids.get("view", ""))
+    rec.add(base)
+    rec.add(hatch)
+
+
+@lru_cache(maxsize=256)
+def _fixed_pivot_parts(x: float, y: float, pen, size: Symbols, view: str, ref) -> tuple:
+    """The triangle, base line and hatching of a fixed pivot at (x, y): made once for each place
+    and size, since a pivot stays where it is while the links move about it (its hatching is
+    clipped line by line)."""
+    ids = {"view": view, "ref": ref}
     w, h = 2.4 * size.pin, 3.2 * size.pin
     base = y - size.pin - h
     triangle = ((x, y - size.pin), (x - w, base), (x + w, base))
-    rec.add(Polyline(points=triangle, pen=pen, closed=True, **ids))
-    mark(rec, triangle, ids.get("view", ""))
-    rec.add(Strokes(points=((x - 1.6 * w, base), (x + 1.6 * w, base)), pen=pen, **ids))  # the base line
     band = ((x - 1.6 * w, base - 0.6 * w), (x + 1.6 * w, base - 0.6 * w), (x + 1.6 * w, base), (x - 1.6 * w, base))
-    rec.add(ground_hatch(band, 45.0, 0.8 * w * math.sqrt(0.5), pen, **ids))
+    return (Polyline(points=triangle, pen=pen, closed=True, **ids),
+            Strokes(points=((x - 1.6 * w, base), (x + 1.6 * w, base)), pen=pen, **ids),  # the base line
+            ground_hatch(band, 45.0, 0.8 * w * math.sqrt(0.5), pen, **ids))
 
 
 def pin(rec: Recorder, at, pen, size: Symbols, joint: bool, **ids) -> None:
