@@ -7,8 +7,8 @@ from __future__ import annotations
 from pathlib import Path
 
 from PySide6.QtCore import Qt
-from PySide6.QtPrintSupport import QPrintDialog, QPrinter
-from PySide6.QtWidgets import QApplication, QDialog, QProgressDialog
+from PySide6.QtPrintSupport import QPrinter
+from PySide6.QtWidgets import QApplication, QDialog, QFileDialog, QProgressDialog
 
 from kinematics import KinematicsError, SweepCancelled, dumps
 
@@ -38,15 +38,16 @@ class SheetOutputs:
     def _file_name(self) -> str:
         return Path(self.document.path).name if self.document.path else ""
 
-    def export_pdf(self, path) -> bool:
-        """The construction at true scale on an A4 sheet, as ``kinepoly print`` draws it."""
+    def export_pdf(self, path, paper: str = "A4", landscape: bool = False) -> bool:
+        """The construction at true scale on a ``paper`` sheet, as ``kinepoly print`` draws it."""
         construction = self._ready_construction()
         if construction is None:
             return False
         from .printing import print_construction  # the sheet machinery loads when first used
 
         try:
-            print_construction(construction, str(path), file_name=self._file_name())
+            print_construction(construction, str(path), paper=paper, landscape=landscape,
+                               file_name=self._file_name())
         except (KinematicsError, OSError) as error:
             self.show_error("Cannot export", file_message(path, error))
             return False
@@ -69,17 +70,31 @@ class SheetOutputs:
         return True
 
     def print_dialog(self):
+        """File > Print… (Ctrl+P): a preview of the sheet with its paper and orientation, printed from there."""
         construction = self._ready_construction()
         if construction is None:
             return
-        from .printing import print_construction
+        from .print_preview import SheetPreview  # the sheet machinery loads when first used
 
         printer = QPrinter(QPrinter.PrinterMode.HighResolution)
-        if QPrintDialog(printer, self).exec() == QDialog.DialogCode.Accepted:
-            try:
-                print_construction(construction, printer, file_name=self._file_name())
-            except (KinematicsError, OSError) as error:
-                self.show_error("Cannot print", str(error))
+        preview = SheetPreview(construction, printer, self._file_name(), self)
+        preview.exec()
+        if preview.errors:
+            self.show_error("Cannot print", preview.errors[-1])
+
+    def export_pdf_dialog(self):
+        """File > Export sheet as PDF…: the paper and orientation, then where."""
+        if self._ready_construction() is None:
+            return
+        from .print_preview import PaperDialog
+
+        dialog = PaperDialog(self)
+        if dialog.exec() != QDialog.DialogCode.Accepted:
+            return
+        paper, landscape = dialog.choice()
+        path, _ = QFileDialog.getSaveFileName(self, "Export sheet as PDF", "", "PDF sheet (*.pdf)")
+        if path:
+            self.export_pdf(path, paper, landscape)
 
     def review_dialog(self):
         """File > Review report…: ask where, then write the design-review report."""

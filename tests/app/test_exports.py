@@ -2,8 +2,10 @@
 
 import ezdxf.recover
 import pdfplumber
-from PySide6.QtGui import QPageLayout
-from PySide6.QtPrintSupport import QPrinter
+from PySide6.QtCore import Qt, QTimer
+from PySide6.QtGui import QPageLayout, QPageSize
+from PySide6.QtPrintSupport import QPrinter, QPrintPreviewWidget
+from PySide6.QtWidgets import QApplication, QToolBar
 
 import app.exports
 import kinematics
@@ -38,25 +40,81 @@ def test_nothing_to_print_for_an_unfinished_design(make_window, tmp_path):
     assert "nothing to print yet" in window.status.text() and "no driver" in window.status.text()
 
 
-def test_print_hands_the_sheet_to_the_chosen_printer(make_window, tmp_path, monkeypatch):
+def _when_shown(kind, act):
+    """Run ``act(dialog)`` once a top-level ``kind`` dialog is up (it runs modally)."""
+    def look():
+        dialog = next((w for w in QApplication.topLevelWidgets() if isinstance(w, kind) and w.isVisible()), None)
+        if dialog is None:
+            QTimer.singleShot(20, look)
+        else:
+            act(dialog)
+
+    QTimer.singleShot(0, look)
+
+
+def test_ctrl_p_opens_a_preview_with_paper_and_orientation(make_window, qtbot):
+    from app.print_preview import SheetPreview
+
     window = make_window(CLAW_FEED)
+    seen = {}
+
+    def inspect(preview):
+        papers = preview.paper
+        seen["papers"] = [papers.itemText(i) for i in range(papers.count())]
+        toolbar = preview.findChild(QToolBar)
+        seen["actions"] = [a.text() for a in toolbar.actions()]
+        # The user picks A3 in the tool bar with the keyboard: the preview lays the sheet out again.
+        papers.setFocus()
+        index = papers.findText("A3")
+        for _ in range(papers.currentIndex() - index):  # the list runs A0 … A4, A4 shown first
+            qtbot.keyClick(papers, Qt.Key.Key_Up)
+        seen["page"] = preview.printer.pageLayout().pageSize().id()
+        seen["painted"] = preview.findChild(QPrintPreviewWidget).pageCount()
+        preview.reject()
+
+    _when_shown(SheetPreview, inspect)
+    qtbot.keyClick(window, Qt.Key.Key_P, Qt.KeyboardModifier.ControlModifier)
+    assert "A4" in seen["papers"] and "A3" in seen["papers"]
+    assert any("ortrait" in a for a in seen["actions"]) and any("andscape" in a for a in seen["actions"])
+    assert seen["page"] == QPageSize.PageSizeId.A3 and seen["painted"] == 1
+
+
+def test_the_preview_paints_the_sheet_for_the_printers_paper(make_window, tmp_path):
+    from app.print_preview import SheetPreview
+
+    window = make_window(CLAW_FEED)
+    printer = QPrinter(QPrinter.PrinterMode.HighResolution)
+    printer.setOutputFormat(QPrinter.OutputFormat.PdfFormat)
     target = tmp_path / "printed.pdf"
-
-    class ChosenPrinter:
-        """Stands in for the platform's print dialog: the user picks a PDF printer and presses Print."""
-
-        Accepted = 1
-
-        def __init__(self, printer, parent):
-            printer.setOutputFormat(QPrinter.PdfFormat)
-            printer.setOutputFileName(str(target))
-            printer.setPageOrientation(QPageLayout.Portrait)
-
-        def exec(self):
-            return self.Accepted
-
-    monkeypatch.setattr(app.exports, "QPrintDialog", ChosenPrinter)
-    window.print_dialog()
+    printer.setOutputFileName(str(target))
+    printer.setPageSize(QPageSize(QPageSize.PageSizeId.A3))
+    printer.setPageOrientation(QPageLayout.Orientation.Landscape)
+    preview = SheetPreview(window.document.construction, printer, "claw.json", window)
+    preview.paint(printer)  # what Print in the preview does with the printer chosen there
     with pdfplumber.open(target) as pdf:
-        assert len(pdf.pages) == 1
-        assert kinematics.CAUTION.split()[0] in (pdf.pages[0].extract_text() or "")
+        page = pdf.pages[0]
+        # ISO 216 A3 landscape 420 × 297 mm; a PDF rounds to whole points, hence ±0.5 mm.
+        assert abs(page.width * 25.4 / 72 - 420) <= 0.5 and abs(page.height * 25.4 / 72 - 297) <= 0.5
+        assert kinematics.CAUTION.split()[0] in (page.extract_text() or "")
+
+
+def test_export_pdf_asks_the_paper(make_window, tmp_path, qtbot, monkeypatch):
+    from app.print_preview import PaperDialog
+
+    window = make_window(CLAW_FEED)
+    target = tmp_path / "sheet.pdf"
+    monkeypatch.setattr(app.exports.QFileDialog, "getSaveFileName", lambda *args: (str(target), "PDF sheet (*.pdf)"))
+
+    def choose(dialog):
+        dialog.paper.setFocus()
+        qtbot.keyClick(dialog.paper, Qt.Key.Key_Up)  # A4 -> A3 (the list runs A0 … A4)
+        dialog.orientation.setFocus()
+        qtbot.keyClick(dialog.orientation, Qt.Key.Key_Down)  # portrait -> landscape
+        assert dialog.choice() == ("A3", True)
+        qtbot.keyClick(dialog, Qt.Key.Key_Return)
+
+    _when_shown(PaperDialog, choose)
+    window.export_pdf_dialog()
+    with pdfplumber.open(target) as pdf:
+        page = pdf.pages[0]
+        assert abs(page.width * 25.4 / 72 - 420) <= 0.5 and abs(page.height * 25.4 / 72 - 297) <= 0.5
