@@ -292,16 +292,22 @@ def sweep(mechanism: Mechanism, steps: int = 360, progress=None) -> Sweep:
     # Every group's closed form is a single-valued function of the driver angle on its branch,
     # so a full turn of a dyad chain brings the linkage back to its first pose.
     return Sweep(mechanism=mechanism, driver_angle_deg=angles, point_names=tuple(mechanism.points),
-                 positions=columns["positions"], velocities=columns["velocities"],
-                 accelerations=columns["accelerations"],
-                 link_angle_deg={k: columns[("angle", k)] for k in mechanism.links},
-                 angular_velocity={k: columns[("omega", k)] for k in mechanism.links},
-                 angular_acceleration={k: columns[("alpha", k)] for k in mechanism.links},
-                 sliding_velocity={k: columns[("slide_v", k)] for k in mechanism.slides},
-                 sliding_acceleration={k: columns[("slide_a", k)] for k in mechanism.slides},
-                 jerks=columns["jerks"], angular_jerk={k: columns[("jerk", k)] for k in mechanism.links},
-                 sliding_jerk={k: columns[("slide_j", k)] for k in mechanism.slides},
+                 **_motion(mechanism, columns),
                  full_turn=full, range_deg=(low, high), closes=full, time_s=time_s, warnings=tuple(warnings))
+
+
+def _motion(mechanism: Mechanism, columns: dict) -> dict:
+    """The Sweep's motion fields (points, links, slides) from the swept ``columns`` of :func:`_columns`."""
+    links, slides = mechanism.links, mechanism.slides
+    return dict(positions=columns["positions"], velocities=columns["velocities"],
+                accelerations=columns["accelerations"], jerks=columns["jerks"],
+                link_angle_deg={k: columns[("angle", k)] for k in links},
+                angular_velocity={k: columns[("omega", k)] for k in links},
+                angular_acceleration={k: columns[("alpha", k)] for k in links},
+                angular_jerk={k: columns[("jerk", k)] for k in links},
+                sliding_velocity={k: columns[("slide_v", k)] for k in slides},
+                sliding_acceleration={k: columns[("slide_a", k)] for k in slides},
+                sliding_jerk={k: columns[("slide_j", k)] for k in slides})
 
 
 def _stroke_sweep(mechanism: Mechanism, decomposition, steps: int) -> Sweep:
@@ -317,15 +323,7 @@ def _stroke_sweep(mechanism: Mechanism, decomposition, steps: int) -> Sweep:
     if driver.linear_acceleration_m_s2 == 0.0 and driver.linear_speed_m_s != 0.0:
         time_s = np.abs(lengths - lengths[0]) / abs(driver.linear_speed_m_s)
     return Sweep(mechanism=mechanism, driver_angle_deg=np.degrees(np.angle(axis)), point_names=tuple(mechanism.points),
-                 positions=columns["positions"], velocities=columns["velocities"],
-                 accelerations=columns["accelerations"],
-                 link_angle_deg={k: columns[("angle", k)] for k in mechanism.links},
-                 angular_velocity={k: columns[("omega", k)] for k in mechanism.links},
-                 angular_acceleration={k: columns[("alpha", k)] for k in mechanism.links},
-                 sliding_velocity={k: columns[("slide_v", k)] for k in mechanism.slides},
-                 sliding_acceleration={k: columns[("slide_a", k)] for k in mechanism.slides},
-                 jerks=columns["jerks"], angular_jerk={k: columns[("jerk", k)] for k in mechanism.links},
-                 sliding_jerk={k: columns[("slide_j", k)] for k in mechanism.slides},
+                 **_motion(mechanism, columns),
                  full_turn=False, range_deg=(float(lengths.min()), float(lengths.max())), closes=False, time_s=time_s,
                  warnings=tuple(warnings), driver_length_m=lengths)
 
