@@ -19,7 +19,6 @@ from typing_extensions import override
 from ..errors import KinematicsError
 from ..model.mechanism import Mechanism
 from .base import (
-    REACH_TOLERANCE,
     Frame,
     Group,
     Laid,
@@ -30,8 +29,8 @@ from .base import (
     intersect,
     known_jerk,
     radial,
-    refuse,
     sliding_jerk_terms,
+    triangle_apex,
     unit,
 )
 from .polygon_steps import coriolis_step, image_steps, radial_step
@@ -109,14 +108,7 @@ class ActuatorGroup(Group):
         c, a = pos[r["C"]], pos[r["A"]]
         length = frame.driver_length_m
         carrier = abs(ref[r["B"]] - ref[r["A"]])
-        d = a - c
-        dist = np.abs(d)
-        with np.errstate(divide="ignore", invalid="ignore"):
-            cos_beta = (length ** 2 + dist ** 2 - carrier ** 2) / (2.0 * length * dist)
-        frame.nearness[self.name] = np.abs(cos_beta)
-        refuse(frame, where, self.reach_message(frame.mech), ~(np.abs(cos_beta) <= 1.0 + REACH_TOLERANCE))
-        beta = np.arccos(np.clip(cos_beta, -1.0, 1.0))
-        pos[r["B"]] = c + length * unit(d) * np.exp(1j * self.sign * beta)
+        pos[r["B"]] = triangle_apex(frame, self, where, c, a, length, carrier)
         frame.place(self.links[1], r["A"], r["B"])
         # The barrel turns with the cylinder's axis; its points keep their places relative to it.
         turn = unit(pos[r["B"]] - c) / unit(ref[r["B"]] - ref[r["C"]])

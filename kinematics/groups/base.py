@@ -229,6 +229,20 @@ def refuse(frame: Frame, where: str, message: str, bad):
         raise CannotAssemble(message, where)
 
 
+def triangle_apex(frame: Frame, group, where: str, p, q, side_p, side_q):
+    """The apex of the triangle on p→q whose sides from p and q are ``side_p`` and ``side_q`` (the
+    law of cosines), on ``group``'s branch (its ``sign``); records how near the group is to its
+    straight pose in ``frame.nearness`` and refuses the poses where the sides cannot meet."""
+    d = q - p
+    dist = np.abs(d)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        cos_beta = (side_p ** 2 + dist ** 2 - side_q ** 2) / (2.0 * side_p * dist)
+    frame.nearness[group.name] = np.abs(cos_beta)
+    refuse(frame, where, group.reach_message(frame.mech), ~(np.abs(cos_beta) <= 1.0 + REACH_TOLERANCE))
+    beta = np.arccos(np.clip(cos_beta, -1.0, 1.0))
+    return p + side_p * unit(d) * np.exp(1j * group.sign * beta)
+
+
 def radial(frame: Frame, point: str, about: str, start, relative_velocity) -> Laid:
     """Radial component of ``point`` about ``about``: v²/r, directed from point to about."""
     r = frame.pos[point] - frame.pos[about]

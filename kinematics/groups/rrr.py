@@ -10,7 +10,7 @@ import numpy as np
 from typing_extensions import override
 
 from ..model.mechanism import Mechanism
-from .base import REACH_TOLERANCE, Frame, Group, Line, cross, intersect, known_jerk, radial, refuse, unit
+from .base import Frame, Group, Line, cross, intersect, known_jerk, radial, triangle_apex
 from .force_steps import (
     ForceState,
     by_name,
@@ -50,14 +50,7 @@ class RRRGroup(Group):
         a, c = pos[r["A"]], pos[r["C"]]
         la = abs(ref[r["B"]] - ref[r["A"]])
         lc = abs(ref[r["B"]] - ref[r["C"]])
-        d = c - a
-        dist = np.abs(d)
-        with np.errstate(divide="ignore", invalid="ignore"):
-            cos_beta = (la ** 2 + dist ** 2 - lc ** 2) / (2.0 * la * dist)
-        frame.nearness[self.name] = np.abs(cos_beta)
-        refuse(frame, where, self.reach_message(frame.mech), ~(np.abs(cos_beta) <= 1.0 + REACH_TOLERANCE))
-        beta = np.arccos(np.clip(cos_beta, -1.0, 1.0))
-        pos[r["B"]] = a + la * unit(d) * np.exp(1j * self.sign * beta)
+        pos[r["B"]] = triangle_apex(frame, self, where, a, c, la, lc)
         frame.place(self.links[0], r["A"], r["B"])
         frame.place(self.links[1], r["C"], r["B"])
 
