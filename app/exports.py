@@ -8,7 +8,7 @@ from pathlib import Path
 
 from PySide6.QtCore import Qt
 from PySide6.QtPrintSupport import QPrinter
-from PySide6.QtWidgets import QApplication, QDialog, QFileDialog, QProgressDialog
+from PySide6.QtWidgets import QApplication, QDialog, QProgressDialog
 
 from kinematics import KinematicsError, SweepCancelled, dumps
 
@@ -92,9 +92,7 @@ class SheetOutputs:
         if dialog.exec() != QDialog.DialogCode.Accepted:
             return
         paper, landscape = dialog.choice()
-        path, _ = QFileDialog.getSaveFileName(self, "Export sheet as PDF", "", "PDF sheet (*.pdf)")
-        if path:
-            self.export_pdf(path, paper, landscape)
+        self._export("PDF sheet (*.pdf)", lambda path: self.export_pdf(path, paper, landscape))
 
     def review_dialog(self):
         """File > Review report…: ask where, then write the design-review report."""

@@ -2,13 +2,13 @@
 
 import ezdxf.recover
 import pdfplumber
-from PySide6.QtCore import Qt, QTimer
+from PySide6.QtCore import Qt
 from PySide6.QtGui import QPageLayout, QPageSize
 from PySide6.QtPrintSupport import QPrinter, QPrintPreviewWidget
-from PySide6.QtWidgets import QApplication, QToolBar
+from PySide6.QtWidgets import QFileDialog, QToolBar
 
-import app.exports
 import kinematics
+from tests.app.dialogs import when_shown
 from tests.designs import CLAW_FEED, UNFINISHED
 
 
@@ -40,18 +40,6 @@ def test_nothing_to_print_for_an_unfinished_design(make_window, tmp_path):
     assert "nothing to print yet" in window.status.text() and "no driver" in window.status.text()
 
 
-def _when_shown(kind, act):
-    """Run ``act(dialog)`` once a top-level ``kind`` dialog is up (it runs modally)."""
-    def look():
-        dialog = next((w for w in QApplication.topLevelWidgets() if isinstance(w, kind) and w.isVisible()), None)
-        if dialog is None:
-            QTimer.singleShot(20, look)
-        else:
-            act(dialog)
-
-    QTimer.singleShot(0, look)
-
-
 def test_ctrl_p_opens_a_preview_with_paper_and_orientation(make_window, qtbot):
     from app.print_preview import SheetPreview
 
@@ -72,7 +60,7 @@ def test_ctrl_p_opens_a_preview_with_paper_and_orientation(make_window, qtbot):
         seen["painted"] = preview.findChild(QPrintPreviewWidget).pageCount()
         preview.reject()
 
-    _when_shown(SheetPreview, inspect)
+    when_shown(SheetPreview, inspect)
     qtbot.keyClick(window, Qt.Key.Key_P, Qt.KeyboardModifier.ControlModifier)
     assert "A4" in seen["papers"] and "A3" in seen["papers"]
     assert any("ortrait" in a for a in seen["actions"]) and any("andscape" in a for a in seen["actions"])
@@ -103,7 +91,7 @@ def test_export_pdf_asks_the_paper(make_window, tmp_path, qtbot, monkeypatch):
 
     window = make_window(CLAW_FEED)
     target = tmp_path / "sheet.pdf"
-    monkeypatch.setattr(app.exports.QFileDialog, "getSaveFileName", lambda *args: (str(target), "PDF sheet (*.pdf)"))
+    monkeypatch.setattr(QFileDialog, "getSaveFileName", lambda *args: (str(target), "PDF sheet (*.pdf)"))
 
     def choose(dialog):
         dialog.paper.setFocus()
@@ -113,7 +101,7 @@ def test_export_pdf_asks_the_paper(make_window, tmp_path, qtbot, monkeypatch):
         assert dialog.choice() == ("A3", True)
         qtbot.keyClick(dialog, Qt.Key.Key_Return)
 
-    _when_shown(PaperDialog, choose)
+    when_shown(PaperDialog, choose)
     window.export_pdf_dialog()
     with pdfplumber.open(target) as pdf:
         page = pdf.pages[0]

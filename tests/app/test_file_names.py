@@ -11,7 +11,9 @@ from PySide6.QtWidgets import QFileDialog, QMessageBox
 import kinematics
 from app.file_actions import FILE_FILTER
 from app.file_names import suggested_name, with_extension
+from app.print_preview import PaperDialog
 from app.window import MainWindow
+from tests.app.dialogs import when_shown
 from tests.designs import CARTON_PUSHER, CLAW_FEED, load
 
 REAL_ASK_TO_SAVE = MainWindow.ask_to_save
@@ -49,6 +51,7 @@ def test_the_exports_add_their_extension_and_suggest_the_design_name(make_window
                                                                      menu_text, extension):
     window = make_window(CLAW_FEED, path=str(tmp_path / "claw.json"))
     save_dialog(str(tmp_path / "sheet"))
+    when_shown(PaperDialog, lambda dialog: dialog.accept())  # the PDF export asks the paper first
     file_menu = next(a.menu() for a in window.menuBar().actions() if a.text() == "&File")
     next(a for a in file_menu.actions() if a.text() == menu_text).trigger()
     assert (tmp_path / f"sheet{extension}").is_file()
