@@ -30,7 +30,8 @@ class ForceScene(PolygonScene):
         super().__init__("force", parent)
 
     def _record(self, polygon, solution, size, draft: bool):
-        return polygon_pane(polygon, solution, size, draft, pen_of=force_pen, scale_text=scale_words(polygon))
+        return polygon_pane(polygon, solution, size, draft, pen_of=force_pen, scale_text=scale_words(polygon),
+                            stack_labels=True)
 
     @staticmethod
     def rect_for(polygon) -> QRectF:

@@ -11,7 +11,7 @@ from __future__ import annotations
 import math
 
 from .sheet import Recorder, Text
-from .symbols import text_beside
+from .symbols import stack_beside
 
 # Sides tried, in order, for a label whose own side is taken: the diagonals first (a label
 # there crosses neither the horizontal nor the vertical through its point), then square.
@@ -20,6 +20,9 @@ SIDES = tuple(math.radians(a) for a in (45, 135, 225, 315, 0, 90, 180, 270))
 # widest capitals run to 1.36 h, most letters and digits 0.8-0.95 h, measured with Qt 6.11),
 # and the line from the descenders (0.32 h below the baseline) to the ascent (1.27 h above).
 ADVANCE, ROOM, DESCENT, ASCENT = 0.95, 0.4, 0.35, 1.3
+# Where every side near its point is taken (a busy vertex of the force polygon), a label is
+# fanned out further, a ring at a time: RING_STEP capital heights, or half the block's size if more.
+RINGS, RING_STEP = 8, 1.5
 
 
 def text_box(text: Text) -> tuple:
@@ -46,39 +49,56 @@ def _hits(box: tuple, others: list) -> bool:
     return False
 
 
+def _block_box(texts) -> tuple:
+    """The box covering the lines of one label block."""
+    boxes = [text_box(text) for text in texts]
+    return (min(b[0] for b in boxes), min(b[1] for b in boxes), max(b[2] for b in boxes), max(b[3] for b in boxes))
+
+
 def declutter(rec: Recorder, view: str) -> None:
     """Move the labels of ``view`` so none covers an earlier one or a mark, where a side is
-    free; where none is free of both, a side free of the other labels will do."""
+    free; where none is free of both, a side free of the other labels will do, further out
+    (:data:`RINGS`) when every side near the point is taken. A block of stacked lines
+    (:func:`~kinematics.drawing.symbols.stacked_label`) moves as one."""
     marks = [box for name, box in rec.marks if name == view]
     placed = []
-    for index, at, gap, direction in rec.labels:
-        text = rec.primitives[index]
-        if text.view != view:
+    for first, count, at, gap, _ in rec.labels:
+        texts = rec.primitives[first:first + count]
+        if texts[0].view != view:
             continue
-        box = text_box(text)
+        box = text_box(texts[0]) if count == 1 else _block_box(texts)
         # Most labels are free where they were set: one look at every box tells.
         if _hits(box, placed) or _hits(box, marks):
-            text, box = _free_side(text, box, at, gap, direction, placed, marks)
-            rec.primitives[index] = text
+            texts, box = _free_side(texts, box, at, gap, placed, marks)
+            rec.primitives[first:first + count] = texts
         placed.append(box)
 
 
-def _free_side(text: Text, box: tuple, at, gap: float, direction: float, placed: list, marks: list) -> tuple:
-    """The label ``text`` (covering ``box``) on the first side free of both ``placed`` labels and
-    ``marks``, else of the labels alone, else where it was; and its box."""
-    # Only boxes that could touch one of this label's sides matter (a few, of many).
-    reach = gap + 1.5 * max(box[2] - box[0], box[3] - box[1])
+def _near(boxes: list, at, reach: float) -> list:
+    """Those of ``boxes`` within ``reach`` of ``at`` (a few, of many)."""
     near = (at[0] - reach, at[1] - reach, at[0] + reach, at[1] + reach)
-    near_placed = [other for other in placed if _overlap(near, other)]
-    near_marks = [other for other in marks if _overlap(near, other)]
+    return [other for other in boxes if _overlap(near, other)]
+
+
+def _free_side(texts: list, box: tuple, at, gap: float, placed: list, marks: list) -> tuple:
+    """The label block ``texts`` (covering ``box``) on the first side free of both ``placed``
+    labels and ``marks``, else of the labels alone, else where it was; and its box. Each ring
+    further out is tried only when no side of the one before is free of the labels."""
+    size = max(box[2] - box[0], box[3] - box[1])
     # Where it was, if clear of the other labels, is the side to fall back on (the first tried).
-    fallback = None if _hits(box, near_placed) else (text, box)
-    for side in SIDES:
-        candidate = text_beside(at, side, gap, text)
-        side_box = text_box(candidate)
-        if _hits(side_box, near_placed):
-            continue
-        if not _hits(side_box, near_marks):
-            return candidate, side_box
-        fallback = fallback or (candidate, side_box)
-    return fallback or (text, box)
+    fallback = None if _hits(box, _near(placed, at, gap + 1.5 * size)) else (texts, box)
+    for ring in range(RINGS):
+        distance = gap + ring * max(RING_STEP * texts[0].height, 0.5 * size)
+        reach = distance + 1.5 * size
+        near_placed, near_marks = _near(placed, at, reach), _near(marks, at, reach)
+        for side in SIDES:
+            candidate = stack_beside(at, side, distance, texts)
+            side_box = _block_box(candidate)
+            if _hits(side_box, near_placed):
+                continue
+            if not _hits(side_box, near_marks):
+                return candidate, side_box
+            fallback = fallback or (candidate, side_box)
+        if fallback:
+            return fallback
+    return texts, box

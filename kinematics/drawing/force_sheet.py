@@ -106,7 +106,7 @@ def force_view(made, box, size: Symbols) -> View:
 def draw_force_view(rec: Recorder, made, view: View, size: Symbols, bar_at, bar_longest: float) -> None:
     """The force polygon in ``view`` and its scale bar from ``bar_at``, its scale stated beside it."""
     rec.add_view(view)
-    draw_polygon(rec, made.polygon, made.construction.solution, view, size, pen_of=force_pen)
+    draw_polygon(rec, made.polygon, made.construction.solution, view, size, pen_of=force_pen, stack_labels=True)
     scale_bar(rec, bar_at, view.mm_per_unit, "N", bar_longest, f"{TITLE} {view.scale_text}", size, "force")
 
 

@@ -77,7 +77,7 @@ def force_pane(made, size: Symbols, draft: bool = False) -> Sheet:
     stating N per mm (view "force"), for a pane that zooms (see :mod:`kinematics.drawing.panes`)."""
     polygon = made.polygon
     return polygon_pane(polygon, made.construction.solution, size, draft, pen_of=force_pen,
-                        scale_text=scale_words(polygon))
+                        scale_text=scale_words(polygon), stack_labels=True)
 
 
 def has_line_of_action(step) -> bool:

@@ -271,7 +271,7 @@ def draw_model(construction, file_name: str = "", date: str | None = None, with_
         box = (left, y0, left + (px1 - px0) * fit.mm_per_unit, y0 + (py1 - py0) * fit.mm_per_unit)
         views[name] = View(name, box, origin, fit.mm_per_unit, polygon.unit, fit.scale_text)
         rec.add_view(views[name])
-        draw_polygon(rec, polygon, solution, views[name], paper, pen_of=pen_of)
+        draw_polygon(rec, polygon, solution, views[name], paper, pen_of=pen_of, stack_labels=name == "force")
         # The next view starts clear of this one's scale bar and caption too, which a small polygon
         # (drawn at its paper scale beside a big machine) is narrower than.
         caption = text_width(_caption(views[name]), paper.text)

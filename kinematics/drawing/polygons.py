@@ -34,10 +34,12 @@ def polygon_bounds(polygon) -> tuple:
 
 
 def draw_polygon(rec: Recorder, polygon, solution, view: View, size: Symbols, xy: dict | None = None,
-                 pen_of=pen_for) -> None:
+                 pen_of=pen_for, stack_labels: bool = False) -> None:
     """Record ``polygon`` (a :class:`kinematics.Polygon` of ``solution``) into ``view``; ``xy``
     is the pose's point positions (:func:`~kinematics.drawing.space.positions`) if already at hand;
-    ``pen_of`` gives a step its pen (the force polygon draws on layers of its own)."""
+    ``pen_of`` gives a step its pen (the force polygon draws on layers of its own). The labels of
+    coinciding points join on one line ("a, d"), or with ``stack_labels`` stand one a line (a
+    force's label is long: "F(crank→rod)", and a vertex of the force polygon ends several)."""
     name, place = view.name, view.place
     # The lines a label must not sit along: the image segments, construction lines and vectors.
     segments = _draw_image_figures(rec, polygon, solution, view, positions(solution) if xy is None else xy)
@@ -57,28 +59,31 @@ def draw_polygon(rec: Recorder, polygon, solution, view: View, size: Symbols, xy
             rec.add(Circle(at, size.dot, pen, True, name, ref))
             symbols.dot_mark(rec, at, size.dot, name)
     labels = _labels(polygon, view, size)
-    centre = (sum(where[0] for where, _, _ in labels) / len(labels),
-              sum(where[1] for where, _, _ in labels) / len(labels)) if labels else view.origin
+    centre = (sum(where[0] for where, _ in labels) / len(labels),
+              sum(where[1] for where, _ in labels) / len(labels)) if labels else view.origin
     lines = [] if rec.draft else symbols.lines_near(segments, size.dot)
-    for where, text, step_id in labels:
-        symbols.label(rec, where, text, centre, IMAGE, size, gap=size.dot, avoid=symbols.directions_at(where, lines),
-                      view=name, ref=ref_of("step", step_id))
+    for where, names in labels:
+        texts = [(text, ref_of("step", step_id)) for text, step_id in names]
+        if not stack_labels:
+            texts = [(", ".join(text for text, _ in names), texts[0][1])]
+        symbols.stacked_label(rec, where, texts, centre, IMAGE, size, gap=size.dot,
+                              avoid=symbols.directions_at(where, lines), view=name)
     declutter(rec, view.name)
 
 
 def _labels(polygon, view: View, size: Symbols) -> list:
-    """(where, text, step id) per labelled place; labels of coinciding points join ("a, d")."""
+    """(where, [(text, step id), ...]) per labelled place: the labels of the steps ending there,
+    each once, in the steps' order."""
     merged = []
     for step in polygon.steps:
         if not step.label:
             continue
         where = view.place(step.coords[-1])  # a point, or the end of a vector, carries the label
-        same = next((i for i, (at, _, _) in enumerate(merged) if math.dist(at, where) < 0.5 * size.text), None)
+        same = next((i for i, (at, _) in enumerate(merged) if math.dist(at, where) < 0.5 * size.text), None)
         if same is None:
-            merged.append((where, step.label, step.id))
-        elif step.label not in merged[same][1].split(", "):
-            at, text, step_id = merged[same]
-            merged[same] = (at, f"{text}, {step.label}", step_id)
+            merged.append((where, [(step.label, step.id)]))
+        elif step.label not in (text for text, _ in merged[same][1]):
+            merged[same][1].append((step.label, step.id))
     return merged
 
 

@@ -177,17 +177,41 @@ def label(rec: Recorder, at, text: str, away_from, pen, size: Symbols, gap: floa
     """Text beside ``at``, clear of a mark ``gap`` mm wide, on the side facing
     away from ``away_from`` unless that lies along one of the lines through the
     point (``avoid``: their directions in radians)."""
+    stacked_label(rec, at, ((text, ids.get("ref")),), away_from, pen, size, gap, avoid, ids.get("view", ""))
+
+
+# From one line's baseline to the next, in capital heights: more than the line's box as the
+# declutter estimates it (1.65 h from the descenders to the ascent), so stacked lines never touch.
+LINE_PITCH = 1.75
+
+
+def stacked_label(rec: Recorder, at, lines, away_from, pen, size: Symbols, gap: float, avoid=(),
+                  view: str = "") -> None:
+    """Several labels of one place (``lines``: (text, ref) each), one a line, beside ``at`` as
+    :func:`label` sets one (see :func:`stack_beside`), recorded as one block for the declutter."""
     dx, dy = at[0] - away_from[0], at[1] - away_from[1]
     away = math.atan2(dy, dx) if math.hypot(dx, dy) > 1e-9 else math.pi / 4.0
     direction = _label_direction(away, avoid)
-    rec.labels.append((len(rec.primitives), at, gap, direction))
-    rec.add(_beside(at, direction, gap, text, size.text, pen, ids.get("view", ""), ids.get("ref")))
+    texts = [Text(at, words, size.text, pen, view=view, ref=ref) for words, ref in lines]
+    rec.labels.append((len(rec.primitives), len(texts), at, gap, direction))
+    for text in stack_beside(at, direction, gap, texts):
+        rec.add(text)
 
 
-def text_beside(at, direction: float, gap: float, text: Text) -> Text:
-    """``text`` set beside ``at`` towards ``direction`` (radians), clear of a mark ``gap`` mm
-    wide: aligned and anchored on the side facing the point."""
-    return _beside(at, direction, gap, text.text, text.height, text.pen, text.view, text.ref)
+def stack_beside(at, direction: float, gap: float, texts) -> list:
+    """``texts`` (of one height) set beside ``at`` towards ``direction`` (radians), clear of a mark
+    ``gap`` mm wide, one a line: each aligned and anchored on the side facing the point, the block
+    growing away from it (upwards above it, downwards below it, centred on it at its side)."""
+    height = texts[0].height
+    pitch = LINE_PITCH * height
+    uy = math.sin(direction)
+    middle = 0.5 * (len(texts) - 1)
+    out = []
+    for i, text in enumerate(texts):
+        shift = i * pitch if uy > 0.38 else -i * pitch if uy < -0.38 else (middle - i) * pitch
+        placed = _beside(at, direction, gap, text.text, height, text.pen, text.view, text.ref)
+        out.append(placed._replace(position=(placed.position[0], placed.position[1] + shift)))
+    return out
 
 
 def _beside(at, direction: float, gap: float, words: str, height: float, pen, view: str, ref) -> Text:
