@@ -8,6 +8,7 @@ the core's, and one with a textbook formula."""
 import json
 import math
 
+import numpy as np
 import pytest
 from PySide6.QtCore import QPointF, Qt
 from PySide6.QtTest import QTest
@@ -205,3 +206,52 @@ def panel_readable(value):
     from app.cycle_series import readable
 
     return readable(value)
+
+
+def test_the_cycle_tab_plots_every_joint_load_and_the_polar_diagram_in_the_link_axes(make_window, qtbot):
+    window = _open(make_window, CAP_PRESS)
+    doc = window.document
+    _show_tab(window, "Cycle")
+    window.cycle_pages.setCurrentWidget(window.cycle_forces)
+    panel = window.cycle_forces
+    qtbot.waitUntil(lambda: doc.cycle_forces.sweep_forces is not None and panel.source is doc.cycle_forces)
+    found, sweep = doc.cycle_forces.sweep_forces, doc.sweep
+    # One curve per distinct load at a pin: at a plain pin the two links' forces are equal and
+    # opposite (Newton's third law), so |F| is drawn once for both.
+    for (point, link), curve in panel.magnitude_curves.items():
+        _, size = curve.getData()
+        assert sorted(size.tolist()) == sorted(np.linalg.norm(found.joints_n[point][link], axis=1).tolist())
+    for point, by_link in found.joints_n.items():
+        drawn = [link for p, link in panel.magnitude_curves if p == point]
+        assert drawn, f"no curve for the pin at {point}"
+        for link in by_link:
+            assert any(np.allclose(np.linalg.norm(by_link[link], axis=1), np.linalg.norm(by_link[d], axis=1))
+                       for d in drawn)
+    # A click on a curve of the magnitudes chooses its joint and turns the driver there.
+    key = next(k for k in panel.magnitude_curves if k != panel.joint.currentData())
+    xs, ys = panel.magnitude_curves[key].getData()
+    at = int(np.argmax(np.abs(ys - np.interp(xs, *panel.magnitude_curves[panel.joint.currentData()].getData()))))
+    box = panel.magnitude_plot.getViewBox()
+    scene_at = box.mapViewToScene(QPointF(float(xs[at]), float(ys[at])))
+    QTest.mouseClick(panel.graphics.viewport(), Qt.MouseButton.LeftButton, Qt.KeyboardModifier.NoModifier,
+                     panel.graphics.mapFromScene(scene_at))
+    assert panel.joint.currentData() == key
+    assert doc.shown_angle_deg % 360.0 == pytest.approx(xs[at], abs=1.0)
+    assert panel.magnitude_curves[key].opts["pen"].widthF() > 2.0
+    # In the link axes: x along the link's line from its first point to its second (its unit vector
+    # taken from the swept positions, not from the sweep's link angle), y across it.
+    point, link = key
+    panel.axes.setFocus()
+    QTest.keyClick(panel.axes, Qt.Key.Key_Down)  # frame axes -> link axes, as a user steps a list
+    assert panel.axes.currentData() == "link"
+    first, second = doc.mechanism.links[link][:2]
+    names = sweep.point_names
+    line = sweep.positions[:, names.index(second)] - sweep.positions[:, names.index(first)]
+    unit = line / np.linalg.norm(line, axis=1)[:, None]
+    force = found.joints_n[point][link]
+    along = np.einsum("ij,ij->i", force, unit)
+    across = unit[:, 0] * force[:, 1] - unit[:, 1] * force[:, 0]
+    fx, fy = panel.polar_curve.getData()
+    np.testing.assert_allclose(fx[:-1], along, rtol=1e-12, atol=1e-9)
+    np.testing.assert_allclose(fy[:-1], across, rtol=1e-12, atol=1e-9)
+    assert panel.polar_plot.getAxis("bottom").labelText.startswith(f"F along {link}")
