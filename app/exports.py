@@ -7,17 +7,40 @@ from __future__ import annotations
 from pathlib import Path
 
 from PySide6.QtCore import Qt
+from PySide6.QtGui import QAction
 from PySide6.QtPrintSupport import QPrinter
 from PySide6.QtWidgets import QApplication, QDialog, QProgressDialog
 
-from kinematics import KinematicsError, SweepCancelled, dumps
+from kinematics import KinematicsError, NoMassData, SweepCancelled, dumps
 
 from .file_actions import file_message, save_path
 from .file_names import filter_extensions, suggested_name
 
 
+def add_sheet_contents(window, menu) -> None:
+    """File > Prints and exports include: the instantaneous centres over the space diagram and the
+    force polygon (a second sheet in a PDF, its own layers in a DXF), as ``kinepoly print`` and
+    ``export`` take them with ``--centres`` and ``--forces``. Both are the window's
+    ``include_centres`` and ``include_forces`` actions, also offered by the print preview and the
+    PDF paper dialog."""
+    contents = menu.addMenu("Prints and exports &include")
+    for name, text, tip, on in (
+            ("include_centres", "Instantaneous &centres", "the instantaneous centres on the printed and exported "
+             "space diagram (DXF layer CENTRES)", False),
+            ("include_forces", "&Force polygon", "the force polygon of the pose, where the design has mass data: a "
+             "second sheet in a PDF, its FORCE layers in a DXF", True)):
+        action = QAction(text, window)
+        action.setCheckable(True)
+        action.setChecked(on)
+        action.setToolTip(tip)
+        contents.addAction(action)
+        setattr(window, name, action)
+    contents.setToolTipsVisible(True)
+
+
 class SheetOutputs:
-    """Print, Export PDF and Export DXF for a window with ``document``, ``say`` and ``show_error``."""
+    """Print, Export PDF and Export DXF for a window with ``document``, ``drawings``, ``say``,
+    ``show_error`` and the ``include_centres`` and ``include_forces`` actions."""
 
     def _ready_construction(self):
         construction = self.document.construction
@@ -38,6 +61,22 @@ class SheetOutputs:
     def _file_name(self) -> str:
         return Path(self.document.path).name if self.document.path else ""
 
+    def _contents(self) -> tuple:
+        """(keyword arguments of the sheet and the DXF for what File > Prints and exports include
+        asks, and in words what was asked and left out)."""
+        extras = {"with_centres": self.include_centres.isChecked(), "forces": None}
+        left_out = ""
+        if self.include_forces.isChecked():
+            from .outcomes import forces_of
+
+            try:
+                extras["forces"] = forces_of(self.document.construction)
+            except NoMassData:
+                pass  # nothing to include: the design has no masses and no loads
+            except KinematicsError as error:
+                left_out = f"; force polygon left out: {error}"
+        return extras, left_out
+
     def export_pdf(self, path, paper: str = "A4", landscape: bool = False) -> bool:
         """The construction at true scale on a ``paper`` sheet, as ``kinepoly print`` draws it."""
         construction = self._ready_construction()
@@ -45,13 +84,14 @@ class SheetOutputs:
             return False
         from .printing import print_construction  # the sheet machinery loads when first used
 
+        extras, left_out = self._contents()
         try:
             print_construction(construction, str(path), paper=paper, landscape=landscape,
-                               file_name=self._file_name())
+                               file_name=self._file_name(), **extras)
         except (KinematicsError, OSError) as error:
             self.show_error("Cannot export", file_message(path, error))
             return False
-        self.say(f"sheet written to {path}")
+        self.say(f"sheet written to {path}{left_out}")
         return True
 
     def export_dxf(self, path) -> bool:
@@ -61,12 +101,13 @@ class SheetOutputs:
             return False
         from kinematics.drawing.dxf import write_dxf  # ezdxf takes half a second to import: only when asked
 
+        extras, left_out = self._contents()
         try:
-            write_dxf(construction, str(path), file_name=self._file_name())
+            write_dxf(construction, str(path), file_name=self._file_name(), **extras)
         except (KinematicsError, OSError) as error:
             self.show_error("Cannot export", file_message(path, error))
             return False
-        self.say(f"drawing written to {path}")
+        self.say(f"drawing written to {path}{left_out}")
         return True
 
     def print_dialog(self):
@@ -77,7 +118,8 @@ class SheetOutputs:
         from .print_preview import SheetPreview  # the sheet machinery loads when first used
 
         printer = QPrinter(QPrinter.PrinterMode.HighResolution)
-        preview = SheetPreview(construction, printer, self._file_name(), self)
+        preview = SheetPreview(construction, printer, self._file_name(), self._contents,
+                               (self.include_centres, self.include_forces), self)
         preview.exec()
         if preview.errors:
             self.show_error("Cannot print", preview.errors[-1])
@@ -88,7 +130,7 @@ class SheetOutputs:
             return
         from .print_preview import PaperDialog
 
-        dialog = PaperDialog(self)
+        dialog = PaperDialog(self, contents=(self.include_centres, self.include_forces))
         if dialog.exec() != QDialog.DialogCode.Accepted:
             return
         paper, landscape = dialog.choice()

@@ -29,7 +29,7 @@ from .cycle_series import length_at_angle_mm
 from .design_actions import DesignActions, grid_step_mm
 from .document import Document
 from .editing import JointDrag
-from .exports import SheetOutputs
+from .exports import SheetOutputs, add_sheet_contents
 from .file_actions import FileActions, save_path
 from .file_names import suggested_name
 from .forces_table import ForcesTable
@@ -194,6 +194,7 @@ class MainWindow(FileActions, SheetOutputs, QMainWindow):
         self._action(files, "Export drawing as D&XF…", lambda: self._export("DXF drawing (*.dxf)", self.export_dxf))
         self.review_action = self._action(files, "Re&view report…", self.review_dialog)
         self._action(files, "Export results table as &CSV…", self.export_table_dialog)
+        add_sheet_contents(self, files)
         files.addSeparator()
         self._action(files, "&Quit", self.close, QKeySequence.StandardKey.Quit)
         edit = self.menuBar().addMenu("&Edit")

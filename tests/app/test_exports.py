@@ -9,7 +9,9 @@ from PySide6.QtWidgets import QFileDialog, QToolBar
 
 import kinematics
 from tests.app.dialogs import when_shown
-from tests.designs import CLAW_FEED, UNFINISHED
+from tests.designs import CLAW_FEED, SAMPLES, UNFINISHED
+
+CAP_PRESS = SAMPLES / "cap-press-feeder.json"  # a sample with mass data
 
 
 def test_export_pdf_writes_the_shown_pose_with_the_caution(make_window, tmp_path):
@@ -77,7 +79,7 @@ def test_the_preview_paints_the_sheet_for_the_printers_paper(make_window, tmp_pa
     printer.setOutputFileName(str(target))
     printer.setPageSize(QPageSize(QPageSize.PageSizeId.A3))
     printer.setPageOrientation(QPageLayout.Orientation.Landscape)
-    preview = SheetPreview(window.document.construction, printer, "claw.json", window)
+    preview = SheetPreview(window.document.construction, printer, "claw.json", window._contents, parent=window)
     preview.paint(printer)  # what Print in the preview does with the printer chosen there
     with pdfplumber.open(target) as pdf:
         page = pdf.pages[0]
@@ -106,3 +108,78 @@ def test_export_pdf_asks_the_paper(make_window, tmp_path, qtbot, monkeypatch):
     with pdfplumber.open(target) as pdf:
         page = pdf.pages[0]
         assert abs(page.width * 25.4 / 72 - 420) <= 0.5 and abs(page.height * 25.4 / 72 - 297) <= 0.5
+
+
+def _pages(path):
+    with pdfplumber.open(path) as pdf:
+        return [page.extract_text() or "" for page in pdf.pages]
+
+
+def test_the_pdf_includes_the_force_polygon_and_the_centres_as_the_paper_dialog_says(make_window, tmp_path, qtbot,
+                                                                                      monkeypatch):
+    from app.print_preview import PaperDialog
+
+    window = make_window(CLAW_FEED)
+    assert window.open_path(str(CAP_PRESS))
+    target = tmp_path / "press.pdf"
+    monkeypatch.setattr(QFileDialog, "getSaveFileName", lambda *args: (str(target), "PDF sheet (*.pdf)"))
+    assert window.include_forces.isChecked() and not window.include_centres.isChecked()
+    # By default a design with mass data gets its force polygon on a second sheet.
+    when_shown(PaperDialog, lambda dialog: qtbot.keyClick(dialog, Qt.Key.Key_Return))
+    window.export_pdf_dialog()
+    pages = _pages(target)
+    assert len(pages) == 2 and "force polygon" in pages[1].lower()
+    assert "instantaneous centres" not in pages[0].lower()
+
+    def choose(dialog):
+        (centres, _), (forces, _) = dialog.includes
+        centres.setFocus()
+        qtbot.keyClick(centres, Qt.Key.Key_Space)  # ticked
+        forces.setFocus()
+        qtbot.keyClick(forces, Qt.Key.Key_Space)  # cleared
+        qtbot.keyClick(dialog, Qt.Key.Key_Return)
+
+    when_shown(PaperDialog, choose)
+    window.export_pdf_dialog()
+    pages = _pages(target)
+    assert len(pages) == 1
+    assert "ground|crank" in pages[0]  # a centre's name: the pivot of the crank
+    assert window.include_centres.isChecked() and not window.include_forces.isChecked()  # the choice is kept
+
+
+def test_the_dxf_takes_the_centres_and_the_force_polygon_from_the_file_menu(make_window, tmp_path):
+    window = make_window(CLAW_FEED)
+    assert window.open_path(str(CAP_PRESS))
+    window.include_centres.trigger()  # File > Prints and exports include > Instantaneous centres
+    target = tmp_path / "press.dxf"
+    assert window.export_dxf(target)
+    doc, auditor = ezdxf.recover.readfile(target)
+    assert not auditor.has_errors
+    layers = {e.dxf.layer for e in doc.modelspace()}
+    assert "CENTRES" in layers and any(layer.startswith("FORCE-") for layer in layers)
+    window.include_forces.trigger()
+    window.include_centres.trigger()
+    assert window.export_dxf(target)
+    layers = {e.dxf.layer for e in ezdxf.recover.readfile(target)[0].modelspace()}
+    assert "CENTRES" not in layers and not any(layer.startswith("FORCE-") for layer in layers)
+
+
+def test_the_preview_offers_the_same_choices_and_lays_the_sheets_out_again(make_window, qtbot):
+    from app.print_preview import SheetPreview
+
+    window = make_window(CLAW_FEED)
+    assert window.open_path(str(CAP_PRESS))
+    seen = {}
+
+    def inspect(preview):
+        toolbar = preview.findChild(QToolBar)
+        assert window.include_forces in toolbar.actions() and window.include_centres in toolbar.actions()
+        shown = preview.findChild(QPrintPreviewWidget)
+        seen["with forces"] = shown.pageCount()
+        window.include_forces.trigger()  # the tool bar's button is the File menu's action
+        seen["without"] = shown.pageCount()
+        preview.reject()
+
+    when_shown(SheetPreview, inspect)
+    qtbot.keyClick(window, Qt.Key.Key_P, Qt.KeyboardModifier.ControlModifier)
+    assert seen == {"with forces": 2, "without": 1}
