@@ -10,15 +10,18 @@ from __future__ import annotations
 from PySide6.QtCore import QRectF, Qt, Signal
 from PySide6.QtGui import QColor, QPainter
 
-from kinematics.drawing.forces import force_pen, scale_words
+from kinematics.drawing import Ref, Text
+from kinematics.drawing.declutter import text_box
+from kinematics.drawing.forces import force_pen, scale_words, screen_labelled
 from kinematics.drawing.panes import polygon_pane
 
 from .drawing_kit import label_font
 from .polygon_scene import PolygonScene
+from .space_scene import scene_rect
 from .views import LEGEND_LINE, LEGEND_TOP, PolygonView
 
 MESSAGE_WIDTH = 360.0  # pixels the message wraps at
-SIDE_ROOM = 0.15  # room each side of the force polygon for its labels, as a share of its width
+LABEL_ROOM = 0.6  # the most room each side of the force polygon its labels take, a share of its size
 
 
 class ForceScene(PolygonScene):
@@ -30,17 +33,50 @@ class ForceScene(PolygonScene):
         super().__init__("force", parent)
 
     def _record(self, polygon, solution, size, draft: bool):
+        self._drawn = (polygon, solution, size, draft)
+        chosen = self.selected_step or ""
         return polygon_pane(polygon, solution, size, draft, pen_of=force_pen, scale_text=scale_words(polygon),
-                            stack_labels=True)
+                            stack_labels=True, labelled=lambda step: screen_labelled(step, chosen))
 
-    @staticmethod
-    def rect_for(polygon) -> QRectF:
-        """The base scene's fit with room beside the drawing for the labels at the forces' ends."""
-        rect = PolygonScene.rect_for(polygon)
-        # A force's label is long ("F(crank→rod)ᵗ"): a share of the drawing's width, not the labels'
-        # own boxes: those keep their size on screen, so a fit to them would zoom out without end.
-        side = SIDE_ROOM * rect.width()
-        return rect.adjusted(-side, 0.0, side, 0.0)
+    def select_step(self, step_id: str | None):
+        """Emphasise one step (None clears) beside the forces at the joint the mouse is on, and
+        label it (the pane labels only the forces found and the step chosen)."""
+        step_id = step_id if step_id in self._steps else None
+        if step_id != self.selected_step and self.sheet is not None:
+            self.selected_step = step_id
+            polygon, solution, size, draft = self._drawn
+            self.sheet = self._record(polygon, solution, size, draft)
+            self.drawing.show(self.sheet, self.drawing.pixels_per_mm)
+        self.selected_step = step_id
+        self._emphasise()
+
+    def mark_point(self, name: str | None):
+        """Emphasise every force at joint ``name`` (None: none), in this pose and the ones that follow."""
+        self.marked = name
+        self._emphasise()
+
+    def _emphasise(self):
+        at_joint = set(self.forces_at(self.marked)) if self.marked is not None else set()
+        chosen = {self.selected_step} if self.selected_step else set()
+        self.drawing.emphasise({Ref("step", step) for step in at_joint | chosen})
+
+    def forces_at(self, name: str) -> list:
+        """The ids of the force vectors drawn at joint ``name``."""
+        steps = self.polygon.steps if self.polygon is not None else ()
+        return [s.id for s in steps if s.is_vector and name in s.points]
+
+    def fit_rect(self, polygon) -> QRectF:
+        """The area a view fits for ``polygon`` as drawn: the drawing and its labels (long, "F(crank→rod)ᵗ",
+        and fanned out at a busy vertex). The labels keep their size on screen, so the view fits
+        again after drawing at the new zoom; their room is held to LABEL_ROOM of the drawing's size
+        each side, so a view too small for them cannot zoom out without end."""
+        rect = self.rect_for(polygon)
+        labels = QRectF()
+        for primitive in self.sheet.primitives if self.sheet is not None else ():
+            if isinstance(primitive, Text) and primitive.ref is not None and primitive.ref.kind == "step":
+                labels = labels.united(scene_rect(text_box(primitive)))
+        most = LABEL_ROOM * max(rect.width(), rect.height())
+        return rect.united(labels).intersected(rect.adjusted(-most, -most, most, most))
 
 
 class ForceView(PolygonView):

@@ -147,6 +147,15 @@ class DrawingsPanel(QSplitter):
         if fit and polygon is not None:
             view.show_rect(scene.rect_for(polygon))
         scene.show(polygon, doc.solution, self._mm_per_pixel(view), self.draft)
+        if fit and polygon is not None and scene.kind == "force":
+            # The force polygon's labels take a room of their own: fitted to them as drawn, then
+            # drawn again at the zoom that fit made (their place depends on it), until it holds.
+            for _ in range(REFITS):
+                zoom = self._mm_per_pixel(view)
+                view.show_rect(scene.fit_rect(polygon))
+                if self._mm_per_pixel(view) == zoom:
+                    break
+                scene.show(polygon, doc.solution, self._mm_per_pixel(view), self.draft)
 
     def set_draft(self, on: bool):
         """Draw without antialiasing, and labels as a draft (see kinematics.drawing.Recorder), while
@@ -205,6 +214,7 @@ class DrawingsPanel(QSplitter):
         self.space_scene.emphasise(links=self._selected_links(), point=name)
         self.velocity_scene.mark_point(name)
         self.acceleration_scene.mark_point(name)
+        self.force_scene.mark_point(name)
 
     def _selected_links(self):
         construction = self.document.construction
@@ -215,7 +225,11 @@ class DrawingsPanel(QSplitter):
         return ()
 
     def select_step(self, step_id: str):
-        """Emphasise step ``step_id`` in its polygon and the links it concerns ("" clears)."""
+        """Emphasise step ``step_id`` in its polygon and the links it concerns ("" clears); a force
+        step also keeps its line of action on the space diagram."""
         for scene in (self.velocity_scene, self.acceleration_scene):
             scene.select_step(step_id if scene.has_step(step_id) else None)
         self.space_scene.emphasise(links=self._selected_links())
+        self.force_step = step_id if self.force_scene.has_step(step_id) else ""
+        self.force_scene.select_step(self.force_step or None)
+        self._force_line(self.force_step)

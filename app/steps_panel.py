@@ -13,7 +13,8 @@ def step_text(step) -> str:
 
 
 class StepsPanel(QListWidget):
-    """Both polygons' steps; selecting one emits ``step_selected(step id)`` ("" when cleared)."""
+    """Both polygons' steps, then the force polygon's while it is shown; selecting one emits
+    ``step_selected(step id)`` ("" when cleared)."""
 
     step_selected = Signal(str)
 
@@ -27,8 +28,10 @@ class StepsPanel(QListWidget):
         self.setTextElideMode(Qt.TextElideMode.ElideRight)
         self.currentItemChanged.connect(self._current_changed)
 
-    def show_construction(self, construction):
+    def show_construction(self, construction, forces=None):
+        """List the steps of ``construction`` and of ``forces`` (the Polygon of its force polygon, or None)."""
         steps = [] if construction is None else [*construction.velocity.steps, *construction.acceleration.steps]
+        steps += forces.steps if forces is not None else []
         structure = tuple(s.id for s in steps)
         if structure != self.structure:
             self.blockSignals(True)
@@ -47,12 +50,14 @@ class StepsPanel(QListWidget):
                 item.setToolTip(text)
 
     def select_step(self, step_id: str):
-        """Make step ``step_id`` current (as if clicked in the list) and bring it into sight."""
+        """Make step ``step_id`` current (as if clicked in the list) and bring it into sight ("" or a
+        step not listed: none is current)."""
         for row in range(self.count()):
             if self.item(row).data(Qt.ItemDataRole.UserRole) == step_id:
                 self.setCurrentRow(row)
                 self.scrollToItem(self.item(row))
                 return
+        self.setCurrentRow(-1)
 
     def _current_changed(self, current, _previous):
         self.step_selected.emit(current.data(Qt.ItemDataRole.UserRole) if current is not None else "")

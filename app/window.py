@@ -135,6 +135,9 @@ class MainWindow(FileActions, SheetOutputs, QMainWindow):
         self.table.point_chosen.connect(self.drawings.mark_point)
         for polygon_view in (self.drawings.velocity_view, self.drawings.acceleration_view):
             polygon_view.step_clicked.connect(self.show_step)
+        # After the force pane took the click (a second click on a step lets it go): the list follows.
+        self.drawings.force_view.step_clicked.connect(lambda _step: self.show_step(self.drawings.force_step))
+        self.drawings.third.currentChanged.connect(lambda _index: self._readouts())
         view = self.drawings.space_view
         view.drag_started.connect(self.begin_drag)
         view.dragged.connect(self.continue_drag)
@@ -315,7 +318,8 @@ class MainWindow(FileActions, SheetOutputs, QMainWindow):
         and the last frame's always."""
         self.angle.show_angle(self.document.shown_angle_deg)
         self.angle.show_length(self.document.shown_length_mm)
-        self.steps.show_construction(self.document.construction)
+        made = self.drawings.force_polygon() if self.drawings.showing_forces() else None
+        self.steps.show_construction(self.document.construction, made and made.polygon)
         text = status_text(self.document.analysis, self.note or self.design_actions.describe())
         self.status.setText(text)
         self.status.setToolTip(text)

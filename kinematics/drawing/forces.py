@@ -67,6 +67,13 @@ def force_pen(step) -> Pen:
     return FORCE_POINT
 
 
+def screen_labelled(step, chosen: str = "") -> bool:
+    """Whether a screen's force polygon labels ``step``: the pole, the forces it found and the step
+    ``chosen`` (the known inertia, weight and component vectors are named in the steps list; on a
+    pane a few hundred pixels wide all their labels could not stand clear of each other)."""
+    return step.role in (Role.IMAGE, Role.RESULT) or step.id == chosen
+
+
 def scale_words(polygon) -> str:
     """The force polygon's scale as stated beside its bar: "2 N per mm"."""
     return f"{plain(polygon.scale_per_mm)} N per mm"

@@ -98,11 +98,12 @@ def polygon_box(polygon) -> tuple:
 
 
 def polygon_pane(polygon, solution, size: Symbols, draft: bool = False, pen_of=pen_for,
-                 scale_text: str = "", stack_labels: bool = False) -> Sheet:
+                 scale_text: str = "", stack_labels: bool = False, labelled=None) -> Sheet:
     """``polygon`` of ``solution`` at its construction's scale (``polygon.scale_per_mm``), with
     its scale bar under it; a ``draft`` as :class:`~kinematics.drawing.sheet.Recorder` says.
     ``pen_of`` gives a step its pen, ``scale_text`` states the scale beside the bar ("1 mm = 0.05
-    m/s" when empty); ``stack_labels`` as :func:`~kinematics.drawing.polygons.draw_polygon` says."""
+    m/s" when empty); ``stack_labels`` and ``labelled`` as :func:`~kinematics.drawing.polygons.draw_polygon`
+    says."""
     scale = polygon.scale_per_mm
     unit = printed_unit(polygon.unit)
     view = View(polygon.kind, (0.0, 0.0, 0.0, 0.0), (0.0, 0.0), 1.0 / scale, polygon.unit,
@@ -120,7 +121,7 @@ def polygon_pane(polygon, solution, size: Symbols, draft: bool = False, pen_of=p
     scale_bar(rec, (x, y - CAPTION_ROOM * words.text), view.mm_per_unit, polygon.unit,
               max(longest, BAR_LEAST * words.text), view.scale_text, words, polygon.kind)
     rec.marks.extend((polygon.kind, text_box(p)) for p in rec.primitives if isinstance(p, Text))
-    draw_polygon(rec, polygon, solution, view, size, pen_of=pen_of, stack_labels=stack_labels)
+    draw_polygon(rec, polygon, solution, view, size, pen_of=pen_of, stack_labels=stack_labels, labelled=labelled)
     box = (x0, y0, x1, y1)  # the bar lies in the room the pane keeps under the drawing
     rec.add_view(View(polygon.kind, box, view.origin, view.mm_per_unit, view.unit, view.scale_text))
     return rec.sheet(0.0, 0.0)

@@ -34,12 +34,13 @@ def polygon_bounds(polygon) -> tuple:
 
 
 def draw_polygon(rec: Recorder, polygon, solution, view: View, size: Symbols, xy: dict | None = None,
-                 pen_of=pen_for, stack_labels: bool = False) -> None:
+                 pen_of=pen_for, stack_labels: bool = False, labelled=None) -> None:
     """Record ``polygon`` (a :class:`kinematics.Polygon` of ``solution``) into ``view``; ``xy``
     is the pose's point positions (:func:`~kinematics.drawing.space.positions`) if already at hand;
     ``pen_of`` gives a step its pen (the force polygon draws on layers of its own). The labels of
     coinciding points join on one line ("a, d"), or with ``stack_labels`` stand one a line (a
-    force's label is long: "F(crank→rod)", and a vertex of the force polygon ends several)."""
+    force's label is long: "F(crank→rod)", and a vertex of the force polygon ends several);
+    ``labelled(step)``, if given, says which steps are labelled (all that have a label otherwise)."""
     name, place = view.name, view.place
     # The lines a label must not sit along: the image segments, construction lines and vectors.
     segments = _draw_image_figures(rec, polygon, solution, view, positions(solution) if xy is None else xy)
@@ -58,7 +59,7 @@ def draw_polygon(rec: Recorder, polygon, solution, view: View, size: Symbols, xy
             at = place(step.coords[0])
             rec.add(Circle(at, size.dot, pen, True, name, ref))
             symbols.dot_mark(rec, at, size.dot, name)
-    labels = _labels(polygon, view, size)
+    labels = _labels(polygon, view, size, labelled)
     centre = (sum(where[0] for where, _ in labels) / len(labels),
               sum(where[1] for where, _ in labels) / len(labels)) if labels else view.origin
     lines = [] if rec.draft else symbols.lines_near(segments, size.dot)
@@ -71,12 +72,12 @@ def draw_polygon(rec: Recorder, polygon, solution, view: View, size: Symbols, xy
     declutter(rec, view.name)
 
 
-def _labels(polygon, view: View, size: Symbols) -> list:
+def _labels(polygon, view: View, size: Symbols, labelled=None) -> list:
     """(where, [(text, step id), ...]) per labelled place: the labels of the steps ending there,
     each once, in the steps' order."""
     merged = []
     for step in polygon.steps:
-        if not step.label:
+        if not step.label or (labelled is not None and not labelled(step)):
             continue
         where = view.place(step.coords[-1])  # a point, or the end of a vector, carries the label
         same = next((i for i, (at, _) in enumerate(merged) if math.dist(at, where) < 0.5 * size.text), None)
