@@ -104,7 +104,7 @@ class Builder(QObject):
             if building.cylinder_slide(self.document.mechanism, pivot, point) is not None:
                 mech = building.set_cylinder_driver(self.document.mechanism, pivot, point)
                 self._apply(mech, "choose the cylinder driver")
-                self.say(f"driver: cylinder {mech.driver.slide} from {pivot} to {point}, extending at "
+                self.say(f"driver: {mech.driver.cylinder_words} from {pivot} to {point}, extending at "
                          f"{mech.driver.linear_speed_value:g} {mech.driver.linear_speed_unit}")
                 return
             mech = building.set_driver(self.document.mechanism, pivot, point)

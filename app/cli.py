@@ -93,6 +93,7 @@ def force_polygon_json(made) -> dict:
             "force": polygon,
             "joints_n": {p: {k: list(f) for k, f in by.items()} for p, by in made.joints_n.items()},
             "slides_normal_n": dict(made.normals_n), "drive_torque_n_m": made.drive_torque_n_m,
+            "drive_force_n": made.drive_force_n,
             "crosscheck": {"max_relative_difference": made.max_relative_difference, "where": made.where},
             "warnings": list(made.warnings)}
 

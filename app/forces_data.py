@@ -46,8 +46,9 @@ def pose_force_polygon(construction, forces) -> tuple:
         return None, "No force polygon: " + NO_MASS_DATA.removeprefix("No forces: ")
     except KinematicsError as error:
         return None, f"No force polygon at this pose: {error}"
-    return made, (f"drive torque T = {made.drive_torque_n_m:.4g} N·m (counter-clockwise positive); against the "
-                  f"numeric forces {made.max_relative_difference:.1e}")
+    drive = (f"cylinder force F = {made.drive_force_n:.4g} N (push positive)" if made.drive_force_n is not None
+             else f"drive torque T = {made.drive_torque_n_m:.4g} N·m (counter-clockwise positive)")
+    return made, f"{drive}; against the numeric forces {made.max_relative_difference:.1e}"
 
 
 @dataclass(frozen=True)

@@ -46,7 +46,7 @@ def force_rows(found) -> list:
     if found.drive_force_n is not None:
         # A cylinder drives by its axial force, push positive: the row gives it with its sign.
         force = clean(float(found.drive_force_n))
-        rows = [[(f"drive force of cylinder {driver.slide}", None), (f"{_number(force)} N", force),
+        rows = [[(f"drive force of {driver.cylinder_words}", None), (f"{_number(force)} N", force),
                  (push_or_pull(force), None)]]
     else:
         torque = clean(float(found.drive_torque_n_m))

@@ -9,6 +9,7 @@ from PySide6.QtWidgets import QSplitter, QTabWidget
 
 from kinematics.drawing.forces import line_of_action_pane
 from kinematics.drawing.panes import BAR_ROOM
+from kinematics.drawing.space_forces import space_forces_pane
 
 from .force_scene import ForceScene, ForceView
 from .forces_data import pose_force_polygon
@@ -28,6 +29,7 @@ class DrawingsPanel(QSplitter):
         self.document = document
         self.draft = False
         self.centres_shown = False
+        self.forces_shown = False
         self.space_scene = SpaceScene()
         self.velocity_scene = PolygonScene("velocity")
         self.acceleration_scene = PolygonScene("acceleration")
@@ -125,6 +127,18 @@ class DrawingsPanel(QSplitter):
         zoom = self._mm_per_pixel(self.space_view)
         self.space_scene.show(doc.mechanism, doc.solution, zoom, self.draft)
         self.space_scene.show_centres(doc.solution, doc.construction, zoom, self.centres_shown)
+        made = self.force_polygon() if self.forces_shown else None
+        self.space_scene.show_forces(made and space_forces_pane(made, screen_symbols(zoom), self.space_scene.marks()),
+                                     zoom)
+
+    def show_space_forces(self, on: bool) -> str:
+        """Draw the pose's forces where they act on the space diagram (or not), the view refitted
+        to take them in; returns why there are none to draw ("" when drawn or not asked for)."""
+        self.forces_shown = on
+        self._draw_space()
+        if self.space_view.auto_fit:
+            self.fit_space()
+        return self.force[2] if on and self.force[1] is None else ""
 
     def show_centres(self, on: bool):
         """Draw the instantaneous centres over the space diagram (or not), the view refitted to

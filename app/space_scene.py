@@ -13,8 +13,9 @@ from PySide6.QtCore import QPointF, QRectF
 from PySide6.QtWidgets import QGraphicsScene
 
 from kinematics import centres
-from kinematics.drawing import Circle, Ref
+from kinematics.drawing import Circle, Ref, Text
 from kinematics.drawing.centres_overlay import centres_pane
+from kinematics.drawing.declutter import text_box
 from kinematics.drawing.panes import paths_pane, space_pane
 from kinematics.drawing.symbols import Symbols
 from kinematics.errors import KinematicsError
@@ -53,6 +54,8 @@ class SpaceScene(QGraphicsScene):
         self.centres = SceneBackend(self)
         self.centres_sheet = None  # the centres drawn over the linkage, None when not shown
         self.overlay = SceneBackend(self)  # a force's line of action, over the linkage
+        self.forces = SceneBackend(self)  # the pose's forces where they act, when asked for
+        self.forces_sheet = None
         self.topology = None
         self.sheet = None
         self.swept = None
@@ -87,6 +90,15 @@ class SpaceScene(QGraphicsScene):
         else:
             self.overlay.show(sheet, 1.0 / mm_per_pixel)
 
+    def show_forces(self, sheet, mm_per_pixel: float):
+        """Draw the forces of ``sheet`` (:func:`kinematics.drawing.space_forces.space_forces_pane`)
+        where they act (None: none)."""
+        self.forces_sheet = sheet
+        if sheet is None:
+            self.forces.clear()
+        else:
+            self.forces.show(sheet, 1.0 / mm_per_pixel)
+
     def show_centres(self, solution, construction, mm_per_pixel: float, shown: bool):
         """Draw the instantaneous centres of ``solution`` over the linkage when ``shown`` (and
         there is a pose), sized for a zoom of ``mm_per_pixel``; else none."""
@@ -103,6 +115,17 @@ class SpaceScene(QGraphicsScene):
         self.centres_sheet = centres_pane(found, screen_symbols(mm_per_pixel))
         self.centres.show(self.centres_sheet, 1.0 / mm_per_pixel)
 
+    def marks(self) -> list:
+        """The boxes (sheet mm) of the diagram's labels and pins, for what is laid over it to keep clear of."""
+        found = []
+        for primitive in self.sheet.primitives if self.sheet is not None else ():
+            if isinstance(primitive, Text):
+                found.append(text_box(primitive))
+            elif isinstance(primitive, Circle):
+                (x, y), r = primitive.centre, primitive.radius
+                found.append((x - r, y - r, x + r, y + r))
+        return found
+
     def joint_pos(self, name: str) -> QPointF:
         """Scene position of joint ``name``'s pin, as drawn."""
         pin = next(p for p in self.linkage.primitives_of(Ref("point", name)) if isinstance(p, Circle))
@@ -115,7 +138,8 @@ class SpaceScene(QGraphicsScene):
             return QRectF()
         rect = scene_rect(self.sheet.views["space"].box)
         centres_box = self.centres_sheet.views["space"].box if self.centres_sheet is not None else None
-        for box in (self.motion_box, centres_box):
+        forces_box = self.forces_sheet.views["space"].box if self.forces_sheet is not None else None
+        for box in (self.motion_box, centres_box, forces_box):
             if box is not None:
                 rect = rect.united(scene_rect(box))
         pad = FIT_PAD * max(rect.width(), rect.height(), 1.0)

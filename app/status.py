@@ -22,7 +22,7 @@ def status_text(analysis, note: str = "") -> str:
     if solution.driver_length_m is None:
         pose = f"driver at {solution.driver_angle_deg:.1f}°"
     else:
-        pose = f"cylinder {solution.mechanism.driver.slide} at length {solution.driver_length_m * 1000:.1f} mm"
+        pose = f"{solution.mechanism.driver.cylinder_words} at length {solution.driver_length_m * 1000:.1f} mm"
     parts.append(f"{pose} · cross-check against the numeric solver: {agreement(difference)}{where}")
     parts += [f"warning: {w}" for w in construction.warnings]
     parts += [f"note: {f}" for f in analysis.held]

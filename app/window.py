@@ -227,6 +227,13 @@ class MainWindow(FileActions, SheetOutputs, QMainWindow):
         self.centres_action.setToolTip("the instantaneous centres over the space diagram, each named by its two bodies")
         self.centres_action.toggled.connect(self.drawings.show_centres)
         view.addAction(self.centres_action)
+        self.space_forces_action = QAction("&Forces on the space diagram", self)
+        self.space_forces_action.setCheckable(True)
+        self.space_forces_action.setShortcut(QKeySequence("Ctrl+Shift+F"))
+        self.space_forces_action.setToolTip("the pose's inertia forces on their offset lines, weights, loads and the "
+                                            "joint forces the force polygon found, as arrows where they act")
+        self.space_forces_action.toggled.connect(lambda on: self.say(self.drawings.show_space_forces(on)))
+        view.addAction(self.space_forces_action)
         add_help_menu(self, self.menuBar().addMenu("&Help"))
         self._fill_recent()
 

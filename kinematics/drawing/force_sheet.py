@@ -32,14 +32,18 @@ HEADING = "Forces found by the polygon (N, N·m; F(a→b) is the force of a on b
 
 
 def force_rows(made) -> list:
-    """(what, |F| N, Fx N, Fy N) per joint force, guide force and the drive torque, as printed."""
+    """(what, |F| N, Fx N, Fy N) per joint force, guide force and the drive torque (a cylinder's
+    force along its axis), as printed."""
     rows = []
     for point, by_link in made.joints_n.items():
         for link, (fx, fy) in by_link.items():
             rows.append((f"on {link} at {point}", f"{(fx * fx + fy * fy) ** 0.5:.4g}", f"{fx:.4g}", f"{fy:.4g}"))
     rows += [(f"guide force of slide {name} (along its left normal)", f"{abs(n):.4g}", "", f"{n:.4g}")
              for name, n in made.normals_n.items()]
-    rows.append(("drive torque T on the driver, N·m", f"{made.drive_torque_n_m:.4g}", "", ""))
+    if made.drive_force_n is not None:
+        rows.append(("cylinder force along its axis (push +), N", f"{made.drive_force_n:.4g}", "", ""))
+    else:
+        rows.append(("drive torque T on the driver, N·m", f"{made.drive_torque_n_m:.4g}", "", ""))
     return rows
 
 

@@ -37,6 +37,7 @@ class ForcePolygon:
         to there (the convention of :class:`~kinematics.dynamics.Forces`).
     normals_n : slide -> N along the guide line's left normal, on the block.
     drive_torque_n_m : the drive's couple on the driver link, counter-clockwise positive.
+    drive_force_n : a cylinder driver's force along its axis, push positive (None for a rotary driver).
     max_relative_difference, where : the cross-check against the numeric forces.
     """
 
@@ -50,6 +51,7 @@ class ForcePolygon:
     max_relative_difference: float
     where: str
     warnings: tuple = ()
+    drive_force_n: float | None = None
 
 
 def _owned(decomposition, mech) -> dict:
@@ -103,7 +105,7 @@ def force_polygon(construction: Construction, numeric: Forces | None = None, box
                         angular_accelerations=MappingProxyType({k: a for k, (a, _) in alphas.items()}),
                         joints_n=joints, normals_n=MappingProxyType(dict(state.normals)),
                         drive_torque_n_m=float(state.torque_n_m), max_relative_difference=0.0, where="",
-                        warnings=tuple(warnings))
+                        warnings=tuple(warnings), drive_force_n=state.drive_force_n)
     worst, where = crosscheck(made, numeric)
     return replace(made, max_relative_difference=worst, where=where)
 
@@ -132,4 +134,9 @@ def crosscheck(made: ForcePolygon, numeric: Forces) -> tuple:
     difference = abs(made.drive_torque_n_m - float(numeric.drive_torque_n_m)) / size
     if difference > worst:
         worst, where = difference, "the drive torque"
+    if numeric.drive_force_n is not None:
+        difference = abs((made.drive_force_n if made.drive_force_n is not None else math.inf)
+                         - float(numeric.drive_force_n)) / reference
+        if difference > worst:
+            worst, where = difference, "the cylinder's force"
     return float(worst), where

@@ -16,9 +16,9 @@ from ..groups.steps import Component, Construction, Role, Step, as_xy, figure
 
 def angular_accelerations(construction: Construction, pos: dict, acc: dict) -> dict:
     """Link -> (α rad/s², how it was read): from the first tangential component the polygon draws
-    for the link, α = cross(r, a^t)/|r|²; a driver with none has α = 0; a link of a group that is
-    no dyad (no components drawn) from two of its images, α = cross(r, a_Q − a_P)/|r|² (the radial
-    part has no cross)."""
+    for the link, α = cross(r, a^t)/|r|²; a rotary driver with none has α = 0; a link with none
+    drawn (of a group that is no dyad, or a cylinder's barrel) from two of its images,
+    α = cross(r, a_Q − a_P)/|r|² (the radial part has no cross)."""
     found = {}
     for c in acceleration_components(construction):
         if c.component is Component.TANGENTIAL and c.link not in found:
@@ -26,15 +26,17 @@ def angular_accelerations(construction: Construction, pos: dict, acc: dict) -> d
             found[c.link] = (cross(r, complex(*c.vector)) / abs(r) ** 2,
                              f"from the tangential component, step {c.step}")
     decomposition = construction.decomposition
-    found.setdefault(decomposition.driver_link, (0.0, "is 0: the polygon lays no tangential component"))
     mech = construction.solution.mechanism
-    for group in decomposition.groups:
+    if mech.driver.kind != "actuator":  # a cylinder's barrel turns: its α is read from its images
+        found.setdefault(decomposition.driver_link, (0.0, "is 0: the polygon lays no tangential component"))
+    for group in decomposition.chain:
         for link in group.links:
             if link not in found:
                 p, q = _two(mech, mech.links[link])
                 r = pos[q] - pos[p]
                 found[link] = (cross(r, acc[q] - acc[p]) / abs(r) ** 2,
-                               f"from the images {p.lower()}′ and {q.lower()}′ (numeric)")
+                               f"from the images {p.lower()}′ and {q.lower()}′"
+                               + ("" if group.is_dyad else " (numeric)"))
     return {link: (float(alpha), how) for link, (alpha, how) in found.items()}
 
 

@@ -16,8 +16,7 @@ from dataclasses import dataclass
 import numpy as np
 from typing_extensions import override
 
-from ..errors import KinematicsError
-from ..model.mechanism import Mechanism
+from ..model.mechanism import Mechanism, cylinder_words
 from .base import (
     Frame,
     Group,
@@ -33,6 +32,7 @@ from .base import (
     triangle_apex,
     unit,
 )
+from .force_steps import ForceState, close_two_links, force_label, left_normal, pins_carried, result
 from .polygon_steps import coriolis_step, image_steps, radial_step
 from .poses import IN_LINE_DEG, angle_between_lines, vector
 from .steps import Component, PolygonBuilder, Role, figure
@@ -86,7 +86,7 @@ class ActuatorGroup(Group):
     @property
     @override
     def name(self) -> str:
-        return f"cylinder {self.slide}"
+        return cylinder_words(self.slide)
 
     @override
     def branch_sign(self, mech: Mechanism) -> float:
@@ -254,10 +254,35 @@ class ActuatorGroup(Group):
             image_steps(ab, frame, link, placed, "acc")
 
     @override
-    def force_steps(self, builder, state):
-        """The cylinder's force polygon is not drawn yet: refused in words, naming the cylinder."""
-        raise KinematicsError(f"the force polygon of a cylinder-driven design is not drawn yet ({self.name})",
-                              self.name)
+    def force_steps(self, builder: PolygonBuilder, state: ForceState):
+        """The barrel C-B and the link A-B carrying the rod's end close as two links meeting at B
+        (the block at B is massless but for its own loads, so the barrel's force on it acts
+        through B): the moments about B give the parts of the pivot forces across each link, the
+        lines along AB and CB close the polygon. The barrel's force on the block is then split
+        along the cylinder's axis (the cylinder's force, push positive) and across it (the
+        guide's normal force, frictionless)."""
+        c, b, a = (self.roles[k] for k in "CBA")
+        barrel, carrier = self.links
+        closed = close_two_links(builder, state, self, a, b, c, carrier, barrel)
+        block = state.body_name(("pin", b))
+        carried = closed.ends1[("pin", b)][0]
+        state.joints.setdefault(b, {})[carrier] = result(
+            builder, carried, closed.meet, force_label(block, carrier), f"the force of the rod's end at {b} on "
+            f"{carrier}", points=(b,), links=(carrier,))
+        pins_carried(builder, state, carrier, closed.runs1[:-1], closed.ends1)
+        pins_carried(builder, state, barrel, closed.runs2, closed.ends2)
+        slide = state.mech.slides[self.slide]
+        on_block = closed.meet - closed.end1
+        normal = left_normal(state.pos, slide)
+        along = complex(unit(state.pos[b] - state.pos[c]))
+        turned = closed.end1 + dot(normal, on_block) * normal
+        result(builder, closed.end1, turned, force_label(barrel, block) + "ₙ", f"the guide's normal force of the "
+               f"barrel on the rod at {b}, across the cylinder's axis", Component.NORMAL, points=(b,), links=(barrel,))
+        state.drive_force_n = float(dot(along, on_block))
+        result(builder, turned, closed.meet, f"F({self.slide})", f"the cylinder's force on the rod's end along its "
+               f"axis {c}{b}: {'a push' if state.drive_force_n >= 0 else 'a pull'}", Component.DRIVE, points=(b,),
+               links=(barrel,))
+        state.guide_reaction(slide, dot(normal, on_block), block_known=False, guide_known=False)
 
     @override
     def pose_warnings(self, mech: Mechanism, xy: dict) -> list:
@@ -277,4 +302,4 @@ class ActuatorGroup(Group):
         to_c = result.positions[:, index(c)] - at_b
         to_a = result.positions[:, index(a)] - at_b
         cosine = np.sum(to_a * to_c, axis=1) / (np.linalg.norm(to_a, axis=1) * np.linalg.norm(to_c, axis=1))
-        return {f"cylinder {self.slide}/{self.links[1]} at {b}": np.degrees(np.arccos(np.clip(cosine, -1, 1)))}
+        return {f"{cylinder_words(self.slide)}/{self.links[1]} at {b}": np.degrees(np.arccos(np.clip(cosine, -1, 1)))}

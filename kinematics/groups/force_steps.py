@@ -57,7 +57,8 @@ class ForceState:
     numeric forces, read by a group that is no dyad and by nothing else. Filled as the groups
     go: ``applied`` (body -> [Applied]), ``joints`` (point -> link -> complex N, the force on
     the link at the point from what it is pinned to there), ``normals`` (slide -> N along the
-    guide line's left normal, on the block), ``torque_n_m``."""
+    guide line's left normal, on the block), ``torque_n_m``, and for a cylinder driver
+    ``drive_force_n`` (its force along its axis, push positive)."""
 
     mech: object
     pos: dict
@@ -68,6 +69,7 @@ class ForceState:
     joints: dict = field(default_factory=dict)
     normals: dict = field(default_factory=dict)
     torque_n_m: float = 0.0
+    drive_force_n: float | None = None
 
     def body_name(self, body: tuple) -> str:
         """A body in words: a link's name, "block B" for a slide's block, "pin P" for a point mass's pin."""
@@ -235,3 +237,44 @@ def intersect_lines(builder: PolygonBuilder, group, first: tuple, second: tuple,
     label = f"x{sum(1 for s in builder.steps if s is not None and s.role is Role.INTERSECTION) + 1}"
     builder.intersection(meet, label, what, group)
     return complex(meet.point)
+
+
+@dataclass(frozen=True)
+class TwoLinkClose:
+    """What :func:`close_two_links` found: the polygon's ``meet`` (the two along-link lines'
+    intersection), ``end1`` (the end of the first link's loads), and the runs of loads laid for
+    each link with their ends, for the forces at the middle pin."""
+
+    meet: complex
+    end1: complex
+    runs1: list
+    ends1: dict
+    runs2: list
+    ends2: dict
+
+
+def close_two_links(builder: PolygonBuilder, state: ForceState, group, a: str, b: str, c: str, l1: str,
+                    l2: str) -> TwoLinkClose:
+    """Two links A-B (``l1``) and C-B (``l2``) meeting at B, their outer pins A and C known: each
+    outer pin force split along its link and across it, the moments about B of each link giving
+    the parts across (laid), the lines along AB and CB closing the polygon. The forces at A and
+    C are recorded; an element at B is carried by ``l1`` (its loads laid last of ``l1``'s)."""
+    pos = state.pos
+    owned = state.owned_by(group)
+    runs1 = gather(state, l1, owned, last=(b,))
+    runs2 = gather(state, l2, owned - {b})
+    by_a, by_c = by_name(state, a, l1), by_name(state, c, l2)
+    start1 = perpendicular(builder, 0j, every(runs1), a, b, l1, by_a, pos, group.name)
+    end1, ends1 = lay(builder, start1, runs1)
+    end2, ends2 = lay(builder, end1, runs2)
+    tip = perpendicular(builder, end2, every(runs2), c, b, l2, by_c, pos, group.name)
+    meet = intersect_lines(
+        builder, group, (tip, pos[b] - pos[c], Component.ALONG_LINK, f"line along {c}{b} through the end: the "
+                         f"part of {force_label(by_c, l2)} along {l2}"),
+        (0j, pos[b] - pos[a], Component.ALONG_LINK, f"line along {a}{b} through the start: the part of "
+         f"{force_label(by_a, l1)} along {l1}"), f"the close of the polygon of {l1} and {l2}")
+    state.react(a, l1, result(builder, meet, start1, force_label(by_a, l1), f"the force at {a}", points=(a,),
+                              links=(l1,)))
+    state.react(c, l2, result(builder, end2, meet, force_label(by_c, l2), f"the force at {c}", points=(c,),
+                              links=(l2,)))
+    return TwoLinkClose(meet, end1, runs1, ends1, runs2, ends2)

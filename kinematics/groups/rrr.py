@@ -11,18 +11,7 @@ from typing_extensions import override
 
 from ..model.mechanism import Mechanism
 from .base import Frame, Group, Line, cross, intersect, known_jerk, radial, triangle_apex
-from .force_steps import (
-    ForceState,
-    by_name,
-    every,
-    force_label,
-    gather,
-    intersect_lines,
-    lay,
-    perpendicular,
-    pins_carried,
-    result,
-)
+from .force_steps import ForceState, close_two_links, force_label, pins_carried, result
 from .loops import LoopCheck, driving_crank, grashof_class, length
 from .polygon_steps import image_steps, radial_step
 from .poses import IN_LINE_DEG, angle_between_lines, toggle_warnings, vector
@@ -142,35 +131,19 @@ class RRRGroup(Group):
         """Each outer pin force split along its link and across it: the moments about B of each link
         give the parts across (laid), the lines along AB and CB close the polygon; the force at B
         from link C-B's own polygon. An element at B is carried by link A-B."""
-        pos = state.pos
         a, b, c = (self.roles[k] for k in "ABC")
         l1, l2 = self.links
-        owned = state.owned_by(self)
-        runs1 = gather(state, l1, owned, last=(b,))
-        runs2 = gather(state, l2, owned - {b})
-        by_a, by_c = by_name(state, a, l1), by_name(state, c, l2)
-        start1 = perpendicular(builder, 0j, every(runs1), a, b, l1, by_a, pos, self.name)
-        end1, ends1 = lay(builder, start1, runs1)
-        end2, ends2 = lay(builder, end1, runs2)
-        tip = perpendicular(builder, end2, every(runs2), c, b, l2, by_c, pos, self.name)
-        meet = intersect_lines(
-            builder, self, (tip, pos[b] - pos[c], Component.ALONG_LINK, f"line along {c}{b} through the end: the "
-                            f"part of {force_label(by_c, l2)} along {l2}"),
-            (0j, pos[b] - pos[a], Component.ALONG_LINK, f"line along {a}{b} through the start: the part of "
-             f"{force_label(by_a, l1)} along {l1}"), f"the close of the polygon of {l1} and {l2}")
-        state.react(a, l1, result(builder, meet, start1, force_label(by_a, l1), f"the force at {a}", points=(a,),
-                                  links=(l1,)))
-        state.react(c, l2, result(builder, end2, meet, force_label(by_c, l2), f"the force at {c}", points=(c,),
-                                  links=(l2,)))
+        closed = close_two_links(builder, state, self, a, b, c, l1, l2)
+        meet, end1 = closed.meet, closed.end1
         at_b = state.body_name(("pin", b)) if b in state.elements else None
-        carried = ends1[("pin", b)][0] if at_b else end1
+        carried = closed.ends1[("pin", b)][0] if at_b else end1
         state.joints.setdefault(b, {})[l2] = result(
             builder, meet, end1, force_label(at_b or l1, l2), f"the force at {b}, from the polygon of {l2}",
             points=(b,), links=(l2,))
         state.joints[b][l1] = result(builder, carried, meet, force_label(at_b or l2, l1), f"the force at {b} on "
                                      f"{l1}", points=(b,), links=(l1,))
-        pins_carried(builder, state, l1, runs1[:-1] if at_b else runs1, ends1)
-        pins_carried(builder, state, l2, runs2, ends2)
+        pins_carried(builder, state, l1, closed.runs1[:-1] if at_b else closed.runs1, closed.ends1)
+        pins_carried(builder, state, l2, closed.runs2, closed.ends2)
 
     @override
     def pose_warnings(self, mech: Mechanism, xy: dict) -> list:

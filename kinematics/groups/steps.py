@@ -61,6 +61,7 @@ class Component(Enum):
     NORMAL = "normal"
     REACTION = "reaction"
     TORQUE = "torque"
+    DRIVE = "drive force"  # a cylinder's force along its axis
 
 
 @dataclass(frozen=True)

@@ -42,6 +42,15 @@ class Slide:
     line: tuple[str, str]
 
 
+def cylinder_words(slide: str) -> str:
+    """The cylinder of slide ``slide`` in words: its name alone where that already says cylinder.
+
+    >>> cylinder_words("lift"), cylinder_words("cylinder"), cylinder_words("main cylinder")
+    ('cylinder lift', 'cylinder', 'main cylinder')
+    """
+    return slide if "cylinder" in slide.lower() else f"cylinder {slide}"
+
+
 @dataclass(frozen=True)
 class Driver:
     """A link pivoted on ground at ``pivot``, turning at a given speed (``kind`` "rotary"), or a
@@ -75,6 +84,11 @@ class Driver:
     def is_actuator(self) -> bool:
         """True for a cylinder driver (``kind`` "actuator")."""
         return self.kind == "actuator"
+
+    @property
+    def cylinder_words(self) -> str:
+        """A cylinder driver in words (:func:`cylinder_words` of its slide)."""
+        return cylinder_words(self.slide)
 
     @property
     def linear_speed_m_s(self) -> float:

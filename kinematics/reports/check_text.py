@@ -88,5 +88,5 @@ def stroke_sentence(mech, stroke_m) -> str:
             ends.append(f"{word} {value * 1000:.1f} mm (the linkage's reach cuts the file's {limit * k * 1000:.1f} mm)")
         else:
             ends.append(f"{word} {value * 1000:.1f} mm")
-    return (f"cylinder {driver.slide}: stroke {low * 1000:.1f} to {high * 1000:.1f} mm, {(high - low) * 1000:.1f} mm "
+    return (f"{driver.cylinder_words}: stroke {low * 1000:.1f} to {high * 1000:.1f} mm, {(high - low) * 1000:.1f} mm "
             f"long; " + ", ".join(ends))

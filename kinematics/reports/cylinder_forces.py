@@ -24,7 +24,7 @@ def pose_heading(result: Forces) -> str:
 
 def drive_line(result: Forces, shown: float) -> str:
     """The drive's line of one pose's table (``shown``: the force as the table rounds it)."""
-    return (f"drive force of cylinder {result.mechanism.driver.slide}: {shown:.4g} N {push_or_pull(shown)} "
+    return (f"drive force of {result.mechanism.driver.cylinder_words}: {shown:.4g} N {push_or_pull(shown)} "
             f"(along its axis, push positive)")
 
 

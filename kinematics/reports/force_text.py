@@ -24,7 +24,10 @@ def force_polygon_text(made: ForcePolygon) -> str:
                          f"{y:>12.4f}")
     for name, normal in made.normals_n.items():
         lines.append(f"guide force of slide {name}: {figure(normal)} N along the guide's left normal")
-    lines.append(f"drive torque: {figure(made.drive_torque_n_m)} N·m (counter-clockwise positive)")
+    if made.drive_force_n is not None:
+        lines.append(f"cylinder force: {figure(made.drive_force_n)} N along its axis (push positive)")
+    else:
+        lines.append(f"drive torque: {figure(made.drive_torque_n_m)} N·m (counter-clockwise positive)")
     lines.append(f"cross-check against the numeric forces: largest relative difference "
                  f"{made.max_relative_difference:.2e} at {made.where}")
     lines += [f"warning: {w}" for w in made.warnings]

@@ -38,7 +38,7 @@ def solution_table(solution: Solution) -> str:
         driven = (f"driver {driver.link} at {solution.driver_angle_deg:.2f}°, {driver.speed_rad_s:.4g} rad/s "
                   f"({driver.speed_value} {driver.speed_unit})")
     else:
-        driven = (f"cylinder {driver.slide} at length {solution.driver_length_m * 1000:.2f} mm, extending at "
+        driven = (f"{driver.cylinder_words} at length {solution.driver_length_m * 1000:.2f} mm, extending at "
                   f"{driver.linear_speed_m_s:.4g} m/s ({driver.linear_speed_value} {driver.linear_speed_unit})")
     lines = [f"{mech.title or 'Mechanism'} — {driven}",
              "",

@@ -10,7 +10,7 @@ from PySide6.QtWidgets import QApplication
 
 import kinematics
 from kinematics.drawing import Arrow, Ref
-from tests.designs import CLAW_FEED
+from tests.designs import CLAW_FEED, load
 
 SAMPLES = Path(__file__).resolve().parents[2] / "samples"
 FEEDER = kinematics.load_mechanism(SAMPLES / "cap-press-feeder.json")
@@ -222,3 +222,23 @@ def test_a_known_force_is_named_on_the_pane_when_chosen(make_window):
     assert "W(rod)" not in {text for text, *_ in label_boxes(window)}
     window.steps.select_step(sid)  # as a click on its row in the steps list
     assert "W(rod)" in {text for text, *_ in label_boxes(window)}
+
+
+def test_ctrl_shift_f_draws_the_forces_where_they_act_and_says_why_when_there_are_none(make_window, qtbot):
+    window = window_on(make_window, FEEDER)
+    scene = window.drawings.space_scene
+    keys = Qt.KeyboardModifier.ControlModifier | Qt.KeyboardModifier.ShiftModifier
+    QTest.keyClick(window, Qt.Key.Key_F, keys)
+    assert window.space_forces_action.isChecked()
+    drawn = [p for ref in scene.forces.by_ref for p in scene.forces.primitives_of(ref) if isinstance(p, Arrow)]
+    steps = {s.id for s in window.drawings.force_polygon().polygon.steps}
+    assert len(drawn) >= 5 and all(p.ref.kind == "force arrow" and p.ref.name in steps for p in drawn)
+    # The view takes the arrows in.
+    view = window.drawings.space_view
+    rect = view.mapToScene(view.viewport().rect()).boundingRect()
+    assert all(rect.contains(QPointF(p.start[0], -p.start[1])) for p in drawn)
+    QTest.keyClick(window, Qt.Key.Key_F, keys)
+    assert not scene.forces.by_ref
+    window.document.replace(load(CLAW_FEED))  # no mass data
+    QTest.keyClick(window, Qt.Key.Key_F, keys)
+    assert "no masses and no loads" in window.status.text()

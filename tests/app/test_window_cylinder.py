@@ -18,9 +18,9 @@ def test_the_forces_pane_gives_the_cylinder_force_not_a_torque(make_window):
     assert window.open_path(str(TABLE))
     model = window.forces_table.model
     titles = [model.item(r, 0).text() for r in range(model.rowCount())]
-    assert "drive force of cylinder cylinder" in titles
+    assert "drive force of cylinder" in titles
     assert not any(t.startswith("drive torque") for t in titles)
-    row = titles.index("drive force of cylinder cylinder")
+    row = titles.index("drive force of cylinder")
     shown = model.item(row, 1).data(Qt.ItemDataRole.UserRole)
     # The core's force at the pose on screen (the window reads it, never recomputes it).
     found = kinematics.dynamics.forces(window.document.solution)
@@ -49,7 +49,7 @@ def test_the_driver_control_is_the_cylinders_length_over_its_stroke(make_window,
     control.slider.setFocus()
     qtbot.keyClick(control.slider, Qt.Key.Key_End)
     assert window.document.solution.driver_length_m == pytest.approx(1.060, rel=1e-12)
-    assert "cylinder cylinder at length 1060.0 mm" in window.status.text()
+    assert "cylinder at length 1060.0 mm" in window.status.text()
 
 
 def test_play_runs_the_cylinder_to_the_end_of_its_stroke_and_back(make_window, qtbot):

@@ -35,7 +35,7 @@ def test_the_cylinders_transmission_angle_and_the_tables_travel_by_the_law_of_co
     are at the ends."""
     data = report(load_mechanism(str(SAMPLE)), steps=241)
     (name, angle), = data["transmission"].items()
-    assert name == "cylinder cylinder/table at B"
+    assert name == "cylinder/table at B"
     assert angle["max_deg"] == pytest.approx(_angle_at_b_deg(0.580), rel=1e-9)
     assert angle["min_deg"] == pytest.approx(_angle_at_b_deg(1.060), rel=1e-9)
     assert angle["at_length_m"] == pytest.approx(1.060, rel=1e-12)
@@ -55,8 +55,8 @@ def test_peaks_are_placed_by_length_and_the_given_stroke_is_not_trimmed():
 def test_check_and_peaks_text_speak_of_the_stroke(capsys):
     assert main(["check", str(SAMPLE)]) == 0
     out = capsys.readouterr().out
-    assert "cylinder cylinder: stroke 580.0 to 1060.0 mm, 480.0 mm long" in out
-    assert "construction order: cylinder cylinder\n" in out
+    assert "cylinder: stroke 580.0 to 1060.0 mm, 480.0 mm long" in out
+    assert "construction order: cylinder\n" in out
     assert "dead points" not in out and "0.580°" not in out
     assert "at length 580.00 mm" in out
     assert main(["sweep", str(SAMPLE), "--peaks", "--steps", "49"]) == 0

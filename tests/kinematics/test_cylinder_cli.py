@@ -64,7 +64,7 @@ def test_forces_at_a_length_give_the_cylinder_force(capsys):
     length in m; the power F·L̇ is the force times the file's 40 mm/s (exact arithmetic, 1e-12)."""
     code, out, _ = _run(capsys, "forces", SAMPLE, "--length", "800")
     assert code == 0
-    assert "drive force of cylinder cylinder:" in out and " N push" in out and "drive torque" not in out
+    assert "drive force of cylinder:" in out and " N push" in out and "drive torque" not in out
     code, out, _ = _run(capsys, "forces", SAMPLE, "--length", "800", "--json")
     document = json.loads(out)
     assert "driver_torque" not in document and document["driver_length_m"] == 0.8

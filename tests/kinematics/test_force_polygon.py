@@ -30,6 +30,7 @@ from kinematics.groups.scales import MANTISSAS
 from kinematics.groups.steps import Component, PolygonBuilder, Role
 from kinematics.model.mass import LinkMass, Load, MassData, PointMass
 from tests import CASE_FACTOR
+from tests.cylinders import tipping_table
 from tests.designs import (
     SAMPLE_FILES,
     SWING_LEVER,
@@ -61,16 +62,19 @@ def _made(mech, angle):
 @pytest.mark.parametrize("path", SAMPLE_FILES, ids=lambda p: p.stem)
 def test_every_sample_agrees_with_the_numeric_forces(path):
     mech = _massive(kinematics.load_mechanism(path))
-    if mech.driver.is_actuator:
-        # The force polygon of a cylinder-driven design is not drawn yet: refused in words, naming it.
-        with pytest.raises(kinematics.KinematicsError, match="force polygon of a cylinder-driven design"):
-            _made(mech, None)
-        return
-    for angle in (None, 17.0, 133.0, 251.0):
-        try:
-            made, _ = _made(mech, angle)
-        except CannotAssemble:
-            continue
+    if mech.driver.is_actuator:  # over its stroke: a third of the way each time
+        low, high = mech.driver.stroke_min, mech.driver.stroke_max
+        poses = [kinematics.solve(mech, length=(low + k * (high - low) / 3) * mech.metres_per_unit) for k in range(4)]
+    else:
+        poses = []
+        for angle in (None, 17.0, 133.0, 251.0):
+            try:
+                poses.append(solve_at(mech, angle))
+            except CannotAssemble:
+                continue
+    for solution in poses:
+        made = force_polygon(kinematics.construct(solution))
+        angle = solution.driver_angle_deg
         assert made.max_relative_difference <= TOLERANCE, (path.stem, angle, made.where)
         assert made.polygon.kind == "force" and made.polygon.unit == "N"
 
@@ -261,3 +265,64 @@ def test_the_command_line_names_missing_mass_data(tmp_path, capsys):
     path.write_text(kinematics.dumps(load(SWING_LEVER)))
     assert cli.main(["construct", str(path), "--forces"]) == 2
     assert "masses" in capsys.readouterr().err
+
+
+@settings(max_examples=CASES)
+@given(length=st.floats(480.0, 820.0), speed=st.floats(-0.3, 0.3), accel=st.floats(-0.5, 0.5),
+       above=st.booleans(), draw=masses, rod_end=unit, push=st.tuples(signed, signed))
+def test_random_tipping_tables_driven_by_a_cylinder(length, speed, accel, above, draw, rod_end, push):
+    """The cylinder's force along its axis and the guide's normal force, as well as every pin force,
+    from the construction (two links meeting at the rod's end) against the numeric forces."""
+    mech = tipping_table(length, above=above, speed_m_s=speed, accel_m_s2=accel)
+    loads = [Load("tool", point="T", force_value=(800 * push[0], 800 * push[1]))]
+    mech = _random_mass(mech, draw, GRAVITY, loads, {"B": 0.2 + 3.0 * rod_end})
+    try:
+        solution = kinematics.solve(mech, length=length / 1000)
+    except CannotAssemble:
+        assume(False)
+    made = force_polygon(kinematics.construct(solution))
+    assert made.max_relative_difference <= TOLERANCE, made.where
+    numeric = forces(solution)
+    assert made.drive_force_n == pytest.approx(numeric.drive_force_n, rel=1e-9, abs=1e-9)
+    assert made.normals_n["cylinder"] == pytest.approx(numeric.slides["cylinder"].normal_n, rel=1e-9, abs=1e-9)
+
+
+def test_a_cylinder_holding_a_plank_still_pushes_by_the_moments_about_the_hinge():
+    """At rest (speed 0), a uniform 80 kg plank O–T hinged at O and held by a massless cylinder:
+    F·(OB × u) + OG × m·g = 0 about the hinge (statics of a hinged body, common practice), u the
+    unit vector from C to B; the polygon's cylinder force is that F, laid along CB."""
+    mech = tipping_table(600.0, speed_m_s=0.0)
+    (ox, oy), (tx, ty) = mech.points["O"], mech.points["T"]
+    plank_kg = 80.0
+    plank_m = math.hypot(tx - ox, ty - oy) / 1000
+    data = MassData(masses={"table": LinkMass("table", plank_kg, ((ox + tx) / 2, (oy + ty) / 2),
+                                              plank_kg * plank_m ** 2 / 12)}, gravity_value=(0.0, -9.81))
+    solution = kinematics.solve(replace(mech, mass_data=data), length=0.6)
+    made = force_polygon(kinematics.construct(solution))
+    p = {n: np.array(solution.position(n)) for n in ("C", "O", "B", "T")}
+    u = (p["B"] - p["C"]) / np.linalg.norm(p["B"] - p["C"])
+    centre = (p["O"] + p["T"]) / 2
+
+    def cross(a, b):
+        return a[0] * b[1] - a[1] * b[0]
+
+    expected = -cross(centre - p["O"], (0.0, -plank_kg * 9.81)) / cross(p["B"] - p["O"], u)
+    assert made.drive_force_n == pytest.approx(expected, rel=1e-9)
+    (drive,) = [s for s in made.polygon.steps if s.component is Component.DRIVE]
+    (x0, y0), (x1, y1) = drive.coords
+    assert np.allclose((x1 - x0, y1 - y0), expected * u, rtol=1e-9, atol=1e-9 * abs(expected))
+    assert "a push" in drive.text and drive.label == "F(cylinder)"
+
+
+def test_the_cylinders_polygon_never_reads_the_numeric_forces():
+    mech = _massive(tipping_table(650.0, speed_m_s=0.1, accel_m_s2=0.2))
+    solution = kinematics.solve(mech, length=0.65)
+    construction = kinematics.construct(solution)
+    honest = force_polygon(construction)
+    wrong_solution = replace(solution, accelerations=solution.accelerations * 1.5)
+    numeric = forces(wrong_solution)
+    fooled = force_polygon(replace(construction, solution=wrong_solution),
+                           numeric=replace(_perturbed(numeric, 1.01), drive_force_n=numeric.drive_force_n * 1.01))
+    assert [s.coords for s in fooled.polygon.steps] == [s.coords for s in honest.polygon.steps]
+    assert fooled.drive_force_n == honest.drive_force_n
+    assert honest.max_relative_difference <= TOLERANCE < 1e-3 < fooled.max_relative_difference
