@@ -37,6 +37,7 @@ from kinematics.drawing.style import IMAGE, SPACE_PATH
 from .drawing_kit import font_for_capitals, qpen
 
 ITEM_REF, ITEM_HANDLE = 0, 1
+HANDLES = frozenset(("point", "mass centre"))  # what the mouse picks up on the space diagram: a joint, a centre of mass
 BAR_COLOUR = "#c9d3de"
 PLATE_COLOUR = "#dfe6ee"
 HOVER_COLOUR = "#f1c40f"
@@ -75,8 +76,9 @@ def _points(points) -> QPolygonF:
 def _fill(primitive) -> QBrush | None:
     """The screen's fill for a closed outline or a circle (None: none)."""
     kind = primitive.ref.kind if primitive.ref else ""
-    if kind == "centre":
-        return _brush("#000000", 0)  # an instantaneous centre's ring leaves the pin under it seen
+    if kind in ("centre", "mass centre"):
+        # An instantaneous centre's ring leaves the pin under it seen; a centre of mass's ring its quarters.
+        return _brush("#000000", 0)
     if isinstance(primitive, Circle):
         # An open pin is filled with white on screen so the lines meeting there stop at its rim.
         return _brush(primitive.pen.colour) if primitive.filled else _brush("#ffffff")
@@ -223,7 +225,7 @@ class SceneBackend:
             # ellipse is outlined and filled as a path at every paint (twice the cost of a blit).
             items[0].setCacheMode(QGraphicsItem.CacheMode.DeviceCoordinateCache)
             items[0].setZValue(Z_PIN)
-            if ref is not None and ref.kind == "point":
+            if ref is not None and ref.kind in HANDLES:
                 items[0].setData(ITEM_HANDLE, True)
         elif kind is Hatch:
             items = [QGraphicsPolygonItem()]

@@ -181,12 +181,14 @@ class PolygonView(DrawingView):
 
 
 class SpaceView(DrawingView):
-    """The space diagram's view: press on a joint to drag it, elsewhere to pan.
+    """The space diagram's view: press on a joint or a link's centre of mass to drag it, elsewhere
+    to pan.
 
     Signals carry machine millimetres (x right, y up).
     """
 
     drag_started = Signal(str, tuple)
+    centre_drag_started = Signal(str, tuple)  # a link's centre of mass picked up: the link's name
     dragged = Signal(tuple)
     drag_finished = Signal()
     hovered = Signal(object)
@@ -201,6 +203,7 @@ class SpaceView(DrawingView):
         self.setMouseTracking(True)
         self.dragging = None
         self._hover = None
+        self._hand = None  # the pointing hand is shown (None: no cursor set yet)
         self._pointer = None  # where the pointer is in the viewport, None when it is not over it
         self.building = False  # a building tool is active: clicks pick instead of drag
         self.grid_mm = 0.0  # grid spacing drawn behind the diagram (0: none)
@@ -233,12 +236,16 @@ class SpaceView(DrawingView):
         else:
             super().keyPressEvent(event)
 
+    def handle_at(self, pos):
+        """The Ref of what the mouse picks up at ``pos`` (view pixels): a joint's pin before a
+        centre of mass drawn over it; None where there is neither."""
+        found = [item.data(ITEM_REF) for item in self.items(pos) if item.data(ITEM_HANDLE)]
+        return next((ref for ref in found if ref.kind == "point"), found[0] if found else None)
+
     def joint_at(self, pos) -> str | None:
         """The joint whose pin is under ``pos`` (view pixels), if any."""
-        for item in self.items(pos):
-            if item.data(ITEM_HANDLE):
-                return item.data(ITEM_REF).name
-        return None
+        ref = self.handle_at(pos)
+        return ref.name if ref is not None and ref.kind == "point" else None
 
     def _machine_mm(self, pos) -> tuple:
         at = self.mapToScene(pos)
@@ -251,13 +258,17 @@ class SpaceView(DrawingView):
             self.picked.emit(self.joint_at(pos), self._machine_mm(pos))
             event.accept()
             return
-        name = self.joint_at(event.position().toPoint()) if event.button() == Qt.MouseButton.LeftButton else None
-        if name is None:
+        ref = self.handle_at(event.position().toPoint()) if event.button() == Qt.MouseButton.LeftButton else None
+        if ref is None:
             super().mousePressEvent(event)
             return
-        self.dragging = name
-        self._hover_on(name)  # the joint held is the one lit while it is dragged
-        self.drag_started.emit(name, self._machine_mm(event.position().toPoint()))
+        self.dragging = ref.name
+        at = self._machine_mm(event.position().toPoint())
+        if ref.kind == "point":
+            self._hover_on(ref.name)  # the joint held is the one lit while it is dragged
+            self.drag_started.emit(ref.name, at)
+        else:
+            self.centre_drag_started.emit(ref.name, at)
         event.accept()
 
     def mouseMoveEvent(self, event):
@@ -267,7 +278,8 @@ class SpaceView(DrawingView):
             self.dragged.emit(self._machine_mm(pos))
             event.accept()
             return
-        self._hover_on(self.joint_at(pos) if not event.buttons() else None)
+        self._hover_on(self.joint_at(pos) if not event.buttons() else None,
+                       not event.buttons() and self.handle_at(pos) is not None)
         super().mouseMoveEvent(event)
 
     def leaveEvent(self, event):
@@ -276,10 +288,15 @@ class SpaceView(DrawingView):
             self._hover_on(None)
         super().leaveEvent(event)
 
-    def _hover_on(self, name):
+    def _hover_on(self, name, handle: bool = False):
+        """``name``: the joint under the pointer (None: none); ``handle``: something the mouse can
+        pick up is under it (a joint, or a centre of mass, which is not lit)."""
+        hand = bool(name or handle)
+        if hand != self._hand:
+            self._hand = hand
+            self.viewport().setCursor(Qt.CursorShape.PointingHandCursor if hand else Qt.CursorShape.OpenHandCursor)
         if name != self._hover:
             self._hover = name
-            self.viewport().setCursor(Qt.CursorShape.PointingHandCursor if name else Qt.CursorShape.OpenHandCursor)
             self.hovered.emit(name)
 
     def hover_again(self):

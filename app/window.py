@@ -28,7 +28,7 @@ from .building import empty
 from .cycle_series import length_at_angle_mm
 from .design_actions import DesignActions, grid_step_mm
 from .document import Document
-from .editing import JointDrag
+from .editing import CentreDrag, JointDrag
 from .exports import SheetOutputs, add_sheet_contents
 from .file_actions import FileActions, save_path
 from .file_names import suggested_name
@@ -140,6 +140,7 @@ class MainWindow(FileActions, SheetOutputs, QMainWindow):
         self.drawings.third.currentChanged.connect(lambda _index: self._readouts())
         view = self.drawings.space_view
         view.drag_started.connect(self.begin_drag)
+        view.centre_drag_started.connect(self.begin_centre_drag)
         view.dragged.connect(self.continue_drag)
         view.drag_finished.connect(self.end_drag)
         view.picked.connect(self.builder.pick)
@@ -394,6 +395,11 @@ class MainWindow(FileActions, SheetOutputs, QMainWindow):
         self.angle.stop()
         self.drag = JointDrag(self.document, name, at_mm, self.grid_mm())
         self.properties.show_point(name)  # a joint pressed in the space diagram is the one the Design tab shows
+        self.say(self.drag.message)
+
+    def begin_centre_drag(self, link: str, at_mm: tuple):
+        self.angle.stop()
+        self.drag = CentreDrag(self.document, link, at_mm, self.grid_mm())
         self.say(self.drag.message)
 
     def continue_drag(self, at_mm: tuple):

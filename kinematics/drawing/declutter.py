@@ -40,7 +40,7 @@ def _overlap(a: tuple, b: tuple) -> bool:
     return a[0] < b[2] and b[0] < a[2] and a[1] < b[3] and b[1] < a[3]
 
 
-def _hits(box: tuple, others: list) -> bool:
+def hits(box: tuple, others: list) -> bool:
     """True when ``box`` overlaps any of ``others`` (written out: it runs for every label of every frame)."""
     x0, y0, x1, y1 = box
     for a0, b0, a1, b1 in others:
@@ -68,7 +68,7 @@ def declutter(rec: Recorder, view: str) -> None:
             continue
         box = text_box(texts[0]) if count == 1 else _block_box(texts)
         # Most labels are free where they were set: one look at every box tells.
-        if _hits(box, placed) or _hits(box, marks):
+        if hits(box, placed) or hits(box, marks):
             texts, box = _free_side(texts, box, at, gap, placed, marks)
             rec.primitives[first:first + count] = texts
         placed.append(box)
@@ -86,7 +86,7 @@ def _free_side(texts: list, box: tuple, at, gap: float, placed: list, marks: lis
     further out is tried only when no side of the one before is free of the labels."""
     size = max(box[2] - box[0], box[3] - box[1])
     # Where it was, if clear of the other labels, is the side to fall back on (the first tried).
-    fallback = None if _hits(box, _near(placed, at, gap + 1.5 * size)) else (texts, box)
+    fallback = None if hits(box, _near(placed, at, gap + 1.5 * size)) else (texts, box)
     for ring in range(RINGS):
         distance = gap + ring * max(RING_STEP * texts[0].height, 0.5 * size)
         reach = distance + 1.5 * size
@@ -94,9 +94,9 @@ def _free_side(texts: list, box: tuple, at, gap: float, placed: list, marks: lis
         for side in SIDES:
             candidate = stack_beside(at, side, distance, texts)
             side_box = _block_box(candidate)
-            if _hits(side_box, near_placed):
+            if hits(side_box, near_placed):
                 continue
-            if not _hits(side_box, near_marks):
+            if not hits(side_box, near_marks):
                 return candidate, side_box
             fallback = fallback or (candidate, side_box)
         if fallback:

@@ -1,7 +1,7 @@
 """The space diagram as the trade draws it: link centre lines from joint
 centre to joint centre (a plate as its outline through its joints), so any
 length on paper measures true at the drawing scale; pins, fixed pivots,
-slider blocks and guides as symbols of constant paper size. Each primitive
+slider blocks, guides and the centres of mass as symbols of constant paper size. Each primitive
 carries a :class:`~kinematics.drawing.sheet.Ref` to the point, link or slide
 it draws."""
 
@@ -9,12 +9,13 @@ from __future__ import annotations
 
 import math
 
+from ..model.mass import mass_centres
 from ..model.mechanism import GROUND
 from . import symbols
-from .declutter import declutter
+from .declutter import declutter, hits, text_box
 from .hatching import ground_hatch
 from .sheet import Line, Polyline, Recorder, Text, View, ref_of
-from .style import ANNOTATION, SPACE_GROUND, SPACE_LINK, SPACE_PATH
+from .style import ANNOTATION, MASS_CENTRE, SPACE_GROUND, SPACE_LINK, SPACE_PATH
 from .symbols import Symbols
 
 # Points this close to one line (relative to the link's size) make a straight bar, not a plate.
@@ -97,6 +98,8 @@ def draw_linkage(rec: Recorder, mech, xy: dict, view: View, size: Symbols) -> No
         if slide.name == cylinder:
             _draw_rod(rec, slide, at, ids)
         _draw_slide(rec, slide, at, size, ids)
+    for link, where in mass_centres(mech, xy).items():
+        symbols.mass_centre(rec, view.place(where), MASS_CENTRE, size, view=view.name, ref=ref_of("mass centre", link))
     xs, ys = [x for x, _ in at.values()], [y for _, y in at.values()]
     centre = (sum(xs) / len(xs), sum(ys) / len(ys))
     _draw_joints(rec, mech, at, centre, size, view.name)
@@ -131,14 +134,21 @@ def _segments(primitives, view: str) -> list:
 def _draw_link_names(rec: Recorder, orders: dict, at, centre, size: Symbols, view: str) -> None:
     """Each link's name in small text, so the results table reads against the
     drawing: beside a bar's middle (on the side away from the mechanism's
-    middle), at a plate's centre. ``orders`` is each link's :func:`outline`."""
+    middle), at a plate's centre (beside it when a mark is there). ``orders`` is each link's
+    :func:`outline`."""
     small = Symbols(text=size.small_text)
     for link, (order, closed) in orders.items():
         ids = {"view": view, "ref": ref_of("link", link)}
         if closed:
             where = (sum(at[n][0] for n in order) / len(order), sum(at[n][1] for n in order) / len(order))
-            rec.add(Text(position=where, text=link, height=size.small_text, pen=ANNOTATION, align="centre",
-                         anchor="middle", **ids))
+            name = Text(position=where, text=link, height=size.small_text, pen=ANNOTATION, align="centre",
+                        anchor="middle", **ids)
+            if hits(text_box(name), [box for on, box in rec.marks if on == view]):
+                # A mark at the plate's centre (its centre of mass, often): the name goes beside it.
+                symbols.label(rec, where, link, (where[0], where[1] + 1.0), ANNOTATION, small,
+                              gap=2.0 * symbols.MASS_CENTRE_RADIUS * size.pin, **ids)
+            else:
+                rec.add(name)
             continue
         if len(order) < 2:
             continue

@@ -13,7 +13,7 @@ from dataclasses import dataclass
 from functools import lru_cache
 
 from .hatching import ground_hatch
-from .sheet import Arrow, Circle, Polyline, Recorder, Strokes, Text
+from .sheet import Arrow, Circle, Hatch, Polyline, Recorder, Strokes, Text
 
 
 @dataclass(frozen=True)
@@ -94,6 +94,22 @@ def pin(rec: Recorder, at, pen, size: Symbols, joint: bool, **ids) -> None:
     radius = size.pin if joint else size.dot
     rec.add(Circle(centre=at, radius=radius, pen=pen, filled=not joint, **ids))
     dot_mark(rec, at, size.pin, ids.get("view", ""))  # a dot keeps a pin's room: it is picked with the mouse
+
+
+MASS_CENTRE_RADIUS = 1.6  # the centre-of-mass mark's radius, in pin radii
+_QUARTER = tuple(math.radians(15.0 * k) for k in range(7))  # a quarter turn in 15° steps
+
+
+def mass_centre(rec: Recorder, at, pen, size: Symbols, **ids) -> None:
+    """The centre-of-mass mark: a ring with two opposite quarters filled (the top right and the
+    bottom left), so it reads apart from a pin and stays legible in grey-scale print."""
+    x, y = at
+    r = MASS_CENTRE_RADIUS * size.pin
+    rec.add(Circle(centre=at, radius=r, pen=pen, **ids))
+    for turn in (0.0, math.pi):
+        rec.add(Hatch(points=((x, y), *((x + r * math.cos(a + turn), y + r * math.sin(a + turn)) for a in _QUARTER)),
+                      pen=pen, **ids))
+    dot_mark(rec, at, r, ids.get("view", ""))
 
 
 def slider_block(rec: Recorder, at, direction, pen, size: Symbols, **ids) -> None:

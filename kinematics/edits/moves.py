@@ -7,6 +7,7 @@ from dataclasses import replace
 
 from ..errors import KinematicsError
 from ..files.fileschema import MAX_COORDINATE
+from ..model.mass import carried
 from ..model.mechanism import Mechanism
 
 
@@ -22,15 +23,15 @@ def _carried_centres(mechanism: Mechanism, name: str, points: dict):
         first, second = mechanism.links[link][:2]
         if name not in (first, second):
             continue
-        (a, b), (a2, b2) = ((complex(*pts[first]), complex(*pts[second])) for pts in (mechanism.points, points))
-        if a == b or a2 == b2:
+        centre = carried(entry.centre, (mechanism.points[first], mechanism.points[second]),
+                         (points[first], points[second]))
+        if centre is None:
             continue  # no frame to carry it in (the loader refuses such a link; a drag may pass through one)
-        centre = a2 + (complex(*entry.centre) - a) * (b2 - a2) / (b - a)
-        if max(abs(centre.real), abs(centre.imag)) > MAX_COORDINATE:
+        if max(abs(centre[0]), abs(centre[1])) > MAX_COORDINATE:
             raise KinematicsError(f"moving point {name} would carry the centre of mass of link {link} to "
-                                  f"({centre.real:.6g}, {centre.imag:.6g}), beyond ±{MAX_COORDINATE:g} length units "
+                                  f"({centre[0]:.6g}, {centre[1]:.6g}), beyond ±{MAX_COORDINATE:g} length units "
                                   "(the file format's limit)", f"points.{name}")
-        masses[link] = replace(entry, centre=(centre.real, centre.imag))
+        masses[link] = replace(entry, centre=centre)
     return replace(data, masses=masses)
 
 

@@ -269,3 +269,38 @@ def _moving_link(mechanism, link: str, where: str) -> None:
         raise FileFormatError("the frame does not move: masses and loads go on moving links", where, "reference")
     if link not in mechanism.links:
         raise FileFormatError(f'unknown link "{link}"', where, "reference")
+
+
+def carried(point: tuple, before: tuple, after: tuple) -> tuple | None:
+    """``point`` (x, y) fixed to the segment ``before`` = (a, b) as it is carried to ``after`` =
+    (a2, b2): moved, turned and scaled with it (a similarity); None when either segment has no length.
+
+    >>> carried((1.0, 1.0), ((0.0, 0.0), (1.0, 0.0)), ((0.0, 0.0), (0.0, 2.0)))
+    (-2.0, 2.0)
+    """
+    (a, b), (a2, b2) = ((complex(*p), complex(*q)) for p, q in (before, after))
+    if a == b or a2 == b2:
+        return None
+    moved = a2 + (complex(*point) - a) * (b2 - a2) / (b - a)
+    return (moved.real, moved.imag)
+
+
+def mass_centres(mechanism, xy: Mapping) -> dict:
+    """Where each link's centre of mass is with the points at ``xy`` (name -> (x, y) in metres, a
+    pose): the centre stated in the reference pose carried with the link's first two points, as
+    the force analysis carries it. Links without a mass entry, or whose first two points meet, are
+    left out. Metres, like ``xy``."""
+    data = mechanism.mass_data
+    if data is None:
+        return {}
+    k = mechanism.metres_per_unit
+    found = {}
+    for link, entry in data.masses.items():
+        first, second = mechanism.links[link][:2]
+        if first not in xy or second not in xy:
+            continue
+        at = carried((entry.centre[0] * k, entry.centre[1] * k),
+                     (mechanism.position_m(first), mechanism.position_m(second)), (xy[first], xy[second]))
+        if at is not None:
+            found[link] = at
+    return found

@@ -2,7 +2,7 @@
 
 from PySide6.QtWidgets import QGraphicsSimpleTextItem
 
-from app.scene_backend import ITEM_REF
+from app.scene_backend import ITEM_HANDLE, ITEM_REF
 from kinematics.drawing import Ref
 
 
@@ -19,7 +19,8 @@ def joint_label(scene, name: str) -> str:
 
 def joints(scene) -> set:
     """The names of the joints the space diagram draws a pin for."""
-    return {item.data(ITEM_REF).name for item in scene.items() if item.data(1)}
+    return {item.data(ITEM_REF).name for item in scene.items()
+            if item.data(ITEM_HANDLE) and item.data(ITEM_REF).kind == "point"}
 
 
 def on_screen(view, item):
