@@ -25,6 +25,8 @@ FAMILIES = {
     "acceleration": "a",
     "angular velocity": "ω",
     "angular acceleration": "α",
+    "jerk": "j",
+    "angular jerk": "dα/dt",
 }
 # The output's mechanical advantage (kinematics.cycle.advantage): its unit follows the output, a
 # link's torque or a point's force per unit driver torque, so each is a family of its own.
@@ -33,9 +35,11 @@ FAMILIES |= dict.fromkeys(ADVANTAGE_UNITS, "MA")
 # Towards a toggle the advantage grows without bound: the plot holds it to this many times its least
 # value, so the rest of the cycle stays readable (the peaks table gives the angles where it locks).
 ADVANTAGE_SHOWN_UP_TO = 20.0
+POINT_FAMILIES = ("velocity", "acceleration", "jerk")  # of a point; "angular …" of a link, sliding … of a slide
+_POINT_TABLES = {"velocity": "velocities", "acceleration": "accelerations", "jerk": "jerks"}
 _FORMS = {"magnitude": "|{}|", "x": "{}ₓ", "y": "{}ᵧ", "rate": "{}", "sliding": "{}", "output": "{}"}
 # A subscript s, not a dot over s: the double dot (combining U+0308) is lost in common fonts.
-_SLIDING_SYMBOLS = {"velocity": "vₛ", "acceleration": "aₛ"}
+_SLIDING_SYMBOLS = {"velocity": "vₛ", "acceleration": "aₛ", "jerk": "jₛ"}
 
 
 @dataclass(frozen=True)
@@ -84,12 +88,12 @@ def available(mechanism) -> list[Quantity]:
     found = []
     for point in mechanism.points:
         if point not in mechanism.ground:
-            found += [Quantity("velocity", "magnitude", point), Quantity("acceleration", "magnitude", point)]
-            found += [Quantity(family, axis, point) for family in ("velocity", "acceleration") for axis in "xy"]
+            found += [Quantity(family, "magnitude", point) for family in POINT_FAMILIES]
+            found += [Quantity(family, axis, point) for family in POINT_FAMILIES for axis in "xy"]
     for link in mechanism.links:
-        found += [Quantity("angular velocity", "rate", link), Quantity("angular acceleration", "rate", link)]
+        found += [Quantity(f"angular {family}", "rate", link) for family in POINT_FAMILIES]
     for slide in mechanism.slides:
-        found += [Quantity("velocity", "sliding", slide), Quantity("acceleration", "sliding", slide)]
+        found += [Quantity(family, "sliding", slide) for family in POINT_FAMILIES]
     output = mechanism.output or {}
     if output and mechanism.driver.speed_rad_s != 0.0:
         family = "mechanical advantage" if "link" in output else "mechanical advantage (force)"
@@ -110,19 +114,17 @@ def default_choice(mechanism) -> list[Quantity]:
 
 
 def si_values(sweep, quantity: Quantity) -> np.ndarray:
-    """The (N,) series in SI (m/s, m/s², rad/s, rad/s², N·m/N·m, N/(N·m)), in the order the sweep
-    holds it."""
+    """The (N,) series in SI (m/s, m/s², m/s³, rad/s, rad/s², rad/s³, N·m/N·m, N/(N·m)), in the
+    order the sweep holds it."""
     if quantity.form == "output":
         found = advantage_over_cycle(sweep)
         cap = ADVANTAGE_SHOWN_UP_TO * found.least_advantage
         return np.clip(found.mechanical_advantage, -cap, cap)
     if quantity.form == "rate":
-        table = sweep.angular_velocity if quantity.family == "angular velocity" else sweep.angular_acceleration
-        return table[quantity.subject]
+        return getattr(sweep, quantity.family.replace(" ", "_"))[quantity.subject]
     if quantity.form == "sliding":
-        table = sweep.sliding_velocity if quantity.family == "velocity" else sweep.sliding_acceleration
-        return table[quantity.subject]
-    vectors = sweep.velocities if quantity.family == "velocity" else sweep.accelerations
+        return getattr(sweep, f"sliding_{quantity.family}")[quantity.subject]
+    vectors = getattr(sweep, _POINT_TABLES[quantity.family])
     vector = vectors[:, sweep.point_names.index(quantity.subject)]
     if quantity.form == "magnitude":
         return np.linalg.norm(vector, axis=1)
@@ -131,7 +133,7 @@ def si_values(sweep, quantity: Quantity) -> np.ndarray:
 
 @dataclass(frozen=True)
 class Units:
-    """The window's choice: lengths in mm, m or in; ω in rad/s or rpm (α stays rad/s²)."""
+    """The window's choice: lengths in mm, m or in; ω in rad/s or rpm (α stays rad/s², dα/dt rad/s³)."""
 
     length: str = "mm"
     speed: str = "rad/s"
@@ -139,15 +141,13 @@ class Units:
     def unit(self, family: str) -> str:
         length = LENGTH_SYSTEMS[self.length]
         return {"velocity": length.velocity_unit, "acceleration": length.acceleration_unit,
-                "angular velocity": self.speed, "angular acceleration": "rad/s²", **ADVANTAGE_UNITS}[family]
+                "jerk": length.jerk_unit, "angular velocity": self.speed, "angular acceleration": "rad/s²",
+                "angular jerk": "rad/s³", **ADVANTAGE_UNITS}[family]
 
     def shown(self, family: str, si: np.ndarray) -> np.ndarray:
         """``si`` converted to this family's shown unit."""
-        length = LENGTH_SYSTEMS[self.length]
-        if family == "velocity":
-            return length.velocity(si)
-        if family == "acceleration":
-            return length.acceleration(si)
+        if family in POINT_FAMILIES:  # a length per second, per second squared, per second cubed
+            return si / LENGTH_SYSTEMS[self.length].metres
         if family == "angular velocity":
             return angular_speed(si, self.speed)
         return si

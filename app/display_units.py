@@ -13,7 +13,7 @@ from kinematics.model.units import METRES_PER_LENGTH_UNIT, rpm_from_rad_s
 
 @dataclass(frozen=True)
 class LengthSystem:
-    """Velocities in ``unit``/s and accelerations in ``unit``/s²."""
+    """Velocities in ``unit``/s, accelerations in ``unit``/s² and jerks in ``unit``/s³."""
 
     unit: str
 
@@ -34,6 +34,10 @@ class LengthSystem:
     @property
     def acceleration_unit(self) -> str:
         return f"{self.unit}/s²"
+
+    @property
+    def jerk_unit(self) -> str:
+        return f"{self.unit}/s³"
 
 
 LENGTH_SYSTEMS = {unit: LengthSystem(unit) for unit in ("mm", "m", "in")}

@@ -349,3 +349,28 @@ def test_screenshots_show_labelled_curves(panel):
     colours = {f"#{value:06x}" for value in argb}
     assert {PALETTE[0].lower(), PALETTE[1].lower(), PALETTE[2].lower()} <= colours  # one curve per row drawn
     assert len(panel.plots) == 3
+
+
+def test_jerk_is_offered_ticked_and_plotted_from_the_sweeps_own_arrays(panel):
+    result = kinematics.sweep(kinematics.load_mechanism(SIX_BAR), 360)
+    panel.set_units("mm", "rad/s")
+    panel.set_sweep(result)
+    jerk = Quantity("jerk", "magnitude", "P")
+    spin = Quantity("angular jerk", "rate", list(result.angular_jerk)[-1])
+    rows = {panel.choices.item(i).data(Qt.UserRole): panel.choices.item(i) for i in range(panel.choices.count())}
+    assert {Quantity("jerk", "x", "P"), Quantity("jerk", "y", "P")} <= set(rows)
+    for quantity in list(panel.curves):
+        rows[quantity].setCheckState(Qt.Unchecked)
+    rows[jerk].setCheckState(Qt.Checked)
+    rows[spin].setCheckState(Qt.Checked)
+    assert list(panel.plots) == ["jerk", "angular jerk"]
+    order = wrapped_order(result)
+    magnitude = np.linalg.norm(result.jerks[:, result.point_names.index("P")], axis=1)
+    assert np.allclose(curve_data(panel, jerk)[1], magnitude[order] * 1000.0, rtol=1e-15)  # m/s³ -> mm/s³
+    assert np.array_equal(curve_data(panel, spin)[1], result.angular_jerk[spin.subject][order])
+    assert panel.plots["jerk"].getAxis("left").labelText == "j (mm/s³)"
+    assert panel.plots["angular jerk"].getAxis("left").labelText == "dα/dt (rad/s³)"
+    # The readout's peak is the core's peaks table's (kinematics.cycle.peaks), in the unit shown.
+    table = peaks(result)["points"]["P"]
+    assert (f"peak {readable(table['max_jerk'] * 1000.0)} mm/s³ at {table['jerk_at_deg'] % 360:.1f}°"
+            in panel.peaks.text())
