@@ -165,6 +165,23 @@ def set_speed(mech: Mechanism, speed_value: float, speed_unit: str, angular_acce
                                         angular_acceleration_unit="rad/s^2"), warnings=())
 
 
+def set_cylinder_motion(mech: Mechanism, speed_value: float, unit: str, acceleration: float,
+                        stroke: tuple) -> Mechanism:
+    """A cylinder driver's extension speed in ``unit`` ("mm/s" or "m/s"), its acceleration in the
+    matching unit per second (mm/s² or m/s²) and its ``stroke`` (min, max) in the design's length
+    unit, None where it has no limit. A stroke out of order is refused by the core, naming
+    ``driver.stroke``."""
+    driver = mech.driver
+    if driver is None or not driver.is_actuator:
+        raise BuildError("the driver is not a cylinder: choose one with the Driver tool on a slide through a "
+                         "fixed pivot")
+    low, high = stroke
+    return replace(mech, driver=replace(driver, linear_speed_value=float(speed_value), linear_speed_unit=unit,
+                                        linear_acceleration_value=float(acceleration),
+                                        linear_acceleration_unit=f"{unit}^2", stroke_min=low, stroke_max=high),
+                   warnings=())
+
+
 def set_fixed(mech: Mechanism, name: str, fixed: bool) -> Mechanism:
     """Fix joint ``name`` to the frame, or free it."""
     ground = tuple(dict.fromkeys((*mech.ground, name))) if fixed else tuple(g for g in mech.ground if g != name)

@@ -12,7 +12,7 @@ from PySide6.QtWidgets import QCheckBox, QComboBox, QDoubleSpinBox, QFormLayout,
 
 from kinematics import KinematicsError, move_point, rename_link, rename_point
 from kinematics.files.fileschema import MAX_COORDINATE, MAX_RATE
-from kinematics.model.units import metres_per
+from kinematics.model.units import M_S_PER_LINEAR_SPEED_UNIT, metres_per
 
 from . import building
 from .building import BuildError
@@ -20,6 +20,7 @@ from .building import BuildError
 # The place fields show a joint to this resolution whatever the file's unit (1 µm: 3 decimals in mm,
 # 6 in m, 5 in inches), across the whole range the file format holds.
 PLACE_RESOLUTION_M = 1e-6
+CYLINDER_SPEED_UNITS = {unit: M_S_PER_LINEAR_SPEED_UNIT[unit] for unit in ("mm/s", "m/s")}  # as listed, m/s each
 
 
 def _spin(low: float, high: float, decimals: int) -> QDoubleSpinBox:
@@ -84,6 +85,10 @@ class PropertiesPanel(QWidget):
         self.speed_unit.addItems(["rpm", "rad/s"])
         self.alpha = _spin(-MAX_RATE, MAX_RATE, 3)
         self.alpha.setSuffix(" rad/s²")
+        # A cylinder's stroke: its least and greatest length; the lowest value, 0, is "no limit".
+        self.stroke_min, self.stroke_max = _spin(0.0, MAX_COORDINATE, 3), _spin(0.0, MAX_COORDINATE, 3)
+        for field in (self.stroke_min, self.stroke_max):
+            field.setSpecialValueText("no limit")
         for widget, tip in ((self.title, "The design's title (printed on the sheet)"),
                             (self.point, "The joint shown below (or click one in the space diagram)"),
                             (self.point_name, "Type a new name and press Enter to rename the joint everywhere"),
@@ -94,7 +99,9 @@ class PropertiesPanel(QWidget):
                             (self.link_name, "Type a new name and press Enter to rename the link everywhere"),
                             (self.speed, "The driver's speed, counter-clockwise positive"),
                             (self.speed_unit, "The unit of the driver's speed"),
-                            (self.alpha, "The driver's angular acceleration, counter-clockwise positive")):
+                            (self.alpha, "The driver's angular acceleration, counter-clockwise positive"),
+                            (self.stroke_min, "The cylinder's least length (fully retracted), pivot to rod end"),
+                            (self.stroke_max, "The cylinder's greatest length (fully extended), pivot to rod end")):
             widget.setToolTip(tip)
         # A refusal is said beside the field it is about, and stays until the next edit or choice.
         self.point_refusal, self.link_refusal = _refusal_label(), _refusal_label()
@@ -114,6 +121,9 @@ class PropertiesPanel(QWidget):
         form.addRow("speed", self.speed)
         form.addRow("speed unit", self.speed_unit)
         form.addRow("angular acceleration", self.alpha)
+        form.addRow("stroke from", self.stroke_min)
+        form.addRow("stroke to", self.stroke_max)
+        self.form = form
         self.title.editingFinished.connect(self.apply_title)
         self.point.currentTextChanged.connect(self.show_point)
         self.point_name.editingFinished.connect(self.apply_point_name)
@@ -122,7 +132,7 @@ class PropertiesPanel(QWidget):
         self.x.valueChanged.connect(lambda value: self.apply_place(0, value))
         self.y.valueChanged.connect(lambda value: self.apply_place(1, value))
         self.fixed.toggled.connect(self.apply_fixed)
-        for widget in (self.speed, self.alpha):
+        for widget in (self.speed, self.alpha, self.stroke_min, self.stroke_max):
             widget.valueChanged.connect(self.apply_driver)
         self.speed_unit.currentTextChanged.connect(self.apply_driver)
         self.refresh()
@@ -131,7 +141,7 @@ class PropertiesPanel(QWidget):
     def _quiet(self):
         """Fill the fields without their change signals writing the values back as edits."""
         widgets = (self.title, self.point, self.point_name, self.x, self.y, self.fixed, self.link, self.link_name,
-                   self.speed, self.speed_unit, self.alpha)
+                   self.speed, self.speed_unit, self.alpha, self.stroke_min, self.stroke_max)
         for widget in widgets:
             widget.blockSignals(True)
         try:
@@ -157,14 +167,42 @@ class PropertiesPanel(QWidget):
             field.setDecimals(decimals)
         self._fill_point(self.point.currentText())
         self._fill_link(self.link.currentText())
+        self._fill_driver(mech)
+
+    def _fill_driver(self, mech):
+        """The driver's rows: a crank's speed and angular acceleration, or a cylinder's extension speed,
+        its acceleration (in the speed's length unit) and its stroke."""
         driver = mech.driver
-        self.driver.setText(f"{driver.link} about {driver.pivot}" if driver else "none yet (Driver tool)")
+        cylinder = driver is not None and driver.is_actuator
+        if cylinder:
+            self.driver.setText(f"{driver.cylinder_words}, barrel pivoted at {driver.pivot}")
+        else:
+            self.driver.setText(f"{driver.link} about {driver.pivot}" if driver else "none yet (Driver tool)")
         for widget in (self.speed, self.speed_unit, self.alpha):
             widget.setEnabled(driver is not None)
-        if driver is not None:
+        self.form.labelForField(self.speed).setText("extension speed" if cylinder else "speed")
+        self.form.labelForField(self.alpha).setText("extension acceleration" if cylinder else "angular acceleration")
+        for field in (self.stroke_min, self.stroke_max):
+            self.form.setRowVisible(field, cylinder)
+        _refill(self.speed_unit, list(CYLINDER_SPEED_UNITS) if cylinder else ["rpm", "rad/s"])
+        self.speed.setToolTip("The cylinder's extension speed (negative: it retracts)" if cylinder
+                              else "The driver's speed, counter-clockwise positive")
+        if driver is None:
+            return
+        if not cylinder:
             self.speed.setValue(driver.speed_value)
             self.speed_unit.setCurrentText(driver.speed_unit)
+            self.alpha.setSuffix(" rad/s²")
             self.alpha.setValue(driver.angular_acceleration_rad_s2)
+            return
+        unit = driver.linear_speed_unit
+        self.speed.setValue(driver.linear_speed_value)
+        self.speed_unit.setCurrentText(unit)
+        self.alpha.setSuffix(f" {unit}²")
+        self.alpha.setValue(driver.linear_acceleration_m_s2 / CYLINDER_SPEED_UNITS[unit])
+        for field, value in ((self.stroke_min, driver.stroke_min), (self.stroke_max, driver.stroke_max)):
+            field.setSuffix(f" {mech.length_unit}")
+            field.setValue(value or 0.0)
 
     def _fill_point(self, name: str):
         mech = self.document.mechanism
@@ -254,10 +292,16 @@ class PropertiesPanel(QWidget):
             self._edit(building.set_fixed(self.document.mechanism, name, on), f"{'fix' if on else 'free'} {name}")
 
     def apply_driver(self, *_):
+        mech = self.document.mechanism
         try:
-            mech = building.set_speed(self.document.mechanism, self.speed.value(), self.speed_unit.currentText(),
-                                      self.alpha.value())
-        except BuildError as error:
+            if mech.driver is not None and mech.driver.is_actuator:
+                stroke = tuple(field.value() or None for field in (self.stroke_min, self.stroke_max))
+                mech = building.set_cylinder_motion(mech, self.speed.value(), self.speed_unit.currentText(),
+                                                    self.alpha.value(), stroke)
+            else:
+                mech = building.set_speed(mech, self.speed.value(), self.speed_unit.currentText(), self.alpha.value())
+        except (BuildError, KinematicsError) as error:
             self.say(str(error))
+            self.refresh()  # the fields show the design's values again
             return
         self._edit(mech, "set the driver's speed")

@@ -16,9 +16,7 @@ def cylinder_from_document(spec, slides):
                               "driver.slide", "reference")
     slide = slides[name]
     stroke = spec.get("stroke", {})
-    low, high = stroke.get("min"), stroke.get("max")
-    if low is not None and high is not None and not low < high:
-        raise FileFormatError(f"the stroke's min {low:g} must be below its max {high:g}", "driver.stroke", "geometry")
+    low, high = stroke.get("min"), stroke.get("max")  # their order is the Driver's own check
     speed, accel = spec["speed"], spec.get("acceleration", {})
     return Driver(link=slide.guide, pivot=slide.line[0], speed_value=0, kind="actuator", slide=name,
                   linear_speed_value=speed["value"], linear_speed_unit=speed.get("unit", "m/s"),

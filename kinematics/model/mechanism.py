@@ -14,6 +14,7 @@ from functools import cached_property
 from types import MappingProxyType
 from typing import TYPE_CHECKING
 
+from ..errors import FileFormatError
 from .units import (
     M_S2_PER_LINEAR_ACCELERATION_UNIT,
     M_S_PER_LINEAR_SPEED_UNIT,
@@ -79,6 +80,12 @@ class Driver:
     linear_acceleration_unit: str = "m/s^2"
     stroke_min: float | None = None
     stroke_max: float | None = None
+
+    def __post_init__(self):
+        low, high = self.stroke_min, self.stroke_max
+        if low is not None and high is not None and not low < high:
+            raise FileFormatError(f"the stroke's min {low:g} must be below its max {high:g}", "driver.stroke",
+                                  "geometry")
 
     @property
     def is_actuator(self) -> bool:

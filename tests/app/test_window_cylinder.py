@@ -100,3 +100,49 @@ def test_the_driver_tool_makes_a_slide_a_cylinder_by_its_pivot_and_rod_end(make_
     window.document.undo_stack.undo()
     assert not window.document.mechanism.driver.is_actuator
     assert window.angle.caption.text() == "driver angle"
+
+
+def _type(qtbot, field, text: str):
+    """Select the field's number and type ``text`` with the keyboard, then Enter."""
+    field.setFocus()
+    field.selectAll()
+    qtbot.keyClicks(field.lineEdit(), text)
+    qtbot.keyClick(field.lineEdit(), Qt.Key.Key_Return)
+
+
+def test_the_design_tab_edits_the_cylinders_speed_acceleration_and_stroke(make_window, qtbot, tmp_path):
+    window = _open_table(make_window)
+    doc, panel = window.document, window.properties
+    form = panel.form
+    assert form.labelForField(panel.speed).text() == "extension speed"
+    assert [panel.speed_unit.itemText(i) for i in range(panel.speed_unit.count())] == ["mm/s", "m/s"]
+    assert (panel.speed.value(), panel.stroke_min.value(), panel.stroke_max.value()) == (40.0, 580.0, 1060.0)
+    assert panel.alpha.suffix() == " mm/s²" and form.isRowVisible(panel.stroke_max)
+    _type(qtbot, panel.speed, "55")
+    assert doc.mechanism.driver.linear_speed_m_s == pytest.approx(0.055, rel=1e-12)
+    # The solution's own sliding velocity of the cylinder is the speed typed.
+    assert doc.solution.sliding_velocity["cylinder"] == pytest.approx(0.055, rel=1e-9)
+    _type(qtbot, panel.alpha, "12")
+    assert doc.mechanism.driver.linear_acceleration_m_s2 == pytest.approx(0.012, rel=1e-12)
+    _type(qtbot, panel.stroke_max, "1000")
+    assert doc.mechanism.driver.stroke_max == 1000.0
+    assert kinematics.sweep(doc.mechanism, 20).driver_length_m.max() <= 1.0 + 1e-12
+    before = doc.mechanism
+    _type(qtbot, panel.stroke_min, "1100")
+    assert doc.mechanism is before, "a stroke out of order is not kept"
+    assert "the stroke's min 1100 must be below its max 1000" in window.status.text()
+    assert panel.stroke_min.value() == 580.0, "the field shows the design's stroke again"
+    assert doc.undo_stack.count() == 3
+    path = tmp_path / "table.json"
+    assert window.save_to(path)
+    saved = json.loads(path.read_text(encoding="utf-8"))["driver"]
+    assert saved["speed"] == {"value": 55.0, "unit": "mm/s"}
+    assert saved["acceleration"] == {"value": 12.0, "unit": "mm/s^2"}
+    assert saved["stroke"] == {"min": 580, "max": 1000.0}
+
+
+def test_a_crank_driven_design_shows_no_stroke_rows(make_window):
+    window = make_window(CLAW_FEED)
+    panel = window.properties
+    assert not panel.form.isRowVisible(panel.stroke_min) and not panel.form.isRowVisible(panel.stroke_max)
+    assert panel.form.labelForField(panel.speed).text() == "speed" and panel.alpha.suffix() == " rad/s²"
