@@ -18,7 +18,7 @@ from kinematics.drawing.panes import polygon_pane
 from .drawing_kit import label_font
 from .polygon_scene import PolygonScene
 from .space_scene import scene_rect
-from .views import LEGEND_LINE, LEGEND_TOP, PolygonView
+from .views import LEGEND_LINE, PolygonView
 
 MESSAGE_WIDTH = 360.0  # pixels the message wraps at
 LABEL_ROOM = 0.6  # the most room each side of the force polygon its labels take, a share of its size
@@ -120,6 +120,6 @@ class ForceView(PolygonView):
         painter.resetTransform()
         painter.setFont(label_font(11))
         painter.setPen(QColor("#1d2b3a"))
-        top = LEGEND_TOP + LEGEND_LINE * len(self.scene().used_pens()) - 6
+        top = self.legend_rows_height() - 6
         painter.drawText(QRectF(10, top, MESSAGE_WIDTH, 3 * LEGEND_LINE), Qt.TextFlag.TextWordWrap, self.message)
         painter.restore()

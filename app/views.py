@@ -5,9 +5,9 @@ from __future__ import annotations
 
 import math
 
-from PySide6.QtCore import QPointF, QRect, QRectF, Qt, Signal
+from PySide6.QtCore import QEvent, QPointF, QRect, QRectF, Qt, Signal
 from PySide6.QtGui import QColor, QPainter, QPen, QPixmap
-from PySide6.QtWidgets import QGraphicsView
+from PySide6.QtWidgets import QGraphicsView, QToolTip
 
 from kinematics.drawing import Ref
 
@@ -24,6 +24,10 @@ PICK_PIXELS = 4
 LEGEND_TOP = 38.0
 LEGEND_LINE = 16.0
 LEGEND_WIDTH = 330.0  # pixels: room for the longest legend line
+# The full legend takes at most this share of a polygon view's height; in a shorter view it folds
+# into one row of swatches under the title, its words in the row's tooltip.
+LEGEND_SHARE = 0.3
+SWATCH, SWATCH_GAP = 24.0, 8.0  # a folded legend's swatch and the gap after it, pixels
 
 
 class DrawingView(QGraphicsView):
@@ -109,8 +113,9 @@ class DrawingView(QGraphicsView):
 
 
 class PolygonView(DrawingView):
-    """A polygon view with its legend in the top left corner (screen pixels); a click on a
-    step's drawing emits ``step_clicked(step id)``, a press elsewhere pans."""
+    """A polygon view with its legend in the top left corner (screen pixels), folded into a row
+    of swatches when the view is short; a click on a step's drawing emits ``step_clicked(step id)``,
+    a press elsewhere pans."""
 
     step_clicked = Signal(str)
 
@@ -138,9 +143,29 @@ class PolygonView(DrawingView):
         self.step_clicked.emit(step)
         event.accept()
 
-    def legend_height(self) -> float:
+    def folded(self) -> bool:
+        """True when the legend is folded into one row of swatches (the view is too short for it)."""
+        return LEGEND_TOP + LEGEND_LINE * len(self.scene().used_pens()) > LEGEND_SHARE * self.viewport().height()
+
+    def legend_rows_height(self) -> float:
         """Pixels the title and legend take at the top of the view."""
+        if self.folded():
+            return LEGEND_TOP + 0.5 * LEGEND_LINE
         return LEGEND_TOP + LEGEND_LINE * len(self.scene().used_pens())
+
+    def legend_height(self) -> float:
+        """Pixels kept free at the top of the view: the title and legend (and what a view adds under them)."""
+        return self.legend_rows_height()
+
+    def viewportEvent(self, event):
+        if event.type() == QEvent.Type.ToolTip:
+            pos = event.position().toPoint() if hasattr(event, "position") else event.pos()
+            if self.folded() and pos.y() < self.legend_rows_height() and pos.x() < LEGEND_WIDTH:
+                words = "\n".join(pen.legend for pen in self.scene().used_pens())
+                QToolTip.showText(event.globalPos(), words, self.viewport())
+                return True
+            QToolTip.hideText()
+        return super().viewportEvent(event)
 
     def room_pixels(self) -> tuple:
         # Room above the drawing for the legend, so it never covers a vector.
@@ -155,9 +180,9 @@ class PolygonView(DrawingView):
     def _legend(self) -> QPixmap:
         """The title and legend, drawn once for each set of pens in use (text is slow to lay out)."""
         pens = tuple(self.scene().used_pens())
-        ratio = self.devicePixelRatioF()
-        if self._legend_key != (pens, ratio):
-            pixmap = QPixmap(int(LEGEND_WIDTH * ratio), int((LEGEND_TOP + LEGEND_LINE * len(pens)) * ratio))
+        ratio, folded = self.devicePixelRatioF(), self.folded()
+        if self._legend_key != (pens, ratio, folded):
+            pixmap = QPixmap(int(LEGEND_WIDTH * ratio), int(self.legend_rows_height() * ratio))
             pixmap.setDevicePixelRatio(ratio)
             pixmap.fill(Qt.GlobalColor.transparent)
             painter = QPainter(pixmap)
@@ -167,16 +192,20 @@ class PolygonView(DrawingView):
             painter.drawText(QPointF(10, 20), self.title)
             painter.setFont(label_font(11))
             y = LEGEND_TOP
-            for pen in pens:
+            for i, pen in enumerate(pens):
                 line = QPen(QColor(pen.colour), max(2.0, pen.weight_mm * 5.0))
                 line.setStyle(DASHES[pen.dash])
                 painter.setPen(line)
+                if folded:  # side by side in one row; the words are the row's tooltip
+                    x = 10 + i * (SWATCH + SWATCH_GAP)
+                    painter.drawLine(QPointF(x, y - 4), QPointF(x + SWATCH, y - 4))
+                    continue
                 painter.drawLine(QPointF(10, y - 4), QPointF(34, y - 4))
                 painter.setPen(QColor("#1d2b3a"))
                 painter.drawText(QPointF(40, y), pen.legend)
                 y += LEGEND_LINE
             painter.end()
-            self._legend_key, self._legend_pixmap = (pens, ratio), pixmap
+            self._legend_key, self._legend_pixmap = (pens, ratio, folded), pixmap
         return self._legend_pixmap
 
 

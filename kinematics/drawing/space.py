@@ -137,13 +137,14 @@ def _draw_link_names(rec: Recorder, orders: dict, at, centre, size: Symbols, vie
     middle), at a plate's centre (beside it when a mark is there). ``orders`` is each link's
     :func:`outline`."""
     small = Symbols(text=size.small_text)
+    marks = [box for on, box in rec.marks if on == view]
     for link, (order, closed) in orders.items():
         ids = {"view": view, "ref": ref_of("link", link)}
         if closed:
             where = (sum(at[n][0] for n in order) / len(order), sum(at[n][1] for n in order) / len(order))
             name = Text(position=where, text=link, height=size.small_text, pen=ANNOTATION, align="centre",
                         anchor="middle", **ids)
-            if hits(text_box(name), [box for on, box in rec.marks if on == view]):
+            if hits(text_box(name), marks):
                 # A mark at the plate's centre (its centre of mass, often): the name goes beside it.
                 symbols.label(rec, where, link, (where[0], where[1] + 1.0), ANNOTATION, small,
                               gap=2.0 * symbols.MASS_CENTRE_RADIUS * size.pin, **ids)
@@ -160,8 +161,10 @@ def _draw_link_names(rec: Recorder, orders: dict, at, centre, size: Symbols, vie
         nx, ny = -(y1 - y0) / length, (x1 - x0) / length
         if (middle[0] - centre[0]) * nx + (middle[1] - centre[1]) * ny < 0:
             nx, ny = -nx, -ny
-        symbols.label(rec, middle, link, (middle[0] - nx, middle[1] - ny), ANNOTATION, small,
-                      gap=0.5 * size.small_text, **ids)
+        near = (middle[0] - size.pin, middle[1] - size.pin, middle[0] + size.pin, middle[1] + size.pin)
+        # A centre-of-mass mark at the bar's middle (a uniform bar's): the name stands clear of its ring.
+        gap = 2.0 * symbols.MASS_CENTRE_RADIUS * size.pin if hits(near, marks) else 0.5 * size.small_text
+        symbols.label(rec, middle, link, (middle[0] - nx, middle[1] - ny), ANNOTATION, small, gap=gap, **ids)
 
 
 def _guide_sides(mech, at) -> dict:

@@ -1,0 +1,63 @@
+"""Polygon legends in a small window: at 1024×700 the legend folds into a row of swatches (its
+words in a tooltip) so that no vector is drawn under it; at 1600×1000 it is the full list."""
+
+import json
+from pathlib import Path
+
+import pytest
+from PySide6.QtCore import QEvent, QPoint
+from PySide6.QtGui import QHelpEvent
+from PySide6.QtWidgets import QApplication, QGraphicsLineItem, QToolTip
+
+from app.views import LEGEND_SHARE
+from tests.app.drawn import on_screen
+
+SAMPLE = Path(__file__).resolve().parents[2] / "samples" / "cap-press-feeder.json"
+
+
+def _window(make_window, width, height):
+    window = make_window(json.loads(SAMPLE.read_text(encoding="utf-8")))
+    window.resize(width, height)
+    QApplication.processEvents()
+    window.drawings.fit_all()
+    QApplication.processEvents()
+    return window
+
+
+@pytest.mark.parametrize("size, folded", [((1024, 700), True), ((1600, 1000), False)])
+def test_the_legend_folds_only_where_the_view_is_short(make_window, size, folded):
+    window = _window(make_window, *size)
+    for view in (window.drawings.velocity_view, window.drawings.acceleration_view):
+        assert view.folded() is folded
+        assert view.legend_height() <= LEGEND_SHARE * view.viewport().height() or not folded
+        # No vector of the polygon runs under the title and legend.
+        lines = [item for item in view.scene().items() if isinstance(item, QGraphicsLineItem) and item.isVisible()]
+        assert lines
+        top = min(on_screen(view, item).top() for item in lines)
+        assert top >= view.legend_height() - 1.0, (view.title, top, view.legend_height())
+
+
+def test_a_folded_legend_gives_its_words_in_a_tooltip(make_window):
+    window = _window(make_window, 1024, 700)
+    view = window.drawings.velocity_view
+    assert view.folded()
+    at = QPoint(20, int(view.legend_rows_height()) - 6)
+    event = QHelpEvent(QEvent.Type.ToolTip, at, view.viewport().mapToGlobal(at))
+    QApplication.sendEvent(view.viewport(), event)
+    words = QToolTip.text()
+    assert words.splitlines() == [pen.legend for pen in view.scene().used_pens()]
+    assert "result vector" in words
+
+
+def test_a_folded_legend_is_drawn_in_each_pen_used(make_window):
+    window = _window(make_window, 1024, 700)
+    view = window.drawings.velocity_view
+    image = view.viewport().grab().toImage()
+    from app.views import LEGEND_TOP, SWATCH, SWATCH_GAP
+
+    for i, pen in enumerate(view.scene().used_pens()):
+        if pen.dash != "solid":
+            continue
+        x = int(10 + i * (SWATCH + SWATCH_GAP) + 4)
+        assert image.pixelColor(x, int(LEGEND_TOP - 4)).name() == pen.colour, pen.legend
+
