@@ -7,8 +7,8 @@ The numbers are the core's: the ForcePolygon is made by :func:`app.forces_data.p
 
 from __future__ import annotations
 
-from PySide6.QtCore import QRectF, Qt, Signal
-from PySide6.QtGui import QColor, QPainter
+from PySide6.QtCore import QRect, QRectF, Qt, Signal
+from PySide6.QtGui import QColor, QFontMetrics, QPainter
 
 from kinematics.drawing import Ref, Text
 from kinematics.drawing.declutter import text_box
@@ -18,7 +18,7 @@ from kinematics.drawing.panes import polygon_pane
 from .drawing_kit import label_font
 from .polygon_scene import PolygonScene
 from .space_scene import scene_rect
-from .views import LEGEND_LINE, PolygonView
+from .views import PolygonView
 
 MESSAGE_WIDTH = 360.0  # pixels the message wraps at
 LABEL_ROOM = 0.6  # the most room each side of the force polygon its labels take, a share of its size
@@ -96,8 +96,23 @@ class ForceView(PolygonView):
             self.message = text
             self.viewport().update()
 
+    def _message_lines(self) -> tuple:
+        """Where the message goes under the legend and its words as drawn: wrapped to the view's
+        width (at most MESSAGE_WIDTH); in a view whose legend is folded, one line cut short with
+        "…" (the whole message is the legend's tooltip there)."""
+        width = max(min(MESSAGE_WIDTH, self.viewport().width() - 20.0), 60.0)
+        metrics = QFontMetrics(label_font(11))
+        if self.folded():
+            words = metrics.elidedText(self.message, Qt.TextElideMode.ElideRight, int(width))
+            return QRectF(10.0, self.legend_rows_height() - 6.0, width, metrics.height() + 4.0), words
+        lines = metrics.boundingRect(QRect(0, 0, int(width), 10_000), Qt.TextFlag.TextWordWrap, self.message)
+        return QRectF(10.0, self.legend_rows_height() - 6.0, width, lines.height() + 4.0), self.message
+
+    def legend_words(self) -> str:
+        return super().legend_words() + (f"\n\n{self.message}" if self.message else "")
+
     def legend_height(self) -> float:
-        return super().legend_height() + (2 * LEGEND_LINE if self.message else 0.0)
+        return super().legend_height() + (self._message_lines()[0].height() if self.message else 0.0)
 
     def mouseMoveEvent(self, event):
         step = "" if event.buttons() else (self.step_at(event.position().toPoint()) or "")
@@ -120,6 +135,6 @@ class ForceView(PolygonView):
         painter.resetTransform()
         painter.setFont(label_font(11))
         painter.setPen(QColor("#1d2b3a"))
-        top = self.legend_rows_height() - 6
-        painter.drawText(QRectF(10, top, MESSAGE_WIDTH, 3 * LEGEND_LINE), Qt.TextFlag.TextWordWrap, self.message)
+        where, words = self._message_lines()
+        painter.drawText(where, Qt.TextFlag.TextWordWrap, words)
         painter.restore()

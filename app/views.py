@@ -157,12 +157,15 @@ class PolygonView(DrawingView):
         """Pixels kept free at the top of the view: the title and legend (and what a view adds under them)."""
         return self.legend_rows_height()
 
+    def legend_words(self) -> str:
+        """The folded legend's tooltip: each pen's words, one a line."""
+        return "\n".join(pen.legend for pen in self.scene().used_pens())
+
     def viewportEvent(self, event):
         if event.type() == QEvent.Type.ToolTip:
             pos = event.position().toPoint() if hasattr(event, "position") else event.pos()
             if self.folded() and pos.y() < self.legend_rows_height() and pos.x() < LEGEND_WIDTH:
-                words = "\n".join(pen.legend for pen in self.scene().used_pens())
-                QToolTip.showText(event.globalPos(), words, self.viewport())
+                QToolTip.showText(event.globalPos(), self.legend_words(), self.viewport())
                 return True
             QToolTip.hideText()
         return super().viewportEvent(event)

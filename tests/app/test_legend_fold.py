@@ -61,3 +61,20 @@ def test_a_folded_legend_is_drawn_in_each_pen_used(make_window):
         x = int(10 + i * (SWATCH + SWATCH_GAP) + 4)
         assert image.pixelColor(x, int(LEGEND_TOP - 4)).name() == pen.colour, pen.legend
 
+
+
+def test_the_force_panes_message_stays_above_the_polygon_in_a_small_window(make_window):
+    window = make_window(json.loads((SAMPLE.parent / "tile-trimmer-quick-return.json").read_text(encoding="utf-8")))
+    window.resize(1024, 700)
+    window.drawings.show_forces(True)
+    QApplication.processEvents()
+    window.drawings.fit_all()
+    QApplication.processEvents()
+    view = window.drawings.force_view
+    assert view.folded() and view.message
+    where, words = view._message_lines()
+    # One line, cut short with an ellipsis; the whole message is in the legend's tooltip.
+    assert words.endswith("…") and words[:-1] in view.message and view.message in view.legend_words()
+    assert where.bottom() <= view.legend_height() + 1e-9
+    lines = [item for item in view.scene().items() if isinstance(item, QGraphicsLineItem) and item.isVisible()]
+    assert min(on_screen(view, item).top() for item in lines) >= view.legend_height() - 1.0
