@@ -53,6 +53,8 @@ class DrawingsPanel(QSplitter):
         self.force_view.step_hovered.connect(self._force_line)
         self.force_view.step_clicked.connect(self.select_force_step)
         self.space_view.hovered.connect(self.mark_point)
+        self.space_view.centre_hovered.connect(
+            lambda name: self.space_scene.show_kennedy(name, self._mm_per_pixel(self.space_view)))
         # A zoom changes the size the symbols must be drawn at to keep their size on screen, and so
         # the room they take: a view that fits its drawing (it was resized) fits it again.
         self.space_view.rescaled.connect(self._space_rescaled)

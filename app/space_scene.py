@@ -14,7 +14,7 @@ from PySide6.QtWidgets import QGraphicsScene
 
 from kinematics import centres
 from kinematics.drawing import Circle, Ref, Text
-from kinematics.drawing.centres_overlay import centres_pane
+from kinematics.drawing.centres_overlay import centres_pane, kennedy_pane
 from kinematics.drawing.declutter import text_box
 from kinematics.drawing.panes import paths_pane, space_pane
 from kinematics.drawing.symbols import Symbols
@@ -53,6 +53,9 @@ class SpaceScene(QGraphicsScene):
         self.paths = SceneBackend(self)
         self.centres = SceneBackend(self)
         self.centres_sheet = None  # the centres drawn over the linkage, None when not shown
+        self.found_centres = None  # the Centres drawn, None when not shown
+        self.kennedy = SceneBackend(self)  # the lines of Kennedy's theorem of the centre under the pointer
+        self.kennedy_of = ""
         self.overlay = SceneBackend(self)  # a force's line of action, over the linkage
         self.forces = SceneBackend(self)  # the pose's forces where they act, when asked for
         self.forces_sheet = None
@@ -108,12 +111,25 @@ class SpaceScene(QGraphicsScene):
                 found = centres(solution, construction)
             except KinematicsError:
                 found = None  # a pose the centres cannot be found for: the linkage alone
+        self.found_centres = found
         if found is None:
             self.centres.clear()
             self.centres_sheet = None
+            self.show_kennedy("", mm_per_pixel)
             return
         self.centres_sheet = centres_pane(found, screen_symbols(mm_per_pixel))
         self.centres.show(self.centres_sheet, 1.0 / mm_per_pixel)
+        self.show_kennedy(self.kennedy_of, mm_per_pixel)  # the lines under the pointer follow the pose
+
+    def show_kennedy(self, name: str, mm_per_pixel: float):
+        """Draw faintly the lines of Kennedy's theorem that found centre ``name`` (and those sharing
+        its mark) while the pointer is on it; none for "" or a centre no longer drawn."""
+        found = self.found_centres
+        self.kennedy_of = name if found is not None and name in found.centres else ""
+        if not self.kennedy_of:
+            self.kennedy.clear()
+            return
+        self.kennedy.show(kennedy_pane(found, self.kennedy_of), 1.0 / mm_per_pixel)
 
     def marks(self) -> list:
         """The boxes (sheet mm) of the diagram's labels and pins, for what is laid over it to keep clear of."""

@@ -224,6 +224,7 @@ class SpaceView(DrawingView):
     dragged = Signal(tuple)
     drag_finished = Signal()
     hovered = Signal(object)
+    centre_hovered = Signal(str)  # the instantaneous centre under the pointer ("" for none)
     picked = Signal(object, tuple)  # a building tool's click: joint name or None, and where
     finished = Signal()  # Enter: close the chain being built
     cancelled = Signal()  # Esc: drop it
@@ -236,6 +237,7 @@ class SpaceView(DrawingView):
         self.dragging = None
         self._hover = None
         self._hand = None  # the pointing hand is shown (None: no cursor set yet)
+        self._centre = ""  # the instantaneous centre under the pointer
         self._pointer = None  # where the pointer is in the viewport, None when it is not over it
         self.building = False  # a building tool is active: clicks pick instead of drag
         self.grid_mm = 0.0  # grid spacing drawn behind the diagram (0: none)
@@ -312,10 +314,25 @@ class SpaceView(DrawingView):
             return
         self._hover_on(self.joint_at(pos) if not event.buttons() else None,
                        not event.buttons() and self.handle_at(pos) is not None)
+        self._hover_centre("" if event.buttons() or self._hover else self.centre_at(pos))
         super().mouseMoveEvent(event)
+
+    def centre_at(self, pos) -> str:
+        """The instantaneous centre whose mark is under ``pos`` (view pixels), "" where none is."""
+        for item in self.items(pos):
+            ref = item.data(ITEM_REF)
+            if isinstance(ref, Ref) and ref.kind == "centre":
+                return ref.name
+        return ""
+
+    def _hover_centre(self, name: str):
+        if name != self._centre:
+            self._centre = name
+            self.centre_hovered.emit(name)
 
     def leaveEvent(self, event):
         self._pointer = None
+        self._hover_centre("")
         if self.dragging is None:
             self._hover_on(None)
         super().leaveEvent(event)

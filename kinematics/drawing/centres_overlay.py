@@ -14,8 +14,8 @@ import math
 from . import symbols
 from .centre_places import bounds_with_centres, centre_places, linkage_box, where_words
 from .declutter import declutter
-from .sheet import Circle, Recorder, Ref, Sheet, Strokes, Text, View
-from .style import CENTRE
+from .sheet import Circle, Line, Recorder, Ref, Sheet, Strokes, Text, View
+from .style import CENTRE, KENNEDY
 from .symbols import Symbols
 
 # Centres closer than this share of the linkage's size are one mark (a slotted lever's pins and
@@ -23,6 +23,8 @@ from .symbols import Symbols
 SAME_PLACE = 1e-9
 # Two arrows at the edge this close in direction (radians) are one arrow.
 SAME_DIRECTION = 1e-9
+# A line of Kennedy's theorem runs this share of the linkage's size past the outermost centre on it.
+LINE_OVERRUN = 0.08
 
 
 def _ids(view: View, name: str) -> dict:
@@ -123,4 +125,35 @@ def centres_pane(centres, size: Symbols) -> Sheet:
     rec = Recorder()
     rec.add_view(view)
     draw_centres(rec, centres, view, size, places)
+    return rec.sheet(0.0, 0.0, title=centres.solution.mechanism.title)
+
+
+def kennedy_pane(centres, name: str) -> Sheet:
+    """The lines of Kennedy's theorem that found centre ``name`` and every centre sharing its mark
+    (as :func:`draw_centres` groups them), at machine mm like :func:`centres_pane`: each from
+    one of its two known centres to the other, through the centre found on it, a little beyond
+    the outermost. Empty for a primary centre, which no construction found."""
+    rec = Recorder()
+    view = View("space", (0.0, 0.0, 0.0, 0.0), (0.0, 0.0), 1000.0, "m", "1:1")
+    rec.add_view(view)
+    x0, y0, x1, y1 = linkage_box(centres.solution)
+    size_m = max(x1 - x0, y1 - y0, 1e-12)
+    chosen = centres.centres[name]
+    shared = [c for c in centres.centres.values() if c.kind == "point" and chosen.kind == "point"
+              and math.dist(c.at_m, chosen.at_m) <= SAME_PLACE * size_m] or [chosen]
+    steps = {step.id: step for step in centres.steps}
+    for centre in shared:
+        for sid in centre.lines:
+            ends = steps[sid].coords
+            if len(ends) != 2:
+                continue  # the line at infinity: nothing to draw
+            (ax, ay), (bx, by) = ends
+            length = math.hypot(bx - ax, by - ay)
+            ux, uy = (bx - ax) / length, (by - ay) / length
+            along = [0.0, length]
+            if centre.kind == "point":
+                along.append((centre.at_m[0] - ax) * ux + (centre.at_m[1] - ay) * uy)
+            low, high = min(along) - LINE_OVERRUN * size_m, max(along) + LINE_OVERRUN * size_m
+            start, end = ((ax + t * ux, ay + t * uy) for t in (low, high))
+            rec.add(Line(start=view.place(start), end=view.place(end), pen=KENNEDY, **_ids(view, centre.name)))
     return rec.sheet(0.0, 0.0, title=centres.solution.mechanism.title)

@@ -39,7 +39,9 @@ class Centre:
     ``place.direction``: the bodies translate relative to each other, perpendicular to it) or
     ``"undetermined"`` (``reason`` says why). ``how`` says how it was found, in words;
     ``step`` is the id of its step; ``condition`` the condition figure of the intersection that
-    fixed it (None for a primary centre) and ``flagged`` whether that figure is large.
+    fixed it (None for a primary centre) and ``flagged`` whether that figure is large; ``lines``
+    the ids of the steps of the two lines of Kennedy's theorem that meet there (none for a primary
+    centre, or one found where two centres of a triple coincide).
     """
 
     bodies: tuple
@@ -51,6 +53,7 @@ class Centre:
     reason: str = ""
     condition: float | None = None
     flagged: bool = False
+    lines: tuple = ()
 
     @property
     def name(self) -> str:
@@ -165,7 +168,7 @@ class _Finder:
         return sid
 
     def settle(self, a, b, place: Place | None, how: str, primary: bool, role=Role.INTERSECTION, reason="",
-               condition=None, sine=None, points=(), about=""):
+               condition=None, sine=None, points=(), about="", lines=()):
         name = self.name(a, b)
         bodies = tuple(name.split("|"))
         kind = "undetermined" if place is None else "direction" if place.infinite else "point"
@@ -182,7 +185,7 @@ class _Finder:
                         points=points, links=bodies, about=about, condition=condition, angle_between_deg=angle,
                         flagged=flagged)
         self.found[name] = Centre(bodies=bodies, kind=kind, place=place, how=how, primary=primary, step=sid,
-                                  reason=reason, condition=condition, flagged=flagged)
+                                  reason=reason, condition=condition, flagged=flagged, lines=lines)
 
     def primaries(self):
         mech = self.mech
@@ -205,7 +208,7 @@ class _Finder:
         or the Place of I_ab itself where those two coincide."""
         return join(self.known(a, k).place, self.known(b, k).place, self.size_m)
 
-    def line_step(self, a, b, k, line: KennedyLine):
+    def line_step(self, a, b, k, line: KennedyLine) -> str:
         first, second = self.name(a, k), self.name(b, k)
         p, q = self.known(a, k).place, self.known(b, k).place
         if line.at_infinity:
@@ -218,8 +221,9 @@ class _Finder:
                 ends = (p.point, q.point)
             coords = tuple((z.real, z.imag) for z in ends)
             where = f"the line through {_label(first)} and {_label(second)}"
-        self.step(Role.DIRECTION, "", coords, f"{_label(first)}, {_label(second)}, {_label(self.name(a, b))} in line",
-                  f"{where}: Kennedy's theorem for {a}, {b} and {k}", links=(a, b, k))
+        return self.step(Role.DIRECTION, "", coords,
+                         f"{_label(first)}, {_label(second)}, {_label(self.name(a, b))} in line",
+                         f"{where}: Kennedy's theorem for {a}, {b} and {k}", links=(a, b, k))
 
     def secondary(self, a, b, thirds) -> bool:
         """Find I_ab from the triples with ``thirds``. False, with the reason kept, when every two of
@@ -245,15 +249,14 @@ class _Finder:
             self.coincident[self.name(a, b)] = (f"{through} coincide (Kennedy's theorem for {a}, {b} with {k1} and "
                                                 f"with {k2})")
             return False
-        for k in (k1, k2):
-            self.line_step(a, b, k, lines[k])
+        drawn = tuple(self.line_step(a, b, k, lines[k]) for k in (k1, k2))
         if meeting.place.infinite:
             how = (f"{through} are parallel" if not (lines[k1].at_infinity or lines[k2].at_infinity)
                    else f"{through} meet at infinity")
-            self.settle(a, b, meeting.place, how, False, condition=meeting.condition, sine=meeting.sine)
+            self.settle(a, b, meeting.place, how, False, condition=meeting.condition, sine=meeting.sine, lines=drawn)
         else:
             self.settle(a, b, meeting.place, f"where {through} meet", False, condition=meeting.condition,
-                        sine=meeting.sine)
+                        sine=meeting.sine, lines=drawn)
         return True
 
     def kennedy(self):

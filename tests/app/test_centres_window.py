@@ -3,7 +3,7 @@
 import json
 import math
 
-from PySide6.QtCore import Qt
+from PySide6.QtCore import QPoint, Qt
 from PySide6.QtTest import QTest
 from PySide6.QtWidgets import QApplication
 
@@ -85,3 +85,40 @@ def test_far_centres_point_from_the_view_edge_outside_the_linkage(make_window):
     words = " ".join(p.text for p in sheet.primitives if isinstance(p, Text))
     assert "ground|coupler off the view at (" in words
     window.drawings.space_view.grab().save(f"{SHOTS}/window-centres-far.png")
+
+
+def test_hovering_a_centre_shows_the_two_lines_of_kennedys_theorem_that_found_it(make_window):
+    from PySide6.QtCore import QPointF
+    from PySide6.QtWidgets import QGraphicsLineItem
+
+    window = make_window(json.loads(SIX_BAR.read_text()))
+    QTest.keyClick(window, Qt.Key_K, Qt.ControlModifier)
+    QApplication.processEvents()
+    scene, view = window.drawings.space_scene, window.drawings.space_view
+    found = scene.found_centres
+    name = "ground|coupler"  # a secondary centre of the six-bar, found by Kennedy's theorem
+    assert not found.centres[name].primary and len(found.centres[name].lines) == 2
+    ring = next(p for p in scene.centres_sheet.primitives if isinstance(p, Circle) and p.ref == Ref("centre", name))
+    at = view.mapFromScene(QPointF(ring.centre[0], -ring.centre[1]))
+    QTest.mouseMove(view.viewport(), at)
+    QApplication.processEvents()
+    lines = [item for item in scene.items()
+             if isinstance(item, QGraphicsLineItem) and item.data(0) == Ref("centre", name)]
+    assert len(lines) == 2
+    # Kennedy's theorem: the three centres of three bodies lie on one line  # common practice
+    # Each line drawn passes through the centre found and through its triple's two other centres.
+    size = 1000.0 * window.document.mechanism.size * window.document.mechanism.metres_per_unit
+    g = complex(*(1000.0 * v for v in found.centres[name].at_m))
+    for item in lines:
+        line = item.line()
+        a, b = complex(line.x1(), -line.y1()), complex(line.x2(), -line.y2())
+        u = (b - a) / abs(b - a)
+        assert abs(((g - a) * u.conjugate()).imag) <= 1e-9 * size
+        step = next(s for s in found.steps if s.id in found.centres[name].lines
+                    and abs(((complex(*s.coords[0]) * 1000.0 - a) * u.conjugate()).imag) <= 1e-9 * size)
+        for end in step.coords:
+            assert abs(((complex(*end) * 1000.0 - a) * u.conjugate()).imag) <= 1e-9 * size
+    QTest.mouseMove(view.viewport(), at + QPoint(200, 200))
+    QApplication.processEvents()
+    assert not [item for item in scene.items() if isinstance(item, QGraphicsLineItem)
+                and item.data(0) == Ref("centre", name)], "the lines go when the pointer leaves the centre"
