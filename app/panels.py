@@ -29,6 +29,7 @@ class DrawingsPanel(QSplitter):
         self.document = document
         self.draft = False
         self.centres_shown = False
+        self.centrodes_shown = False
         self.forces_shown = False
         self.space_scene = SpaceScene()
         self.velocity_scene = PolygonScene("velocity")
@@ -129,6 +130,7 @@ class DrawingsPanel(QSplitter):
         zoom = self._mm_per_pixel(self.space_view)
         self.space_scene.show(doc.mechanism, doc.solution, zoom, self.draft)
         self.space_scene.show_centres(doc.solution, doc.construction, zoom, self.centres_shown)
+        self._draw_centrodes()
         made = self.force_polygon() if self.forces_shown else None
         self.space_scene.show_forces(made and space_forces_pane(made, screen_symbols(zoom), self.space_scene.marks()),
                                      zoom)
@@ -141,6 +143,17 @@ class DrawingsPanel(QSplitter):
         if self.space_view.auto_fit:
             self.fit_space()
         return self.force[2] if on and self.force[1] is None else ""
+
+    def show_centrodes(self, on: bool) -> str:
+        """Draw the coupler's centrodes over the space diagram (or not); returns why there are none
+        ("" when drawn or not asked for)."""
+        self.centrodes_shown = on
+        return self._draw_centrodes()
+
+    def _draw_centrodes(self) -> str:
+        doc = self.document
+        return self.space_scene.show_centrodes(doc.sweep, doc.solution, self._mm_per_pixel(self.space_view),
+                                               self.centrodes_shown)
 
     def show_centres(self, on: bool):
         """Draw the instantaneous centres over the space diagram (or not), the view refitted to
@@ -186,8 +199,9 @@ class DrawingsPanel(QSplitter):
             self.refresh()
 
     def show_paths(self):
-        """Redraw the coupler paths alone (the document's sweep caught up with a drag)."""
+        """Redraw the coupler paths and the centrodes alone (the document's sweep caught up with a drag)."""
         self.space_scene.show_paths(self.document.mechanism, self.document.sweep)
+        self._draw_centrodes()
 
     @staticmethod
     def _mm_per_pixel(view) -> float:

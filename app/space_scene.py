@@ -13,10 +13,11 @@ from PySide6.QtCore import QPointF, QRectF
 from PySide6.QtWidgets import QGraphicsScene
 
 from kinematics import centres
+from kinematics.cycle.centrodes import centrodes
 from kinematics.drawing import Circle, Ref, Text
 from kinematics.drawing.centres_overlay import centres_pane, kennedy_pane
 from kinematics.drawing.declutter import text_box
-from kinematics.drawing.panes import paths_pane, space_pane
+from kinematics.drawing.panes import centrodes_pane, paths_pane, space_pane
 from kinematics.drawing.symbols import Symbols
 from kinematics.errors import KinematicsError
 
@@ -55,6 +56,8 @@ class SpaceScene(QGraphicsScene):
         self.centres_sheet = None  # the centres drawn over the linkage, None when not shown
         self.found_centres = None  # the Centres drawn, None when not shown
         self.kennedy = SceneBackend(self)  # the lines of Kennedy's theorem of the centre under the pointer
+        self.centrodes = SceneBackend(self)
+        self.centrodes_found = (None, None, "")  # (the sweep they are of, its Centrodes or None, why none)
         self.kennedy_of = ""
         self.overlay = SceneBackend(self)  # a force's line of action, over the linkage
         self.forces = SceneBackend(self)  # the pose's forces where they act, when asked for
@@ -120,6 +123,26 @@ class SpaceScene(QGraphicsScene):
         self.centres_sheet = centres_pane(found, screen_symbols(mm_per_pixel))
         self.centres.show(self.centres_sheet, 1.0 / mm_per_pixel)
         self.show_kennedy(self.kennedy_of, mm_per_pixel)  # the lines under the pointer follow the pose
+
+    def show_centrodes(self, sweep, solution, mm_per_pixel: float, shown: bool) -> str:
+        """Draw the coupler's fixed and moving centrodes over the cycle ``sweep`` when ``shown``, the
+        moving one in the pose of ``solution``; returns why there are none ("" when drawn or not
+        asked for). They are worked out once per sweep."""
+        if not shown or sweep is None or solution is None:
+            self.centrodes.clear()
+            return "" if not shown else "no centrodes until the design sweeps its cycle"
+        if self.centrodes_found[0] is not sweep:
+            try:
+                self.centrodes_found = (sweep, centrodes(sweep), "")
+            except KinematicsError as error:
+                self.centrodes_found = (sweep, None, f"no centrodes: {error}")
+        found, why = self.centrodes_found[1:]
+        if found is None or not (found.fixed or found.moving):
+            self.centrodes.clear()
+            return why or "no centrodes: the coupler's centre stays at infinity or far off over the cycle"
+        self.centrodes.show(centrodes_pane(found, solution, screen_symbols(mm_per_pixel), self.marks()),
+                            1.0 / mm_per_pixel)
+        return ""
 
     def show_kennedy(self, name: str, mm_per_pixel: float):
         """Draw faintly the lines of Kennedy's theorem that found centre ``name`` (and those sharing

@@ -228,6 +228,13 @@ class MainWindow(FileActions, SheetOutputs, QMainWindow):
         self.centres_action.setToolTip("the instantaneous centres over the space diagram, each named by its two bodies")
         self.centres_action.toggled.connect(self.drawings.show_centres)
         view.addAction(self.centres_action)
+        self.centrodes_action = QAction("Centro&des of the coupler", self)
+        self.centrodes_action.setCheckable(True)
+        self.centrodes_action.setShortcut(QKeySequence("Ctrl+Shift+K"))
+        self.centrodes_action.setToolTip("the paths of the coupler's instantaneous centre over the cycle: on the frame "
+                                         "(fixed centrode) and on the coupler, in its pose (moving centrode)")
+        self.centrodes_action.toggled.connect(lambda on: self.say(self.drawings.show_centrodes(on)))
+        view.addAction(self.centrodes_action)
         self.space_forces_action = QAction("&Forces on the space diagram", self)
         self.space_forces_action.setCheckable(True)
         self.space_forces_action.setShortcut(QKeySequence("Ctrl+Shift+F"))

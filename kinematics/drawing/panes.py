@@ -23,14 +23,16 @@ from __future__ import annotations
 
 import math
 
+import numpy as np
+
 from .annotate import printed_unit, scale_bar
-from .declutter import text_box
+from .declutter import declutter, text_box
 from .polygons import draw_polygon, polygon_bounds
 from .scaling import bar_value, plain
-from .sheet import Recorder, Sheet, Text, View
+from .sheet import Polyline, Recorder, Ref, Sheet, Text, View
 from .space import draw_linkage, draw_paths, file_positions, positions, traced_points
-from .style import pen_for
-from .symbols import Symbols
+from .style import CENTRODE_FIXED, CENTRODE_MOVING, pen_for
+from .symbols import Symbols, label
 
 # The space diagram's scale bar: about a quarter of the design long, this far under it (as
 # fractions of the design's size), placed from the file's pose so it stays put while the driver
@@ -87,6 +89,37 @@ def paths_pane(mech, sweep) -> Sheet:
                 "1:1")
     rec.add_view(view)
     draw_paths(rec, sweep, view, traced_points(mech))
+    return rec.sheet(0.0, 0.0, title=mech.title)
+
+
+def centrodes_pane(found, solution, size: Symbols, marks=()) -> Sheet:
+    """The fixed and moving centrodes ``found`` (a :class:`kinematics.cycle.centrodes.Centrodes`)
+    at true size over a space diagram: the fixed one where the link's centre went on the frame;
+    the moving one, stated in the link's own axes, carried into the pose of ``solution`` (it
+    touches the fixed one at the pose's centre, where it rolls on it). Each named in small text
+    where it passes nearest the link's first point, clear of ``marks`` (boxes in sheet mm: the
+    space diagram's labels and pins) and of each other."""
+    rec = Recorder()
+    rec.marks.extend(("space", box) for box in marks)
+    view = View("space", (0.0, 0.0, 0.0, 0.0), (0.0, 0.0), 1000.0, "m", "1:1")
+    rec.add_view(view)
+    mech = solution.mechanism
+    first, second = (complex(*solution.position(p)) for p in mech.links[found.link][:2])
+    along = (second - first) / abs(second - first)
+    moving = tuple(np.column_stack(((z := first + (uv[:, 0] + 1j * uv[:, 1]) * along).real, z.imag))
+                   for uv in found.moving)
+    for kind, stretches, pen in (("fixed", found.fixed, CENTRODE_FIXED), ("moving", moving, CENTRODE_MOVING)):
+        ref = Ref("centrode", kind)
+        for stretch in stretches:
+            points = tuple(view.place((float(x), float(y))) for x, y in stretch)
+            rec.add(Polyline(points=points, pen=pen, view="space", ref=ref))
+        if stretches:  # named where it passes nearest the link, so the name is seen with the linkage
+            every = np.concatenate(stretches)
+            near = every[int(np.argmin(np.hypot(every[:, 0] - first.real, every[:, 1] - first.imag)))]
+            at = view.place((float(near[0]), float(near[1])))
+            label(rec, at, f"{kind} centrode of {found.link}", view.place((first.real, first.imag)), pen,
+                  Symbols(text=size.small_text), gap=size.pin, view="space", ref=ref)
+    declutter(rec, "space")
     return rec.sheet(0.0, 0.0, title=mech.title)
 
 

@@ -37,6 +37,9 @@ FLAGGED = Pen("#e67e22", 0.7, "dashed", "FLAGGED", "ill-conditioned intersection
 ANNOTATION = Pen("#1d2b3a", 0.25, "solid", "NOTES", "scale bar, title, notes")
 CENTRE = Pen("#00897b", 0.35, "solid", "CENTRES", "instantaneous centre (Kennedy's theorem)")
 KENNEDY = Pen("#00897b", 0.35, "dashed", "CENTRES-KENNEDY", "line of Kennedy's theorem")
+CENTRODE_FIXED = Pen("#00897b", 0.35, "solid", "CENTRODES", "fixed centrode (path of the centre on the frame)")
+CENTRODE_MOVING = Pen("#00897b", 0.35, "dashdot", "CENTRODES-MOVING",
+                      "moving centrode (path of the centre on the link, in its pose)")
 MASS_CENTRE = Pen("#1d2b3a", 0.35, "solid", "MASS-CENTRES", "centre of mass of a link")
 
 LEGEND = (KNOWN, RESULT, CORIOLIS, SLIDING, DIRECTION, IMAGE, NUMERIC, FLAGGED)

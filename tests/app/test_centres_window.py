@@ -8,8 +8,11 @@ from PySide6.QtTest import QTest
 from PySide6.QtWidgets import QApplication
 
 import kinematics
-from kinematics.drawing import Circle, Ref, Text
+from kinematics.cycle.centrodes import centrodes
+from kinematics.drawing import Circle, Polyline, Ref, Text
 from kinematics.drawing.centre_places import centre_places
+from kinematics.drawing.panes import centrodes_pane
+from kinematics.drawing.symbols import Symbols
 from tests.designs import SAMPLE_FILES, four_bar
 
 SHOTS = "/work/notes/shots-centres"
@@ -122,3 +125,37 @@ def test_hovering_a_centre_shows_the_two_lines_of_kennedys_theorem_that_found_it
     QApplication.processEvents()
     assert not [item for item in scene.items() if isinstance(item, QGraphicsLineItem)
                 and item.data(0) == Ref("centre", name)], "the lines go when the pointer leaves the centre"
+
+
+def _distance_to_polyline(z: complex, points) -> float:
+    best = math.inf
+    for (x0, y0), (x1, y1) in zip(points, points[1:], strict=False):
+        a, b = complex(x0, y0), complex(x1, y1)
+        t = min(max(((z - a) * (b - a).conjugate()).real / max(abs(b - a) ** 2, 1e-30), 0.0), 1.0)
+        best = min(best, abs(z - (a + t * (b - a))))
+    return best
+
+
+def test_the_centrodes_toggle_draws_both_touching_at_the_poses_centre(make_window):
+    baler = next(p for p in SAMPLE_FILES if p.name.startswith("baler"))
+    window = make_window(json.loads(baler.read_text()))
+    QTest.keyClick(window, Qt.Key_K, Qt.ControlModifier | Qt.ShiftModifier)
+    QApplication.processEvents()
+    assert window.centrodes_action.isChecked() and window.note == ""
+    scene, doc = window.drawings.space_scene, window.document
+    drawn = [item for item in scene.items() if isinstance(item.data(0), Ref) and item.data(0).kind == "centrode"]
+    assert drawn
+    found = centrodes(doc.sweep)
+    assert scene.centrodes_found[1] is not None and len(found.fixed) == len(scene.centrodes_found[1].fixed)
+    # The pose's coupler centre by Kennedy's theorem (kinematics.centres, its own construction) lies
+    # on the fixed centrode (the velocity-based path over the cycle) and on the moving one carried
+    # into the pose: the moving centrode rolls on the fixed one there (common practice).
+    pose = complex(*kinematics.centres(doc.solution).centre("ground", found.link).at_m) * 1000.0
+    size = 1000.0 * doc.mechanism.size * doc.mechanism.metres_per_unit
+    pane = centrodes_pane(found, doc.solution, Symbols())
+    for kind in ("fixed", "moving"):
+        lines = [p.points for p in pane.primitives if isinstance(p, Polyline) and p.ref == Ref("centrode", kind)]
+        assert min(_distance_to_polyline(pose, pts) for pts in lines) <= 0.01 * size, kind
+    QTest.keyClick(window, Qt.Key_K, Qt.ControlModifier | Qt.ShiftModifier)
+    QApplication.processEvents()
+    assert not [item for item in scene.items() if isinstance(item.data(0), Ref) and item.data(0).kind == "centrode"]
