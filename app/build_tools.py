@@ -18,6 +18,7 @@ HINTS = {
     "slide": "Slide: click the sliding joint, then two points that set its line (both fixed, or both on one link)",
     "driver": "Driver: click the fixed pivot, then a joint of the link it turns (or a cylinder's: its barrel's "
               "pivot, then its rod's end, the slide's joint)",
+    "cylinder": "Cylinder: click its barrel's fixed pivot, then the joint its rod is pinned to; it becomes the driver",
     "delete": "Delete: click a joint to remove it and whatever cannot stand without it",
 }
 
@@ -111,6 +112,18 @@ class Builder(QObject):
             self._apply(mech, "choose the driver")
             self.say(f"driver: {mech.driver.link} about {pivot} at {mech.driver.speed_value:g} {mech.driver.speed_unit}"
                      " (change the speed in the Design tab)")
+
+    def _cylinder(self, name, at_mm):
+        self._collect(name, ("barrel's fixed pivot", "joint the rod is pinned to"))
+        if len(self.picks) == 2:
+            pivot, rod_end = self.picks
+            self.picks = []
+            mech, slide = building.add_cylinder(self.document.mechanism, pivot, rod_end)
+            self._apply(mech, f"add {slide}")
+            self.made.emit("link", mech.slides[slide].guide)  # the barrel
+            driver = mech.driver
+            self.say(f"driver: {driver.cylinder_words} from {pivot} to {rod_end}, extending at "
+                     f"{driver.linear_speed_value:g} {driver.linear_speed_unit} (speed and stroke in the Design tab)")
 
     def _delete(self, name, at_mm):
         if name is None:

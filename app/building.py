@@ -11,6 +11,7 @@ mappingproxy({'link1': ('O1', 'A')})
 
 from __future__ import annotations
 
+import itertools
 import math
 import string
 from dataclasses import replace
@@ -154,6 +155,39 @@ def set_cylinder_driver(mech: Mechanism, pivot: str, point: str) -> Mechanism:
                     linear_speed_value=DEFAULT_CYLINDER_SPEED_M_S * 1e3, linear_speed_unit="mm/s",
                     linear_acceleration_value=0.0, linear_acceleration_unit="mm/s^2")
     return replace(mech, slides={**mech.slides, name: slide}, driver=driver, warnings=())
+
+
+# A new cylinder's barrel reaches this share of the way from its pivot to the rod's end.
+BARREL_SHARE = 0.5
+
+
+def add_cylinder(mech: Mechanism, pivot: str, rod_end: str) -> tuple[Mechanism, str]:
+    """A cylinder between fixed ``pivot`` (its barrel's) and joint ``rod_end`` (where its rod is
+    pinned to a moving link), and it becomes the driver: a barrel link from the pivot to a new
+    point BARREL_SHARE of the way along, the rod's end sliding on the barrel's line, extending at
+    50 mm/s with no stroke limits yet (:func:`set_cylinder_driver`). Returns the design and the
+    slide's name."""
+    if pivot == rod_end:
+        raise BuildError("a cylinder needs its barrel's pivot and its rod's end: two joints")
+    if pivot not in mech.ground:
+        raise BuildError(f"{pivot} is not fixed: a cylinder's barrel is pivoted on the frame")
+    if rod_end in mech.ground or not mech.bodies_of(rod_end):
+        raise BuildError(f"{rod_end} is {'fixed' if rod_end in mech.ground else 'on no link'}: a cylinder's rod "
+                         "end is pinned to a moving link")
+    if any(slide.point == rod_end for slide in mech.slides.values()):
+        raise BuildError(f"{rod_end} already slides on a line: pick the joint the rod is pinned to")
+    (x0, y0), (x1, y1) = mech.points[pivot], mech.points[rod_end]
+    if math.hypot(x1 - x0, y1 - y0) == 0.0:
+        raise BuildError(f"{pivot} and {rod_end} are at the same place: the cylinder would have no length")
+    _room_for(mech, "a cylinder's barrel end")
+    _room_for(mech, "a cylinder", bodies=2)
+    end = _fresh(mech.points, _joint_names())
+    barrel = _fresh(mech.links, itertools.chain(["barrel"], _numbered("barrel")))
+    name = _fresh(mech.slides, itertools.chain(["cylinder"], _numbered("cylinder")))
+    points = {**mech.points, end: (x0 + BARREL_SHARE * (x1 - x0), y0 + BARREL_SHARE * (y1 - y0))}
+    slides = {**mech.slides, name: Slide(name, rod_end, barrel, (pivot, end))}
+    built = replace(mech, points=points, links={**mech.links, barrel: (pivot, end)}, slides=slides, warnings=())
+    return set_cylinder_driver(built, pivot, rod_end), name
 
 
 def set_speed(mech: Mechanism, speed_value: float, speed_unit: str, angular_acceleration: float) -> Mechanism:

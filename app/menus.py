@@ -13,7 +13,8 @@ from PySide6.QtWidgets import QDialog, QTextBrowser, QVBoxLayout
 
 import kinematics
 
-TOOL_KEYS = {"select": "S", "pivot": "P", "joint": "J", "link": "L", "slide": "G", "driver": "D", "delete": "X"}
+TOOL_KEYS = {"select": "S", "pivot": "P", "joint": "J", "link": "L", "slide": "G", "driver": "D", "cylinder": "C",
+             "delete": "X"}
 # Keys no menu entry carries: they act on the space diagram itself.
 VIEW_KEYS = (
     ("Arrow keys", "nudge the selected joint one grid step (one undo step each)"),

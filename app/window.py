@@ -50,7 +50,7 @@ CYCLE_TAB = "Cycle"
 CSV_FILTER = "Comma-separated values (*.csv);;All files (*)"
 MASSES_TAB = "Masses and loads"
 TOOL_NAMES = {"select": "Select", "pivot": "Pivot", "joint": "Joint", "link": "Link", "slide": "Slide",
-              "driver": "Driver", "delete": "Delete"}
+              "driver": "Driver", "cylinder": "Cylinder", "delete": "Delete"}
 
 
 class MainWindow(FileActions, SheetOutputs, QMainWindow):

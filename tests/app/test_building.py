@@ -241,3 +241,48 @@ def test_no_edit_builds_a_design_past_the_limits():
         else:
             bars, _ = building.join(bars, [p, q])
     kinematics.load_mechanism(json.loads(kinematics.dumps(bars)))  # the largest it allowed still loads
+
+
+def test_a_cylinder_built_by_clicks_drives_a_tipping_table(make_window):
+    window = make_window(CLAW_FEED)
+    window.new_design()
+    window.snapping.setChecked(True)
+    window.use_tool("pivot")
+    click_at(window, 0.0, 0.0)  # O1: the barrel's pivot
+    click_at(window, 300.0, 100.0)  # O2: the table's hinge
+    window.use_tool("joint")
+    click_at(window, 150.0, 200.0)  # A: where the rod is pinned to the table
+    window.use_tool("link")
+    click_joint(window, "O2")
+    click_joint(window, "A")
+    QTest.keyClick(window.drawings.space_view, Qt.Key_Return)
+    QTest.keyClick(window.drawings.space_view, Qt.Key_C)  # the Cylinder tool's key
+    assert window.builder.tool == "cylinder"
+    click_joint(window, "O1")
+    click_joint(window, "A")
+    doc = window.document
+    mech = doc.mechanism
+    assert mech.driver.is_actuator and mech.driver.slide == "cylinder" and mech.driver.pivot == "O1"
+    barrel = mech.slides["cylinder"].guide
+    assert barrel == "barrel" and mech.links[barrel][0] == "O1" and mech.slides["cylinder"].point == "A"
+    assert window.properties.link.currentText() == "barrel", "the new barrel is the link the Design tab shows"
+    assert doc.undo_stack.count() == 5 and doc.solution is not None
+    # The table turns about O2 with v_A = ω × r_O2A, and the cylinder's extension rate is v_A along the
+    # cylinder's axis: ω = L̇ / ((k × r_O2A) · u_O1A)  # common practice (rigid-body kinematics)
+    r = complex(*doc.solution.position("A")) - complex(*doc.solution.position("O2"))
+    u = complex(*doc.solution.position("A")) - complex(*doc.solution.position("O1"))
+    u /= abs(u)
+    omega = 0.05 / ((1j * r) * u.conjugate()).real
+    assert doc.solution.angular_velocity["link1"] == pytest.approx(omega, rel=1e-9)
+    doc.undo_stack.undo()
+    assert doc.mechanism.driver is None and "cylinder" not in doc.mechanism.slides, "one undo step"
+
+
+def test_a_cylinder_refuses_what_cannot_be_one():
+    mech = load(CLAW_FEED)
+    with pytest.raises(BuildError, match="A is not fixed: a cylinder's barrel is pivoted on the frame"):
+        building.add_cylinder(mech, "A", "B")
+    with pytest.raises(BuildError, match="O4 is fixed: a cylinder's rod end is pinned to a moving link"):
+        building.add_cylinder(mech, "O2", "O4")
+    with pytest.raises(BuildError, match="two joints"):
+        building.add_cylinder(mech, "O2", "O2")
