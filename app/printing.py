@@ -194,11 +194,13 @@ def print_construction(construction, printer_or_path, paper: str = "A4", landsca
         the target and is moved into place only when whole, so a failure
         leaves no partial file.
     """
+    count = 1 if forces is None else 2
     sheet = draw_sheet(construction, paper=paper, landscape=landscape, file_name=file_name, date=date,
-                       with_centres=with_centres)
+                       with_centres=with_centres, sheet=f"1/{count}")
     sheets = (sheet,)
     if forces is not None:
-        sheets += (draw_force_sheet(forces, paper=paper, landscape=landscape, file_name=file_name, date=date),)
+        sheets += (draw_force_sheet(forces, paper=paper, landscape=landscape, file_name=file_name, date=date,
+                                    sheet="2/2"),)
     if isinstance(printer_or_path, (str, os.PathLike)):
         def write(temporary):
             writer = pdf_writer(temporary, sheet.title or "Kinepoly construction", paper, landscape)

@@ -12,6 +12,7 @@ import datetime
 from .annotate import (
     ROW,
     description,
+    iso_fields,
     outline_box,
     scale_bar,
     scale_bar_height,
@@ -115,8 +116,8 @@ def draw_force_view(rec: Recorder, made, view: View, size: Symbols, bar_at, bar_
 
 
 def draw_force_sheet(made, paper: str = "A4", landscape: bool = False, file_name: str = "",
-                     date: str | None = None) -> Sheet:
-    """The sheet of the force polygon ``made``.
+                     date: str | None = None, sheet: str = "1/1") -> Sheet:
+    """The sheet of the force polygon ``made``; ``sheet`` is the title block's sheet field, "n/m".
 
     Returns
     -------
@@ -138,8 +139,9 @@ def draw_force_sheet(made, paper: str = "A4", landscape: bool = False, file_name
     frame = (MARGIN_FILING, MARGIN, width - MARGIN, height - MARGIN)
     outline_box(rec, *frame, FRAME, ref=Ref("frame"))
     date = date or datetime.date.today().isoformat()
-    lines = description(made.construction, {}, file_name, date)
-    block = title_block_height(lines, frame[2] - frame[0], size)
+    lines = description(made.construction, {}, file_name, date, dated=False)
+    fields = iso_fields(date, sheet, "force polygon", file_name)
+    block = title_block_height(lines, frame[2] - frame[0], size, fields)
     table_top = frame[1] + block + GAP + _table_height(made, size)
     legend_top = table_top + GAP + _legend_height(size)
     view = force_view(made, (frame[0] + GAP, legend_top + GAP, frame[2] - GAP, frame[3] - GAP), size)
@@ -152,5 +154,5 @@ def draw_force_sheet(made, paper: str = "A4", landscape: bool = False, file_name
              f" at {made.where or '-'}")
     lines = [(label, f"force {view.scale_text}") if label == "Scales" else check if label == "Check" else (label, text)
              for label, text in lines]
-    title_block(rec, (frame[0], frame[1], frame[2], frame[1] + block), lines, size)
+    title_block(rec, (frame[0], frame[1], frame[2], frame[1] + block), lines, size, fields)
     return rec.sheet(width, height, title=f"{made.construction.solution.mechanism.title} — {TITLE}".strip(" —"))

@@ -12,6 +12,7 @@ from ..instantaneous.centres import centres
 from .annotate import (
     caution_lines,
     description,
+    iso_fields,
     outline_box,
     printed_unit,
     scale_bar,
@@ -170,7 +171,7 @@ def _scales(views: dict) -> dict:
 
 
 def draw_sheet(construction, paper: str = "A4", landscape: bool = False, file_name: str = "",
-               date: str | None = None, with_centres: bool = False) -> Sheet:
+               date: str | None = None, with_centres: bool = False, sheet: str = "1/1") -> Sheet:
     """The printed sheet of a construction.
 
     Parameters
@@ -181,6 +182,7 @@ def draw_sheet(construction, paper: str = "A4", landscape: bool = False, file_na
     file_name, date : for the title block (date defaults to today, ISO 8601).
     with_centres : draw the instantaneous centres over the space diagram
         (:mod:`kinematics.drawing.centres_overlay`), the view grown to take in the near ones.
+    sheet : the title block's sheet field, "n/m" ("" leaves it blank).
 
     Returns
     -------
@@ -204,7 +206,9 @@ def draw_sheet(construction, paper: str = "A4", landscape: bool = False, file_na
     outline_box(rec, *frame, FRAME, ref=Ref("frame"))
     date = date or datetime.date.today().isoformat()
     # The scales are not known before the views are fitted; the block's height does not depend on them.
-    block_height = title_block_height(description(construction, {}, file_name, date), frame[2] - frame[0], size)
+    fields = iso_fields(date, sheet, "construction", file_name)
+    block_height = title_block_height(description(construction, {}, file_name, date, dated=False),
+                                      frame[2] - frame[0], size, fields)
     table_top = frame[1] + block_height + GAP + results_height(construction, frame[2] - frame[0] - 2 * GAP, size)
     area = (frame[0] + GAP, table_top + GAP, frame[2] - GAP, frame[3] - GAP)
     found = centres(construction.solution, construction) if with_centres else None
@@ -213,8 +217,8 @@ def draw_sheet(construction, paper: str = "A4", landscape: bool = False, file_na
         _draw_view(rec, construction, view, size, found)
     results_band(rec, (frame[0] + GAP, frame[1] + block_height + GAP, frame[2] - GAP, table_top),
                   construction, size)
-    lines = description(construction, _scales(views), file_name, date)
-    title_block(rec, (frame[0], frame[1], frame[2], frame[1] + block_height), lines, size)
+    lines = description(construction, _scales(views), file_name, date, dated=False)
+    title_block(rec, (frame[0], frame[1], frame[2], frame[1] + block_height), lines, size, fields)
     return rec.sheet(width, height, title=construction.solution.mechanism.title)
 
 

@@ -36,7 +36,9 @@ def poses_section(review: Review, progress: Progress) -> Section:
                               review.paper, review.title)
         else:
             name = angle_title(angle, construction.solution)
-            pages.append(draw_sheet(construction, paper=review.paper, file_name=review.file_name, date=review.date))
+            # A page of the report (its running header numbers the pages): no sheet number of its own.
+            pages.append(draw_sheet(construction, paper=review.paper, file_name=review.file_name, date=review.date,
+                                    sheet=""))
             pages += paginate([Heading(f"Construction at {name}: the steps in words"),
                                Preformatted(tuple(construction_text(construction).splitlines()))],
                               review.paper, review.title)
