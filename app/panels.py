@@ -144,6 +144,13 @@ class DrawingsPanel(QSplitter):
             self.fit_space()
         return self.force[2] if on and self.force[1] is None else ""
 
+    def set_units(self, length_unit: str):
+        """State the scale bars (and the polygons' scales) in ``length_unit``: the drawings stay as they are."""
+        self.space_scene.length_unit = length_unit
+        for scene in (self.velocity_scene, self.acceleration_scene):
+            scene.length_unit = length_unit
+        self.refresh()
+
     def show_centrodes(self, on: bool) -> str:
         """Draw the coupler's centrodes over the space diagram (or not); returns why there are none
         ("" when drawn or not asked for)."""

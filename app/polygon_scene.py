@@ -30,6 +30,7 @@ class PolygonScene(QGraphicsScene):
         # Every item moves with each pose: a spatial index would be rebuilt each frame for nothing.
         self.setItemIndexMethod(QGraphicsScene.ItemIndexMethod.NoIndex)
         self.kind = kind
+        self.length_unit = "m"  # the length system its scale is stated in (the window's choice)
         self.polygon = None
         self.sheet = None
         self.drawing = SceneBackend(self)
@@ -49,7 +50,7 @@ class PolygonScene(QGraphicsScene):
     pen_of = staticmethod(pen_for)
 
     def _record(self, polygon, solution, size, draft: bool):
-        return polygon_pane(polygon, solution, size, draft)
+        return polygon_pane(polygon, solution, size, draft, length_unit=self.length_unit)
 
     def used_pens(self) -> list:
         """The style pens in use, in first-use order, for the legend."""

@@ -71,6 +71,7 @@ class PropertiesPanel(QWidget):
     def __init__(self, document, say, parent=None):
         super().__init__(parent)
         self.document, self.say = document, say
+        self.shown_unit = None  # the length unit the place and stroke fields show (None: the file's)
         self.title = QLineEdit()
         self.point = QComboBox()
         self.point_name = QLineEdit()
@@ -150,6 +151,28 @@ class PropertiesPanel(QWidget):
             for widget in widgets:
                 widget.blockSignals(False)
 
+    def set_length_unit(self, unit: str):
+        """Show places and strokes in ``unit`` (the window's choice; the file keeps its own)."""
+        self.shown_unit = unit
+        self.refresh()
+
+    def _per_file_unit(self) -> float:
+        """Shown units in one of the file's length units."""
+        file_unit = self.document.mechanism.length_unit
+        if self.shown_unit is None or self.shown_unit == file_unit:
+            return 1.0
+        return metres_per(file_unit) / metres_per(self.shown_unit)
+
+    def _in_file_unit(self, shown: float, field: QDoubleSpinBox, stated: float | None = None) -> float:
+        """A value typed in ``field`` (shown units) in the file's unit; a value that shows as the
+        ``stated`` one does (to the field's decimals) is that value, not its rounding."""
+        ratio = self._per_file_unit()
+        if ratio == 1.0:
+            return shown
+        if stated is not None and round(stated * ratio, field.decimals()) == round(shown, field.decimals()):
+            return stated
+        return shown / ratio
+
     def refresh(self):
         """Show the Document's values without writing them back."""
         with self._quiet():
@@ -160,11 +183,15 @@ class PropertiesPanel(QWidget):
         _show_text(self.title, mech.title)
         _refill(self.point, list(mech.points))
         _refill(self.link, list(mech.links))
-        suffix = f" {mech.length_unit}"
-        decimals = max(0, math.ceil(-math.log10(PLACE_RESOLUTION_M / metres_per(mech.length_unit)) - 1e-9))
+        unit = self.shown_unit or mech.length_unit
+        decimals = max(0, math.ceil(-math.log10(PLACE_RESOLUTION_M / metres_per(unit)) - 1e-9))
+        limit = MAX_COORDINATE * self._per_file_unit()
         for field in (self.x, self.y):
-            field.setSuffix(suffix)
+            field.setSuffix(f" {unit}")
             field.setDecimals(decimals)
+            field.setRange(-limit, limit)
+        for field in (self.stroke_min, self.stroke_max):
+            field.setRange(0.0, limit)
         self._fill_point(self.point.currentText())
         self._fill_link(self.link.currentText())
         self._fill_driver(mech)
@@ -201,8 +228,8 @@ class PropertiesPanel(QWidget):
         self.alpha.setSuffix(f" {unit}²")
         self.alpha.setValue(driver.linear_acceleration_m_s2 / CYLINDER_SPEED_UNITS[unit])
         for field, value in ((self.stroke_min, driver.stroke_min), (self.stroke_max, driver.stroke_max)):
-            field.setSuffix(f" {mech.length_unit}")
-            field.setValue(value or 0.0)
+            field.setSuffix(f" {self.shown_unit or mech.length_unit}")
+            field.setValue((value or 0.0) * self._per_file_unit())
 
     def _fill_point(self, name: str):
         mech = self.document.mechanism
@@ -211,8 +238,8 @@ class PropertiesPanel(QWidget):
             widget.setEnabled(present)
         _show_text(self.point_name, name if present else "")
         if present:
-            self.x.setValue(float(mech.points[name][0]))
-            self.y.setValue(float(mech.points[name][1]))
+            self.x.setValue(float(mech.points[name][0]) * self._per_file_unit())
+            self.y.setValue(float(mech.points[name][1]) * self._per_file_unit())
             self.fixed.setChecked(name in mech.ground)
 
     def show_point(self, name: str):
@@ -274,7 +301,10 @@ class PropertiesPanel(QWidget):
         """Set coordinate ``axis`` (0 x, 1 y) of the shown joint; the other one stays exactly as it is
         (the field showing it may hold fewer digits than the file)."""
         name, mech = self.point.currentText(), self.document.mechanism
-        if name not in mech.points or value == mech.points[name][axis]:
+        if name not in mech.points:
+            return
+        value = self._in_file_unit(value, (self.x, self.y)[axis], float(mech.points[name][axis]))
+        if value == mech.points[name][axis]:
             return
         xy = list(mech.points[name])
         xy[axis] = value
@@ -295,7 +325,9 @@ class PropertiesPanel(QWidget):
         mech = self.document.mechanism
         try:
             if mech.driver is not None and mech.driver.is_actuator:
-                stroke = tuple(field.value() or None for field in (self.stroke_min, self.stroke_max))
+                stated = (mech.driver.stroke_min, mech.driver.stroke_max)
+                stroke = tuple(self._in_file_unit(field.value(), field, value) or None
+                               for field, value in zip((self.stroke_min, self.stroke_max), stated, strict=True))
                 mech = building.set_cylinder_motion(mech, self.speed.value(), self.speed_unit.currentText(),
                                                     self.alpha.value(), stroke)
             else:

@@ -63,6 +63,7 @@ class SpaceScene(QGraphicsScene):
         self.forces = SceneBackend(self)  # the pose's forces where they act, when asked for
         self.forces_sheet = None
         self.topology = None
+        self.length_unit = "mm"  # the length system its scale bar is stated in (the window's choice)
         self.sheet = None
         self.swept = None
         self.motion_box = None  # where every joint goes over the cycle (sheet box), None without a sweep
@@ -72,7 +73,7 @@ class SpaceScene(QGraphicsScene):
         symbols sized for a zoom of ``mm_per_pixel`` (a ``draft`` while the pose follows the mouse)."""
         self.topology = (tuple(mechanism.points), tuple(mechanism.links.items()), mechanism.ground,
                          tuple(mechanism.slides.values()))
-        self.sheet = space_pane(mechanism, solution, screen_symbols(mm_per_pixel), draft)
+        self.sheet = space_pane(mechanism, solution, screen_symbols(mm_per_pixel), draft, self.length_unit)
         self.linkage.show(self.sheet, 1.0 / mm_per_pixel)
 
     def show_paths(self, mechanism, sweep):

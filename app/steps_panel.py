@@ -5,11 +5,15 @@ from __future__ import annotations
 from PySide6.QtCore import Qt, Signal
 from PySide6.QtWidgets import QListWidget, QListWidgetItem
 
+from kinematics.reports.shown_units import in_units
 
-def step_text(step) -> str:
+
+def step_text(step, length_unit: str = "m", speed_unit: str = "rad/s") -> str:
+    """A step's line: its id, its sentence with lengths in ``length_unit`` and speeds in
+    ``speed_unit`` (the window's choice), its equation, and a flag when it is ill-conditioned."""
     flag = "  ⚠" if step.flagged else ""
     equation = f"   [{step.equation}]" if step.equation else ""
-    return f"{step.id}  {step.text}{equation}{flag}"
+    return f"{step.id}  {in_units(step.text, length_unit, speed_unit)}{equation}{flag}"
 
 
 class StepsPanel(QListWidget):
@@ -21,6 +25,7 @@ class StepsPanel(QListWidget):
     def __init__(self, parent=None):
         super().__init__(parent)
         self.structure = None
+        self.units = ("m", "rad/s")  # lengths and angular speeds as the window shows them
         # One line a step, all of one height: a drag rewrites every value each frame, and a list of
         # wrapped rows of differing heights would be laid out anew each time. The whole sentence is
         # the row's tooltip.
@@ -43,7 +48,7 @@ class StepsPanel(QListWidget):
             self.blockSignals(False)
             self.structure = structure
         for row, step in enumerate(steps):
-            text = step_text(step)
+            text = step_text(step, *self.units)
             item = self.item(row)
             if item.text() != text:
                 item.setText(text)

@@ -109,8 +109,9 @@ class MainWindow(FileActions, SheetOutputs, QMainWindow):
         self.length_units.addItems(["mm", "m", "in"])
         self.speed_units = QComboBox()
         self.speed_units.addItems(["rad/s", "rpm"])
-        self.length_units.setToolTip("The length system of the results table (velocities in it per second)")
-        self.speed_units.setToolTip("The unit of ω in the results table")
+        self.length_units.setToolTip("The length system of every number the window shows: the table, the steps, "
+                                     "the Design tab, the scale bars (velocities in it per second)")
+        self.speed_units.setToolTip("The unit of ω in the table, the steps and the cycle plot")
         self.design_actions = DesignActions(self)
         self._build_toolbar()
         self._build_menus()
@@ -147,6 +148,7 @@ class MainWindow(FileActions, SheetOutputs, QMainWindow):
         view.finished.connect(self.builder.finish)
         view.cancelled.connect(self.builder.cancel)
         self.resize(1600, 1000)
+        self._units_changed()  # every pane in the units the tool bar shows
         self.refresh()
         self.drawings.fit_all()
 
@@ -340,9 +342,15 @@ class MainWindow(FileActions, SheetOutputs, QMainWindow):
         self.status.setToolTip(text)
 
     def _units_changed(self, *_):
-        self.table.set_units(self.length_units.currentText(), self.speed_units.currentText())
+        """One choice of units for every number the window shows (files and exports stay SI)."""
+        units = (self.length_units.currentText(), self.speed_units.currentText())
+        self.table.set_units(*units)
         if self.cycle is not None:
-            self.cycle.set_units(self.length_units.currentText(), self.speed_units.currentText())
+            self.cycle.set_units(*units)
+        self.steps.units = units
+        self.properties.set_length_unit(units[0])
+        self.drawings.set_units(units[0])
+        self._show_readouts(live=False)
 
     # building -------------------------------------------------------------
     def use_tool(self, tool: str):

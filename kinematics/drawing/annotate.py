@@ -20,12 +20,13 @@ WIDTH_PER_HEIGHT = 0.8
 ROW = 1.8  # row pitch over text height in tables and the title block
 BAR_DIVISIONS = 4
 
-UNITS_AS_PRINTED = {"m/s^2": "m/s²", "rad/s^2": "rad/s²"}
-
-
 def printed_unit(unit: str) -> str:
-    """A unit as it is printed ("m/s²" for the engine's "m/s^2")."""
-    return UNITS_AS_PRINTED.get(unit, unit)
+    """A unit as it is printed ("m/s²" for the engine's "m/s^2", "mm/s³" for "mm/s^3").
+
+    >>> printed_unit("mm/s^2"), printed_unit("rad/s^2"), printed_unit("N")
+    ('mm/s²', 'rad/s²', 'N')
+    """
+    return unit.replace("^2", "²").replace("^3", "³")
 
 
 def text_width(text: str, height: float) -> float:

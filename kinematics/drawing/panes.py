@@ -25,6 +25,7 @@ import math
 
 import numpy as np
 
+from ..model.units import METRES_PER_LENGTH_UNIT
 from .annotate import printed_unit, scale_bar
 from .declutter import declutter, text_box
 from .polygons import draw_polygon, polygon_bounds
@@ -58,9 +59,10 @@ def _with(box: tuple, other: tuple) -> tuple:
     return (min(box[0], other[0]), min(box[1], other[1]), max(box[2], other[2]), max(box[3], other[3]))
 
 
-def space_pane(mech, solution, size: Symbols, draft: bool = False) -> Sheet:
+def space_pane(mech, solution, size: Symbols, draft: bool = False, length_unit: str = "mm") -> Sheet:
     """The space diagram of ``mech`` in the pose of ``solution`` (as the file places its points
-    when None), with its scale bar; a ``draft`` as :class:`~kinematics.drawing.sheet.Recorder` says."""
+    when None), with its scale bar in ``length_unit``; a ``draft`` as
+    :class:`~kinematics.drawing.sheet.Recorder` says."""
     xy = positions(solution) if solution is not None else file_positions(mech)
     rec = Recorder(draft=draft)
     if not xy:
@@ -73,8 +75,8 @@ def space_pane(mech, solution, size: Symbols, draft: bool = False) -> Sheet:
     left, y = reference[0], reference[1] - SPACE_BAR_BELOW * design_mm
     longest = SPACE_BAR_LENGTH * design_mm
     words = Symbols(text=size.small_text)
-    scale_bar(rec, (left, y - CAPTION_ROOM * words.text), 1.0, "mm", max(longest, BAR_LEAST * words.text),
-              "space diagram to scale", words, "space")
+    scale_bar(rec, (left, y - CAPTION_ROOM * words.text), 1e3 * METRES_PER_LENGTH_UNIT[length_unit], length_unit,
+              max(longest, BAR_LEAST * words.text), "space diagram to scale", words, "space")
     box = _with(_bounds(view.place(p) for p in xy.values()), (left, y, left + longest, y))
     rec.add_view(View("space", box, view.origin, view.mm_per_unit, view.unit, view.scale_text))
     return rec.sheet(0.0, 0.0, title=mech.title)
@@ -130,17 +132,28 @@ def polygon_box(polygon) -> tuple:
     return tuple(v / scale for v in polygon_bounds(polygon))
 
 
+def shown_unit(unit: str, length_unit: str) -> str:
+    """A polygon's SI unit restated in ``length_unit`` ("m/s^2" in mm: "mm/s^2"); a force's stays N.
+
+    >>> shown_unit("m/s", "in"), shown_unit("N", "mm")
+    ('in/s', 'N')
+    """
+    return length_unit + unit[1:] if unit.startswith("m") else unit
+
+
 def polygon_pane(polygon, solution, size: Symbols, draft: bool = False, pen_of=pen_for,
-                 scale_text: str = "", stack_labels: bool = False, labelled=None) -> Sheet:
+                 scale_text: str = "", stack_labels: bool = False, labelled=None, length_unit: str = "m") -> Sheet:
     """``polygon`` of ``solution`` at its construction's scale (``polygon.scale_per_mm``), with
     its scale bar under it; a ``draft`` as :class:`~kinematics.drawing.sheet.Recorder` says.
     ``pen_of`` gives a step its pen, ``scale_text`` states the scale beside the bar ("1 mm = 0.05
-    m/s" when empty); ``stack_labels`` and ``labelled`` as :func:`~kinematics.drawing.polygons.draw_polygon`
-    says."""
+    m/s" when empty), and the bar, in ``length_unit`` per second (per second squared); ``stack_labels``
+    and ``labelled`` as :func:`~kinematics.drawing.polygons.draw_polygon` says. The drawing itself
+    is the same whatever the unit: only the words of its scale change."""
     scale = polygon.scale_per_mm
-    unit = printed_unit(polygon.unit)
+    unit = shown_unit(polygon.unit, length_unit)
+    per_shown = METRES_PER_LENGTH_UNIT[length_unit] if unit != polygon.unit else 1.0  # SI in one shown unit
     view = View(polygon.kind, (0.0, 0.0, 0.0, 0.0), (0.0, 0.0), 1.0 / scale, polygon.unit,
-                scale_text or f"1 mm = {plain(scale)} {unit}")
+                scale_text or f"1 mm = {plain(scale / per_shown)} {printed_unit(unit)}")
     rec = Recorder(draft=draft)
     x0, y0, x1, y1 = polygon_box(polygon)
     width = max(x1 - x0, y1 - y0, 1.0)
@@ -148,10 +161,11 @@ def polygon_pane(polygon, solution, size: Symbols, draft: bool = False, pen_of=p
     # Just under the drawing, on a grid of half the bar's length: the bar stays put while the
     # polygon changes a little from frame to frame of a drag (and is drawn from what was kept),
     # rather than trembling with its edge. Drawn first, its words are marks the labels keep clear of.
-    grid = 0.5 * bar_value(longest, view.mm_per_unit) * view.mm_per_unit
+    mm_per_shown = view.mm_per_unit * per_shown
+    grid = 0.5 * bar_value(longest, mm_per_shown) * mm_per_shown
     x, y = math.floor(x0 / grid) * grid, math.floor(y0 / grid) * grid
     words = Symbols(text=size.small_text)
-    scale_bar(rec, (x, y - CAPTION_ROOM * words.text), view.mm_per_unit, polygon.unit,
+    scale_bar(rec, (x, y - CAPTION_ROOM * words.text), mm_per_shown, unit,
               max(longest, BAR_LEAST * words.text), view.scale_text, words, polygon.kind)
     rec.marks.extend((polygon.kind, text_box(p)) for p in rec.primitives if isinstance(p, Text))
     draw_polygon(rec, polygon, solution, view, size, pen_of=pen_of, stack_labels=stack_labels, labelled=labelled)

@@ -106,7 +106,8 @@ def test_polygon_items_sit_at_the_construction_images_over_the_scale(make_window
                 checked += 1
         assert checked >= 1
         bar = " ".join(item.text() for item in texts(scene, Ref("scale bar", scene.kind)))
-        assert f"1 mm = {plain(scale)}" in bar
+        # Stated in the window's length unit (mm by default): 1 m = 1000 mm.  # common practice
+        assert f"1 mm = {plain(scale * 1000.0)} mm/s" in bar
 
 
 def test_joints_sit_at_the_solved_positions(make_window):

@@ -81,7 +81,8 @@ def test_everything_held_back_during_a_drag_is_of_the_final_design_when_it_ends(
         x, y = path[k]
         assert (x, -y) == pytest.approx(tuple(track[k]), abs=1e-9)
     steps = [*doc.construction.velocity.steps, *doc.construction.acceleration.steps]
-    assert [window.steps.item(i).text() for i in range(window.steps.count())] == [step_text(s) for s in steps]
+    listed = [window.steps.item(i).text() for i in range(window.steps.count())]
+    assert listed == [step_text(s, *window.steps.units) for s in steps]
     assert agreement(doc.construction.max_relative_difference) in window.status.text()
     assert _antialiased(window) == [True] * 3
 

@@ -116,10 +116,15 @@ def test_a_design_in_metres_keeps_its_digits(make_window, qtbot):
     metres["points"] = {k: [x / 1000, y / 1000] for k, (x, y) in metres["points"].items()}
     metres["points"]["B"] = [0.12345, 0.105]
     window = make_window(metres)
+    window.length_units.setCurrentText("m")  # the window shows lengths in the file's own unit
     panel = design_tab(window, "B")
     assert panel.x.text() == "0.123450 m"
     type_number(qtbot, panel.y, "0.10625")
     assert window.document.mechanism.points["B"] == (0.12345, 0.10625)
+    window.length_units.setCurrentText("mm")  # and in mm, the same digits
+    assert panel.x.text() == "123.450 mm"
+    type_number(qtbot, panel.y, "106.5")
+    assert window.document.mechanism.points["B"] == (0.12345, pytest.approx(0.1065, rel=1e-15))
 
 
 def test_the_window_opens_a_design_with_a_repeated_slide_and_names_it(qtbot, tmp_path, monkeypatch):

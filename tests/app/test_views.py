@@ -8,6 +8,7 @@ from PySide6.QtWidgets import QApplication, QGraphicsLineItem
 from app.scene_backend import ITEM_REF, Z_LINE
 from kinematics.drawing import Ref
 from kinematics.drawing.style import pen_for
+from kinematics.reports.shown_units import in_units
 from tests.designs import CLAW_FEED
 
 
@@ -102,7 +103,7 @@ def test_selecting_a_step_emphasises_its_geometry_and_links(make_window):
     space = window.drawings.space_scene
     rocker, crank = (lines_of(space, Ref("link", name))[0] for name in ("rocker", "crank"))
     assert rocker.pen().widthF() > crank.pen().widthF()
-    assert step.text in window.steps.item(row).text()
+    assert in_units(step.text, *window.steps.units) in window.steps.item(row).text()
     window.steps.setCurrentRow(-1)
     assert scene.selected_step is None
 
