@@ -1,6 +1,6 @@
 """Time the drafting window: per drag frame, start-up, and memory.
 
-Run: ``QT_QPA_PLATFORM=offscreen python bench/bench_window.py [FILE] [--frames N] [--rounds R]``
+Run: ``QT_QPA_PLATFORM=offscreen python bench/bench_window.py [FILE] [--frames N] [--rounds R] [--forces]``
 
 A frame is what the window does for one mouse move, as it does for a user: the
 move is handled (solve, construct, the scene items moved in place, the table,
@@ -10,7 +10,9 @@ loop runs until it is idle, which repaints each of the three views once at
 phases apart, for a joint drag (a design edit) and a driver turn, round after
 round: the machine is shared, so the rounds show how much a figure varies, and
 the quickest round's median is the figure to compare with the target.
-Then the memory after a minute of dragging, and after a second minute.
+Then the memory after a minute of dragging, and after a second minute. With ``--forces`` the
+third pane shows the force polygon (built by construction and cross-checked with the numeric
+forces every frame) in place of the acceleration polygon: the frame cost of the forces, live.
 """
 
 from __future__ import annotations
@@ -147,6 +149,8 @@ def main(argv=None) -> int:
     parser.add_argument("file", nargs="?", default=str(DEFAULT_FILE))
     parser.add_argument("--frames", type=int, default=240)
     parser.add_argument("--rounds", type=int, default=5)
+    parser.add_argument("--forces", action="store_true",
+                        help="show the force polygon in the third pane while dragging (a design with mass data)")
     parser.add_argument("--memory-minutes", type=float, default=2.0,
                         help="minutes of dragging for the memory figures (0: skip)")
     options = parser.parse_args(argv)
@@ -158,10 +162,15 @@ def main(argv=None) -> int:
     qt.processEvents()
     # Free dragging: with snapping on, most mouse moves stay on one grid node and change nothing.
     window.snapping.setChecked(False)
+    if options.forces:
+        window.drawings.show_forces(True)
+        qt.processEvents()
+        if window.drawings.force_polygon() is None:
+            parser.error(f"{options.file}: no force polygon at this pose ({window.drawings.force[2]})")
     print(f"start-up (imports, window, open, first paint): {1e3 * (time.perf_counter() - START):.0f} ms")
     drawings = window.drawings
-    counter = PaintCounter(v.viewport() for v in (drawings.space_view, drawings.velocity_view,
-                                                   drawings.acceleration_view))
+    third = drawings.force_view if options.forces else drawings.acceleration_view
+    counter = PaintCounter(v.viewport() for v in (drawings.space_view, drawings.velocity_view, third))
     for viewport in counter.viewports:  # on the viewports alone: an application-wide filter slows every event
         viewport.installEventFilter(counter)
     mech = window.document.mechanism
@@ -173,7 +182,8 @@ def main(argv=None) -> int:
     radius_mm = max(0.03 * size_mm, 2.0 * options.frames / (2.0 * math.pi) * mm_per_pixel)
     drags, turns = [], []
     for round_ in range(1, options.rounds + 1):
-        print(f"round {round_} of {options.rounds}, {Path(options.file).name}:")
+        print(f"round {round_} of {options.rounds}, {Path(options.file).name}"
+              f"{' with the force polygon' if options.forces else ''}:")
         drags.append(report(f"  joint drag ({moving[0]}, design edit)",
                             *timed_drag(window, moving[0], options.frames, radius_mm, counter)))
         turns.append(report(f"  driver turn ({crank_pin})",
