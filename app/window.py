@@ -177,6 +177,17 @@ class MainWindow(FileActions, SheetOutputs, QMainWindow):
         self.tool_actions["select"].setChecked(True)
         self.addToolBar(Qt.ToolBarArea.LeftToolBarArea, tools)
 
+    def _toggle(self, menu, text: str, shortcut: str, tip: str, slot) -> QAction:
+        """A checkable action in ``menu`` with its key and tooltip; ``slot`` takes the new state."""
+        action = QAction(text, self)
+        action.setCheckable(True)
+        action.setShortcut(QKeySequence(shortcut))
+        if tip:
+            action.setToolTip(tip)
+        action.toggled.connect(slot)
+        menu.addAction(action)
+        return action
+
     def _action(self, menu, text, slot, shortcut=None, icon_name=None):
         action = QAction(text, self)
         if shortcut is not None:
@@ -219,31 +230,19 @@ class MainWindow(FileActions, SheetOutputs, QMainWindow):
         self._action(view, "Zoom &out", lambda: space.zoom(0.8), QKeySequence.StandardKey.ZoomOut)
         fit = self._action(view, "&Fit to window", self.drawings.fit_all, QKeySequence("Ctrl+0"), "fit")
         self.driver_bar.addAction(fit)
-        self.snapping = QAction("&Snap to grid", self)
-        self.snapping.setCheckable(True)
-        self.snapping.setShortcut(QKeySequence("Ctrl+G"))
-        self.snapping.toggled.connect(self._snapping_changed)
-        view.addAction(self.snapping)
-        self.centres_action = QAction("Instantaneous &centres", self)
-        self.centres_action.setCheckable(True)
-        self.centres_action.setShortcut(QKeySequence("Ctrl+K"))  # K for Kennedy's theorem
-        self.centres_action.setToolTip("the instantaneous centres over the space diagram, each named by its two bodies")
-        self.centres_action.toggled.connect(self.drawings.show_centres)
-        view.addAction(self.centres_action)
-        self.centrodes_action = QAction("Centro&des of the coupler", self)
-        self.centrodes_action.setCheckable(True)
-        self.centrodes_action.setShortcut(QKeySequence("Ctrl+Shift+K"))
-        self.centrodes_action.setToolTip("the paths of the coupler's instantaneous centre over the cycle: on the frame "
-                                         "(fixed centrode) and on the coupler, in its pose (moving centrode)")
-        self.centrodes_action.toggled.connect(lambda on: self.say(self.drawings.show_centrodes(on)))
-        view.addAction(self.centrodes_action)
-        self.space_forces_action = QAction("&Forces on the space diagram", self)
-        self.space_forces_action.setCheckable(True)
-        self.space_forces_action.setShortcut(QKeySequence("Ctrl+Shift+F"))
-        self.space_forces_action.setToolTip("the pose's inertia forces on their offset lines, weights, loads and the "
-                                            "joint forces the force polygon found, as arrows where they act")
-        self.space_forces_action.toggled.connect(lambda on: self.say(self.drawings.show_space_forces(on)))
-        view.addAction(self.space_forces_action)
+        self.snapping = self._toggle(view, "&Snap to grid", "Ctrl+G", "", self._snapping_changed)
+        self.centres_action = self._toggle(  # K for Kennedy's theorem
+            view, "Instantaneous &centres", "Ctrl+K",
+            "the instantaneous centres over the space diagram, each named by its two bodies",
+            self.drawings.show_centres)
+        self.centrodes_action = self._toggle(
+            view, "Centro&des of the coupler", "Ctrl+Shift+K",
+            "the paths of the coupler's instantaneous centre over the cycle: on the frame (fixed centrode) and on "
+            "the coupler, in its pose (moving centrode)", lambda on: self.say(self.drawings.show_centrodes(on)))
+        self.space_forces_action = self._toggle(
+            view, "&Forces on the space diagram", "Ctrl+Shift+F",
+            "the pose's inertia forces on their offset lines, weights, loads and the joint forces the force polygon "
+            "found, as arrows where they act", lambda on: self.say(self.drawings.show_space_forces(on)))
         add_help_menu(self, self.menuBar().addMenu("&Help"))
         self._fill_recent()
 

@@ -22,8 +22,13 @@ def mm_per_pixel(view) -> float:
 def drag(window, name, offsets_mm):
     """Press on joint ``name``, move through ``offsets_mm`` (machine mm, x right, y up, from the
     press), release at the last one."""
+    return drag_from(window, joint_scene_pos(window, name), offsets_mm)
+
+
+def drag_from(window, start: QPointF, offsets_mm):
+    """Press on the space diagram at scene position ``start``, move through ``offsets_mm``
+    (machine mm from the press), release at the last one; returns the view."""
     view = window.drawings.space_view
-    start = joint_scene_pos(window, name)
     QTest.mousePress(view.viewport(), Qt.LeftButton, Qt.NoModifier, view.mapFromScene(start))
     for dx, dy in offsets_mm:
         QTest.mouseMove(view.viewport(), view.mapFromScene(start + QPointF(dx, -dy)))

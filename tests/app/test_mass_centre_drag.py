@@ -5,12 +5,12 @@ import json
 from pathlib import Path
 
 import pytest
-from PySide6.QtCore import QPointF, Qt
-from PySide6.QtTest import QTest
+from PySide6.QtCore import QPointF
 
 import kinematics
 from kinematics.drawing import Circle, Ref
 from kinematics.dynamics import forces
+from tests.app.test_drag import drag_from
 
 SAMPLE = Path(__file__).resolve().parents[2] / "samples" / "cap-press-feeder.json"
 
@@ -27,14 +27,7 @@ def mark(window, link: str) -> QPointF:
 
 
 def drag_mark(window, link: str, offsets_mm):
-    view = window.drawings.space_view
-    start = mark(window, link)
-    QTest.mousePress(view.viewport(), Qt.LeftButton, Qt.NoModifier, view.mapFromScene(start))
-    for dx, dy in offsets_mm:
-        QTest.mouseMove(view.viewport(), view.mapFromScene(start + QPointF(dx, -dy)))
-    dx, dy = offsets_mm[-1]
-    QTest.mouseRelease(view.viewport(), Qt.LeftButton, Qt.NoModifier, view.mapFromScene(start + QPointF(dx, -dy)))
-    return view
+    return drag_from(window, mark(window, link), offsets_mm)
 
 
 @pytest.mark.parametrize("angle", [None, 35.0, 200.0])
