@@ -6,6 +6,8 @@ from __future__ import annotations
 from PySide6.QtCore import Qt, QTimer, Signal
 from PySide6.QtWidgets import QComboBox, QDoubleSpinBox, QHBoxLayout, QLabel, QSlider, QToolButton, QWidget
 
+from kinematics.model.units import ANGLE_DECIMALS
+
 from .icons import icon
 
 SLIDER_STEPS_PER_DEGREE = 10
@@ -29,7 +31,7 @@ class AngleControl(QWidget):
         self.spin = QDoubleSpinBox()
         self.spin.setRange(0.0, 360.0)
         self.spin.setWrapping(True)
-        self.spin.setDecimals(1)
+        self.spin.setDecimals(ANGLE_DECIMALS)  # as every output says a driver angle
         self.spin.setSuffix(" °")
         self.spin.setKeyboardTracking(False)
         self.slider = QSlider(Qt.Orientation.Horizontal)

@@ -14,6 +14,7 @@ from dataclasses import replace
 
 from kinematics import KinematicsError, Mechanism, move_point
 from kinematics.files.fileschema import MAX_COORDINATE
+from kinematics.model.units import angle_text
 
 from .building import keep_slides_on_guides, snap
 from .mass_edits import with_link_mass
@@ -84,7 +85,7 @@ class JointDrag(_ReferenceDrag):
         if self.turning:
             angle = (self.start_angle + self._bearing(at_mm) - self.start_bearing) % 360.0
             problem = self.document.set_angle(angle)
-            return f"the driver cannot turn to {angle:.1f}°: {problem}" if problem else ""
+            return f"the driver cannot turn to {angle_text(angle)}: {problem}" if problem else ""
         (x, y), edge = self._place(at_mm, self.name)
         if (x, y) == tuple(self.document.mechanism.points[self.name]):
             return edge  # still on the same grid node (or at the edge): nothing to edit, solve or draw

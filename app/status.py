@@ -4,6 +4,7 @@ stops analysis."""
 from __future__ import annotations
 
 from kinematics.groups.steps import ROUNDING_FLOOR, agreement
+from kinematics.model.units import angle_text
 
 
 def status_text(analysis, note: str = "") -> str:
@@ -20,7 +21,7 @@ def status_text(analysis, note: str = "") -> str:
     where = "" if difference < ROUNDING_FLOOR else f", at {construction.where or 'no moving point'}"
     solution = construction.solution
     if solution.driver_length_m is None:
-        pose = f"driver at {solution.driver_angle_deg:.1f}°"
+        pose = f"driver at {angle_text(solution.driver_angle_deg)}"
     else:
         pose = f"{solution.mechanism.driver.cylinder_words} at length {solution.driver_length_m * 1000:.1f} mm"
     parts.append(f"{pose} · cross-check against the numeric solver: {agreement(difference)}{where}")

@@ -21,6 +21,7 @@ from PySide6.QtWidgets import (
 )
 
 from kinematics import Mechanism
+from kinematics.model.units import angle_text
 
 from .angle_control import AngleControl
 from .build_tools import HINTS, Builder
@@ -384,7 +385,7 @@ class MainWindow(FileActions, SheetOutputs, QMainWindow):
         if problem:
             self.angle.stop()
             self.angle.show_angle(self.document.shown_angle_deg)
-        self.say(f"the driver cannot turn to {angle_deg:.1f}°: {problem}" if problem else "")
+        self.say(f"the driver cannot turn to {angle_text(angle_deg)}: {problem}" if problem else "")
 
     def run_cylinder(self, length_mm: float):
         """Extend or retract a cylinder-driven design's cylinder to ``length_mm``."""

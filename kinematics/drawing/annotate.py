@@ -7,6 +7,7 @@ import math
 import textwrap
 from functools import lru_cache
 
+from ..model.units import angle_text
 from ..reports.caution import CAUTION
 from .scaling import bar_value, plain
 from .sheet import FRAME, Hatch, Line, Polyline, Recorder, Ref, Strokes, Text
@@ -90,7 +91,7 @@ def description(construction, scales: dict, file_name: str, date: str, dated: bo
     mech = solution.mechanism
     driver = mech.driver
     rpm = driver.speed_rad_s * 60.0 / (2.0 * math.pi)
-    driving = (f"{driver.link} about {driver.pivot} at {solution.driver_angle_deg:.2f}°, "
+    driving = (f"{driver.link} about {driver.pivot} at {angle_text(solution.driver_angle_deg)}, "
                f"{rpm:.4g} rpm ({driver.speed_rad_s:.4g} rad/s), angular acceleration "
                f"{driver.angular_acceleration_rad_s2:.4g} rad/s²")
     scale_text = " · ".join(f"{name} {text}" for name, text in scales.items())

@@ -5,6 +5,7 @@ from __future__ import annotations
 import math
 
 from ..errors import KinematicsError
+from ..model.units import angle_text
 from .advantage import advantage
 from .kennedy import Centres
 
@@ -28,7 +29,8 @@ def centres_table(centres: Centres) -> str:
     mech = solution.mechanism
     pairs = list(centres.centres.values())
     width = max(len("pair"), *(len(c.name) for c in pairs)) + 2
-    lines = [f"{mech.title or 'Mechanism'} — instantaneous centres at driver angle {solution.driver_angle_deg:.2f}° "
+    at = angle_text(solution.driver_angle_deg)
+    lines = [f"{mech.title or 'Mechanism'} — instantaneous centres at driver angle {at} "
              f"({len(centres.bodies)} bodies, {len(pairs)} centres)", "",
              f"{'pair':<{width}}{'x [mm]':>11}{'y [mm]':>11}  how found"]
     for centre in pairs:

@@ -36,3 +36,15 @@ KG_M2_PER_INERTIA_UNIT = {"kg*m^2": 1.0, "kg*mm^2": 1e-6, "g*mm^2": 1e-9}
 N_PER_FORCE_UNIT = {"N": 1.0}
 N_M_PER_TORQUE_UNIT = {"N*m": 1.0}
 M_S2_PER_GRAVITY_UNIT = {"m/s^2": 1.0}
+
+
+ANGLE_DECIMALS = 2  # a driver angle, wherever it is said: the window, the sheet, the report, the CLI
+
+
+def angle_text(angle_deg: float) -> str:
+    """A driver angle as every output says it (one rounding rule for one quantity).
+
+    >>> angle_text(60.0249)
+    '60.02°'
+    """
+    return f"{angle_deg:.{ANGLE_DECIMALS}f}°"

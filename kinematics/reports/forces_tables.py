@@ -14,6 +14,7 @@ from ..dynamics.layout import layout
 from ..dynamics.results import FRICTIONLESS, Forces, ForceSweep
 from ..dynamics.summary import CylinderSummary, DriveSummary
 from ..groups.vectors import NEGLIGIBLE
+from ..model.units import angle_text
 from . import cylinder_forces
 from .text import direction_text, sense, turn
 
@@ -92,7 +93,7 @@ def forces_table(result: Forces) -> str:
         drive = cylinder_forces.drive_line(result, shown_value(result.drive_force_n, force_scale))
     else:
         heading = (f"{mech.title or 'Mechanism'} — forces with driver {mech.driver.link} at "
-                   f"{result.driver_angle_deg:.2f}°, {mech.driver.speed_value} {mech.driver.speed_unit}; "
+                   f"{angle_text(result.driver_angle_deg)}, {mech.driver.speed_value} {mech.driver.speed_unit}; "
                    f"{FRICTIONLESS}")
         drive = f"drive torque on {mech.driver.link}: {torque:.4g} N·m {sense(torque)}"
     lines = [heading, "", drive, "",

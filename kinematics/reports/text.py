@@ -8,6 +8,7 @@ from dataclasses import dataclass
 from ..construction.components import acceleration_components
 from ..groups.steps import ROUNDING_FLOOR, Construction, agreement
 from ..groups.vectors import direction_deg, negligible
+from ..model.units import angle_text
 from ..solver.solve import Solution
 
 
@@ -35,7 +36,7 @@ def solution_table(solution: Solution) -> str:
     mech = solution.mechanism
     driver = mech.driver
     if solution.driver_length_m is None:
-        driven = (f"driver {driver.link} at {solution.driver_angle_deg:.2f}°, {driver.speed_rad_s:.4g} rad/s "
+        driven = (f"driver {driver.link} at {angle_text(solution.driver_angle_deg)}, {driver.speed_rad_s:.4g} rad/s "
                   f"({driver.speed_value} {driver.speed_unit})")
     else:
         driven = (f"{driver.cylinder_words} at length {solution.driver_length_m * 1000:.2f} mm, extending at "

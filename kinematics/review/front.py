@@ -23,6 +23,7 @@ from ..drawing.sheet import FRAME, Recorder, Ref, Text
 from ..drawing.space import draw_space
 from ..drawing.style import ANNOTATION
 from ..drawing.symbols import Symbols
+from ..model.units import angle_text
 from ..reports.caution import CAUTION
 from ..reports.check_text import check_sentences
 from ..reports.text import sense
@@ -99,7 +100,7 @@ def cover_section(review: Review, progress: Progress) -> Section:
         rec.add_view(view)
         draw_space(rec, solution, view, size)
         scale_bar(rec, (x0 + 8, caution_top + 6 + 1.2 * size.text), view.mm_per_unit / 1000.0, "mm", 50.0,
-                  f"Space diagram {view.scale_text}, reference pose θ = {solution.driver_angle_deg:.2f}°", size,
+                  f"Space diagram {view.scale_text}, reference pose θ = {angle_text(solution.driver_angle_deg)}", size,
                   "space")
     outline_box(rec, x0, y0, x1, caution_top, FRAME, ref=Ref("caution"))
     y = _wrapped(rec, CAUTION, x0 + 4, caution_top - PITCH * BODY_TEXT, width - 8, BODY_TEXT)

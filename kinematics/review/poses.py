@@ -8,6 +8,7 @@ from .. import construct, solve
 from ..drawing.layout import draw_sheet
 from ..drawing.pages import Heading, Paragraph, Preformatted, paginate
 from ..errors import CannotAssemble, ParallelLines
+from ..model.units import angle_text
 from ..reports.text import construction_text
 from .base import Progress, Review, Section
 
@@ -15,7 +16,7 @@ from .base import Progress, Review, Section
 def angle_title(angle_deg, solution=None) -> str:
     """The outline's words for an analysis angle (None: the reference pose)."""
     if angle_deg is None:
-        return f"reference pose, θ = {solution.driver_angle_deg:.2f}°" if solution is not None else "reference pose"
+        return "reference pose" if solution is None else f"reference pose, θ = {angle_text(solution.driver_angle_deg)}"
     return f"θ = {angle_deg:g}°"
 
 

@@ -20,6 +20,7 @@ from ..groups.decompose import decompose
 from ..groups.poses import pose_warnings
 from ..model.mechanism import Mechanism
 from ..model.memo import frozen_fields, remembered
+from ..model.units import angle_text
 from .constraints import ConstraintSystem, constraint_system, reference_driver_angle
 
 MAX_STEP_RAD = math.radians(10.0)
@@ -382,8 +383,8 @@ def solve_pose(mechanism: Mechanism, angle_deg=None, system: ConstraintSystem | 
             if tracked is not None:
                 break
         if tracked is None:
-            raise CannotAssemble(f"cannot assemble at driver angle {float(angle_deg):.1f}°",
-                                 f"driver angle {float(angle_deg):.1f}°")
+            raise CannotAssemble(f"cannot assemble at driver angle {angle_text(float(angle_deg))}",
+                                 f"driver angle {angle_text(float(angle_deg))}")
         q, passed = tracked
         if passed:
             warnings.append("the way from the reference pose passes a change point (bifurcation); "
@@ -392,8 +393,8 @@ def solve_pose(mechanism: Mechanism, angle_deg=None, system: ConstraintSystem | 
     jac = driven.jacobian(x, theta)
     condition = float(np.linalg.cond(jac))
     if not np.isfinite(condition) or condition > 1e14:
-        raise CannotAssemble(f"the linkage is at a dead point at driver angle {math.degrees(theta):.1f}°: "
-                             "velocities are not defined there", f"driver angle {math.degrees(theta):.1f}°")
+        raise CannotAssemble(f"the linkage is at a dead point at driver angle {angle_text(math.degrees(theta))}: "
+                             "velocities are not defined there", f"driver angle {angle_text(math.degrees(theta))}")
     xdot, xddot = driven.rates(x, jac, theta, omega, alpha)
     index = {n: i for i, n in enumerate(system.names)}
     angle, link_omega, link_alpha = _link_rates(mechanism, index, x, xdot, xddot)

@@ -17,7 +17,7 @@ def test_a_typed_angle_and_the_slider_turn_the_driver(make_window):
     window.angle.slider.setValue(2705)
     assert window.document.solution.driver_angle_deg == pytest.approx(270.5)
     assert window.angle.spin.value() == pytest.approx(270.5)
-    assert "driver at 270.5°" in window.status.text()
+    assert "driver at 270.50°" in window.status.text()  # as the sheet says it: one rounding rule
 
 
 def test_play_turns_the_driver_until_paused(make_window, qtbot):
@@ -53,7 +53,7 @@ def test_an_angle_that_cannot_be_assembled_keeps_the_pose_and_says_so(make_windo
     kept = window.document.solution
     window.angle.spin.setValue(180.0)  # the input link of this triple rocker cannot reach 180°
     assert window.document.solution is kept
-    assert "cannot turn to 180.0°" in window.status.text()
+    assert "cannot turn to 180.00°" in window.status.text()
     assert window.angle.spin.value() == pytest.approx(40.0)
 
 
@@ -107,3 +107,16 @@ def test_the_cycle_tab_plots_the_document_sweep_and_turns_the_driver(make_window
     assert (cycle.units.length, cycle.units.speed) == ("m", "rpm")
     window.new_design()
     assert cycle.coarse is None and "not ready to plot" in cycle.reason
+
+
+def test_one_driver_angle_reads_the_same_in_the_window_and_on_the_sheet(make_window):
+    from kinematics.drawing import Ref, Text
+    from kinematics.drawing.layout import draw_sheet
+
+    window = make_window(CLAW_FEED)
+    window.turn_driver(60.0249)
+    assert window.angle.spin.text() == "60.02 °"
+    assert "driver at 60.02°" in window.status.text()
+    sheet = draw_sheet(window.document.construction)
+    block = " ".join(p.text for p in sheet.primitives if isinstance(p, Text) and p.ref == Ref("title block"))
+    assert "at 60.02°," in block

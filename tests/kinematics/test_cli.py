@@ -68,7 +68,7 @@ def test_exit_codes(tmp_path):
     rocker = tmp_path / "rocker.json"
     rocker.write_text(json.dumps(four_bar(100, 60, 90, 120, 60)))
     out = run("solve", str(rocker), "--angle", "212")
-    assert out.returncode == 3 and "cannot assemble at driver angle 212.0°" in out.stderr
+    assert out.returncode == 3 and "cannot assemble at driver angle 212.00°" in out.stderr
 
 
 @pytest.mark.parametrize("extra", [["--peaks"], []])

@@ -139,7 +139,7 @@ def test_cannot_assemble_names_the_angle():
     mech = kinematics.load_mechanism(four_bar(100, 60, 90, 120, 60))
     with pytest.raises(kinematics.CannotAssemble) as caught:
         kinematics.solve(mech, 212.0)
-    assert str(caught.value).endswith("cannot assemble at driver angle 212.0°")
+    assert str(caught.value).endswith("cannot assemble at driver angle 212.00°")
 
 
 def test_core_never_imports_qt():
