@@ -190,7 +190,7 @@ def _draw_joints(rec: Recorder, mech, at, centre, size: Symbols, view: str) -> N
         # A fixed point on no link only marks where a guide runs: no pivot symbol for it.
         pivot = GROUND in bodies and len(bodies) > 1
         if pivot:
-            symbols.fixed_pivot(rec, where, SPACE_GROUND, size, **ids)
+            symbols.fixed_pivot(rec, where, SPACE_GROUND, size, floor=_guide_floor(mech, at, where, size), **ids)
         symbols.pin(rec, where, SPACE_LINK, size, joint=len(bodies) > 1, **ids)
         # A label clears the fixed-pivot mark under its pin, or the slider block round it;
         # on a fixed guide it goes to the side without hatching, elsewhere away from the middle.
@@ -201,6 +201,28 @@ def _draw_joints(rec: Recorder, mech, at, centre, size: Symbols, view: str) -> N
         if pivot:
             avoid.append(-0.5 * math.pi)  # the fixed-pivot mark hangs below the pin
         symbols.label(rec, where, name, away_from, SPACE_LINK, size, gap=gap, avoid=avoid, **ids)
+
+
+FLOOR_SLOPE = 0.2  # a guide this near level (rise over run) can carry a fixed pivot's mark
+
+
+def _guide_floor(mech, at, where, size: Symbols) -> float | None:
+    """The height (sheet mm) of a near-level fixed guide line under the pivot at ``where``, when
+    the pivot's own mark would reach it (its hatching would run into the guide's): the mark then
+    stands on the guide. None where no guide is that close below."""
+    x, y = where
+    reach = symbols.pivot_reach(size)
+    found = None
+    for slide in mech.slides.values():
+        if slide.guide != GROUND:
+            continue
+        (ex, ey), (fx, fy) = at[slide.line[0]], at[slide.line[1]]
+        if fx == ex or abs((fy - ey) / (fx - ex)) > FLOOR_SLOPE or not min(ex, fx) <= x <= max(ex, fx):
+            continue
+        under = ey + (fy - ey) * (x - ex) / (fx - ex)
+        if 2.0 * size.pin < y - under <= reach and (found is None or under > found):
+            found = under
+    return found
 
 
 def _draw_rod(rec: Recorder, slide, at, ids) -> None:

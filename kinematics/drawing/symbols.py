@@ -64,9 +64,22 @@ def dot_mark(rec: Recorder, at, radius: float, view: str) -> None:
     rec.marks.append((view, (at[0] - radius, at[1] - radius, at[0] + radius, at[1] + radius)))
 
 
-def fixed_pivot(rec: Recorder, at, pen, size: Symbols, **ids) -> None:
-    """The fixed-pivot mark: a triangle under the pin on a hatched base line."""
+def pivot_reach(size: Symbols) -> float:
+    """How far below its pin a fixed-pivot mark reaches, its hatching included (sheet mm)."""
+    return size.pin + 3.2 * size.pin + 0.6 * 2.4 * size.pin
+
+
+def fixed_pivot(rec: Recorder, at, pen, size: Symbols, floor: float | None = None, **ids) -> None:
+    """The fixed-pivot mark: a triangle under the pin on a hatched base line; or, standing on a
+    hatched fixed guide at height ``floor`` (sheet mm) below the pin, a triangle down to that line
+    alone (the guide's hatching is the ground there; two hatchings would run into each other)."""
     x, y = at
+    if floor is not None:
+        w = 2.4 * size.pin
+        triangle = Polyline(points=((x, y - size.pin), (x - w, floor), (x + w, floor)), pen=pen, closed=True, **ids)
+        rec.add(triangle)
+        mark(rec, triangle.points, ids.get("view", ""))
+        return
     triangle, base, hatch = _fixed_pivot_parts(float(x), float(y), pen, size, ids.get("view", ""), ids.get("ref"))
     rec.add(triangle)
     mark(rec, triangle.points, ids.get("view", ""))
