@@ -97,8 +97,9 @@ def guide_of(mech: Mechanism, e: str, f: str) -> str:
     raise BuildError(f"{e} and {f} must both be fixed, or both on one link, to set a slide's line")
 
 
-def add_slide(mech: Mechanism, point: str, e: str, f: str) -> tuple[Mechanism, str]:
-    """Joint ``point`` slides along the line through ``e`` and ``f``; it is set onto that line."""
+def _slide_on(mech: Mechanism, name: str, point: str, e: str, f: str) -> Mechanism:
+    """``mech`` with slide ``name``: joint ``point`` sliding along the line through ``e`` and ``f``,
+    set onto that line."""
     if point in (e, f) or e == f:
         raise BuildError("a slide needs the sliding joint and two other points for its line")
     if math.dist(mech.points[e], mech.points[f]) == 0.0:
@@ -106,10 +107,26 @@ def add_slide(mech: Mechanism, point: str, e: str, f: str) -> tuple[Mechanism, s
     guide = guide_of(mech, e, f)
     if point in mech.body_points(guide):
         raise BuildError(f"{point} is on {guide} itself: it cannot slide on it")
+    slides = {**mech.slides, name: Slide(name, point, guide, (e, f))}
+    return keep_slides_on_guides(replace(mech, slides=slides, warnings=()))
+
+
+def add_slide(mech: Mechanism, point: str, e: str, f: str) -> tuple[Mechanism, str]:
+    """Joint ``point`` slides along the line through ``e`` and ``f``; it is set onto that line."""
     _room_for(mech, "another slide", bodies=1)
     name = _fresh(mech.slides, _numbered("slide"))
-    slides = {**mech.slides, name: Slide(name, point, guide, (e, f))}
-    return keep_slides_on_guides(replace(mech, slides=slides, warnings=())), name
+    return _slide_on(mech, name, point, e, f), name
+
+
+def set_slide_line(mech: Mechanism, name: str, e: str, f: str) -> Mechanism:
+    """Slide ``name`` runs along the line through ``e`` and ``f`` instead (its guide follows: the
+    frame, or the link holding both); its joint is set onto the new line. A cylinder driver's
+    slide keeps its barrel's line: its pivot is the line's first point."""
+    driver = mech.driver
+    if driver is not None and driver.slide == name:
+        raise BuildError(f"{name} is the cylinder that drives the design: its line runs from its barrel's pivot "
+                         "along the barrel; move the barrel's points instead")
+    return _slide_on(mech, name, mech.slides[name].point, e, f)
 
 
 def set_driver(mech: Mechanism, pivot: str, point: str, speed_value: float | None = None,

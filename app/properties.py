@@ -10,8 +10,9 @@ from dataclasses import replace
 from PySide6.QtCore import Qt
 from PySide6.QtWidgets import QCheckBox, QComboBox, QDoubleSpinBox, QFormLayout, QLabel, QLineEdit, QWidget
 
-from kinematics import KinematicsError, move_point, rename_link, rename_point
+from kinematics import KinematicsError, move_point, rename_link, rename_point, rename_slide
 from kinematics.files.fileschema import MAX_COORDINATE, MAX_RATE
+from kinematics.model.mechanism import GROUND
 from kinematics.model.units import M_S_PER_LINEAR_SPEED_UNIT, metres_per
 
 from . import building
@@ -80,6 +81,10 @@ class PropertiesPanel(QWidget):
         self.link = QComboBox()
         self.link_name = QLineEdit()
         self.link_points = QLabel()
+        self.slide = QComboBox()
+        self.slide_name = QLineEdit()
+        self.slide_from, self.slide_to = QComboBox(), QComboBox()
+        self.slide_about = QLabel()
         self.driver = QLabel()
         self.speed = _spin(-MAX_RATE, MAX_RATE, 3)
         self.speed_unit = QComboBox()
@@ -98,6 +103,11 @@ class PropertiesPanel(QWidget):
                             (self.fixed, "Fix the joint to the frame (a fixed pivot), or free it"),
                             (self.link, "The link shown below (or click one in the space diagram)"),
                             (self.link_name, "Type a new name and press Enter to rename the link everywhere"),
+                            (self.slide, "The slide shown below"),
+                            (self.slide_name, "Type a new name and press Enter to rename the slide everywhere"),
+                            (self.slide_from, "The first point of the slide's line (both fixed: a fixed guide; "
+                                              "both on one link: a slot in it)"),
+                            (self.slide_to, "The second point of the slide's line"),
                             (self.speed, "The driver's speed, counter-clockwise positive"),
                             (self.speed_unit, "The unit of the driver's speed"),
                             (self.alpha, "The driver's angular acceleration, counter-clockwise positive"),
@@ -105,7 +115,8 @@ class PropertiesPanel(QWidget):
                             (self.stroke_max, "The cylinder's greatest length (fully extended), pivot to rod end")):
             widget.setToolTip(tip)
         # A refusal is said beside the field it is about, and stays until the next edit or choice.
-        self.point_refusal, self.link_refusal = _refusal_label(), _refusal_label()
+        self.point_refusal, self.link_refusal, self.slide_refusal = (_refusal_label(), _refusal_label(),
+                                                                     _refusal_label())
         form = QFormLayout(self)
         form.addRow("title", self.title)
         form.addRow("joint", self.point)
@@ -118,6 +129,12 @@ class PropertiesPanel(QWidget):
         form.addRow("link name", self.link_name)
         form.addRow("", self.link_points)
         form.addRow("", self.link_refusal)
+        form.addRow("slide", self.slide)
+        form.addRow("slide name", self.slide_name)
+        form.addRow("line from", self.slide_from)
+        form.addRow("line to", self.slide_to)
+        form.addRow("", self.slide_about)
+        form.addRow("", self.slide_refusal)
         form.addRow("driver", self.driver)
         form.addRow("speed", self.speed)
         form.addRow("speed unit", self.speed_unit)
@@ -130,6 +147,10 @@ class PropertiesPanel(QWidget):
         self.point_name.editingFinished.connect(self.apply_point_name)
         self.link.currentTextChanged.connect(self.show_link)
         self.link_name.editingFinished.connect(self.apply_link_name)
+        self.slide.currentTextChanged.connect(self.show_slide)
+        self.slide_name.editingFinished.connect(self.apply_slide_name)
+        for combo in (self.slide_from, self.slide_to):
+            combo.currentTextChanged.connect(self.apply_slide_line)
         self.x.valueChanged.connect(lambda value: self.apply_place(0, value))
         self.y.valueChanged.connect(lambda value: self.apply_place(1, value))
         self.fixed.toggled.connect(self.apply_fixed)
@@ -142,6 +163,7 @@ class PropertiesPanel(QWidget):
     def _quiet(self):
         """Fill the fields without their change signals writing the values back as edits."""
         widgets = (self.title, self.point, self.point_name, self.x, self.y, self.fixed, self.link, self.link_name,
+                   self.slide, self.slide_name, self.slide_from, self.slide_to,
                    self.speed, self.speed_unit, self.alpha, self.stroke_min, self.stroke_max)
         for widget in widgets:
             widget.blockSignals(True)
@@ -194,6 +216,8 @@ class PropertiesPanel(QWidget):
             field.setRange(0.0, limit)
         self._fill_point(self.point.currentText())
         self._fill_link(self.link.currentText())
+        _refill(self.slide, list(mech.slides))
+        self._fill_slide(self.slide.currentText())
         self._fill_driver(mech)
 
     def _fill_driver(self, mech):
@@ -266,9 +290,53 @@ class PropertiesPanel(QWidget):
             _say_beside(self.link_refusal, "")
             self._fill_link(name)
 
+    def _fill_slide(self, name: str):
+        mech = self.document.mechanism
+        slide = mech.slides.get(name)
+        for widget in (self.slide_name, self.slide_from, self.slide_to):
+            widget.setEnabled(slide is not None)
+        _show_text(self.slide_name, name if slide is not None else "")
+        if slide is None:
+            self.slide_about.setText("no slides yet (Slide tool)")
+            return
+        for combo, end in ((self.slide_from, slide.line[0]), (self.slide_to, slide.line[1])):
+            _refill(combo, list(mech.points))
+            combo.setCurrentText(end)
+        where = "the frame (a fixed guide)" if slide.guide == GROUND else f"link {slide.guide} (a slot in it)"
+        self.slide_about.setText(f"{slide.point} slides on {where}")
+
+    def show_slide(self, name: str):
+        """Show slide ``name`` (chosen in the list)."""
+        with self._quiet():
+            if self.slide.currentText() != name:
+                self.slide.setCurrentText(name)
+            self.slide_name.setModified(False)
+            _say_beside(self.slide_refusal, "")
+            self._fill_slide(name)
+
+    def apply_slide_name(self):
+        self._apply_name(self.slide_name, self.slide.currentText(), "slide", rename_slide, self.slide_refusal)
+
+    def apply_slide_line(self, *_):
+        """Run the shown slide along the line through the two points chosen."""
+        name, mech = self.slide.currentText(), self.document.mechanism
+        if name not in mech.slides:
+            return
+        e, f = self.slide_from.currentText(), self.slide_to.currentText()
+        if (e, f) == tuple(mech.slides[name].line):
+            return
+        try:
+            moved = building.set_slide_line(mech, name, e, f)
+        except BuildError as error:
+            self.refresh()  # the choosers show the slide's line again
+            _say_beside(self.slide_refusal, str(error))
+            return
+        self._edit(moved, f"run {name} along {e}–{f}")
+
     def _edit(self, mechanism, text):
         _say_beside(self.point_refusal, "")
         _say_beside(self.link_refusal, "")
+        _say_beside(self.slide_refusal, "")
         self.document.edit(mechanism, text, check=False)
 
     def apply_title(self):

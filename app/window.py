@@ -11,9 +11,11 @@ from PySide6.QtGui import QAction, QActionGroup, QFont, QKeySequence
 from PySide6.QtWidgets import (
     QApplication,
     QComboBox,
+    QFrame,
     QLabel,
     QMainWindow,
     QMessageBox,
+    QScrollArea,
     QSplitter,
     QTabWidget,
     QToolBar,
@@ -79,7 +81,7 @@ class MainWindow(FileActions, SheetOutputs, QMainWindow):
         # The results stay in sight beside the steps or the design fields.
         side = QTabWidget()
         side.addTab(self.steps, "Construction steps")
-        side.addTab(self.properties, "Design")
+        side.addTab(_scrolled(self.properties), "Design")  # its rows outgrow a 1024×700 window
         side.addTab(self.masses, MASSES_TAB)
         # Made when their tab is first opened: pyqtgraph takes most of a second to import.
         self.cycle = self.cycle_forces = None
@@ -472,6 +474,15 @@ class MainWindow(FileActions, SheetOutputs, QMainWindow):
             event.accept()
         else:
             event.ignore()
+
+
+def _scrolled(widget: QWidget) -> QScrollArea:
+    """``widget`` in a frameless scroll area, so a tall form scrolls rather than makes the window grow."""
+    area = QScrollArea()
+    area.setWidget(widget)
+    area.setWidgetResizable(True)
+    area.setFrameShape(QFrame.Shape.NoFrame)
+    return area
 
 
 def open_window(argv) -> MainWindow:

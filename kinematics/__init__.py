@@ -11,7 +11,7 @@ from .construction.construct import construct as _construct
 from .cycle.sweep import Sweep, sweep, verify_sweep
 from .dynamics import drive_summary, forces, sweep_forces
 from .edits.moves import move_point
-from .edits.naming import rename_link, rename_point
+from .edits.naming import rename_link, rename_point, rename_slide
 from .errors import (
     CannotAssemble,
     FileFormatError,
@@ -76,6 +76,6 @@ __all__ = [
     "ForcesUndetermined", "KinematicsError", "LinkMass", "Load", "MassData", "Mechanism", "MechanismFindings",
     "NoMassData", "ParallelLines", "PointMass", "Polygon", "RelativeComponent", "Role", "Slide", "Solution", "Step",
     "StorageError", "Sweep", "SweepCancelled", "acceleration_components", "centres", "construct", "diagnose",
-    "drive_summary", "dumps", "forces", "load_mechanism", "move_point", "rename_link", "rename_point", "solve",
-    "sweep", "sweep_forces", "verify_sweep",
+    "drive_summary", "dumps", "forces", "load_mechanism", "move_point", "rename_link", "rename_point",
+    "rename_slide", "solve", "sweep", "sweep_forces", "verify_sweep",
 ]

@@ -1,4 +1,4 @@
-"""Renaming a design's joints and links: edits that return a new Mechanism in which
+"""Renaming a design's joints, links and slides: edits that return a new Mechanism in which
 every reference to the old name (links, ground, slides, driver, output, mass data: masses keyed by
 link, point masses and load points by point, a load's link) carries the new one.
 
@@ -24,7 +24,7 @@ from ..model.mechanism import Mechanism
 
 
 def _check_new_name(mechanism: Mechanism, kind: str, old: str, new) -> None:
-    """Refuse ``new`` as the name of ``kind`` ("point" or "link") ``old``, saying why."""
+    """Refuse ``new`` as the name of ``kind`` ("point", "link" or "slide") ``old``, saying why."""
     where = f"{kind}s.{old}"
     if not isinstance(new, str):
         raise KinematicsError(f"{kind} {old} needs a name in text, not {type(new).__name__}", where)
@@ -45,7 +45,7 @@ def _check_new_name(mechanism: Mechanism, kind: str, old: str, new) -> None:
 
 def _renamer(mechanism: Mechanism, kind: str, old: str, new: str):
     """``name -> name`` carrying ``kind`` ``old`` over to ``new``, once ``new`` is known to be allowed."""
-    known = mechanism.points if kind == "point" else mechanism.links
+    known = {"point": mechanism.points, "link": mechanism.links, "slide": mechanism.slides}[kind]
     if not isinstance(old, str) or old not in known:
         raise KinematicsError(f'unknown {kind} "{old}"', f"{kind}s")
     if new != old:
@@ -118,3 +118,22 @@ def rename_link(mechanism: Mechanism, old: str, new: str) -> Mechanism:
         mass_data=_mass_data(mechanism, "link", carried),
         warnings=(),
     )
+
+
+def rename_slide(mechanism: Mechanism, old: str, new: str) -> Mechanism:
+    """A new Mechanism in which slide ``old`` is called ``new``, everywhere it is named (the slides
+    and a cylinder driver's slide).
+
+    Raises
+    ------
+    KinematicsError
+        for an unknown slide or a name the file format would refuse (see the module doc).
+    """
+    carried = _renamer(mechanism, "slide", old, new)
+    if new == old:
+        return mechanism
+    driver = mechanism.driver
+    if driver is not None and driver.slide is not None:
+        driver = replace(driver, slide=carried(driver.slide))
+    slides = {carried(n): replace(s, name=carried(s.name)) for n, s in mechanism.slides.items()}
+    return replace(mechanism, slides=slides, driver=driver, warnings=())

@@ -3,6 +3,7 @@
 import copy
 import json
 import math
+from pathlib import Path
 
 import pytest
 from PySide6.QtCore import QPointF, Qt
@@ -286,3 +287,40 @@ def test_a_cylinder_refuses_what_cannot_be_one():
         building.add_cylinder(mech, "O2", "O4")
     with pytest.raises(BuildError, match="two joints"):
         building.add_cylinder(mech, "O2", "O2")
+
+
+def test_the_design_tab_renames_a_slide_and_runs_it_along_another_line(make_window, qtbot):
+    design = copy.deepcopy(CARTON_PUSHER)
+    design["points"]["G"] = [260, 10]
+    design["ground"].append("G")
+    window = make_window(design)
+    doc, panel = window.document, window.properties
+    assert panel.slide.currentText() == "guide" and "D slides on the frame" in panel.slide_about.text()
+    panel.slide_name.setFocus()
+    panel.slide_name.selectAll()
+    qtbot.keyClicks(panel.slide_name, "ram")
+    qtbot.keyClick(panel.slide_name, Qt.Key_Return)
+    assert list(doc.mechanism.slides) == ["ram"] and doc.mechanism.slides["ram"].name == "ram"
+    panel.slide_to.setCurrentText("G")
+    slide = doc.mechanism.slides["ram"]
+    assert slide.line == ("E", "G") and slide.guide == "ground"
+    # D is set onto the new line E-G: its cross product with the line's direction is zero.  # common practice
+    (ex, ey), (gx, gy), (dx, dy) = (doc.mechanism.points[n] for n in ("E", "G", "D"))
+    assert abs((gx - ex) * (dy - ey) - (gy - ey) * (dx - ex)) <= 1e-9 * math.hypot(gx - ex, gy - ey) ** 2
+    assert doc.solution is not None
+    panel.slide_to.setCurrentText("A")  # one fixed point and one on a link: no guide holds both
+    assert doc.mechanism.slides["ram"].line == ("E", "G"), "refused, the design kept"
+    assert "must both be fixed, or both on one link" in panel.slide_refusal.text()
+    assert panel.slide_to.currentText() == "G", "the chooser shows the slide's line again"
+    assert doc.undo_stack.count() == 2
+    doc.undo_stack.undo()
+    assert doc.mechanism.slides["ram"].line == ("E", "F")
+
+
+def test_the_cylinders_own_line_is_not_changed_from_the_design_tab():
+    mech = kinematics.load_mechanism(json.loads((Path(__file__).parents[2] / "samples" /
+                                                 "crate-tipping-table.json").read_text()))
+    with pytest.raises(BuildError, match="cylinder that drives the design"):
+        building.set_slide_line(mech, "cylinder", "C", "B")
+    renamed = kinematics.rename_slide(mech, "cylinder", "ram")
+    assert renamed.driver.slide == "ram" and kinematics.solve(renamed) is not None

@@ -1,5 +1,6 @@
-"""Polygon legends in a small window: at 1024×700 the legend folds into a row of swatches (its
-words in a tooltip) so that no vector is drawn under it; at 1600×1000 it is the full list."""
+"""Polygon legends in a short view: in a 1024×700 window with the drawings given 260 pixels of
+height (the table and tabs dragged larger) the legend folds into a row of swatches (its words in a
+tooltip) so that no vector is drawn under it; at 1600×1000 it is the full list."""
 
 import json
 from pathlib import Path
@@ -15,10 +16,17 @@ from tests.app.drawn import on_screen
 SAMPLE = Path(__file__).resolve().parents[2] / "samples" / "cap-press-feeder.json"
 
 
-def _window(make_window, width, height):
-    window = make_window(json.loads(SAMPLE.read_text(encoding="utf-8")))
+SHORT_DRAWINGS = 260  # pixels of height for the three drawings in the short case
+
+
+def _window(make_window, width, height, sample=SAMPLE):
+    window = make_window(json.loads(sample.read_text(encoding="utf-8")))
     window.resize(width, height)
     QApplication.processEvents()
+    if width < 1600:
+        splitter = window.centralWidget()
+        splitter.setSizes([SHORT_DRAWINGS, sum(splitter.sizes()) - SHORT_DRAWINGS])
+        QApplication.processEvents()
     window.drawings.fit_all()
     QApplication.processEvents()
     return window
@@ -64,8 +72,7 @@ def test_a_folded_legend_is_drawn_in_each_pen_used(make_window):
 
 
 def test_the_force_panes_message_stays_above_the_polygon_in_a_small_window(make_window):
-    window = make_window(json.loads((SAMPLE.parent / "tile-trimmer-quick-return.json").read_text(encoding="utf-8")))
-    window.resize(1024, 700)
+    window = _window(make_window, 1024, 700, SAMPLE.parent / "tile-trimmer-quick-return.json")
     window.drawings.show_forces(True)
     QApplication.processEvents()
     window.drawings.fit_all()
@@ -78,3 +85,13 @@ def test_the_force_panes_message_stays_above_the_polygon_in_a_small_window(make_
     assert where.bottom() <= view.legend_height() + 1e-9
     lines = [item for item in view.scene().items() if isinstance(item, QGraphicsLineItem) and item.isVisible()]
     assert min(on_screen(view, item).top() for item in lines) >= view.legend_height() - 1.0
+
+
+@pytest.mark.parametrize("name", sorted(p.name for p in SAMPLE.parent.glob("*.json")))
+def test_every_sample_fits_a_1024_by_700_window(make_window, name):
+    # No tab's form may hold the window taller than the screen it was made for: the Design tab scrolls.
+    window = make_window(json.loads((SAMPLE.parent / name).read_text(encoding="utf-8")))
+    window.resize(1024, 700)
+    QApplication.processEvents()
+    assert (window.width(), window.height()) == (1024, 700)
+    assert window.minimumSizeHint().height() <= 700

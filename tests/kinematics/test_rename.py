@@ -156,3 +156,25 @@ def test_a_renamed_design_solves_to_the_same_numbers(path):
         assert after.sliding_velocity == before.sliding_velocity
         assert after.sliding_acceleration == before.sliding_acceleration
         assert after.condition == before.condition
+
+
+@pytest.mark.parametrize("path", [p for p in SAMPLE_FILES if kinematics.load_mechanism(p).slides], ids=lambda p: p.stem)
+def test_a_renamed_slide_round_trips_and_solves_to_the_same_numbers(path):
+    # Identity property: renaming changes no number, so the original is the reference; exact equality.
+    original = kinematics.load_mechanism(path)
+    names = {old: f"s_{old}" for old in original.slides}
+    renamed = original
+    for old, new in names.items():
+        renamed = kinematics.rename_slide(renamed, old, new)
+    assert kinematics.load_mechanism(json.loads(kinematics.dumps(renamed))) == renamed
+    before, after = solve_at(original, None), solve_at(renamed, None)
+    assert np.array_equal(after.velocities, before.velocities)
+    assert after.sliding_velocity == {names[k]: v for k, v in before.sliding_velocity.items()}
+
+
+def test_a_slide_name_is_refused_in_words():
+    mech = kinematics.load_mechanism(SAMPLES / "cap-press-feeder.json")
+    with pytest.raises(KinematicsError, match='slide ram cannot be called "rod": it clashes with link "rod"'):
+        kinematics.rename_slide(mech, "ram", "rod")
+    with pytest.raises(KinematicsError, match='unknown slide "slot"'):
+        kinematics.rename_slide(mech, "slot", "s")
