@@ -233,6 +233,27 @@ def set_cylinder_motion(mech: Mechanism, speed_value: float, unit: str, accelera
                    warnings=())
 
 
+def set_link_length(mech: Mechanism, link: str, length: float) -> Mechanism:
+    """Bar ``link`` made ``length`` long (the file's unit): its free end moves along the bar's
+    direction, the second joint unless it is fixed, then the first; the centres of mass and slides
+    follow as for a drag. Refused for a plate (three joints or more), a bar between two fixed
+    points, or a length that is not positive."""
+    points = mech.links[link]
+    if len(points) != 2:
+        raise BuildError(f"{link} joins {len(points)} joints: only a bar (two joints) has one length to set")
+    if not (math.isfinite(length) and length > 0.0):
+        raise BuildError(f"a length must be a positive number, not {length:g}")
+    first, second = points
+    if second in mech.ground:
+        first, second = second, first
+    if second in mech.ground:
+        raise BuildError(f"both ends of {link} are fixed: its length is the frame's")
+    (x0, y0), (x1, y1) = mech.points[first], mech.points[second]
+    now = math.hypot(x1 - x0, y1 - y0)
+    end = (x0 + (x1 - x0) * length / now, y0 + (y1 - y0) * length / now)
+    return keep_slides_on_guides(move_point(mech, second, end))
+
+
 def set_fixed(mech: Mechanism, name: str, fixed: bool) -> Mechanism:
     """Fix joint ``name`` to the frame, or free it."""
     ground = tuple(dict.fromkeys((*mech.ground, name))) if fixed else tuple(g for g in mech.ground if g != name)

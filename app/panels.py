@@ -30,6 +30,7 @@ class DrawingsPanel(QSplitter):
         self.draft = False
         self.centres_shown = False
         self.centrodes_shown = False
+        self.dimensions_shown = False
         self.forces_shown = False
         self.space_scene = SpaceScene()
         self.velocity_scene = PolygonScene("velocity")
@@ -130,6 +131,7 @@ class DrawingsPanel(QSplitter):
         zoom = self._mm_per_pixel(self.space_view)
         self.space_scene.show(doc.mechanism, doc.solution, zoom, self.draft)
         self.space_scene.show_centres(doc.solution, doc.construction, zoom, self.centres_shown)
+        self.space_scene.show_dimensions(doc.mechanism, doc.solution, zoom, self.dimensions_shown)
         self._draw_centrodes()
         made = self.force_polygon() if self.forces_shown else None
         self.space_scene.show_forces(made and space_forces_pane(made, screen_symbols(zoom), self.space_scene.marks()),
@@ -150,6 +152,11 @@ class DrawingsPanel(QSplitter):
         for scene in (self.velocity_scene, self.acceleration_scene):
             scene.length_unit = length_unit
         self.refresh()
+
+    def show_dimensions(self, on: bool):
+        """Draw the links' lengths as dimensions on the space diagram (or not)."""
+        self.dimensions_shown = on
+        self._draw_space()
 
     def show_centrodes(self, on: bool) -> str:
         """Draw the coupler's centrodes over the space diagram (or not); returns why there are none

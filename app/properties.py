@@ -81,6 +81,7 @@ class PropertiesPanel(QWidget):
         self.link = QComboBox()
         self.link_name = QLineEdit()
         self.link_points = QLabel()
+        self.link_length = _spin(0.0, MAX_COORDINATE, 3)
         self.slide = QComboBox()
         self.slide_name = QLineEdit()
         self.slide_from, self.slide_to = QComboBox(), QComboBox()
@@ -103,6 +104,8 @@ class PropertiesPanel(QWidget):
                             (self.fixed, "Fix the joint to the frame (a fixed pivot), or free it"),
                             (self.link, "The link shown below (or click one in the space diagram)"),
                             (self.link_name, "Type a new name and press Enter to rename the link everywhere"),
+                            (self.link_length, "A bar's length, joint to joint: type one to move its free end "
+                                               "along the bar"),
                             (self.slide, "The slide shown below"),
                             (self.slide_name, "Type a new name and press Enter to rename the slide everywhere"),
                             (self.slide_from, "The first point of the slide's line (both fixed: a fixed guide; "
@@ -128,6 +131,7 @@ class PropertiesPanel(QWidget):
         form.addRow("link", self.link)
         form.addRow("link name", self.link_name)
         form.addRow("", self.link_points)
+        form.addRow("length", self.link_length)
         form.addRow("", self.link_refusal)
         form.addRow("slide", self.slide)
         form.addRow("slide name", self.slide_name)
@@ -147,6 +151,7 @@ class PropertiesPanel(QWidget):
         self.point_name.editingFinished.connect(self.apply_point_name)
         self.link.currentTextChanged.connect(self.show_link)
         self.link_name.editingFinished.connect(self.apply_link_name)
+        self.link_length.valueChanged.connect(self.apply_link_length)
         self.slide.currentTextChanged.connect(self.show_slide)
         self.slide_name.editingFinished.connect(self.apply_slide_name)
         for combo in (self.slide_from, self.slide_to):
@@ -163,6 +168,7 @@ class PropertiesPanel(QWidget):
     def _quiet(self):
         """Fill the fields without their change signals writing the values back as edits."""
         widgets = (self.title, self.point, self.point_name, self.x, self.y, self.fixed, self.link, self.link_name,
+                   self.link_length,
                    self.slide, self.slide_name, self.slide_from, self.slide_to,
                    self.speed, self.speed_unit, self.alpha, self.stroke_min, self.stroke_max)
         for widget in widgets:
@@ -208,10 +214,11 @@ class PropertiesPanel(QWidget):
         unit = self.shown_unit or mech.length_unit
         decimals = max(0, math.ceil(-math.log10(PLACE_RESOLUTION_M / metres_per(unit)) - 1e-9))
         limit = MAX_COORDINATE * self._per_file_unit()
-        for field in (self.x, self.y):
+        for field in (self.x, self.y, self.link_length):
             field.setSuffix(f" {unit}")
             field.setDecimals(decimals)
             field.setRange(-limit, limit)
+        self.link_length.setMinimum(0.0)
         for field in (self.stroke_min, self.stroke_max):
             field.setRange(0.0, limit)
         self._fill_point(self.point.currentText())
@@ -280,6 +287,11 @@ class PropertiesPanel(QWidget):
         self.link_name.setEnabled(points is not None)
         _show_text(self.link_name, name if points is not None else "")
         self.link_points.setText(f"joins {', '.join(points)}" if points else "no links yet (Link tool)")
+        bar = points is not None and len(points) == 2
+        self.link_length.setEnabled(bar)
+        if bar:
+            (x0, y0), (x1, y1) = (self.document.mechanism.points[n] for n in points)
+            self.link_length.setValue(math.hypot(x1 - x0, y1 - y0) * self._per_file_unit())
 
     def show_link(self, name: str):
         """Show link ``name`` (chosen in the list, clicked or just made in the space diagram)."""
@@ -313,6 +325,24 @@ class PropertiesPanel(QWidget):
             self.slide_name.setModified(False)
             _say_beside(self.slide_refusal, "")
             self._fill_slide(name)
+
+    def apply_link_length(self, value: float):
+        """Make the shown bar ``value`` long (shown units); its free end moves along it."""
+        name, mech = self.link.currentText(), self.document.mechanism
+        points = mech.links.get(name)
+        if points is None or len(points) != 2:
+            return
+        (x0, y0), (x1, y1) = (mech.points[n] for n in points)
+        length = self._in_file_unit(value, self.link_length, math.hypot(x1 - x0, y1 - y0))
+        if length == math.hypot(x1 - x0, y1 - y0):
+            return
+        try:
+            resized = building.set_link_length(mech, name, length)
+        except (BuildError, KinematicsError) as error:
+            self.refresh()
+            _say_beside(self.link_refusal, str(error))
+            return
+        self._edit(resized, f"make {name} {value:g} {self.shown_unit or mech.length_unit} long")
 
     def apply_slide_name(self):
         self._apply_name(self.slide_name, self.slide.currentText(), "slide", rename_slide, self.slide_refusal)

@@ -17,6 +17,7 @@ from kinematics.cycle.centrodes import centrodes
 from kinematics.drawing import Circle, Ref, Text
 from kinematics.drawing.centres_overlay import centres_pane, kennedy_pane
 from kinematics.drawing.declutter import text_box
+from kinematics.drawing.dimensions import dimensions_pane
 from kinematics.drawing.panes import centrodes_pane, paths_pane, space_pane
 from kinematics.drawing.symbols import Symbols
 from kinematics.errors import KinematicsError
@@ -57,6 +58,7 @@ class SpaceScene(QGraphicsScene):
         self.found_centres = None  # the Centres drawn, None when not shown
         self.kennedy = SceneBackend(self)  # the lines of Kennedy's theorem of the centre under the pointer
         self.centrodes = SceneBackend(self)
+        self.dimensions = SceneBackend(self)  # the links' lengths, when asked for
         self.centrodes_found = (None, None, "")  # (the sweep they are of, its Centrodes or None, why none)
         self.kennedy_of = ""
         self.overlay = SceneBackend(self)  # a force's line of action, over the linkage
@@ -144,6 +146,14 @@ class SpaceScene(QGraphicsScene):
         self.centrodes.show(centrodes_pane(found, solution, screen_symbols(mm_per_pixel), self.marks()),
                             1.0 / mm_per_pixel)
         return ""
+
+    def show_dimensions(self, mechanism, solution, mm_per_pixel: float, shown: bool):
+        """Draw every link's length as a dimension when ``shown`` (in the scale bar's unit)."""
+        if not shown:
+            self.dimensions.clear()
+            return
+        sheet = dimensions_pane(mechanism, solution, screen_symbols(mm_per_pixel), self.length_unit, self.marks())
+        self.dimensions.show(sheet, 1.0 / mm_per_pixel)
 
     def show_kennedy(self, name: str, mm_per_pixel: float):
         """Draw faintly the lines of Kennedy's theorem that found centre ``name`` (and those sharing

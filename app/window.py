@@ -242,6 +242,9 @@ class MainWindow(FileActions, SheetOutputs, QMainWindow):
             view, "Centro&des of the coupler", "Ctrl+Shift+K",
             "the paths of the coupler's instantaneous centre over the cycle: on the frame (fixed centrode) and on "
             "the coupler, in its pose (moving centrode)", lambda on: self.say(self.drawings.show_centrodes(on)))
+        self.dimensions_action = self._toggle(
+            view, "Link &lengths", "Ctrl+Shift+L", "every link's length, joint to joint, as a dimension on the space "
+            "diagram (in the tool bar's length unit)", self.drawings.show_dimensions)
         self.space_forces_action = self._toggle(
             view, "&Forces on the space diagram", "Ctrl+Shift+F",
             "the pose's inertia forces on their offset lines, weights, loads and the joint forces the force polygon "

@@ -40,6 +40,7 @@ KENNEDY = Pen("#00897b", 0.35, "dashed", "CENTRES-KENNEDY", "line of Kennedy's t
 CENTRODE_FIXED = Pen("#00897b", 0.35, "solid", "CENTRODES", "fixed centrode (path of the centre on the frame)")
 CENTRODE_MOVING = Pen("#00897b", 0.35, "dashdot", "CENTRODES-MOVING",
                       "moving centrode (path of the centre on the link, in its pose)")
+DIMENSION = Pen("#5d6d7e", 0.25, "solid", "DIMENSIONS", "length of a link, joint to joint")
 MASS_CENTRE = Pen("#1d2b3a", 0.35, "solid", "MASS-CENTRES", "centre of mass of a link")
 
 LEGEND = (KNOWN, RESULT, CORIOLIS, SLIDING, DIRECTION, IMAGE, NUMERIC, FLAGGED)

@@ -324,3 +324,27 @@ def test_the_cylinders_own_line_is_not_changed_from_the_design_tab():
         building.set_slide_line(mech, "cylinder", "C", "B")
     renamed = kinematics.rename_slide(mech, "cylinder", "ram")
     assert renamed.driver.slide == "ram" and kinematics.solve(renamed) is not None
+
+
+def test_a_bars_length_is_typed_in_the_design_tab(make_window, qtbot):
+    window = make_window(CLAW_FEED)
+    doc, panel = window.document, window.properties
+    panel.show_link("crank")
+    assert panel.link_length.isEnabled() and panel.link_length.value() == pytest.approx(50.0)  # 3-4-5
+    panel.link_length.setFocus()
+    panel.link_length.selectAll()
+    qtbot.keyClicks(panel.link_length.lineEdit(), "60")
+    qtbot.keyClick(panel.link_length.lineEdit(), Qt.Key_Return)
+    a = doc.mechanism.points["A"]
+    # The free end A moved along O2A: (30, 40) scaled to 60 mm is (36, 48).  # common practice
+    assert a == pytest.approx((36.0, 48.0), abs=1e-12)
+    assert doc.solution is not None and doc.undo_stack.count() == 1
+    panel.show_link("coupler")
+    assert not panel.link_length.isEnabled(), "a plate has no one length"
+    with pytest.raises(BuildError, match="only a bar"):
+        building.set_link_length(doc.mechanism, "coupler", 100.0)
+    fixed = kinematics.load_mechanism({**copy.deepcopy(CLAW_FEED), "ground": ["O2", "O4", "B"]})
+    with pytest.raises(BuildError, match="both ends of rocker are fixed"):
+        building.set_link_length(fixed, "rocker", 90.0)
+    doc.undo_stack.undo()
+    assert doc.mechanism.points["A"] == (30.0, 40.0)
