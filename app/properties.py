@@ -273,14 +273,19 @@ class PropertiesPanel(QWidget):
             self.y.setValue(float(mech.points[name][1]) * self._per_file_unit())
             self.fixed.setChecked(name in mech.ground)
 
+    def _show(self, chooser: QComboBox, name_field: QLineEdit, refusal: QLabel, fill, name: str):
+        """Make ``name`` the one ``chooser`` shows and fill its rows with ``fill``, quietly; a name
+        typed for another one is not this one's, and an earlier refusal goes."""
+        with self._quiet():
+            if chooser.currentText() != name:
+                chooser.setCurrentText(name)
+            name_field.setModified(False)
+            _say_beside(refusal, "")
+            fill(name)
+
     def show_point(self, name: str):
         """Show joint ``name`` (chosen in the list, or clicked in the space diagram)."""
-        with self._quiet():
-            if self.point.currentText() != name:
-                self.point.setCurrentText(name)
-            self.point_name.setModified(False)  # a name typed for another joint is not this one's
-            _say_beside(self.point_refusal, "")
-            self._fill_point(name)
+        self._show(self.point, self.point_name, self.point_refusal, self._fill_point, name)
 
     def _fill_link(self, name: str):
         points = self.document.mechanism.links.get(name)
@@ -295,12 +300,7 @@ class PropertiesPanel(QWidget):
 
     def show_link(self, name: str):
         """Show link ``name`` (chosen in the list, clicked or just made in the space diagram)."""
-        with self._quiet():
-            if self.link.currentText() != name:
-                self.link.setCurrentText(name)
-            self.link_name.setModified(False)
-            _say_beside(self.link_refusal, "")
-            self._fill_link(name)
+        self._show(self.link, self.link_name, self.link_refusal, self._fill_link, name)
 
     def _fill_slide(self, name: str):
         mech = self.document.mechanism
@@ -319,12 +319,7 @@ class PropertiesPanel(QWidget):
 
     def show_slide(self, name: str):
         """Show slide ``name`` (chosen in the list)."""
-        with self._quiet():
-            if self.slide.currentText() != name:
-                self.slide.setCurrentText(name)
-            self.slide_name.setModified(False)
-            _say_beside(self.slide_refusal, "")
-            self._fill_slide(name)
+        self._show(self.slide, self.slide_name, self.slide_refusal, self._fill_slide, name)
 
     def apply_link_length(self, value: float):
         """Make the shown bar ``value`` long (shown units); its free end moves along it."""
