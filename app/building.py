@@ -250,6 +250,8 @@ def set_link_length(mech: Mechanism, link: str, length: float) -> Mechanism:
         raise BuildError(f"both ends of {link} are fixed: its length is the frame's")
     (x0, y0), (x1, y1) = mech.points[first], mech.points[second]
     now = math.hypot(x1 - x0, y1 - y0)
+    if now == 0.0:
+        raise BuildError(f"the two joints of {link} are at one place: it has no direction to lengthen along")
     end = (x0 + (x1 - x0) * length / now, y0 + (y1 - y0) * length / now)
     return keep_slides_on_guides(move_point(mech, second, end))
 

@@ -118,5 +118,7 @@ class CentreDrag(_ReferenceDrag):
         problem = self.document.edit(with_link_mass(self.document.mechanism, self.name, replace(entry, centre=centre)),
                                      f"move {what}", drag=self.serial)
         if problem:
-            return f"{what} cannot go there: {problem} — the last valid design is kept"
+            unit = self.document.mechanism.length_unit
+            return (f"{what} cannot go to ({centre[0]:.4g}, {centre[1]:.4g}) {unit}: {problem} — "
+                    "the last valid design is kept")
         return edge

@@ -195,11 +195,9 @@ class PropertiesPanel(QWidget):
         """A value typed in ``field`` (shown units) in the file's unit; a value that shows as the
         ``stated`` one does (to the field's decimals) is that value, not its rounding."""
         ratio = self._per_file_unit()
-        if ratio == 1.0:
-            return shown
         if stated is not None and round(stated * ratio, field.decimals()) == round(shown, field.decimals()):
             return stated
-        return shown / ratio
+        return shown if ratio == 1.0 else shown / ratio
 
     def refresh(self):
         """Show the Document's values without writing them back."""
@@ -214,9 +212,10 @@ class PropertiesPanel(QWidget):
         unit = self.shown_unit or mech.length_unit
         decimals = max(0, math.ceil(-math.log10(PLACE_RESOLUTION_M / metres_per(unit)) - 1e-9))
         limit = MAX_COORDINATE * self._per_file_unit()
+        for field in (self.x, self.y, self.link_length, self.stroke_min, self.stroke_max):
+            field.setDecimals(decimals)
         for field in (self.x, self.y, self.link_length):
             field.setSuffix(f" {unit}")
-            field.setDecimals(decimals)
             field.setRange(-limit, limit)
         self.link_length.setMinimum(0.0)
         for field in (self.stroke_min, self.stroke_max):
@@ -418,6 +417,10 @@ class PropertiesPanel(QWidget):
         mech = self.document.mechanism
         try:
             if mech.driver is not None and mech.driver.is_actuator:
+                low, high = self.stroke_min.value(), self.stroke_max.value()
+                if low and high and not low < high:
+                    unit = self.shown_unit or mech.length_unit
+                    raise BuildError(f"the stroke from {low:g} {unit} must be below the stroke to {high:g} {unit}")
                 stated = (mech.driver.stroke_min, mech.driver.stroke_max)
                 stroke = tuple(self._in_file_unit(field.value(), field, value) or None
                                for field, value in zip((self.stroke_min, self.stroke_max), stated, strict=True))

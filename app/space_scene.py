@@ -140,6 +140,10 @@ class SpaceScene(QGraphicsScene):
             except KinematicsError as error:
                 self.centrodes_found = (sweep, None, f"no centrodes: {error}")
         found, why = self.centrodes_found[1:]
+        if found is not None and (found.link not in solution.mechanism.links
+                                  or sweep.point_names != solution.point_names):
+            self.centrodes.clear()  # the sweep is of the design before an edit: it catches up soon
+            return "the centrodes wait for the cycle's sweep to catch up with the edit"
         if found is None or not (found.fixed or found.moving):
             self.centrodes.clear()
             return why or "no centrodes: the coupler's centre stays at infinity or far off over the cycle"

@@ -312,10 +312,20 @@ class SpaceView(DrawingView):
             self.dragged.emit(self._machine_mm(pos))
             event.accept()
             return
-        self._hover_on(self.joint_at(pos) if not event.buttons() else None,
-                       not event.buttons() and self.handle_at(pos) is not None)
-        self._hover_centre("" if event.buttons() or self._hover else self.centre_at(pos))
+        if event.buttons():
+            self._hover_on(None)
+            self._hover_centre("")
+        else:
+            self._hover_under(pos)
         super().mouseMoveEvent(event)
+
+    def _hover_under(self, pos):
+        """Light what is under ``pos`` (view pixels; None: the pointer is off the view): the joint,
+        else the hand over a centre of mass, else the instantaneous centre's Kennedy lines."""
+        ref = self.handle_at(pos) if pos is not None else None
+        joint = ref.name if ref is not None and ref.kind == "point" else None
+        self._hover_on(joint, ref is not None)
+        self._hover_centre("" if pos is None or joint else self.centre_at(pos))
 
     def centre_at(self, pos) -> str:
         """The instantaneous centre whose mark is under ``pos`` (view pixels), "" where none is."""
@@ -353,7 +363,7 @@ class SpaceView(DrawingView):
         joint lit is the one under the pointer now, none when the pointer is on none. While a
         joint is dragged it stays the one lit."""
         if self.dragging is None:
-            self._hover_on(self.joint_at(self._pointer) if self._pointer is not None else None)
+            self._hover_under(self._pointer)
 
     def mouseReleaseEvent(self, event):
         if self.dragging is not None and event.button() == Qt.MouseButton.LeftButton:

@@ -64,9 +64,14 @@ def dot_mark(rec: Recorder, at, radius: float, view: str) -> None:
     rec.marks.append((view, (at[0] - radius, at[1] - radius, at[0] + radius, at[1] + radius)))
 
 
+# A fixed-pivot mark in pin radii: the triangle's half width and height, the hatched band's depth
+# as a share of the half width.
+PIVOT_HALF_WIDTH, PIVOT_HEIGHT, PIVOT_BAND = 2.4, 3.2, 0.6
+
+
 def pivot_reach(size: Symbols) -> float:
     """How far below its pin a fixed-pivot mark reaches, its hatching included (sheet mm)."""
-    return size.pin + 3.2 * size.pin + 0.6 * 2.4 * size.pin
+    return size.pin * (1.0 + PIVOT_HEIGHT + PIVOT_BAND * PIVOT_HALF_WIDTH)
 
 
 def fixed_pivot(rec: Recorder, at, pen, size: Symbols, floor: float | None = None, **ids) -> None:
@@ -75,7 +80,7 @@ def fixed_pivot(rec: Recorder, at, pen, size: Symbols, floor: float | None = Non
     alone (the guide's hatching is the ground there; two hatchings would run into each other)."""
     x, y = at
     if floor is not None:
-        w = 2.4 * size.pin
+        w = PIVOT_HALF_WIDTH * size.pin
         triangle = Polyline(points=((x, y - size.pin), (x - w, floor), (x + w, floor)), pen=pen, closed=True, **ids)
         rec.add(triangle)
         mark(rec, triangle.points, ids.get("view", ""))
@@ -93,10 +98,11 @@ def _fixed_pivot_parts(x: float, y: float, pen, size: Symbols, view: str, ref) -
     and size, since a pivot stays where it is while the links move about it (its hatching is
     clipped line by line)."""
     ids = {"view": view, "ref": ref}
-    w, h = 2.4 * size.pin, 3.2 * size.pin
+    w, h = PIVOT_HALF_WIDTH * size.pin, PIVOT_HEIGHT * size.pin
     base = y - size.pin - h
     triangle = ((x, y - size.pin), (x - w, base), (x + w, base))
-    band = ((x - 1.6 * w, base - 0.6 * w), (x + 1.6 * w, base - 0.6 * w), (x + 1.6 * w, base), (x - 1.6 * w, base))
+    depth = PIVOT_BAND * w
+    band = ((x - 1.6 * w, base - depth), (x + 1.6 * w, base - depth), (x + 1.6 * w, base), (x - 1.6 * w, base))
     return (Polyline(points=triangle, pen=pen, closed=True, **ids),
             Strokes(points=((x - 1.6 * w, base), (x + 1.6 * w, base)), pen=pen, **ids),  # the base line
             ground_hatch(band, 45.0, 0.8 * w * math.sqrt(0.5), pen, **ids))

@@ -3,6 +3,7 @@
 import copy
 import json
 import math
+from dataclasses import replace
 from pathlib import Path
 
 import pytest
@@ -348,3 +349,11 @@ def test_a_bars_length_is_typed_in_the_design_tab(make_window, qtbot):
         building.set_link_length(fixed, "rocker", 90.0)
     doc.undo_stack.undo()
     assert doc.mechanism.points["A"] == (30.0, 40.0)
+
+
+def test_a_bar_of_no_length_cannot_be_lengthened():
+    # The loader refuses such a file; the Design tab's place fields can still type one (unchecked edit).
+    mech = load(CLAW_FEED)
+    mech = replace(mech, points={**mech.points, "A": (0.0, 0.0)})
+    with pytest.raises(BuildError, match="the two joints of crank are at one place"):
+        building.set_link_length(mech, "crank", 50.0)

@@ -159,3 +159,16 @@ def test_the_centrodes_toggle_draws_both_touching_at_the_poses_centre(make_windo
     QTest.keyClick(window, Qt.Key_K, Qt.ControlModifier | Qt.ShiftModifier)
     QApplication.processEvents()
     assert not [item for item in scene.items() if isinstance(item.data(0), Ref) and item.data(0).kind == "centrode"]
+
+
+def test_the_centrodes_wait_for_the_sweep_when_the_coupler_is_renamed(make_window):
+    baler = next(p for p in SAMPLE_FILES if p.name.startswith("baler"))
+    window = make_window(json.loads(baler.read_text()))
+    window.centrodes_action.setChecked(True)
+    QApplication.processEvents()
+    doc, scene = window.document, window.drawings.space_scene
+    before = doc.sweep  # a drag holds the sweep back: for a while it is of the design before the edit
+    doc.edit(kinematics.rename_link(doc.mechanism, "coupler", "bridge"), "rename", check=False)
+    said = scene.show_centrodes(before, doc.solution, 1.0, True)
+    assert said == "the centrodes wait for the cycle's sweep to catch up with the edit"
+    assert scene.show_centrodes(doc.sweep, doc.solution, 1.0, True) == "", "drawn again once it caught up"

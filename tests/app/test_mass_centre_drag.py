@@ -5,7 +5,8 @@ import json
 from pathlib import Path
 
 import pytest
-from PySide6.QtCore import QPointF
+from PySide6.QtCore import QPointF, Qt
+from PySide6.QtTest import QTest
 
 import kinematics
 from kinematics.drawing import Circle, Ref
@@ -87,3 +88,13 @@ def test_a_pin_under_a_mark_is_still_picked_as_the_joint(make_window):
     pin = window.drawings.space_scene.joint_pos("A")
     assert view.joint_at(view.mapFromScene(pin)) == "A"
     assert view.handle_at(view.mapFromScene(mark(window, "rod"))) == Ref("mass centre", "rod")
+
+
+def test_the_pointer_left_on_a_dragged_mark_keeps_the_hand(make_window):
+    window = make_window(design())
+    view = drag_mark(window, "rod", [(3.0, 0.0)])
+    # Let go on the mark, which followed the pointer: it is still something to pick up.
+    QTest.mouseMove(view.viewport(), view.mapFromScene(mark(window, "rod")))
+    view.hover_again()  # as after a drag, an undo or a driver turn under a still pointer
+    assert view.handle_at(view._pointer) == Ref("mass centre", "rod")
+    assert view.viewport().cursor().shape() == Qt.CursorShape.PointingHandCursor

@@ -130,7 +130,7 @@ def test_the_design_tab_edits_the_cylinders_speed_acceleration_and_stroke(make_w
     before = doc.mechanism
     _type(qtbot, panel.stroke_min, "1100")
     assert doc.mechanism is before, "a stroke out of order is not kept"
-    assert "the stroke's min 1100 must be below its max 1000" in window.status.text()
+    assert "the stroke from 1100 mm must be below the stroke to 1000 mm" in window.status.text()
     assert panel.stroke_min.value() == 580.0, "the field shows the design's stroke again"
     assert doc.undo_stack.count() == 3
     path = tmp_path / "table.json"
@@ -146,3 +146,17 @@ def test_a_crank_driven_design_shows_no_stroke_rows(make_window):
     panel = window.properties
     assert not panel.form.isRowVisible(panel.stroke_min) and not panel.form.isRowVisible(panel.stroke_max)
     assert panel.form.labelForField(panel.speed).text() == "speed" and panel.alpha.suffix() == " rad/s²"
+
+
+def test_a_speed_edit_in_a_metre_design_keeps_the_strokes_digits(make_window, qtbot):
+    doc_json = json.loads(TABLE.read_text())
+    doc_json["length_unit"] = "m"
+    doc_json["points"] = {k: [x / 1000.0, y / 1000.0] for k, (x, y) in doc_json["points"].items()}
+    doc_json["driver"]["stroke"] = {"min": 0.5805, "max": 1.0604}
+    window = make_window(doc_json)
+    window.length_units.setCurrentText("m")
+    panel = window.properties
+    assert panel.stroke_min.text() == "0.580500 m"
+    _type(qtbot, panel.speed, "45")
+    driver = window.document.mechanism.driver
+    assert (driver.stroke_min, driver.stroke_max) == (0.5805, 1.0604), "a stroke not edited is kept exactly"

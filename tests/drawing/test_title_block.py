@@ -1,5 +1,5 @@
 """The title block after ISO 7200: the data fields a drawing office expects, filled where Kinepoly
-knows them (date of issue, sheet n/m, document type, language) and left blank to fill in where the
+knows them (date of issue, sheet n/m, document type, file) and left blank to fill in where the
 design file does not hold them; read back from the printed PDF with pdfplumber."""
 
 import datetime
