@@ -23,7 +23,8 @@ def status_text(analysis, note: str = "") -> str:
     if solution.driver_length_m is None:
         pose = f"driver at {angle_text(solution.driver_angle_deg)}"
     else:
-        pose = f"{solution.mechanism.driver.cylinder_words} at length {solution.driver_length_m * 1000:.1f} mm"
+        # To 0.01 mm, as the length control, the sheet and the CLI say a cylinder's length.
+        pose = f"{solution.mechanism.driver.cylinder_words} at length {solution.driver_length_m * 1000:.2f} mm"
     parts.append(f"{pose} · cross-check against the numeric solver: {agreement(difference)}{where}")
     parts += [f"warning: {w}" for w in construction.warnings]
     parts += [f"note: {f}" for f in analysis.held]

@@ -49,7 +49,7 @@ def test_the_driver_control_is_the_cylinders_length_over_its_stroke(make_window,
     control.slider.setFocus()
     qtbot.keyClick(control.slider, Qt.Key.Key_End)
     assert window.document.solution.driver_length_m == pytest.approx(1.060, rel=1e-12)
-    assert "cylinder at length 1060.0 mm" in window.status.text()
+    assert "cylinder at length 1060.00 mm" in window.status.text()  # as the spin box shows it
 
 
 def test_play_runs_the_cylinder_to_the_end_of_its_stroke_and_back(make_window, qtbot):
