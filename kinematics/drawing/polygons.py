@@ -51,6 +51,9 @@ def draw_polygon(rec: Recorder, polygon, solution, view: View, size: Symbols, xy
             ends = place(step.coords[0]), place(step.coords[-1])
             rec.add(Line(*ends, pen, name, ref))
             segments.append(ends)
+            if not stack_labels:  # a construction line's free ends: no image label sits over them
+                for end in ends:  # (the force polygon's stacked labels keep their own fitted places)
+                    symbols.dot_mark(rec, end, size.dot, name)
         elif step.is_vector:
             ends = place(step.coords[0]), place(step.coords[-1])
             if symbols.arrow(rec, *ends, pen, size, view=name, ref=ref):
