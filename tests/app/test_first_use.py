@@ -179,3 +179,26 @@ def test_the_play_speed_scales_the_turn_of_each_frame(make_window):
     start = angle.angle_deg
     angle.advance()
     assert asked[-1] == pytest.approx((start + 4 * ANIMATION_STEP_DEG) % 360.0, abs=1e-12)
+
+
+def test_a_new_design_opens_at_a_machinery_scale_and_fit_fits_an_unfinished_one(make_window):
+    from kinematics.drawing import Text
+
+    window = make_window()
+    window.new_design()
+    QApplication.processEvents()
+    view = window.drawings.space_view
+    across = view.mapToScene(view.viewport().rect()).boundingRect().width()
+    assert 200.0 <= across <= 2000.0, across  # some hundreds of mm across, before anything is drawn
+    window.builder.tool = "pivot"
+    window.builder.pick(None, (0.0, 0.0))
+    QApplication.processEvents()
+    bar = [p.text for p in window.drawings.space_scene.sheet.primitives
+           if isinstance(p, Text) and p.ref and p.ref.kind == "scale bar" and p.text.endswith(" mm")]
+    assert bar and float(bar[0].split()[0]) >= 10.0, bar  # not a bar of 0.2 mm over one pivot
+    window.builder.pick(None, (900.0, 0.0))
+    view.zoom(8.0)  # the user zoomed in: the second pivot is off the view
+    QTest.keyClick(window, Qt.Key_0, Qt.ControlModifier)  # Fit to window, with no link or driver yet
+    QApplication.processEvents()
+    seen = view.mapToScene(view.viewport().rect()).boundingRect()
+    assert seen.contains(0.0, 0.0) and seen.contains(900.0, 0.0)
