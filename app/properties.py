@@ -184,6 +184,10 @@ class PropertiesPanel(QWidget):
         self.shown_unit = unit
         self.refresh()
 
+    def _shown_unit(self) -> str:
+        """The length unit the fields show: the window's choice, else the file's."""
+        return self.shown_unit or self.document.mechanism.length_unit
+
     def _per_file_unit(self) -> float:
         """Shown units in one of the file's length units."""
         file_unit = self.document.mechanism.length_unit
@@ -197,7 +201,7 @@ class PropertiesPanel(QWidget):
         ratio = self._per_file_unit()
         if stated is not None and round(stated * ratio, field.decimals()) == round(shown, field.decimals()):
             return stated
-        return shown if ratio == 1.0 else shown / ratio
+        return shown / ratio
 
     def refresh(self):
         """Show the Document's values without writing them back."""
@@ -209,7 +213,7 @@ class PropertiesPanel(QWidget):
         _show_text(self.title, mech.title)
         _refill(self.point, list(mech.points))
         _refill(self.link, list(mech.links))
-        unit = self.shown_unit or mech.length_unit
+        unit = self._shown_unit()
         decimals = max(0, math.ceil(-math.log10(PLACE_RESOLUTION_M / metres_per(unit)) - 1e-9))
         limit = MAX_COORDINATE * self._per_file_unit()
         for field in (self.x, self.y, self.link_length, self.stroke_min, self.stroke_max):
@@ -258,7 +262,7 @@ class PropertiesPanel(QWidget):
         self.alpha.setSuffix(f" {unit}²")
         self.alpha.setValue(driver.linear_acceleration_m_s2 / CYLINDER_SPEED_UNITS[unit])
         for field, value in ((self.stroke_min, driver.stroke_min), (self.stroke_max, driver.stroke_max)):
-            field.setSuffix(f" {self.shown_unit or mech.length_unit}")
+            field.setSuffix(f" {self._shown_unit()}")
             field.setValue((value or 0.0) * self._per_file_unit())
 
     def _fill_point(self, name: str):
@@ -327,8 +331,9 @@ class PropertiesPanel(QWidget):
         if points is None or len(points) != 2:
             return
         (x0, y0), (x1, y1) = (mech.points[n] for n in points)
-        length = self._in_file_unit(value, self.link_length, math.hypot(x1 - x0, y1 - y0))
-        if length == math.hypot(x1 - x0, y1 - y0):
+        now = math.hypot(x1 - x0, y1 - y0)
+        length = self._in_file_unit(value, self.link_length, now)
+        if length == now:
             return
         try:
             resized = building.set_link_length(mech, name, length)
@@ -336,7 +341,7 @@ class PropertiesPanel(QWidget):
             self.refresh()
             _say_beside(self.link_refusal, str(error))
             return
-        self._edit(resized, f"make {name} {value:g} {self.shown_unit or mech.length_unit} long")
+        self._edit(resized, f"make {name} {value:g} {self._shown_unit()} long")
 
     def apply_slide_name(self):
         self._apply_name(self.slide_name, self.slide.currentText(), "slide", rename_slide, self.slide_refusal)
@@ -419,7 +424,7 @@ class PropertiesPanel(QWidget):
             if mech.driver is not None and mech.driver.is_actuator:
                 low, high = self.stroke_min.value(), self.stroke_max.value()
                 if low and high and not low < high:
-                    unit = self.shown_unit or mech.length_unit
+                    unit = self._shown_unit()
                     raise BuildError(f"the stroke from {low:g} {unit} must be below the stroke to {high:g} {unit}")
                 stated = (mech.driver.stroke_min, mech.driver.stroke_max)
                 stroke = tuple(self._in_file_unit(field.value(), field, value) or None

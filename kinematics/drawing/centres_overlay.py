@@ -14,7 +14,7 @@ import math
 from . import symbols
 from .centre_places import bounds_with_centres, centre_places, linkage_box, where_words
 from .declutter import declutter
-from .sheet import Circle, Line, Recorder, Ref, Sheet, Strokes, Text, View
+from .sheet import TRUE_SIZE_SPACE, Circle, Line, Recorder, Ref, Sheet, Strokes, Text, View
 from .style import CENTRE, KENNEDY
 from .symbols import Symbols
 
@@ -134,7 +134,7 @@ def kennedy_pane(centres, name: str) -> Sheet:
     one of its two known centres to the other, through the centre found on it, a little beyond
     the outermost. Empty for a primary centre, which no construction found."""
     rec = Recorder()
-    view = View("space", (0.0, 0.0, 0.0, 0.0), (0.0, 0.0), 1000.0, "m", "1:1")
+    view = TRUE_SIZE_SPACE
     rec.add_view(view)
     x0, y0, x1, y1 = linkage_box(centres.solution)
     size_m = max(x1 - x0, y1 - y0, 1e-12)

@@ -20,7 +20,7 @@ import math
 
 from ..model.units import METRES_PER_LENGTH_UNIT
 from .declutter import declutter
-from .sheet import Line, Recorder, Ref, Sheet, View
+from .sheet import TRUE_SIZE_SPACE, Line, Recorder, Ref, Sheet, View
 from .space import file_positions, outline, positions
 from .style import DIMENSION
 from .symbols import Symbols, arrow, label
@@ -52,7 +52,7 @@ def dimensions_pane(mech, solution, size: Symbols, length_unit: str = "mm", mark
     xy = positions(solution) if solution is not None else file_positions(mech)
     rec = Recorder()
     rec.marks.extend(("space", box) for box in marks)
-    view = View("space", (0.0, 0.0, 0.0, 0.0), (0.0, 0.0), 1000.0, "m", "1:1")
+    view = TRUE_SIZE_SPACE
     rec.add_view(view)
     if not xy:
         return rec.sheet(0.0, 0.0, title=mech.title)

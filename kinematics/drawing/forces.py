@@ -29,7 +29,7 @@ from dataclasses import replace
 from ..groups.steps import Component, Role
 from .panes import polygon_pane
 from .scaling import plain
-from .sheet import Arrow, Line, Recorder, Ref, Sheet, Text, View
+from .sheet import TRUE_SIZE_SPACE, Arrow, Line, Recorder, Ref, Sheet, Text, View
 from .style import CORIOLIS, DIRECTION, FLAGGED, IMAGE, KNOWN, NUMERIC, RESULT, Pen
 from .symbols import Symbols, arrow
 
@@ -132,7 +132,7 @@ def line_of_action_pane(made, step_id: str, size: Symbols) -> Sheet:
     space diagram; empty when the step has none (or there is no such step)."""
     rec = Recorder()
     mech = made.construction.solution.mechanism
-    view = View("space", (0.0, 0.0, 0.0, 0.0), (0.0, 0.0), 1000.0, "m", "1:1")
+    view = TRUE_SIZE_SPACE
     rec.add_view(view)
     step = next((s for s in made.polygon.steps if s.id == step_id), None)
     if step is not None:

@@ -30,7 +30,7 @@ from .annotate import printed_unit, scale_bar
 from .declutter import declutter, text_box
 from .polygons import draw_polygon, polygon_bounds
 from .scaling import bar_value, plain
-from .sheet import Polyline, Recorder, Ref, Sheet, Text, View
+from .sheet import TRUE_SIZE_SPACE, Polyline, Recorder, Ref, Sheet, Text, View
 from .space import draw_linkage, draw_paths, file_positions, positions, traced_points
 from .style import CENTRODE_FIXED, CENTRODE_MOVING, pen_for
 from .symbols import Symbols, label
@@ -66,9 +66,9 @@ def space_pane(mech, solution, size: Symbols, draft: bool = False, length_unit: 
     xy = positions(solution) if solution is not None else file_positions(mech)
     rec = Recorder(draft=draft)
     if not xy:
-        rec.add_view(View("space", (0.0, 0.0, 0.0, 0.0), (0.0, 0.0), 1000.0, "m", "1:1"))
+        rec.add_view(TRUE_SIZE_SPACE)
         return rec.sheet(0.0, 0.0, title=mech.title)
-    view = View("space", (0.0, 0.0, 0.0, 0.0), (0.0, 0.0), 1000.0, "m", "1:1")
+    view = TRUE_SIZE_SPACE
     draw_linkage(rec, mech, xy, view, size)
     reference = _bounds([view.place(mech.position_m(n)) for n in mech.points])
     design_mm = max(1e3 * mech.size * mech.metres_per_unit, 1.0)
@@ -103,7 +103,7 @@ def centrodes_pane(found, solution, size: Symbols, marks=()) -> Sheet:
     space diagram's labels and pins) and of each other."""
     rec = Recorder()
     rec.marks.extend(("space", box) for box in marks)
-    view = View("space", (0.0, 0.0, 0.0, 0.0), (0.0, 0.0), 1000.0, "m", "1:1")
+    view = TRUE_SIZE_SPACE
     rec.add_view(view)
     mech = solution.mechanism
     first, second = (complex(*solution.position(p)) for p in mech.links[found.link][:2])

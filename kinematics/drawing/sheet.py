@@ -175,6 +175,11 @@ class View:
         return (x, y)
 
 
+# The space diagram laid over a window's own at true size: sheet mm = machine mm, the file's origin
+# kept (the overlays of centres, centrodes, dimensions and forces, and the window's space pane).
+TRUE_SIZE_SPACE = View("space", (0.0, 0.0, 0.0, 0.0), (0.0, 0.0), 1000.0, "m", "1:1")
+
+
 @dataclass(frozen=True)
 class Sheet:
     """A finished drawing: size in mm (0 × 0 for an unbounded model drawing),
